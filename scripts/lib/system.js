@@ -1,0 +1,88 @@
+// Machine setup shared by `npm start` and `npm test`: npm packages, Debian packages, and running
+// commands as the `postgres` user. Uses only Node's standard library, so it runs before `npm ci`.
+import { spawnSync } from 'node:child_process';
+import { existsSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+
+export const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
+
+/** Prints a step the way both commands do. */
+export function step(message) {
+	console.log(`\x1b[1m›\x1b[0m ${message}`);
+}
+
+/**
+ * Runs a command to completion, inheriting the terminal, and throws on a non-zero exit.
+ * @param {string} command
+ * @param {string[]} args
+ * @param {import('node:child_process').SpawnSyncOptions} [options]
+ */
+export function run(command, args, options = {}) {
+	const result = spawnSync(command, args, { stdio: 'inherit', cwd: root, ...options });
+	if (result.error) throw result.error;
+	if (result.status !== 0) {
+		throw new Error(`${command} ${args.join(' ')} exited with ${result.status ?? result.signal}`);
+	}
+	return result;
+}
+
+/** Runs a command and returns its trimmed stdout, or null when it fails. */
+export function capture(command, args, options = {}) {
+	const result = spawnSync(command, args, { cwd: root, encoding: 'utf8', ...options });
+	if (result.error || result.status !== 0) return null;
+	return String(result.stdout).trim();
+}
+
+/** `npm ci` when node_modules is missing or older than the lock file. */
+export function ensurePackages() {
+	const marker = path.join(root, 'node_modules', '.package-lock.json');
+	const lock = path.join(root, 'package-lock.json');
+	if (existsSync(marker) && statSync(marker).mtimeMs >= statSync(lock).mtimeMs) return;
+	step('Installing npm packages (npm ci)');
+	run('npm', ['ci', '--no-audit', '--no-fund']);
+}
+
+/**
+ * Installs Debian packages with apt-get. As root it runs apt-get directly; otherwise through
+ * sudo when sudo is there, and else stops with the command to run.
+ * @param {string[]} packages
+ */
+export function aptInstall(packages) {
+	const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+	if (!isRoot && !capture('sh', ['-c', 'command -v sudo'])) {
+		throw new Error(
+			`Missing Debian packages: ${packages.join(' ')}. Run as root: apt-get install -y ${packages.join(' ')}`
+		);
+	}
+	step(`Installing ${packages.join(', ')} from Debian's packages`);
+	const [cmd, ...head] = isRoot ? ['apt-get'] : ['sudo', '-E', 'apt-get'];
+	run(cmd, [...head, 'update'], { env });
+	run(cmd, [...head, 'install', '-y', '--no-install-recommends', ...packages], { env });
+}
+
+/**
+ * Runs a command as the `postgres` user when we are root (PostgreSQL refuses to run as root),
+ * and as ourselves otherwise.
+ * @param {string} command
+ * @param {string[]} args
+ * @param {import('node:child_process').SpawnSyncOptions & { quiet?: boolean }} [options]
+ */
+export function runAsPostgres(command, args, options = {}) {
+	const { quiet, ...rest } = options;
+	const full = isRoot ? ['runuser', ['-u', 'postgres', '--', command, ...args]] : [command, args];
+	return run(full[0], /** @type {string[]} */ (full[1]), {
+		...rest,
+		stdio: quiet ? ['ignore', 'pipe', 'pipe'] : 'inherit'
+	});
+}
+
+/** The Chromium that Playwright drives: Debian's, installed with apt-get when missing. */
+export function ensureChromium() {
+	const executable = process.env.CHROMIUM_PATH || '/usr/bin/chromium';
+	if (existsSync(executable)) return executable;
+	aptInstall(['chromium']);
+	return executable;
+}

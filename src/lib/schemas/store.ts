@@ -1,0 +1,26 @@
+import { z } from 'zod';
+import { email, optionalEmail, phone, requiredText } from './fields';
+
+export const ROLE_VALUES = ['owner', 'manager', 'sales', 'installer'] as const;
+
+export const createStoreSchema = z.object({
+	name: requiredText("Enter the store's name", 80)
+});
+
+export const storeProfileSchema = z.object({
+	name: requiredText("Enter the store's name", 80),
+	address: z.string().trim().max(200, 'Keep it under 200 characters').default(''),
+	town: z.string().trim().max(100, 'Keep it under 100 characters').default(''),
+	phone: phone.transform((v) => v ?? ''),
+	email: optionalEmail.transform((v) => v ?? '')
+});
+
+export const inviteSchema = z.object({
+	email,
+	role: z.enum(ROLE_VALUES, { error: 'Choose a role' })
+});
+
+export const memberRoleSchema = z.object({
+	memberId: z.string().min(1),
+	role: z.enum(ROLE_VALUES, { error: 'Choose a role' })
+});

@@ -1,0 +1,110 @@
+import { and, asc, count, desc, eq, ilike, or, type SQL } from 'drizzle-orm';
+import type { CustomerInput, CustomerListQuery } from '../../../schemas/customer';
+import { customer, job } from '../schema';
+import { inStore } from '../tenant';
+
+export type Customer = typeof customer.$inferSelect;
+
+const sortColumns = {
+	name: customer.name,
+	created: customer.createdAt,
+	updated: customer.updatedAt
+} as const;
+
+/** Escapes LIKE wildcards in user text. */
+export function likePattern(text: string): string {
+	return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+}
+
+/** A page of the store's customers, filtered by name, e-mail or phone. */
+export async function list(storeId: string, query: CustomerListQuery) {
+	const filters: SQL[] = [eq(customer.organizationId, storeId)];
+	if (query.q) {
+		const pattern = likePattern(query.q);
+		filters.push(
+			or(
+				ilike(customer.name, pattern),
+				ilike(customer.email, pattern),
+				ilike(customer.phone, pattern)
+			) as SQL
+		);
+	}
+	const where = and(...filters);
+	const order = query.dir === 'asc' ? asc : desc;
+	return inStore(storeId, async (tx) => {
+		const [rows, [{ total }]] = await Promise.all([
+			tx
+				.select()
+				.from(customer)
+				.where(where)
+				.orderBy(order(sortColumns[query.sort]), asc(customer.id))
+				.limit(query.pageSize)
+				.offset((query.page - 1) * query.pageSize),
+			tx.select({ total: count() }).from(customer).where(where)
+		]);
+		return { rows, total };
+	});
+}
+
+export async function read(storeId: string, id: string): Promise<Customer | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select()
+			.from(customer)
+			.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)));
+		return row;
+	});
+}
+
+export async function create(storeId: string, input: CustomerInput): Promise<Customer> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.insert(customer)
+			.values({ ...input, organizationId: storeId })
+			.returning();
+		return row;
+	});
+}
+
+export async function update(
+	storeId: string,
+	id: string,
+	input: Partial<CustomerInput>
+): Promise<Customer | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.update(customer)
+			.set({ ...input, updatedAt: new Date() })
+			.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)))
+			.returning();
+		return row;
+	});
+}
+
+/**
+ * Deletes a customer that has no jobs. A customer with jobs is kept (the jobs' history needs
+ * them): the answer says so.
+ */
+export async function remove(
+	storeId: string,
+	id: string
+): Promise<'deleted' | 'not_found' | 'has_jobs'> {
+	return inStore(storeId, async (tx) => {
+		const [{ jobs }] = await tx
+			.select({ jobs: count() })
+			.from(job)
+			.where(and(eq(job.organizationId, storeId), eq(job.customerId, id)));
+		if (jobs > 0) {
+			const [exists] = await tx
+				.select({ id: customer.id })
+				.from(customer)
+				.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)));
+			return exists ? 'has_jobs' : 'not_found';
+		}
+		const deleted = await tx
+			.delete(customer)
+			.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)))
+			.returning({ id: customer.id });
+		return deleted.length ? 'deleted' : 'not_found';
+	});
+}

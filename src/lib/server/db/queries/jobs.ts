@@ -1,0 +1,322 @@
+import { and, asc, count, desc, eq, ilike, max, or, sql, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import { canMove, type JobStatus } from '../../../jobs/status';
+import type { JobListQuery } from '../../../schemas/job';
+import type { Role } from '../../permissions';
+import { customer, job, jobEvent, member, user } from '../schema';
+import { inStore, type Tx } from '../tenant';
+import { likePattern } from './customers';
+
+export type Job = typeof job.$inferSelect;
+
+/** Who is looking: installers see only the jobs assigned to them. */
+export interface JobViewer {
+	userId: string;
+	role: Role;
+}
+
+const installer = alias(user, 'installer');
+const salesperson = alias(user, 'salesperson');
+
+function viewerFilter(viewer: JobViewer): SQL | undefined {
+	return viewer.role === 'installer' ? eq(job.installerId, viewer.userId) : undefined;
+}
+
+const jobColumns = {
+	id: job.id,
+	number: job.number,
+	title: job.title,
+	status: job.status,
+	customerId: job.customerId,
+	customerName: customer.name,
+	customerPhone: customer.phone,
+	installerId: job.installerId,
+	installerName: installer.name,
+	salespersonId: job.salespersonId,
+	salespersonName: salesperson.name,
+	notes: job.notes,
+	statusChangedAt: job.statusChangedAt,
+	updatedAt: job.updatedAt,
+	createdAt: job.createdAt
+};
+
+const sortColumns = {
+	number: job.number,
+	status: job.status,
+	updated: job.updatedAt,
+	customer: customer.name
+} as const;
+
+/** The job columns every view uses, with the customer's and people's names. */
+function selectJobs(tx: Tx) {
+	return tx
+		.select(jobColumns)
+		.from(job)
+		.innerJoin(
+			customer,
+			and(eq(customer.id, job.customerId), eq(customer.organizationId, job.organizationId))
+		)
+		.leftJoin(installer, eq(installer.id, job.installerId))
+		.leftJoin(salesperson, eq(salesperson.id, job.salespersonId));
+}
+
+/** A page of the store's jobs as the viewer may see them. */
+export async function list(
+	storeId: string,
+	query: JobListQuery & { customerId?: string; salespersonId?: string },
+	viewer: JobViewer
+) {
+	const filters = [eq(job.organizationId, storeId), viewerFilter(viewer)];
+	if (query.status) filters.push(eq(job.status, query.status));
+	if (query.customerId) filters.push(eq(job.customerId, query.customerId));
+	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
+	if (query.q) {
+		const pattern = likePattern(query.q);
+		const asNumber = /^j?-?(\d{1,9})$/i.exec(query.q)?.[1];
+		filters.push(
+			or(
+				ilike(job.title, pattern),
+				ilike(customer.name, pattern),
+				asNumber ? eq(job.number, Number(asNumber)) : undefined
+			) as SQL
+		);
+	}
+	const where = and(...filters);
+	const order = query.dir === 'asc' ? asc : desc;
+	return inStore(storeId, async (tx) => {
+		const [rows, [{ total }]] = await Promise.all([
+			selectJobs(tx)
+				.where(where)
+				.orderBy(order(sortColumns[query.sort]), desc(job.number))
+				.limit(query.pageSize)
+				.offset((query.page - 1) * query.pageSize),
+			tx
+				.select({ total: count() })
+				.from(job)
+				.innerJoin(
+					customer,
+					and(eq(customer.id, job.customerId), eq(customer.organizationId, job.organizationId))
+				)
+				.where(where)
+		]);
+		return { rows, total };
+	});
+}
+
+export type JobRow = Awaited<ReturnType<typeof list>>['rows'][number];
+
+/** One job with its people, or undefined when it is not the store's or not the viewer's. */
+export async function read(storeId: string, id: string, viewer: JobViewer) {
+	return inStore(storeId, async (tx) => {
+		const [row] = await selectJobs(tx).where(
+			and(eq(job.organizationId, storeId), eq(job.id, id), viewerFilter(viewer))
+		);
+		return row;
+	});
+}
+
+/** Counts of the viewer's jobs per status. */
+export async function countByStatus(storeId: string, viewer: JobViewer) {
+	return inStore(storeId, async (tx) => {
+		const rows = await tx
+			.select({ status: job.status, n: count() })
+			.from(job)
+			.where(and(eq(job.organizationId, storeId), viewerFilter(viewer)))
+			.groupBy(job.status);
+		return Object.fromEntries(rows.map((r) => [r.status, r.n])) as Partial<
+			Record<JobStatus, number>
+		>;
+	});
+}
+
+/**
+ * Creates a draft job for a customer of the same store. Returns undefined when the customer is
+ * not the store's. Numbers are per store: a transaction lock on the store serialises concurrent
+ * creates, so two people never get the same number.
+ */
+export async function create(
+	storeId: string,
+	input: { customerId: string; title: string; notes?: string },
+	actorId: string
+): Promise<Job | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [owner] = await tx
+			.select({ id: customer.id })
+			.from(customer)
+			.where(and(eq(customer.organizationId, storeId), eq(customer.id, input.customerId)));
+		if (!owner) return undefined;
+		await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`job-number:${storeId}`}))`);
+		const [{ last }] = await tx
+			.select({ last: max(job.number) })
+			.from(job)
+			.where(eq(job.organizationId, storeId));
+		const [row] = await tx
+			.insert(job)
+			.values({
+				organizationId: storeId,
+				number: (last ?? 1000) + 1,
+				customerId: input.customerId,
+				title: input.title,
+				notes: input.notes ?? '',
+				salespersonId: actorId
+			})
+			.returning();
+		await tx.insert(jobEvent).values({
+			organizationId: storeId,
+			jobId: row.id,
+			kind: 'created',
+			toStatus: row.status,
+			actorId
+		});
+		return row;
+	});
+}
+
+export async function update(
+	storeId: string,
+	id: string,
+	input: { title?: string; notes?: string }
+): Promise<Job | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.update(job)
+			.set({ ...input, updatedAt: new Date() })
+			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+			.returning();
+		return row;
+	});
+}
+
+export type MoveResult =
+	| { ok: true; job: Job }
+	| { ok: false; reason: 'not_found' }
+	| { ok: false; reason: 'not_allowed'; from: JobStatus };
+
+/**
+ * Moves a job to another status when the state machine allows it, recording who and why. The
+ * row is locked for the check, so two people moving the same job cannot both succeed.
+ */
+export async function move(
+	storeId: string,
+	id: string,
+	to: JobStatus,
+	actorId: string | null,
+	note = ''
+): Promise<MoveResult> {
+	return inStore(storeId, async (tx) => {
+		const [current] = await tx
+			.select({ status: job.status })
+			.from(job)
+			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+			.for('update');
+		if (!current) return { ok: false, reason: 'not_found' };
+		if (!canMove(current.status, to)) {
+			return { ok: false, reason: 'not_allowed', from: current.status };
+		}
+		const now = new Date();
+		const [row] = await tx
+			.update(job)
+			.set({ status: to, statusChangedAt: now, updatedAt: now })
+			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+			.returning();
+		await tx.insert(jobEvent).values({
+			organizationId: storeId,
+			jobId: id,
+			kind: 'status',
+			fromStatus: current.status,
+			toStatus: to,
+			actorId,
+			note
+		});
+		return { ok: true, job: row };
+	});
+}
+
+/** The store's members with the installer role, for assigning jobs. */
+export async function listInstallers(storeId: string) {
+	return inStore(storeId, (tx) =>
+		tx
+			.select({ id: user.id, name: user.name, email: user.email })
+			.from(member)
+			.innerJoin(user, eq(user.id, member.userId))
+			.where(and(eq(member.organizationId, storeId), eq(member.role, 'installer')))
+			.orderBy(asc(user.name))
+	);
+}
+
+export type AssignResult = 'assigned' | 'not_found' | 'not_an_installer';
+
+/** Assigns (or, with null, unassigns) an installer who is a member of the same store. */
+export async function assign(
+	storeId: string,
+	id: string,
+	installerId: string | null,
+	actorId: string
+): Promise<AssignResult> {
+	return inStore(storeId, async (tx) => {
+		if (installerId) {
+			const [m] = await tx
+				.select({ id: member.id })
+				.from(member)
+				.where(
+					and(
+						eq(member.organizationId, storeId),
+						eq(member.userId, installerId),
+						eq(member.role, 'installer')
+					)
+				);
+			if (!m) return 'not_an_installer';
+		}
+		const updated = await tx
+			.update(job)
+			.set({ installerId, updatedAt: new Date() })
+			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+			.returning({ id: job.id });
+		if (!updated.length) return 'not_found';
+		await tx.insert(jobEvent).values({
+			organizationId: storeId,
+			jobId: id,
+			kind: 'assigned',
+			actorId,
+			note: installerId ?? ''
+		});
+		return 'assigned';
+	});
+}
+
+/** Deletes a draft or cancelled job; others are kept for their history. */
+export async function remove(
+	storeId: string,
+	id: string
+): Promise<'deleted' | 'not_found' | 'not_draft'> {
+	return inStore(storeId, async (tx) => {
+		const [current] = await tx
+			.select({ status: job.status })
+			.from(job)
+			.where(and(eq(job.organizationId, storeId), eq(job.id, id)));
+		if (!current) return 'not_found';
+		if (current.status !== 'draft' && current.status !== 'cancelled') return 'not_draft';
+		await tx.delete(job).where(and(eq(job.organizationId, storeId), eq(job.id, id)));
+		return 'deleted';
+	});
+}
+
+/** A job's history, newest first, with who did each step. */
+export async function events(storeId: string, jobId: string) {
+	return inStore(storeId, (tx) =>
+		tx
+			.select({
+				id: jobEvent.id,
+				kind: jobEvent.kind,
+				fromStatus: jobEvent.fromStatus,
+				toStatus: jobEvent.toStatus,
+				note: jobEvent.note,
+				createdAt: jobEvent.createdAt,
+				actorName: user.name
+			})
+			.from(jobEvent)
+			.leftJoin(user, eq(user.id, jobEvent.actorId))
+			.where(and(eq(jobEvent.organizationId, storeId), eq(jobEvent.jobId, jobId)))
+			.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`))
+	);
+}

@@ -1,0 +1,184 @@
+import { and, asc, desc, eq, gt, isNotNull, type SQL } from 'drizzle-orm';
+import { isRole, type Role } from '../../permissions';
+import { db } from '../index';
+import { invitation, member, organization, session, storeProfile, user } from '../schema';
+import { inStore } from '../tenant';
+
+export interface Membership {
+	memberId: string;
+	role: Role;
+	store: { id: string; name: string; slug: string; logo: string | null };
+}
+
+const membershipColumns = {
+	memberId: member.id,
+	role: member.role,
+	id: organization.id,
+	name: organization.name,
+	slug: organization.slug,
+	logo: organization.logo
+};
+
+function toMembership(row: {
+	memberId: string;
+	role: string;
+	id: string;
+	name: string;
+	slug: string;
+	logo: string | null;
+}): Membership | null {
+	if (!isRole(row.role)) return null;
+	return {
+		memberId: row.memberId,
+		role: row.role,
+		store: { id: row.id, name: row.name, slug: row.slug, logo: row.logo }
+	};
+}
+
+/** Every store the user belongs to, by name. */
+export async function listMemberships(userId: string): Promise<Membership[]> {
+	return memberships(userId, asc(organization.name));
+}
+
+/**
+ * The store a new session starts in: where the user last worked (their latest session with a
+ * store), else the store they joined first.
+ */
+export async function defaultMembership(userId: string): Promise<Membership | null> {
+	const [last] = await db
+		.select({ storeId: session.activeOrganizationId })
+		.from(session)
+		.where(and(eq(session.userId, userId), isNotNull(session.activeOrganizationId)))
+		.orderBy(desc(session.updatedAt))
+		.limit(1);
+	if (last?.storeId) {
+		const membership = await readMembership(userId, last.storeId);
+		if (membership) return membership;
+	}
+	const [first] = await memberships(userId, asc(member.createdAt));
+	return first ?? null;
+}
+
+async function memberships(userId: string, order: SQL): Promise<Membership[]> {
+	const rows = await db
+		.select(membershipColumns)
+		.from(member)
+		.innerJoin(organization, eq(organization.id, member.organizationId))
+		.where(eq(member.userId, userId))
+		.orderBy(order);
+	return rows.map(toMembership).filter((m): m is Membership => m !== null);
+}
+
+/** The user's membership of one store, if any. */
+export async function readMembership(userId: string, storeId: string): Promise<Membership | null> {
+	const [row] = await db
+		.select(membershipColumns)
+		.from(member)
+		.innerJoin(organization, eq(organization.id, member.organizationId))
+		.where(and(eq(member.userId, userId), eq(member.organizationId, storeId)));
+	return row ? toMembership(row) : null;
+}
+
+export type StoreProfile = typeof storeProfile.$inferSelect;
+
+/** The store's contact details; empty ones when never saved. */
+export async function readProfile(storeId: string) {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select()
+			.from(storeProfile)
+			.where(eq(storeProfile.organizationId, storeId));
+		return row ?? { organizationId: storeId, address: '', town: '', phone: '', email: '' };
+	});
+}
+
+export async function saveProfile(
+	storeId: string,
+	input: { address: string; town: string; phone: string; email: string }
+) {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.insert(storeProfile)
+			.values({ organizationId: storeId, ...input })
+			.onConflictDoUpdate({
+				target: storeProfile.organizationId,
+				set: { ...input, updatedAt: new Date() }
+			})
+			.returning();
+		return row;
+	});
+}
+
+/** An invitation with its store and inviter, for the invitation page (no session needed). */
+export async function readInvitation(id: string) {
+	const [row] = await db
+		.select({
+			id: invitation.id,
+			email: invitation.email,
+			role: invitation.role,
+			status: invitation.status,
+			expiresAt: invitation.expiresAt,
+			storeId: organization.id,
+			storeName: organization.name,
+			inviterName: user.name
+		})
+		.from(invitation)
+		.innerJoin(organization, eq(organization.id, invitation.organizationId))
+		.innerJoin(user, eq(user.id, invitation.inviterId))
+		.where(eq(invitation.id, id));
+	return row;
+}
+
+/** Open invitations addressed to an e-mail, for the store chooser. */
+export async function listOpenInvitations(email: string) {
+	return db
+		.select({
+			id: invitation.id,
+			role: invitation.role,
+			expiresAt: invitation.expiresAt,
+			storeName: organization.name
+		})
+		.from(invitation)
+		.innerJoin(organization, eq(organization.id, invitation.organizationId))
+		.where(
+			and(
+				eq(invitation.email, email.toLowerCase()),
+				eq(invitation.status, 'pending'),
+				gt(invitation.expiresAt, new Date())
+			)
+		)
+		.orderBy(asc(organization.name));
+}
+
+/** The store's members with their logins, by name. */
+export async function listMembers(storeId: string) {
+	return db
+		.select({
+			memberId: member.id,
+			userId: user.id,
+			name: user.name,
+			email: user.email,
+			role: member.role,
+			since: member.createdAt
+		})
+		.from(member)
+		.innerJoin(user, eq(user.id, member.userId))
+		.where(eq(member.organizationId, storeId))
+		.orderBy(asc(user.name));
+}
+
+/** The store's invitations that are still open or lapsed unused, newest first. */
+export async function listInvitations(storeId: string) {
+	return db
+		.select({
+			id: invitation.id,
+			email: invitation.email,
+			role: invitation.role,
+			status: invitation.status,
+			expiresAt: invitation.expiresAt,
+			createdAt: invitation.createdAt
+		})
+		.from(invitation)
+		.where(and(eq(invitation.organizationId, storeId), eq(invitation.status, 'pending')))
+		.orderBy(desc(invitation.createdAt));
+}
