@@ -1,0 +1,91 @@
+/** One e-mail ready to send: what the mailer and the outbox both understand. */
+export interface Mail {
+	to: string;
+	subject: string;
+	html: string;
+	text: string;
+	/** Display name on the From line: the store's name on anything a store sends. */
+	fromName?: string;
+	replyTo?: string;
+}
+
+const escapes: Record<string, string> = {
+	'&': '&amp;',
+	'<': '&lt;',
+	'>': '&gt;',
+	'"': '&quot;',
+	"'": '&#39;'
+};
+
+/** Escapes text for HTML e-mail bodies. */
+export function escapeHtml(value: string): string {
+	return value.replace(/[&<>"']/g, (c) => escapes[c]);
+}
+
+/** A plain, readable e-mail layout: a heading, paragraphs and one button. */
+function layout(options: {
+	heading: string;
+	paragraphs: string[];
+	action: { label: string; url: string };
+	footer: string;
+}): { html: string; text: string } {
+	const { heading, paragraphs, action, footer } = options;
+	const html = `<!doctype html><html><body style="margin:0;background:#faf8f4;font-family:Manrope,Segoe UI,Helvetica,Arial,sans-serif;color:#26323d">
+<div style="max-width:560px;margin:0 auto;padding:32px 24px">
+<h1 style="font-size:22px;margin:0 0 16px">${escapeHtml(heading)}</h1>
+${paragraphs.map((p) => `<p style="font-size:16px;line-height:1.55;margin:0 0 14px">${escapeHtml(p)}</p>`).join('\n')}
+<p style="margin:24px 0"><a href="${escapeHtml(action.url)}" style="display:inline-block;background:#a9652c;color:#fff;text-decoration:none;font-weight:700;padding:12px 20px;border-radius:8px">${escapeHtml(action.label)}</a></p>
+<p style="font-size:13px;color:#566879;margin:0 0 6px">Or open this address: ${escapeHtml(action.url)}</p>
+<p style="font-size:13px;color:#566879;margin:24px 0 0">${escapeHtml(footer)}</p>
+</div></body></html>`;
+	const text = [heading, '', ...paragraphs, '', `${action.label}: ${action.url}`, '', footer].join(
+		'\n'
+	);
+	return { html, text };
+}
+
+/** The invitation a store owner sends to a new member. */
+export function invitationMail(input: {
+	to: string;
+	storeName: string;
+	inviterName: string;
+	roleLabel: string;
+	url: string;
+	expiresAt: Date;
+}): Mail {
+	const expires = input.expiresAt.toLocaleDateString('en-US', {
+		dateStyle: 'long',
+		timeZone: 'UTC'
+	});
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		subject: `${input.inviterName} invited you to ${input.storeName}`,
+		...layout({
+			heading: `Join ${input.storeName}`,
+			paragraphs: [
+				`${input.inviterName} has invited you to work with ${input.storeName} as ${input.roleLabel}.`,
+				`Open the invitation to create your login, or sign in if you already have one. The invitation is good until ${expires}.`
+			],
+			action: { label: 'Open the invitation', url: input.url },
+			footer: `If you did not expect this, you can ignore this e-mail.`
+		})
+	};
+}
+
+/** A password reset link. */
+export function passwordResetMail(input: { to: string; name: string; url: string }): Mail {
+	return {
+		to: input.to,
+		subject: 'Reset your password',
+		...layout({
+			heading: 'Reset your password',
+			paragraphs: [
+				`Hello ${input.name},`,
+				'Someone asked to reset the password for this e-mail address. The link works once, for one hour.'
+			],
+			action: { label: 'Choose a new password', url: input.url },
+			footer: 'If you did not ask for this, ignore this e-mail: your password stays as it is.'
+		})
+	};
+}
