@@ -1,0 +1,12 @@
+import { list } from '$lib/server/db/queries/customers';
+import { requirePermission } from '$lib/server/guards';
+import { customerListSchema } from '$lib/schemas/customer';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ url }) => {
+	const { store } = requirePermission({ customer: ['read'] });
+	const parsed = customerListSchema.safeParse(Object.fromEntries(url.searchParams));
+	const query = parsed.success ? parsed.data : customerListSchema.parse({});
+	const { rows, total } = await list(store.id, query);
+	return { rows, total, query };
+};

@@ -1,0 +1,17 @@
+import { list } from '$lib/server/db/queries/jobs';
+import { requirePermission } from '$lib/server/guards';
+import { jobListSchema } from '$lib/schemas/job';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ url }) => {
+	const { store, user, role } = requirePermission({ job: ['read'] });
+	const parsed = jobListSchema.safeParse(Object.fromEntries(url.searchParams));
+	const query = parsed.success ? parsed.data : jobListSchema.parse({});
+	const mine = url.searchParams.get('mine') === '1';
+	const { rows, total } = await list(
+		store.id,
+		{ ...query, salespersonId: mine ? user.id : undefined },
+		{ userId: user.id, role }
+	);
+	return { rows, total, query, mine };
+};

@@ -1,0 +1,76 @@
+import * as jobs from '$lib/server/db/queries/jobs';
+import { parseForm } from '$lib/server/forms';
+import { requirePermission } from '$lib/server/guards';
+import { can } from '$lib/server/permissions';
+import { nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
+import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
+import { error, fail, redirect } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params }) => {
+	const { store, user, role } = requirePermission({ job: ['read'] });
+	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	if (!job) error(404, 'Not found');
+	const canSchedule = can(role, { job: ['schedule'] });
+	const canAssign = can(role, { job: ['assign'] });
+	const [history, installers] = await Promise.all([
+		jobs.events(store.id, job.id),
+		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([])
+	]);
+	return {
+		job,
+		history,
+		installers,
+		moves: canSchedule ? nextStatuses(job.status) : [],
+		canAssign,
+		canEdit: can(role, { job: ['update'] }),
+		canDelete:
+			can(role, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')
+	};
+};
+
+export const actions: Actions = {
+	save: async ({ request, params }) => {
+		const { store } = requirePermission({ job: ['update'] });
+		const parsed = await parseForm(request, jobUpdateSchema);
+		if (!parsed.ok) return parsed.failure;
+		const row = await jobs.update(store.id, params.id, parsed.data);
+		if (!row) error(404, 'Not found');
+		return { saved: true };
+	},
+	move: async ({ request, params }) => {
+		const { store, user } = requirePermission({ job: ['schedule'] });
+		const parsed = await parseForm(request, jobMoveSchema);
+		if (!parsed.ok) return parsed.failure;
+		const result = await jobs.move(store.id, params.id, parsed.data.to, user.id, parsed.data.note);
+		if (!result.ok && result.reason === 'not_found') error(404, 'Not found');
+		if (!result.ok && result.reason === 'not_allowed') {
+			return fail(409, {
+				moveError: `A ${JOB_STATUS_LABELS[result.from].toLowerCase()} job cannot become ${JOB_STATUS_LABELS[parsed.data.to].toLowerCase()}. The page shows the moves it allows.`
+			});
+		}
+		return { moved: true };
+	},
+	assign: async ({ request, params }) => {
+		const { store, user } = requirePermission({ job: ['assign'] });
+		const parsed = await parseForm(request, jobAssignSchema);
+		if (!parsed.ok) return parsed.failure;
+		const result = await jobs.assign(store.id, params.id, parsed.data.installerId, user.id);
+		if (result === 'not_found') error(404, 'Not found');
+		if (result === 'not_an_installer') {
+			return fail(400, { assignError: 'Choose one of the store’s installers.' });
+		}
+		return { assigned: true };
+	},
+	delete: async ({ params }) => {
+		const { store } = requirePermission({ job: ['delete'] });
+		const result = await jobs.remove(store.id, params.id);
+		if (result === 'not_found') error(404, 'Not found');
+		if (result === 'not_draft') {
+			return fail(409, {
+				deleteError: 'Only draft or cancelled jobs can be deleted; others keep their history.'
+			});
+		}
+		redirect(303, '/app/jobs');
+	}
+};

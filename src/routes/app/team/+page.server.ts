@@ -1,0 +1,92 @@
+import { auth } from '$lib/server/auth';
+import { authFailure } from '$lib/server/auth-errors';
+import { listInvitations, listMembers } from '$lib/server/db/queries/stores';
+import { parseForm, refuse } from '$lib/server/forms';
+import { requireRole } from '$lib/server/guards';
+import { isRole, ROLE_LABELS, ROLES } from '$lib/server/permissions';
+import { inviteSchema, memberRoleSchema } from '$lib/schemas/store';
+import { error, fail } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async () => {
+	const { store, user } = requireRole('owner');
+	const [members, invitations] = await Promise.all([
+		listMembers(store.id),
+		listInvitations(store.id)
+	]);
+	const now = Date.now();
+	return {
+		me: user.id,
+		members: members.map((m) => ({
+			...m,
+			roleLabel: isRole(m.role) ? ROLE_LABELS[m.role] : m.role
+		})),
+		invitations: invitations.map((i) => ({
+			...i,
+			roleLabel: isRole(i.role) ? ROLE_LABELS[i.role] : (i.role ?? ''),
+			expired: i.expiresAt.getTime() < now
+		})),
+		roles: ROLES.map((r) => ({ value: r, label: ROLE_LABELS[r] }))
+	};
+};
+
+/** A member or invitation id must belong to this store, or it is 404 (never another store's). */
+async function ownMember(storeId: string, memberId: string) {
+	const members = await listMembers(storeId);
+	if (!members.some((m) => m.memberId === memberId)) error(404, 'Not found');
+}
+
+export const actions: Actions = {
+	invite: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const parsed = await parseForm(request, inviteSchema);
+		if (!parsed.ok) return parsed.failure;
+		try {
+			await auth.api.createInvitation({
+				headers: request.headers,
+				body: { email: parsed.data.email, role: parsed.data.role, organizationId: store.id }
+			});
+		} catch (e) {
+			const failure = authFailure(e);
+			return refuse(parsed.form, { [failure.field ?? 'email']: [failure.message] });
+		}
+		return { invited: parsed.data.email };
+	},
+	cancel: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const id = String((await request.formData()).get('invitationId') ?? '');
+		const open = await listInvitations(store.id);
+		if (!open.some((i) => i.id === id)) error(404, 'Not found');
+		await auth.api.cancelInvitation({ headers: request.headers, body: { invitationId: id } });
+		return { cancelled: true };
+	},
+	role: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const parsed = await parseForm(request, memberRoleSchema);
+		if (!parsed.ok) return fail(400, { memberError: 'Choose a role' });
+		await ownMember(store.id, parsed.data.memberId);
+		try {
+			await auth.api.updateMemberRole({
+				headers: request.headers,
+				body: { memberId: parsed.data.memberId, role: parsed.data.role, organizationId: store.id }
+			});
+		} catch (e) {
+			return fail(400, { memberError: authFailure(e).message });
+		}
+		return { roleSaved: true };
+	},
+	remove: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const memberId = String((await request.formData()).get('memberId') ?? '');
+		await ownMember(store.id, memberId);
+		try {
+			await auth.api.removeMember({
+				headers: request.headers,
+				body: { memberIdOrEmail: memberId, organizationId: store.id }
+			});
+		} catch (e) {
+			return fail(400, { memberError: authFailure(e).message });
+		}
+		return { removed: true };
+	}
+};
