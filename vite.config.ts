@@ -4,6 +4,14 @@ import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
 	plugins: [tailwindcss(), sveltekit()],
+	build: {
+		rollupOptions: {
+			// Vite 8 prints a plugin timing report on every build; it is noise for `npm start`.
+			onLog(level, log, handler) {
+				if (log.code !== 'PLUGIN_TIMINGS') handler(level, log);
+			}
+		}
+	},
 	test: {
 		expect: { requireAssertions: true },
 		projects: [
@@ -12,7 +20,7 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					environment: 'node',
-					include: ['src/**/*.spec.ts'],
+					include: ['src/**/*.spec.ts', 'mocks/**/*.spec.ts'],
 					exclude: ['src/**/*.db.spec.ts']
 				}
 			},
@@ -22,7 +30,10 @@ export default defineConfig({
 					name: 'integration',
 					environment: 'node',
 					include: ['src/**/*.db.spec.ts', 'tests/integration/**/*.spec.ts'],
-					fileParallelism: false
+					fileParallelism: false,
+					setupFiles: ['tests/integration/setup.ts'],
+					testTimeout: 20000,
+					hookTimeout: 20000
 				}
 			}
 		]

@@ -1,0 +1,221 @@
+// The demo: an invented store in an invented town, one login per role, customers and jobs.
+// Run by `npm start` when the database is empty, and by the end-to-end tests after a reset.
+//   tsx scripts/seed.ts            seed when there are no users yet
+//   tsx scripts/seed.ts --reset    empty every table first (needs DATABASE_OWNER_URL)
+import pg from 'pg';
+import demo from './demo-people.json' with { type: 'json' };
+import { createAuth } from '../src/lib/server/create-auth';
+import { db, pool } from '../src/lib/server/db/index';
+import * as customers from '../src/lib/server/db/queries/customers';
+import * as jobs from '../src/lib/server/db/queries/jobs';
+import { saveProfile } from '../src/lib/server/db/queries/stores';
+import type { JobStatus } from '../src/lib/jobs/status';
+import type { Role } from '../src/lib/server/permissions';
+
+export const DEMO_PASSWORD = demo.password;
+
+/** The demo's logins (`npm start` prints them from the same file). */
+export const DEMO_PEOPLE = demo.people as { name: string; email: string; role: Role }[];
+
+/** A second store in the next town, so one installer works for two stores. */
+const SECOND_STORE = {
+	name: 'Hollin Vale Tile House',
+	owner: { name: 'Ansel Marrow', email: 'owner@hollinvale.example' }
+};
+
+const CUSTOMERS = [
+	{
+		name: 'Greta Oakhurst',
+		email: 'greta.oakhurst@example.com',
+		phone: '555-0142',
+		notes: '1962 ranch; kitchen vinyl is original.'
+	},
+	{ name: 'Felix Brannagh', email: 'felix.b@example.com', phone: '555-0178', notes: '' },
+	{
+		name: 'Hana Ruskin',
+		email: 'hana.ruskin@example.com',
+		phone: '555-0119',
+		notes: 'Two dogs; gate code 4417.'
+	},
+	{ name: 'Otto & Lil Vanterpool', email: 'vanterpools@example.com', phone: '555-0163', notes: '' },
+	{
+		name: 'Marisol Quenby',
+		email: 'marisol.q@example.com',
+		phone: '555-0107',
+		notes: 'Prefers texts.'
+	},
+	{ name: 'Ivo Thistlewood', email: 'ivo.t@example.com', phone: '555-0191', notes: '' }
+];
+
+/** Jobs and the statuses they walk through (every state of PRODUCT.md appears once). */
+const JOBS: { customer: number; title: string; path: JobStatus[]; installer?: number }[] = [
+	{ customer: 0, title: 'Kitchen and hall, vinyl plank', path: [] },
+	{ customer: 1, title: 'Basement carpet', path: ['quoted'] },
+	{ customer: 2, title: 'Living room oak', path: ['quoted', 'accepted'] },
+	{ customer: 3, title: 'Two bedrooms, carpet', path: ['quoted', 'accepted', 'sold'] },
+	{
+		customer: 4,
+		title: 'Bathroom tile',
+		path: ['quoted', 'accepted', 'sold', 'scheduled'],
+		installer: 4
+	},
+	{
+		customer: 5,
+		title: 'Sunroom laminate',
+		path: ['quoted', 'accepted', 'sold', 'scheduled', 'in_progress'],
+		installer: 4
+	},
+	{
+		customer: 0,
+		title: 'Laundry sheet vinyl',
+		path: ['quoted', 'accepted', 'sold', 'scheduled', 'in_progress', 'completed'],
+		installer: 5
+	},
+	{
+		customer: 2,
+		title: 'Stair runner',
+		path: ['quoted', 'accepted', 'sold', 'scheduled', 'in_progress', 'completed', 'closed'],
+		installer: 5
+	},
+	{ customer: 1, title: 'Den engineered wood', path: ['quoted', 'cancelled'] }
+];
+
+const noMail = async () => ({ id: 'seed' });
+
+export async function seedDemo() {
+	const auth = createAuth({
+		db,
+		baseURL: process.env.ORIGIN ?? 'http://127.0.0.1:3000',
+		secret: process.env.BETTER_AUTH_SECRET ?? 'seed-only-secret-seed-only-secret!',
+		sendMail: noMail
+	});
+
+	const ids = new Map<string, string>();
+	for (const person of [...DEMO_PEOPLE, SECOND_STORE.owner]) {
+		const { user } = await auth.api.signUpEmail({
+			body: { name: person.name, email: person.email, password: DEMO_PASSWORD }
+		});
+		ids.set(person.email, user.id);
+	}
+	const ownerId = ids.get(DEMO_PEOPLE[0].email)!;
+
+	const store = await auth.api.createOrganization({
+		body: { name: 'Tallow Creek Floors', slug: 'tallow-creek-floors', userId: ownerId }
+	});
+	if (!store) throw new Error('The demo store was not created');
+	for (const person of DEMO_PEOPLE.slice(1)) {
+		await auth.api.addMember({
+			body: { userId: ids.get(person.email)!, role: person.role, organizationId: store.id }
+		});
+	}
+	await saveProfile(store.id, {
+		address: '418 Millrace Road',
+		town: 'Bramblefield',
+		phone: '555-0100',
+		email: 'desk@tallowcreek.example'
+	});
+
+	const second = await auth.api.createOrganization({
+		body: {
+			name: SECOND_STORE.name,
+			slug: 'hollin-vale-tile-house',
+			userId: ids.get(SECOND_STORE.owner.email)!
+		}
+	});
+	if (!second) throw new Error('The second demo store was not created');
+	// Rosa installs for both stores with one login.
+	await auth.api.addMember({
+		body: {
+			userId: ids.get('installer@tallowcreek.example')!,
+			role: 'installer',
+			organizationId: second.id
+		}
+	});
+	await saveProfile(second.id, {
+		address: '7 Weir Lane',
+		town: 'Hollin Vale',
+		phone: '555-0200',
+		email: ''
+	});
+
+	const customerIds: string[] = [];
+	for (const c of CUSTOMERS) customerIds.push((await customers.create(store.id, c)).id);
+	const sellers = [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!];
+	const managerId = ids.get('manager@tallowcreek.example')!;
+	for (const [n, j] of JOBS.entries()) {
+		const job = await jobs.create(
+			store.id,
+			{ customerId: customerIds[j.customer], title: j.title },
+			sellers[n % 2]
+		);
+		if (!job) throw new Error(`Demo job ${j.title} was not created`);
+		for (const to of j.path) {
+			if (to === 'scheduled' && j.installer !== undefined) {
+				await jobs.assign(store.id, job.id, ids.get(DEMO_PEOPLE[j.installer].email)!, managerId);
+			}
+			const moved = await jobs.move(store.id, job.id, to, managerId);
+			if (!moved.ok) throw new Error(`Demo job ${j.title} could not move to ${to}`);
+		}
+	}
+
+	const hollinCustomer = await customers.create(second.id, {
+		name: 'Pim Arkwright',
+		email: 'pim.arkwright@example.com',
+		phone: '555-0231',
+		notes: ''
+	});
+	const hollinJob = await jobs.create(
+		second.id,
+		{ customerId: hollinCustomer.id, title: 'Entry hall porcelain' },
+		ids.get(SECOND_STORE.owner.email)!
+	);
+	if (hollinJob) {
+		await jobs.assign(second.id, hollinJob.id, ids.get('installer@tallowcreek.example')!, ownerId);
+	}
+	return { storeId: store.id, secondStoreId: second.id };
+}
+
+/** Empties every table (as the schema owner; the app's role may not truncate). */
+export async function resetDatabase(ownerUrl: string) {
+	const client = new pg.Client({ connectionString: ownerUrl });
+	await client.connect();
+	try {
+		const { rows } = await client.query<{ tablename: string }>(
+			"select tablename from pg_tables where schemaname = 'public'"
+		);
+		if (rows.length) {
+			await client.query(
+				`truncate table ${rows.map((r) => `"${r.tablename}"`).join(', ')} restart identity cascade`
+			);
+		}
+	} finally {
+		await client.end();
+	}
+}
+
+async function isEmpty() {
+	const { rows } = await pool.query<{ n: string }>('select count(*) as n from "user"');
+	return Number(rows[0].n) === 0;
+}
+
+async function main() {
+	if (process.argv.includes('--reset')) {
+		const ownerUrl = process.env.DATABASE_OWNER_URL;
+		if (!ownerUrl) throw new Error('--reset needs DATABASE_OWNER_URL');
+		await resetDatabase(ownerUrl);
+	}
+	if (await isEmpty()) {
+		await seedDemo();
+		console.log('Seeded the demo store.');
+	} else {
+		console.log('The database has data: the demo seed is skipped.');
+	}
+	await pool.end();
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+	main().catch((e) => {
+		console.error(e);
+		process.exit(1);
+	});
+}
