@@ -1,0 +1,45 @@
+import { describe, expect, it } from 'vitest';
+import { homeFor, navFor, needsMember, refusal } from './access';
+
+describe('sections by role', () => {
+	it('keeps store settings and the team to the owner', () => {
+		expect(refusal('/app/settings', 'owner')).toBeNull();
+		for (const role of ['manager', 'sales', 'installer'] as const) {
+			expect(refusal('/app/settings', role)).toMatch(/Owner only/);
+			expect(refusal('/app/team/anything', role)).toMatch(/Owner only/);
+		}
+	});
+
+	it('keeps installers out of the staff desk and staff out of the installer screens', () => {
+		expect(refusal('/app/customers', 'installer')).toMatch(/your role in this store is Installer/);
+		expect(refusal('/field', 'sales')).toMatch(/Installer only/);
+		expect(refusal('/field/jobs/x', 'installer')).toBeNull();
+	});
+
+	it('does not take a prefix for a section (/application is not /app)', () => {
+		expect(needsMember('/application')).toBe(false);
+		expect(needsMember('/app')).toBe(true);
+		expect(needsMember('/api/v1/customers')).toBe(true);
+		expect(needsMember('/api/auth/sign-in/email')).toBe(false);
+	});
+
+	it('gives each role its own navigation, built from the same rules', () => {
+		const hrefs = (role: Parameters<typeof navFor>[0]) => navFor(role).map((i) => i.href);
+		expect(hrefs('owner')).toEqual([
+			'/app',
+			'/app/jobs',
+			'/app/customers',
+			'/app/team',
+			'/app/settings'
+		]);
+		expect(hrefs('manager')).toEqual(['/app', '/app/jobs', '/app/customers']);
+		expect(hrefs('sales')).toEqual(['/app', '/app/jobs', '/app/customers']);
+		expect(hrefs('installer')).toEqual(['/field']);
+	});
+
+	it('lands installers on their own screens', () => {
+		expect(homeFor('installer')).toBe('/field');
+		expect(homeFor('sales')).toBe('/app');
+		expect(homeFor(null)).toBe('/stores');
+	});
+});

@@ -1,0 +1,142 @@
+// The second wall: PostgreSQL row-level security on every domain table, beneath the queries'
+// own organization_id filter.
+import { pool } from '$lib/server/db';
+import { saveProfile } from '$lib/server/db/queries/stores';
+import type { PoolClient } from 'pg';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { makeCustomer, makeJob, makeStore, type TestStore } from './factories';
+
+/** better-auth's own tables: it reads them without a store, and checks membership in code. */
+const AUTH_TABLES = new Set(['member', 'invitation']);
+
+async function domainTables(): Promise<string[]> {
+	const { rows } = await pool.query<{ table_name: string }>(
+		`select table_name from information_schema.columns
+		 where table_schema = 'public' and column_name = 'organization_id' order by table_name`
+	);
+	return rows.map((r) => r.table_name).filter((t) => !AUTH_TABLES.has(t));
+}
+
+/** Runs `work` on one connection inside a transaction with app.store_id set to `storeId`. */
+async function asStore<T>(storeId: string | null, work: (c: PoolClient) => Promise<T>) {
+	const client = await pool.connect();
+	try {
+		await client.query('begin');
+		if (storeId) await client.query(`select set_config('app.store_id', $1, true)`, [storeId]);
+		return await work(client);
+	} finally {
+		await client.query('rollback');
+		client.release();
+	}
+}
+
+let a: TestStore;
+let b: TestStore;
+
+beforeAll(async () => {
+	a = await makeStore('Alpha Floors');
+	b = await makeStore('Beta Floors');
+	for (const store of [a, b]) {
+		await saveProfile(store.id, { address: '1 Test Row', town: 'Testville', phone: '', email: '' });
+		await makeJob(store.id, store.owner.id);
+	}
+});
+
+describe('row-level security', () => {
+	it('is on and forced, with a store policy, for every table that carries a store id', async () => {
+		const tables = await domainTables();
+		expect(tables).toEqual(
+			expect.arrayContaining(['customer', 'job', 'job_event', 'store_profile'])
+		);
+		const { rows } = await pool.query<{
+			relname: string;
+			relrowsecurity: boolean;
+			relforcerowsecurity: boolean;
+			policies: number;
+		}>(
+			`select c.relname, c.relrowsecurity, c.relforcerowsecurity,
+			        (select count(*)::int from pg_policy p where p.polrelid = c.oid) as policies
+			 from pg_class c where c.relnamespace = 'public'::regnamespace and c.relname = any($1)`,
+			[tables]
+		);
+		expect(rows).toHaveLength(tables.length);
+		for (const row of rows) {
+			expect(row, row.relname).toMatchObject({ relrowsecurity: true, relforcerowsecurity: true });
+			expect(row.policies, row.relname).toBeGreaterThan(0);
+		}
+	});
+
+	it("shows store A none of store B's rows in any domain table, even with no filter", async () => {
+		for (const table of await domainTables()) {
+			const counts = await asStore(a.id, async (c) => {
+				const all = await c.query(`select organization_id from "${table}"`);
+				return {
+					total: all.rowCount,
+					ofB: all.rows.filter((r) => r.organization_id === b.id).length,
+					ofA: all.rows.filter((r) => r.organization_id === a.id).length
+				};
+			});
+			expect(counts.ofB, table).toBe(0);
+			expect(counts.total, table).toBe(counts.ofA);
+			expect(
+				counts.ofA,
+				`${table} should have rows of A to make the check mean something`
+			).toBeGreaterThan(0);
+		}
+	});
+
+	it('shows nothing at all to a query outside a store transaction', async () => {
+		for (const table of await domainTables()) {
+			const { rowCount } = await asStore(null, (c) => c.query(`select 1 from "${table}"`));
+			expect(rowCount, table).toBe(0);
+		}
+	});
+
+	it("refuses writing a row into store B from store A's transaction", async () => {
+		await expect(
+			asStore(a.id, (c) =>
+				c.query(
+					`insert into customer (id, organization_id, name) values (gen_random_uuid(), $1, 'Sneaky')`,
+					[b.id]
+				)
+			)
+		).rejects.toThrow(/row-level security/);
+	});
+
+	it("changes and deletes none of store B's rows from store A's transaction", async () => {
+		const target = await makeCustomer(b.id, 'Beta customer');
+		const result = await asStore(a.id, async (c) => {
+			const updated = await c.query(`update customer set name = 'Changed' where id = $1`, [
+				target.id
+			]);
+			const deleted = await c.query(`delete from customer where id = $1`, [target.id]);
+			return { updated: updated.rowCount, deleted: deleted.rowCount };
+		});
+		expect(result).toEqual({ updated: 0, deleted: 0 });
+		const still = await asStore(b.id, (c) =>
+			c.query(`select name from customer where id = $1`, [target.id])
+		);
+		expect(still.rows).toEqual([{ name: 'Beta customer' }]);
+	});
+
+	it("refuses a job of store A that points at store B's customer, at the database", async () => {
+		const foreign = await makeCustomer(b.id);
+		await expect(
+			asStore(a.id, (c) =>
+				c.query(
+					`insert into job (id, organization_id, number, customer_id, title) values (gen_random_uuid(), $1, 999999, $2, 'x')`,
+					[a.id, foreign.id]
+				)
+			)
+		).rejects.toThrow(/job_customer_same_store_fk/);
+	});
+
+	it('connects as a role that is neither superuser, table owner, nor exempt from row security', async () => {
+		const { rows } = await pool.query<{ rolsuper: boolean; rolbypassrls: boolean; owns: number }>(
+			`select r.rolsuper, r.rolbypassrls,
+			        (select count(*)::int from pg_tables t where t.schemaname = 'public' and t.tableowner = current_user) as owns
+			 from pg_roles r where r.rolname = current_user`
+		);
+		expect(rows[0]).toEqual({ rolsuper: false, rolbypassrls: false, owns: 0 });
+	});
+});
