@@ -294,7 +294,8 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 	}
 	if (ring.length < 3) return { ok: false, field, message: 'A polygon needs at least 3 corners' };
 	const area = ringArea(ring);
-	if (Math.abs(area) < EPS) return { ok: false, field, message: 'The outline has no area' };
+	if (Math.abs(area) < EPS && ring.every((p) => orient(ring[0], ring[1], p) === 0))
+		return { ok: false, field, message: 'The outline has no area' };
 	const crossing = firstCrossing(ring);
 	if (crossing >= 0)
 		return {

@@ -70,7 +70,7 @@ interface Part {
 // A magnitude: a whole or decimal number, optionally followed by a fraction (`6 1/2`, `6-1/2`),
 // or a bare fraction; then an optional unit.
 const PART =
-	/^\s*((?:\d+(?:\.\d*)?|\.\d+)(?:(?:\s+|\s*-\s*)\d+\s*\/\s*\d+)?|\d+\s*\/\s*\d+)\s*(feet|foot|ft|inches|inch|in|mm|cm|m|'|")?\s*(-)?/i;
+	/^\s*(\d+\s*\/\s*\d+|(?:\d+(?:\.\d*)?|\.\d+)(?:(?:\s+|\s*-\s*)\d+\s*\/\s*\d+)?)\s*(feet|foot|ft|inches|inch|in|mm|cm|m|'|")?\s*(-)?/i;
 const FRACTION = /^(?:(\d+(?:\.\d*)?|\.\d+)(?:\s+|\s*-\s*))?(\d+)\s*\/\s*(\d+)$/;
 
 function cannot(part: string, whole: string, why: string): ParseLengthResult {
@@ -167,7 +167,8 @@ function fraction(top: number, bottom: number): string {
 
 /** Trims trailing zeros of a fixed-point number. */
 function trimFixed(n: number, digits: number): string {
-	return n.toFixed(digits).replace(/\.?0+$/, '') || '0';
+	const s = n.toFixed(digits);
+	return s.includes('.') ? s.replace(/\.?0+$/, '') : s;
 }
 
 /**
