@@ -144,25 +144,32 @@ function bandIntervals(edges: readonly Edge[], ys: readonly number[], y0: number
 	return merge(out);
 }
 
-function lineIntervals(edges: readonly Edge[], y: number): [number, number][] {
-	const hit = crossing(edges, y);
+/** Floor along the line y, seen from just below or above it (exact: edges are read at y). */
+function sideIntervals(
+	edges: readonly Edge[],
+	ys: readonly number[],
+	y: number,
+	side: -1 | 1
+): [number, number][] {
+	let near = y + side;
+	for (const v of ys) if (side < 0 ? v < y && v > near : v > y && v < near) near = v;
+	const hit = crossing(edges, (y + near) / 2);
 	const out: [number, number][] = [];
 	for (let i = 0; i + 1 < hit.length; i += 2) out.push([xAt(hit[i], y), xAt(hit[i + 1], y)]);
 	return out;
 }
 
-/** Length of floor on both sides of the line y: where two drops meet. */
-function seamLength(edges: readonly Edge[], y: number): number {
-	const below = lineIntervals(edges, y - 1e-6);
-	const above = lineIntervals(edges, y + 1e-6);
-	let len = 0;
+/** Where two drops meet along the line y: the runs of floor on both sides of it. */
+function seamRuns(edges: readonly Edge[], ys: readonly number[], y: number): number[] {
+	const below = sideIntervals(edges, ys, y, -1);
+	const above = sideIntervals(edges, ys, y, 1);
+	const runs: number[] = [];
 	for (const a of below)
 		for (const b of above) {
-			const lo = Math.max(a[0], b[0]);
-			const hi = Math.min(a[1], b[1]);
-			if (hi > lo) len += hi - lo;
+			const len = Math.min(a[1], b[1]) - Math.max(a[0], b[0]);
+			if (len > 1e-9) runs.push(len);
 		}
-	return len;
+	return runs;
 }
 
 function layout(
@@ -201,11 +208,9 @@ function layout(
 		for (const [a, b] of intervals)
 			drops.push({ strip: s, startIn: a, coverIn: b - a, cutIn: b - a + 2 * trimPerEndIn });
 		if (s > 0) {
-			const len = isRect ? maxX - minX : seamLength(edges, y0);
-			if (len > 1e-6) {
-				seams += isRect ? 1 : lineIntervalsCount(edges, y0);
-				seamLengthIn += len;
-			}
+			const runs = isRect ? [maxX - minX] : seamRuns(edges, ys, y0);
+			seams += runs.length;
+			for (const r of runs) seamLengthIn += r;
 		}
 	}
 	const cutLengthIn = drops.reduce((t, d) => t + d.cutIn, 0);
@@ -222,16 +227,6 @@ function layout(
 		orderSqFt: orderSqIn / SQIN_PER_SQFT,
 		orderSqYd: orderSqIn / SQIN_PER_SQYD
 	};
-}
-
-/** Separate seam runs along a line: pieces of floor meeting across it. */
-function lineIntervalsCount(edges: readonly Edge[], y: number): number {
-	const below = lineIntervals(edges, y - 1e-6);
-	const above = lineIntervals(edges, y + 1e-6);
-	let n = 0;
-	for (const a of below)
-		for (const b of above) if (Math.min(a[1], b[1]) - Math.max(a[0], b[0]) > 1e-6) n++;
-	return n;
 }
 
 /**
