@@ -51,7 +51,7 @@ import {
 interface PrepNeed {
 	kind: PrepKind;
 	measures: Measures;
-	findingIds: string[];
+	findings: Finding[];
 }
 
 const ADDITIVE = new Set<PrepKind>(['level', 'grind', 'moisture_test']);
@@ -102,7 +102,6 @@ export function estimate(input: EstimateInput): EstimateResult {
 	const errors: EstimateError[] = [];
 	const warnings: { roomId?: string; message: string }[] = [];
 	const findings: Finding[] = [];
-	const findingById = new Map<string, Finding>();
 	const rooms: RoomResult[] = [];
 	const lines: PriceLine[] = [];
 	const pay: PayLine[] = [];
@@ -316,9 +315,9 @@ export function estimate(input: EstimateInput): EstimateResult {
 
 		const needs: PrepNeed[] = [];
 		// Readings add up (each low spot, each missing test); whole-room fixes count once.
-		const need = (kind: PrepKind, measures: Measures, findingIds: string[] = []) => {
+		const need = (kind: PrepKind, measures: Measures, from: Finding[] = []) => {
 			const had = needs.find((x) => x.kind === kind);
-			if (!had) needs.push({ kind, measures, findingIds: [...findingIds] });
+			if (!had) needs.push({ kind, measures, findings: [...from] });
 			else {
 				const additive = ADDITIVE.has(kind);
 				for (const [b, v] of Object.entries(measures) as [keyof Measures, number][])
@@ -326,7 +325,7 @@ export function estimate(input: EstimateInput): EstimateResult {
 						additive && b !== 'room'
 							? (had.measures[b] ?? 0) + v
 							: Math.max(had.measures[b] ?? 0, v);
-				for (const f of findingIds) if (!had.findingIds.includes(f)) had.findingIds.push(f);
+				for (const f of from) if (!had.findings.includes(f)) had.findings.push(f);
 			}
 		};
 		const addFinding = (c: Check, n: number): Finding => {
@@ -347,7 +346,6 @@ export function estimate(input: EstimateInput): EstimateResult {
 				lineIds: []
 			};
 			findings.push(f);
-			findingById.set(f.id, f);
 			result.findingIds.push(f.id);
 			for (const k of c.cautions) caution(k, room.id);
 			return f;
@@ -431,7 +429,7 @@ export function estimate(input: EstimateInput): EstimateResult {
 						p.kind === 'joist_sister'
 							? { each: joistCount(shape, room.joists.runs, spacing), room: 1 }
 							: { room: 1, each: 1 },
-						[f.id]
+						[f]
 					);
 			}
 		} else if (wood && (kind === 'ceramic_tile' || kind === 'stone_tile')) {
@@ -453,7 +451,7 @@ export function estimate(input: EstimateInput): EstimateResult {
 				s.sheathing
 			)) {
 				const f = addFinding(c, n++);
-				for (const p of c.suggestedPrep) need(p.kind, { sqft: area, room: 1 }, [f.id]);
+				for (const p of c.suggestedPrep) need(p.kind, { sqft: area, room: 1 }, [f]);
 			}
 		}
 
@@ -468,12 +466,12 @@ export function estimate(input: EstimateInput): EstimateResult {
 				const c = flatnessCheck(r, rules);
 				const f = addFinding(c, n++);
 				if (c.pass) continue;
-				if (r.kind === 'high') need('grind', { each: 1, room: 1 }, [f.id]);
+				if (r.kind === 'high') need('grind', { each: 1, room: 1 }, [f]);
 				else {
 					const a = Math.min(area, r.areaSqFt ?? s.repairs.lowSpotAreaSqFt);
 					const depth = r.gapIn * s.repairs.lowSpotDepthFactor;
 					need('level', { sqft: a, sqft_per_eighth_in: a * (depth / 0.125), each: 1, room: 1 }, [
-						f.id
+						f
 					]);
 					roomLevel.push({ areaSqFt: a, depthIn: depth });
 				}
@@ -498,7 +496,7 @@ export function estimate(input: EstimateInput): EstimateResult {
 						need(
 							p.kind,
 							p.kind === 'moisture_test' ? { each: c.limit - c.measured } : { sqft: area, room: 1 },
-							[f.id]
+							[f]
 						);
 				}
 			if (cc.length > 0)
@@ -511,18 +509,22 @@ export function estimate(input: EstimateInput): EstimateResult {
 						need(
 							p.kind,
 							p.kind === 'moisture_test' ? { each: c.limit - c.measured } : { sqft: area, room: 1 },
-							[f.id]
+							[f]
 						);
 				}
 			if (rh.length === 0 && cc.length === 0 && kind !== 'carpet')
 				result.warnings.push('No moisture readings for a concrete subfloor');
 		} else if (readings.woodMc) {
 			for (const c of woodMoistureChecks(
-				{ ...readings.woodMc, boardWidthIn: product.boardWidthIn },
+				{
+					subfloorPct: readings.woodMc.subfloorPct,
+					flooringPct: readings.woodMc.flooringPct,
+					boardWidthIn: product.boardWidthIn
+				},
 				s.moisture
 			)) {
 				const f = addFinding(c, n++);
-				for (const p of c.suggestedPrep) need(p.kind, { each: 1, room: 1 }, [f.id]);
+				for (const p of c.suggestedPrep) need(p.kind, { each: 1, room: 1 }, [f]);
 			}
 		}
 
@@ -578,13 +580,13 @@ export function estimate(input: EstimateInput): EstimateResult {
 					roomId: room.id,
 					qty: 0,
 					description: `${PREP[p.kind].label} — ${room.name}`,
-					findingIds: p.findingIds
+					findingIds: p.findings.map((f) => f.id)
 				},
 				`priceBook.prep`,
 				p.measures
 			);
 			addHours(p.kind, h);
-			if (line) for (const fid of p.findingIds) findingById.get(fid)?.lineIds.push(line.id);
+			if (line) for (const f of p.findings) f.lineIds.push(line.id);
 		}
 		return errors.length === errorsBefore;
 	}

@@ -431,24 +431,18 @@ export interface Outline {
 	outer: Point[];
 	holes: Point[][];
 	bbox: BBox;
-	/** `minX minY width length` with y flipped so +y points up on screen. */
+	/** `minX minY width length`; flip y (scale(1,-1)) to draw +y up. */
 	viewBox: string;
-	/** SVG path data (even-odd fill) with y flipped. */
-	path: string;
 }
 
 /** Drawable outline of a valid room, so the UI can draw it as SVG. */
 export function roomOutline(room: RoomShape): Outline {
-	const [outer, ...holes] = room.polygon;
 	const b = room.bbox;
-	const flip = (p: Point): string => `${p[0]} ${b.maxY + b.minY - p[1]}`;
-	const path = room.polygon.map((ring) => 'M' + ring.map(flip).join('L') + 'Z').join('');
 	return {
-		outer: outer.map((p) => [p[0], p[1]]),
-		holes: holes.map((h) => h.map((p) => [p[0], p[1]] as Point)),
+		outer: room.polygon[0],
+		holes: room.polygon.slice(1),
 		bbox: b,
-		viewBox: `${b.minX} ${b.minY} ${b.widthIn} ${b.lengthIn}`,
-		path
+		viewBox: `${b.minX} ${b.minY} ${b.widthIn} ${b.lengthIn}`
 	};
 }
 

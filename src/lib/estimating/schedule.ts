@@ -84,7 +84,15 @@ export function schedule(
 			into = h;
 			readyAt = point(day, into);
 		}
-		out.push({ ...step, start, end, readyAt });
+		out.push({
+			key: step.key,
+			label: step.label,
+			hours: step.hours,
+			cureHours: step.cureHours,
+			start,
+			end,
+			readyAt
+		});
 	}
 	return { steps: out, workHours, cureHours, days: lastWorkDay + 1 };
 }
