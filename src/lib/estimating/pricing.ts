@@ -1,0 +1,414 @@
+/**
+ * Prices in integer cents from the store's price book.
+ *
+ * The one rounding rule: a line's quantity is kept to 1/10,000 of its unit; its extended amount
+ * is round-half-up(quantity × unit cents), halves away from zero so a credit mirrors a charge.
+ * Each tax is computed once on the subtotal of its taxable groups, rounded by the store's tax
+ * rounding (half-up by default). The deposit is round-half-up(total × percent), at least the
+ * minimum, never above the total. Installer pay per line uses the same rule as prices.
+ */
+import { ceilUnits } from './math';
+import type { Basis, PrepKind } from './prep';
+import type {
+	ExistingFloorKind,
+	Fastening,
+	FlatnessRule,
+	FloorKind,
+	StoreSettings
+} from './settings';
+import type { PatchContainer } from './takeoff';
+
+export type LineGroup = 'material' | 'labour' | 'prep' | 'removal';
+export const LINE_GROUPS: readonly LineGroup[] = ['material', 'labour', 'prep', 'removal'];
+
+/** Supplies the prep uses, sold by their own units. */
+export type SupplyKind = 'underlayment_panel' | 'fastener' | 'patch' | 'leveller';
+export const SUPPLY_KINDS: readonly SupplyKind[] = [
+	'underlayment_panel',
+	'fastener',
+	'patch',
+	'leveller'
+];
+
+/** What a line prices: a floor's material or install, a tear-out, a prep service, a supply. */
+export type ItemRef =
+	| { type: 'floor'; productId: string }
+	| { type: 'install'; productId: string }
+	| { type: 'removal'; existing: ExistingFloorKind }
+	| { type: 'prep'; kind: PrepKind }
+	| { type: 'supply'; kind: SupplyKind };
+
+/** A stable text key for an item: `floor:oak-7`, `prep:level`... */
+export function refKey(ref: ItemRef): string {
+	switch (ref.type) {
+		case 'floor':
+		case 'install':
+			return `${ref.type}:${ref.productId}`;
+		case 'removal':
+			return `removal:${ref.existing}`;
+		default:
+			return `${ref.type}:${ref.kind}`;
+	}
+}
+
+/** A floor product in the price book. */
+export interface FloorProduct {
+	id: string;
+	/** Invented or store name, e.g. "Oak plank 7 in". */
+	name: string;
+	kind: FloorKind;
+	/** How it is held down (wood floors): decides hole repairs. */
+	fastening?: Fastening;
+	/** ft² per carton, for carton goods. */
+	cartonSqFt?: number;
+	/** Roll width, in, for roll goods. */
+	rollWidthIn?: number;
+	/** Tile edges, in (large-format rule). */
+	tileEdgesIn?: number[];
+	/** Board width, in (wood moisture rule). */
+	boardWidthIn?: number;
+	/** Material price per sellable unit; `sqft` prices whole cartons by their coverage. */
+	material: {
+		basis: 'carton' | 'sqft' | 'roll_sqyd' | 'roll_linft';
+		priceCents: number;
+		costCents?: number;
+	};
+	/** Install price and installer pay, cents per ft² of floor. */
+	labourCentsPerSqFt: number;
+	payCentsPerSqFt: number;
+	/** What this floor needs, overriding the store's defaults. */
+	needs?: {
+		deflectionRatio?: number;
+		rhLimitPct?: number;
+		mverLimit?: number;
+		flatness?: FlatnessRule[];
+		underlayment?: boolean;
+	};
+}
+
+/** A prep service keyed by the prep kind the engine emits. */
+export interface PrepPrice {
+	kind: PrepKind;
+	name?: string;
+	basis: Basis;
+	priceCents: number;
+	payCents: number;
+	costCents?: number;
+}
+
+/** Tear-out of an existing floor. */
+export interface RemovalPrice {
+	existing: ExistingFloorKind;
+	basis: 'sqft' | 'room';
+	priceCents: number;
+	payCents: number;
+}
+
+/** A supply with the product data the takeoff needs. */
+export interface SupplyPrice {
+	kind: SupplyKind;
+	name: string;
+	basis: Basis;
+	priceCents: number;
+	costCents?: number;
+	/** Fasteners per box (basis `box`). */
+	perBox?: number;
+	/** Patch container (basis `container`). */
+	container?: PatchContainer;
+	/** Leveller bag yield, ft³ (basis `bag`). */
+	bagYieldCuFt?: number;
+}
+
+/** The store's price book. Every price is integer cents per unit of its basis. */
+export interface PriceBook {
+	currency: string;
+	floors: FloorProduct[];
+	prep: PrepPrice[];
+	removal: RemovalPrice[];
+	supplies: SupplyPrice[];
+}
+
+/** A priced line as the customer sees it. */
+export interface PriceLine {
+	id: string;
+	roomId?: string;
+	ref: ItemRef;
+	key: string;
+	group: LineGroup;
+	description: string;
+	basis: Basis;
+	qty: number;
+	unitCents: number;
+	amountCents: number;
+	taxable: boolean;
+	/** Findings that called for this line. */
+	findingIds: string[];
+}
+
+/** Installer pay for a line; kept apart from prices. */
+export interface PayLine {
+	lineId: string;
+	roomId?: string;
+	description: string;
+	basis: Basis;
+	qty: number;
+	unitCents: number;
+	amountCents: number;
+}
+
+export type Rounding = StoreSettings['taxRounding'];
+
+/** Integer division n ÷ d (d > 0) rounded on the magnitude, so credits mirror charges. */
+export function divRound(n: number, d: number, mode: Rounding = 'half_up'): number {
+	const sign = n < 0 ? -1 : 1;
+	const a = Math.abs(n);
+	const r = a % d;
+	const q = (a - r) / d;
+	let out = q;
+	if (mode === 'half_up') out = 2 * r >= d ? q + 1 : q;
+	else if (mode === 'half_even') out = 2 * r > d || (2 * r === d && q % 2 === 1) ? q + 1 : q;
+	else if (mode === 'up') out = r > 0 ? q + 1 : q;
+	return sign * out || 0;
+}
+
+const QTY_SCALE = 10_000;
+
+/** A quantity kept to 1/10,000 of its unit, as an integer count of ten-thousandths. */
+export function qtyUnits(qty: number): number {
+	return Math.round(qty * QTY_SCALE);
+}
+
+/** round-half-up(qty × unitCents), with qty kept to 1/10,000 of its unit. */
+export function extend(qty: number, unitCents: number): number {
+	return divRound(qtyUnits(qty) * unitCents, QTY_SCALE);
+}
+
+export interface Resolved {
+	group: LineGroup;
+	name: string;
+	basis: Basis;
+	unitCents: number;
+	payCents: number;
+	costCents?: number;
+}
+
+/** Price-book lookups built once per estimate. */
+export class PriceIndex {
+	readonly floors = new Map<string, FloorProduct>();
+	readonly prep = new Map<PrepKind, PrepPrice>();
+	readonly removal = new Map<ExistingFloorKind, RemovalPrice>();
+	readonly supplies = new Map<SupplyKind, SupplyPrice>();
+
+	constructor(readonly book: PriceBook) {
+		for (const f of book.floors) this.floors.set(f.id, f);
+		for (const p of book.prep) this.prep.set(p.kind, p);
+		for (const r of book.removal) this.removal.set(r.existing, r);
+		for (const s of book.supplies) this.supplies.set(s.kind, s);
+	}
+
+	/** The price of an item, or a message saying what is missing. */
+	resolve(ref: ItemRef): Resolved | string {
+		switch (ref.type) {
+			case 'floor': {
+				const f = this.floors.get(ref.productId);
+				if (!f) return `No floor product "${ref.productId}" in the price book`;
+				return {
+					group: 'material',
+					name: f.name,
+					basis: f.material.basis,
+					unitCents: f.material.priceCents,
+					payCents: 0,
+					costCents: f.material.costCents
+				};
+			}
+			case 'install': {
+				const f = this.floors.get(ref.productId);
+				if (!f) return `No floor product "${ref.productId}" in the price book`;
+				return {
+					group: 'labour',
+					name: `Install ${f.name}`,
+					basis: 'sqft',
+					unitCents: f.labourCentsPerSqFt,
+					payCents: f.payCentsPerSqFt
+				};
+			}
+			case 'removal': {
+				const r = this.removal.get(ref.existing);
+				if (!r) return `No removal price for existing ${ref.existing.replace(/_/g, ' ')}`;
+				return {
+					group: 'removal',
+					name: `Remove ${ref.existing.replace(/_/g, ' ')}`,
+					basis: r.basis,
+					unitCents: r.priceCents,
+					payCents: r.payCents
+				};
+			}
+			case 'prep': {
+				const p = this.prep.get(ref.kind);
+				if (!p) return `No price for prep "${ref.kind}"`;
+				return {
+					group: 'prep',
+					name: p.name ?? ref.kind,
+					basis: p.basis,
+					unitCents: p.priceCents,
+					payCents: p.payCents,
+					costCents: p.costCents
+				};
+			}
+			case 'supply': {
+				const s = this.supplies.get(ref.kind);
+				if (!s) return `No price for supply "${ref.kind}"`;
+				return {
+					group: 'material',
+					name: s.name,
+					basis: s.basis,
+					unitCents: s.priceCents,
+					payCents: 0,
+					costCents: s.costCents
+				};
+			}
+		}
+	}
+}
+
+export interface Priced {
+	line: PriceLine;
+	pay?: PayLine;
+	costCents?: number;
+}
+
+/** Prices `qty` (in the price's basis) of an item; taxable by the store's tax groups. */
+export function priceQty(
+	item: { ref: ItemRef; roomId?: string; qty: number; description?: string; findingIds?: string[] },
+	price: Resolved,
+	settings: StoreSettings
+): Priced {
+	const key = refKey(item.ref);
+	const id = `${item.roomId ?? 'job'}:${key}`;
+	const qty = qtyUnits(item.qty) / QTY_SCALE;
+	const description = item.description ?? price.name;
+	const line: PriceLine = {
+		id,
+		roomId: item.roomId,
+		ref: item.ref,
+		key,
+		group: price.group,
+		description,
+		basis: price.basis,
+		qty,
+		unitCents: price.unitCents,
+		amountCents: extend(qty, price.unitCents),
+		taxable: settings.taxes.some((t) => t.groups.includes(price.group)),
+		findingIds: item.findingIds ?? []
+	};
+	const pay: PayLine | undefined =
+		price.payCents > 0
+			? {
+					lineId: id,
+					roomId: item.roomId,
+					description,
+					basis: price.basis,
+					qty,
+					unitCents: price.payCents,
+					amountCents: extend(qty, price.payCents)
+				}
+			: undefined;
+	const costCents = price.costCents === undefined ? undefined : extend(qty, price.costCents);
+	return { line, pay, costCents };
+}
+
+export interface TaxLine {
+	name: string;
+	rateBps: number;
+	taxableCents: number;
+	taxCents: number;
+}
+
+export interface Totals {
+	byGroup: Record<LineGroup, number>;
+	subtotalCents: number;
+	taxes: TaxLine[];
+	taxCents: number;
+	totalCents: number;
+	depositCents: number;
+	balanceCents: number;
+}
+
+/** Each tax once on the subtotal of its taxable groups, rounded by the store's rule. */
+export function taxes(
+	byGroup: Record<LineGroup, number>,
+	settings: Pick<StoreSettings, 'taxes' | 'taxRounding'>
+): TaxLine[] {
+	return settings.taxes.map((t) => {
+		const taxableCents = t.groups.reduce((s, g) => s + byGroup[g], 0);
+		return {
+			name: t.name,
+			rateBps: t.rateBps,
+			taxableCents,
+			taxCents: divRound(taxableCents * t.rateBps, 10_000, settings.taxRounding)
+		};
+	});
+}
+
+/** Deposit: round-half-up(total × percent), at least the minimum, never above the total. */
+export function depositCents(totalCents: number, deposit: StoreSettings['deposit']): number {
+	if (totalCents <= 0) return 0;
+	const pct = divRound(totalCents * deposit.percentBps, 10_000);
+	return Math.min(totalCents, Math.max(deposit.minimumCents, pct));
+}
+
+/** Subtotals by group, taxes, total, deposit and balance. */
+export function totals(lines: readonly PriceLine[], settings: StoreSettings): Totals {
+	const byGroup: Record<LineGroup, number> = { material: 0, labour: 0, prep: 0, removal: 0 };
+	for (const l of lines) byGroup[l.group] += l.amountCents;
+	const subtotalCents = byGroup.material + byGroup.labour + byGroup.prep + byGroup.removal;
+	const taxLines = taxes(byGroup, settings);
+	const taxCents = taxLines.reduce((s, t) => s + t.taxCents, 0);
+	const totalCents = subtotalCents + taxCents;
+	const dep = depositCents(totalCents, settings.deposit);
+	return {
+		byGroup,
+		subtotalCents,
+		taxes: taxLines,
+		taxCents,
+		totalCents,
+		depositCents: dep,
+		balanceCents: totalCents - dep
+	};
+}
+
+export interface Margin {
+	/** Pre-tax sales. */
+	revenueCents: number;
+	installerPayCents: number;
+	/** Material and prep cost where the price book gives one. */
+	costCents: number;
+	marginCents: number;
+	/** Margin as basis points of revenue (0 when there is no revenue). */
+	marginBps: number;
+	/** False when some material line has no cost in the price book. */
+	costComplete: boolean;
+}
+
+/** The store's margin: revenue less installer pay and known costs. */
+export function margin(
+	revenueCents: number,
+	installerPayCents: number,
+	costCents: number,
+	costComplete: boolean
+): Margin {
+	const marginCents = revenueCents - installerPayCents - costCents;
+	return {
+		revenueCents,
+		installerPayCents,
+		costCents,
+		marginCents,
+		marginBps: revenueCents > 0 ? divRound(marginCents * 10_000, revenueCents) : 0,
+		costComplete
+	};
+}
+
+/** Whole units for a supply's basis (boxes of fasteners, etc.). */
+export function supplyUnits(count: number, perUnit: number | undefined): number {
+	return perUnit && perUnit > 0 ? ceilUnits(count / perUnit) : count;
+}

@@ -1,0 +1,98 @@
+/**
+ * Install duration: work steps in order, each holding the next while it cures. One crew;
+ * work runs inside the working day, cures run on the clock (overnight counts).
+ */
+
+export interface WorkStep {
+	key: string;
+	label: string;
+	hours: number;
+	/** Clock hours the next step must wait (a patch before traffic; the label governs). */
+	cureHours?: number;
+}
+
+export interface TimePoint {
+	/** Day index from 0. */
+	day: number;
+	/** Clock hour in that day. */
+	hour: number;
+}
+
+export interface ScheduledStep extends WorkStep {
+	start: TimePoint;
+	end: TimePoint;
+	/** When the cure ends and the next step may start. */
+	readyAt: TimePoint;
+}
+
+export interface Schedule {
+	steps: ScheduledStep[];
+	workHours: number;
+	cureHours: number;
+	/** Working days the job spans (a day counts once any work falls in it). */
+	days: number;
+}
+
+/** Lays out the steps in order; returns each step's start, end and when the next may start. */
+export function schedule(
+	steps: readonly WorkStep[],
+	settings: { workdayHours: number; dayStartHour: number }
+): Schedule {
+	const H = settings.workdayHours;
+	const start0 = settings.dayStartHour;
+	// Working time as (day, hours into the working day).
+	let day = 0;
+	let into = 0;
+	const point = (d: number, h: number): TimePoint => ({ day: d, hour: start0 + h });
+	const out: ScheduledStep[] = [];
+	let lastWorkDay = -1;
+	let workHours = 0;
+	let cureHours = 0;
+	for (const step of steps) {
+		if (step.hours <= 0 && !step.cureHours) continue;
+		if (into >= H) {
+			day += 1;
+			into = 0;
+		}
+		const start = point(day, into);
+		let left = step.hours;
+		while (left > 1e-9) {
+			if (into >= H) {
+				day += 1;
+				into = 0;
+			}
+			const take = Math.min(left, H - into);
+			into += take;
+			left -= take;
+			lastWorkDay = day;
+		}
+		const end = point(day, into);
+		workHours += step.hours;
+		let readyAt = end;
+		const cure = step.cureHours ?? 0;
+		if (cure > 0) {
+			cureHours += cure;
+			// clock hours from the start of day 0's working window
+			const done = day * 24 + into + cure;
+			let d = Math.floor(done / 24);
+			let h = done - d * 24;
+			if (h >= H) {
+				d += 1;
+				h = 0;
+			}
+			day = d;
+			into = h;
+			readyAt = point(day, into);
+		}
+		out.push({
+			key: step.key,
+			label: step.label,
+			hours: step.hours,
+			cureHours: step.cureHours,
+			start,
+			end,
+			readyAt
+		});
+	}
+	return { steps: out, workHours, cureHours, days: lastWorkDay + 1 };
+}

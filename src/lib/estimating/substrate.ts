@@ -1,0 +1,507 @@
+/**
+ * Substrate checks against what the chosen floor needs: joists, sheathing, flatness and
+ * moisture. Each failed check carries the prep that fixes it and its cautions. Planning aids,
+ * never an engineer's stamp.
+ */
+import type { CautionKind } from './cautions';
+import { ceilUnits, floorUnits } from './math';
+import type { PrepKind } from './prep';
+import type { FlatnessRule, FloorKind, JoistSize, Species, StoreSettings } from './settings';
+import { formatLength, GRAMS_PER_LB } from './units';
+
+export type CheckKind =
+	| 'joist_deflection'
+	| 'joist_bending'
+	| 'sheathing_boards'
+	| 'sheathing_span_rating'
+	| 'sheathing_floor_minimum'
+	| 'flatness'
+	| 'moisture_rh'
+	| 'moisture_rh_tests'
+	| 'moisture_mver'
+	| 'moisture_mver_tests'
+	| 'wood_subfloor_mc'
+	| 'wood_mc_difference';
+
+export interface SuggestedPrep {
+	kind: PrepKind;
+	note: string;
+}
+
+/** One check: what was measured against what the floor needs, and what to do if it fails. */
+export interface Check {
+	check: CheckKind;
+	pass: boolean;
+	measured: number;
+	limit: number;
+	unit: string;
+	message: string;
+	rule: string;
+	source: string;
+	suggestedPrep: SuggestedPrep[];
+	cautions: CautionKind[];
+}
+
+/** Relative slack so a value exactly at a limit passes despite float noise. */
+const AT_LIMIT = 1e-9;
+const atMost = (v: number, limit: number) => v <= limit + AT_LIMIT * Math.max(1, Math.abs(limit));
+const atLeast = (v: number, limit: number) => v >= limit - AT_LIMIT * Math.max(1, Math.abs(limit));
+
+const STRUCTURE: CautionKind[] = ['planning_aid', 'structure'];
+
+// ---------------------------------------------------------------- joists
+
+export interface JoistInput {
+	size: JoistSize;
+	species: Species;
+	/** On-centre spacing, in. */
+	spacingIn: number;
+	/** Span between supports, in. */
+	spanIn: number;
+	/** Required L/Δ under live load (360, 720...). */
+	ratio: number;
+	/** Members side by side (2 when sistered). */
+	plies?: number;
+	livePsf?: number;
+	deadPsf?: number;
+}
+
+export interface JoistResult {
+	ePsi: number;
+	/** Reference Fb and the allowable F'b = Fb × CD × CF × Cr, psi. */
+	fbPsi: number;
+	fbAllowedPsi: number;
+	cf: number;
+	iIn4: number;
+	sIn3: number;
+	/** Live and total load per inch of joist, lb/in. */
+	liveLbPerIn: number;
+	totalLbPerIn: number;
+	liveDeflectionIn: number;
+	/** Span over live-load deflection. */
+	lOverDelta: number;
+	bendingStressPsi: number;
+	/** Longest span passing deflection and bending, exact, in. */
+	maxSpanIn: number;
+	/** Rounded to the inch per settings (down by default, as the engine's own rule). */
+	maxSpanRoundedIn: number;
+	maxSpanText: string;
+	governs: 'deflection' | 'bending';
+	checks: [Check, Check];
+}
+
+/**
+ * Joist check under uniform load on a simple span: δ = 5wL⁴/(384EI) (AISC Manual Table 3-23,
+ * case 1) against L/ratio; bending fb = wL²/8 ÷ S against F'b = Fb·CD·CF·Cr (NDS); and the
+ * longest span passing both.
+ */
+export function joistCheck(input: JoistInput, settings: StoreSettings['joists']): JoistResult {
+	const lumber = settings.lumber[input.species];
+	const plies = input.plies ?? 1;
+	const b = settings.widthIn * plies;
+	const d = settings.depthIn[input.size];
+	// NDS Supplement Table 1B (published): I = bd³/12, S = bd²/6
+	const iIn4 = (b * d ** 3) / 12;
+	const sIn3 = (b * d ** 2) / 6;
+	const cf = lumber.sizeFactor ? settings.cf[input.size] : 1;
+	const fbPsi = lumber.fbPsi[input.size];
+	const fbAllowedPsi = fbPsi * settings.cd * cf * settings.cr;
+	const live = input.livePsf ?? settings.livePsf;
+	const dead = input.deadPsf ?? settings.deadPsf;
+	// psf × spacing (ft) = lb/ft; ÷ 12 = lb/in
+	const liveLbPerIn = (live * input.spacingIn) / 144;
+	const totalLbPerIn = ((live + dead) * input.spacingIn) / 144;
+	const L = input.spanIn;
+	const e = lumber.ePsi;
+	const liveDeflectionIn = (5 * liveLbPerIn * L ** 4) / (384 * e * iIn4);
+	const lOverDelta = L / liveDeflectionIn;
+	const bendingStressPsi = (totalLbPerIn * L ** 2) / 8 / sIn3;
+	const deflectionSpan = Math.cbrt((384 * e * iIn4) / (5 * liveLbPerIn * input.ratio));
+	const bendingSpan = Math.sqrt((8 * fbAllowedPsi * sIn3) / totalLbPerIn);
+	const maxSpanIn = Math.min(deflectionSpan, bendingSpan);
+	const maxSpanRoundedIn =
+		settings.spanRounding === 'nearest' ? Math.round(maxSpanIn) : floorUnits(maxSpanIn);
+	const maxSpanText = formatLength(maxSpanRoundedIn);
+	const what = `${plies > 1 ? `${plies}-ply ` : ''}${input.size} ${lumber.label} at ${input.spacingIn} in o.c.`;
+	const deflectionPass = atLeast(lOverDelta, input.ratio);
+	const bendingPass = atMost(bendingStressPsi, fbAllowedPsi);
+	const fix = (pass: boolean): SuggestedPrep[] => {
+		if (pass) return [];
+		if (plies === 1) {
+			const sistered = joistCheck({ ...input, plies: 2 }, settings);
+			if (sistered.checks.every((c) => c.pass))
+				return [
+					{
+						kind: 'joist_sister',
+						note: `Sistering each joist full length would pass (L/${Math.round(sistered.lOverDelta)}); have a licensed professional confirm.`
+					}
+				];
+		}
+		return [
+			{
+				kind: 'structural_consult',
+				note: 'Sistering alone would not pass: consult a licensed professional (a beam, blocking or a stiffer floor system).'
+			}
+		];
+	};
+	const source = `${lumber.source}; NDS factors CF, Cr (memory for Cr); AISC Manual Table 3-23 case 1`;
+	return {
+		ePsi: e,
+		fbPsi,
+		fbAllowedPsi,
+		cf,
+		iIn4,
+		sIn3,
+		liveLbPerIn,
+		totalLbPerIn,
+		liveDeflectionIn,
+		lOverDelta,
+		bendingStressPsi,
+		maxSpanIn,
+		maxSpanRoundedIn,
+		maxSpanText,
+		governs: deflectionSpan <= bendingSpan ? 'deflection' : 'bending',
+		checks: [
+			{
+				check: 'joist_deflection',
+				pass: deflectionPass,
+				measured: lOverDelta,
+				limit: input.ratio,
+				unit: 'L/Δ',
+				message: `${what} spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} under ${live} psf live load; the floor needs L/${input.ratio}. Longest span that passes: ${maxSpanText}.`,
+				rule: `δ = 5wL⁴/(384EI) ≤ L/${input.ratio}`,
+				source,
+				suggestedPrep: fix(deflectionPass),
+				cautions: STRUCTURE
+			},
+			{
+				check: 'joist_bending',
+				pass: bendingPass,
+				measured: bendingStressPsi,
+				limit: fbAllowedPsi,
+				unit: 'psi',
+				message: `Bending stress ${Math.round(bendingStressPsi)} psi under ${live + dead} psf against F'b ${Math.round(fbAllowedPsi)} psi.`,
+				rule: "fb = wL²/8 ÷ S ≤ F'b = Fb × CD × CF × Cr",
+				source,
+				suggestedPrep: fix(bendingPass),
+				cautions: STRUCTURE
+			}
+		]
+	};
+}
+
+// ---------------------------------------------------------------- sheathing
+
+export interface SheathingInput {
+	kind: 'plywood' | 'osb' | 'board';
+	thicknessIn: number;
+	/** Panel span rating stamped on the panel, e.g. `32/16`, `24 oc`. */
+	spanRating?: string;
+	joistSpacingIn: number;
+	floorKind?: FloorKind;
+}
+
+/** Sheathing thickness and span rating against the joist spacing and the floor's minimum. */
+export function sheathingChecks(
+	input: SheathingInput,
+	settings: StoreSettings['sheathing']
+): Check[] {
+	const checks: Check[] = [];
+	const spacing = input.joistSpacingIn;
+	const overlay = (need: number): SuggestedPrep[] => [
+		{
+			kind: 'subfloor_overlay',
+			note: `Add a structural panel layer to reach at least ${formatLength(need, 'in')} total, glued and fastened to the joists' schedule.`
+		}
+	];
+	if (input.kind === 'board') {
+		const row = settings.boardMinIn.find((r) => spacing <= r.maxSpacingIn);
+		const need = row?.minIn ?? Infinity;
+		const pass = row !== undefined && atLeast(input.thicknessIn, need);
+		checks.push({
+			check: 'sheathing_boards',
+			pass,
+			measured: input.thicknessIn,
+			limit: need,
+			unit: 'in',
+			message: row
+				? `Board sheathing ${formatLength(input.thicknessIn, 'in')} over joists at ${spacing} in; needs ${formatLength(need, 'in')}.`
+				: `No board sheathing rule for joists wider apart than ${settings.boardMinIn.at(-1)?.maxSpacingIn} in.`,
+			rule: 'lumber sheathing thickness by joist spacing (perpendicular to joists)',
+			source: 'IRC Table R503.1 (published)',
+			suggestedPrep: pass ? [] : overlay(row?.minIn ?? input.thicknessIn),
+			cautions: STRUCTURE
+		});
+	} else if (input.spanRating) {
+		const allowed = settings.spanRatingFloorIn[input.spanRating.trim()];
+		const pass = allowed !== undefined && atMost(spacing, allowed);
+		checks.push({
+			check: 'sheathing_span_rating',
+			pass,
+			measured: spacing,
+			limit: allowed ?? 0,
+			unit: 'in',
+			message:
+				allowed === undefined
+					? `Span rating "${input.spanRating}" is not in the store's table.`
+					: `Span rating ${input.spanRating} allows joists up to ${allowed} in o.c.; they are at ${spacing} in.`,
+			rule: 'panel span rating against joist spacing',
+			source: 'IRC Table R503.2.1.1(1) (memory; partly secondary)',
+			suggestedPrep: pass ? [] : overlay(input.thicknessIn + 0.5),
+			cautions: STRUCTURE
+		});
+	}
+	const floorRows = input.floorKind ? settings.floorMinIn[input.floorKind] : undefined;
+	if (floorRows && input.kind !== 'board') {
+		const row = floorRows.find((r) => spacing <= r.maxSpacingIn);
+		const need = row ? (input.kind === 'osb' ? row.osbIn : row.plywoodIn) : Infinity;
+		const pass = row !== undefined && atLeast(input.thicknessIn, need);
+		checks.push({
+			check: 'sheathing_floor_minimum',
+			pass,
+			measured: input.thicknessIn,
+			limit: need,
+			unit: 'in',
+			message: row
+				? `${input.kind === 'osb' ? 'OSB' : 'Plywood'} ${formatLength(input.thicknessIn, 'in')} over joists at ${spacing} in; this floor needs ${formatLength(need, 'in')}.`
+				: `No panel rule for this floor over joists wider apart than ${floorRows.at(-1)?.maxSpacingIn} in.`,
+			rule: 'subfloor panel thickness under nailed wood flooring by joist spacing',
+			source: 'NWFA guidance in Wood Floor Business (published)',
+			suggestedPrep: pass ? [] : overlay(row ? need : input.thicknessIn),
+			cautions: ['planning_aid', 'maker_instructions']
+		});
+	}
+	return checks;
+}
+
+// ---------------------------------------------------------------- flatness
+
+/**
+ * The flatness rules for a floor over a subfloor; `null` for floors with no flatness rule
+ * (carpet). A tile with any edge ≥ the large-format threshold takes the large-format rule.
+ */
+export function flatnessRules(
+	floorKind: FloorKind,
+	subfloor: 'wood' | 'concrete',
+	settings: StoreSettings['flatness'],
+	tileEdgesIn: readonly number[] = []
+): FlatnessRule[] | null {
+	if (floorKind === 'ceramic_tile' || floorKind === 'stone_tile') {
+		const large = tileEdgesIn.some((e) => atLeast(e, settings.largeTileEdgeIn));
+		return settings.rules[large ? 'large_tile' : 'tile'];
+	}
+	if (floorKind === 'vinyl_plank' || floorKind === 'sheet_vinyl')
+		return settings.rules[subfloor === 'concrete' ? 'resilient_concrete' : 'resilient_wood'];
+	if (floorKind === 'carpet') return null;
+	return settings.rules.wood;
+}
+
+export interface FlatnessReading {
+	/** Straightedge length, in. */
+	spanIn: number;
+	/** Largest gap under it, in. */
+	gapIn: number;
+	/** A low spot (default) is filled; a high spot is ground down. */
+	kind?: 'low' | 'high';
+}
+
+/**
+ * A straightedge reading against the rules: it is held to the rule with the shortest span at
+ * least as long as the straightedge (a reading longer than every rule is held to the longest
+ * rule, unscaled). A gap exactly at the tolerance passes.
+ */
+export function flatnessCheck(reading: FlatnessReading, rules: readonly FlatnessRule[]): Check {
+	const sorted = [...rules].sort((a, b) => a.overIn - b.overIn);
+	const rule = sorted.find((r) => atLeast(r.overIn, reading.spanIn)) ?? sorted[sorted.length - 1];
+	const pass = atMost(reading.gapIn, rule.gapIn);
+	const high = reading.kind === 'high';
+	return {
+		check: 'flatness',
+		pass,
+		measured: reading.gapIn,
+		limit: rule.gapIn,
+		unit: 'in',
+		message: `${high ? 'High spot' : 'Gap'} of ${formatLength(reading.gapIn, 'in')} under a ${formatLength(reading.spanIn)} straightedge; allowed ${formatLength(rule.gapIn, 'in')} in ${formatLength(rule.overIn)}.`,
+		rule: `${formatLength(rule.gapIn, 'in')} in ${formatLength(rule.overIn)}`,
+		source: rule.source,
+		suggestedPrep: pass
+			? []
+			: high
+				? [{ kind: 'grind', note: 'Grind (concrete) or plane/sand (wood) the high spot.' }]
+				: [{ kind: 'level', note: 'Fill the low spot with patch or self-levelling underlayment.' }],
+		cautions: pass ? ['maker_instructions'] : ['maker_instructions', 'dust_tools']
+	};
+}
+
+// ---------------------------------------------------------------- moisture
+
+/** Tests an area needs: `first` for the first block, one more per further block or part. */
+export function testsNeeded(
+	areaSqFt: number,
+	rule: { first: number; firstSqFt: number; perSqFt: number }
+): number {
+	return rule.first + ceilUnits(Math.max(0, areaSqFt - rule.firstSqFt) / rule.perSqFt);
+}
+
+function countCheck(
+	check: CheckKind,
+	have: number,
+	need: number,
+	areaSqFt: number,
+	source: string
+): Check {
+	const pass = have >= need;
+	return {
+		check,
+		pass,
+		measured: have,
+		limit: need,
+		unit: 'tests',
+		message: `${have} of ${need} tests for ${Math.round(areaSqFt)} ft².`,
+		rule: 'tests for the first 1000 ft², one more for each further 1000 ft² or part',
+		source,
+		suggestedPrep: pass ? [] : [{ kind: 'moisture_test', note: `Take ${need - have} more tests.` }],
+		cautions: ['moisture']
+	};
+}
+
+const concreteFix: SuggestedPrep[] = [
+	{
+		kind: 'moisture_barrier',
+		note: 'Use a moisture barrier the floor maker allows, or let the slab dry and retest.'
+	}
+];
+
+/** In-situ RH probes (ASTM F2170) against the limit, and whether there are enough of them. */
+export function rhChecks(
+	input: { readingsPct: readonly number[]; areaSqFt: number; limitPct: number },
+	settings: StoreSettings['moisture']
+): Check[] {
+	const worst = Math.max(...input.readingsPct);
+	const pass = atMost(worst, input.limitPct);
+	return [
+		{
+			check: 'moisture_rh',
+			pass,
+			measured: worst,
+			limit: input.limitPct,
+			unit: '% RH',
+			message: `Highest in-situ RH ${worst} %; the floor allows ${input.limitPct} %.`,
+			rule: `every probe ≤ ${input.limitPct} % RH`,
+			source: 'ASTM F710 / ASTM F2170 (secondary)',
+			suggestedPrep: pass ? [] : concreteFix,
+			cautions: ['moisture']
+		},
+		countCheck(
+			'moisture_rh_tests',
+			input.readingsPct.length,
+			testsNeeded(input.areaSqFt, settings.rhTests),
+			input.areaSqFt,
+			'ASTM F2170 §10.1 (secondary)'
+		)
+	];
+}
+
+export interface CalciumChlorideTest {
+	/** Weight gain of the dish, g. */
+	gainGrams: number;
+	/** Area under the test dome, ft². */
+	areaSqFt: number;
+	/** Exposure, h. */
+	hours: number;
+}
+
+/**
+ * Moisture vapour emission rate, lb/1000 ft²/24 h: 24,000 × gain ÷ (g per lb × area × hours)
+ * (ASTM F1869, secondary). The exact pound (453.59237 g) is used; the secondary quote's
+ * 453.612 differs by 0.004 %.
+ */
+export function mver(test: CalciumChlorideTest): number {
+	return (24_000 * test.gainGrams) / (GRAMS_PER_LB * test.areaSqFt * test.hours);
+}
+
+/** Calcium-chloride tests against the MVER limit, and whether there are enough of them. */
+export function mverChecks(
+	input: { tests: readonly CalciumChlorideTest[]; areaSqFt: number; limit: number },
+	settings: StoreSettings['moisture']
+): Check[] {
+	const worst = Math.max(...input.tests.map(mver));
+	const pass = atMost(worst, input.limit);
+	return [
+		{
+			check: 'moisture_mver',
+			pass,
+			measured: worst,
+			limit: input.limit,
+			unit: 'lb/1000 ft²/24 h',
+			message: `Highest MVER ${worst.toFixed(2)} lb/1000 ft²/24 h; the floor allows ${input.limit}.`,
+			rule: 'MVER = 24,000 × gain (g) ÷ (453.59 × area (ft²) × hours)',
+			source: 'ASTM F1869 (secondary)',
+			suggestedPrep: pass ? [] : concreteFix,
+			cautions: ['moisture']
+		},
+		countCheck(
+			'moisture_mver_tests',
+			input.tests.length,
+			testsNeeded(input.areaSqFt, settings.mverTests),
+			input.areaSqFt,
+			'ASTM F1869 (memory)'
+		)
+	];
+}
+
+const mean = (xs: readonly number[]) => xs.reduce((t, x) => t + x, 0) / xs.length;
+
+/**
+ * Wood moisture: the subfloor's highest reading against its maximum, and the difference
+ * between subfloor and flooring averages by board width (NWFA installation guidelines,
+ * published via Hardwood Floors 2017).
+ */
+export function woodMoistureChecks(
+	input: { subfloorPct: readonly number[]; flooringPct: readonly number[]; boardWidthIn?: number },
+	settings: StoreSettings['moisture']
+): Check[] {
+	const source = 'NWFA installation guidelines (published, via Hardwood Floors 2017)';
+	const retest: SuggestedPrep[] = [
+		{
+			kind: 'moisture_retest',
+			note: 'Let the subfloor dry or the flooring acclimate, then retest.'
+		}
+	];
+	const checks: Check[] = [];
+	if (input.subfloorPct.length > 0) {
+		const worst = Math.max(...input.subfloorPct);
+		const pass = atMost(worst, settings.woodSubfloorMaxPct);
+		checks.push({
+			check: 'wood_subfloor_mc',
+			pass,
+			measured: worst,
+			limit: settings.woodSubfloorMaxPct,
+			unit: '% MC',
+			message: `Highest subfloor reading ${worst} % MC; at most ${settings.woodSubfloorMaxPct} %.`,
+			rule: `wood subfloor ≤ ${settings.woodSubfloorMaxPct} % MC`,
+			source,
+			suggestedPrep: pass ? [] : retest,
+			cautions: ['moisture']
+		});
+	}
+	if (input.subfloorPct.length > 0 && input.flooringPct.length > 0) {
+		const wide = atLeast(input.boardWidthIn ?? 0, settings.wideFromIn);
+		const limit = wide ? settings.woodDiffWidePct : settings.woodDiffStripPct;
+		const diff = Math.abs(mean(input.subfloorPct) - mean(input.flooringPct));
+		const pass = atMost(diff, limit);
+		checks.push({
+			check: 'wood_mc_difference',
+			pass,
+			measured: diff,
+			limit,
+			unit: '% MC',
+			message: `Subfloor and flooring differ by ${diff.toFixed(1)} % MC; ${wide ? 'wide plank' : 'strip'} flooring allows ${limit} %.`,
+			rule: `|subfloor − flooring| ≤ ${limit} % (${wide ? `boards ${settings.wideFromIn} in or wider` : `boards under ${settings.wideFromIn} in`})`,
+			source,
+			suggestedPrep: pass ? [] : retest,
+			cautions: ['moisture']
+		});
+	}
+	return checks;
+}

@@ -1,0 +1,504 @@
+/**
+ * Quantities that can be bought: cartons, roll drops and seams, underlayment panels and their
+ * fasteners, patch, leveller, and the pieces that close a subfloor hole.
+ */
+import type { Polygon } from 'polygon-clipping';
+import { ceilTo, ceilUnits, floorUnits } from './math';
+import type { FasteningSchedule, HoleMethod } from './settings';
+import { CUIN_PER_US_GAL, SQIN_PER_SQFT, SQIN_PER_SQYD } from './units';
+
+/** What every takeoff reports besides its numbers, so a page can show the rule. */
+export interface Rule {
+	rule: string;
+	source: string;
+}
+
+export interface CartonTakeoff extends Rule {
+	areaSqFt: number;
+	wastePct: number;
+	/** Area with waste, ft². */
+	neededSqFt: number;
+	cartons: number;
+	/** What the cartons cover, ft². */
+	suppliedSqFt: number;
+}
+
+/**
+ * Cartons for carton goods: area × (1 + waste) ÷ carton coverage, rounded up to whole cartons.
+ */
+export function cartonTakeoff(input: {
+	areaSqFt: number;
+	wastePct: number;
+	coverageSqFt: number;
+}): CartonTakeoff {
+	const neededSqFt = input.areaSqFt * (1 + input.wastePct / 100);
+	const cartons = ceilUnits(neededSqFt / input.coverageSqFt);
+	return {
+		areaSqFt: input.areaSqFt,
+		wastePct: input.wastePct,
+		neededSqFt,
+		cartons,
+		suppliedSqFt: cartons * input.coverageSqFt,
+		rule: 'cartons = ⌈area × (1 + waste) ÷ carton coverage⌉',
+		source: 'common practice; waste by layout is a store setting with no published standard'
+	};
+}
+
+export type RollDirection = 'x' | 'y';
+
+export interface Drop {
+	/** Index of the strip (one roll width) the drop fills. */
+	strip: number;
+	/** Where the drop starts along its run, in. */
+	startIn: number;
+	/** Room length the drop covers, in. */
+	coverIn: number;
+	/** Length cut from the roll: cover + trim at both ends, in. */
+	cutIn: number;
+}
+
+export interface RollLayout {
+	/** Drops run along this axis of the room outline. */
+	direction: RollDirection;
+	drops: Drop[];
+	seams: number;
+	seamLengthIn: number;
+	/** Total cut length, in. */
+	cutLengthIn: number;
+	/** Ordered length: cut length rounded up to the order increment, in. */
+	orderLengthIn: number;
+	orderLinFt: number;
+	orderSqFt: number;
+	orderSqYd: number;
+}
+
+export interface RollTakeoff extends RollLayout, Rule {
+	rollWidthIn: number;
+	trimPerEndIn: number;
+	/** The other direction, for comparison. */
+	other: RollLayout;
+}
+
+type Edge = [number, number, number, number];
+
+function edgesOf(polygon: Polygon, swap: boolean): Edge[] {
+	const edges: Edge[] = [];
+	for (const ring of polygon) {
+		for (let i = 0, n = ring.length, j = n - 1; i < n; j = i++) {
+			const a = ring[j];
+			const b = ring[i];
+			edges.push(swap ? [a[1], a[0], b[1], b[0]] : [a[0], a[1], b[0], b[1]]);
+		}
+	}
+	return edges;
+}
+
+function xAt(e: Edge, y: number): number {
+	return e[0] + ((y - e[1]) * (e[2] - e[0])) / (e[3] - e[1]);
+}
+
+/** Edges crossing the line y (half-open in y so a vertex counts once), sorted by x there. */
+function crossing(edges: readonly Edge[], y: number): Edge[] {
+	const hit: { e: Edge; x: number }[] = [];
+	for (const e of edges) {
+		const lo = Math.min(e[1], e[3]);
+		const hi = Math.max(e[1], e[3]);
+		if (lo <= y && y < hi) hit.push({ e, x: xAt(e, y) });
+	}
+	hit.sort((a, b) => a.x - b.x);
+	return hit.map((h) => h.e);
+}
+
+function merge(intervals: [number, number][]): [number, number][] {
+	intervals.sort((a, b) => a[0] - b[0]);
+	const out: [number, number][] = [];
+	for (const iv of intervals) {
+		const last = out[out.length - 1];
+		if (last && iv[0] <= last[1] + 1e-9) last[1] = Math.max(last[1], iv[1]);
+		else out.push([iv[0], iv[1]]);
+	}
+	return out;
+}
+
+/**
+ * Where the floor lies across the band y0..y1, as merged x-intervals: the projection of
+ * (floor ∩ band). Between consecutive vertex heights every edge is straight, so each
+ * left/right edge pair bounds a trapezoid whose x-extent is read at the sub-band's ends.
+ */
+function bandIntervals(edges: readonly Edge[], ys: readonly number[], y0: number, y1: number) {
+	const cuts = [y0];
+	for (const y of ys) if (y > y0 && y < y1) cuts.push(y);
+	cuts.push(y1);
+	const out: [number, number][] = [];
+	for (let k = 0; k + 1 < cuts.length; k++) {
+		const ya = cuts[k];
+		const yb = cuts[k + 1];
+		if (yb - ya < 1e-12) continue;
+		const hit = crossing(edges, (ya + yb) / 2);
+		for (let i = 0; i + 1 < hit.length; i += 2) {
+			const l = hit[i];
+			const r = hit[i + 1];
+			out.push([Math.min(xAt(l, ya), xAt(l, yb)), Math.max(xAt(r, ya), xAt(r, yb))]);
+		}
+	}
+	return merge(out);
+}
+
+/** Floor along the line y, seen from just below or above it (exact: edges are read at y). */
+function sideIntervals(
+	edges: readonly Edge[],
+	ys: readonly number[],
+	y: number,
+	side: -1 | 1
+): [number, number][] {
+	let near = y + side;
+	for (const v of ys) if (side < 0 ? v < y && v > near : v > y && v < near) near = v;
+	const hit = crossing(edges, (y + near) / 2);
+	const out: [number, number][] = [];
+	for (let i = 0; i + 1 < hit.length; i += 2) out.push([xAt(hit[i], y), xAt(hit[i + 1], y)]);
+	return out;
+}
+
+/** Where two drops meet along the line y: the runs of floor on both sides of it. */
+function seamRuns(edges: readonly Edge[], ys: readonly number[], y: number): number[] {
+	const below = sideIntervals(edges, ys, y, -1);
+	const above = sideIntervals(edges, ys, y, 1);
+	const runs: number[] = [];
+	for (const a of below)
+		for (const b of above) {
+			const len = Math.min(a[1], b[1]) - Math.max(a[0], b[0]);
+			if (len > 1e-9) runs.push(len);
+		}
+	return runs;
+}
+
+function layout(
+	polygon: Polygon,
+	isRect: boolean,
+	direction: RollDirection,
+	rollWidthIn: number,
+	trimPerEndIn: number,
+	orderIncrementIn: number
+): RollLayout {
+	const swap = direction === 'y';
+	const edges = edgesOf(polygon, swap);
+	let minY = Infinity;
+	let maxY = -Infinity;
+	let minX = Infinity;
+	let maxX = -Infinity;
+	const ys: number[] = [];
+	for (const e of edges) {
+		ys.push(e[1]);
+		minY = Math.min(minY, e[1]);
+		maxY = Math.max(maxY, e[1]);
+		minX = Math.min(minX, e[0]);
+		maxX = Math.max(maxX, e[0]);
+	}
+	ys.sort((a, b) => a - b);
+	const strips = ceilUnits((maxY - minY) / rollWidthIn);
+	const drops: Drop[] = [];
+	let seams = 0;
+	let seamLengthIn = 0;
+	for (let s = 0; s < strips; s++) {
+		const y0 = minY + s * rollWidthIn;
+		const y1 = Math.min(maxY, y0 + rollWidthIn);
+		const intervals: [number, number][] = isRect
+			? [[minX, maxX]]
+			: bandIntervals(edges, ys, y0, y1);
+		for (const [a, b] of intervals)
+			drops.push({ strip: s, startIn: a, coverIn: b - a, cutIn: b - a + 2 * trimPerEndIn });
+		if (s > 0) {
+			const runs = isRect ? [maxX - minX] : seamRuns(edges, ys, y0);
+			seams += runs.length;
+			for (const r of runs) seamLengthIn += r;
+		}
+	}
+	const cutLengthIn = drops.reduce((t, d) => t + d.cutIn, 0);
+	const orderLengthIn = ceilTo(cutLengthIn, orderIncrementIn);
+	const orderSqIn = orderLengthIn * rollWidthIn;
+	return {
+		direction,
+		drops,
+		seams,
+		seamLengthIn,
+		cutLengthIn,
+		orderLengthIn,
+		orderLinFt: orderLengthIn / 12,
+		orderSqFt: orderSqIn / SQIN_PER_SQFT,
+		orderSqYd: orderSqIn / SQIN_PER_SQYD
+	};
+}
+
+/**
+ * Roll goods (sheet vinyl, carpet): drops at the roll width across the room, each cut to the
+ * room's length in its strip plus trim at both ends; seams where strips meet. Both directions
+ * are tried and the one using less material is kept (fewer seams on a tie).
+ */
+export function rollTakeoff(input: {
+	polygon: Polygon;
+	isRect?: boolean;
+	rollWidthIn: number;
+	trimPerEndIn: number;
+	orderIncrementIn: number;
+	direction?: RollDirection;
+}): RollTakeoff {
+	const args = [input.rollWidthIn, input.trimPerEndIn, input.orderIncrementIn] as const;
+	const x = layout(input.polygon, !!input.isRect, 'x', ...args);
+	const y = layout(input.polygon, !!input.isRect, 'y', ...args);
+	let pick: RollLayout;
+	if (input.direction) pick = input.direction === 'x' ? x : y;
+	else if (y.orderLengthIn < x.orderLengthIn - 1e-9) pick = y;
+	else if (x.orderLengthIn < y.orderLengthIn - 1e-9) pick = x;
+	else pick = y.seams < x.seams ? y : x;
+	return {
+		direction: pick.direction,
+		drops: pick.drops,
+		seams: pick.seams,
+		seamLengthIn: pick.seamLengthIn,
+		cutLengthIn: pick.cutLengthIn,
+		orderLengthIn: pick.orderLengthIn,
+		orderLinFt: pick.orderLinFt,
+		orderSqFt: pick.orderSqFt,
+		orderSqYd: pick.orderSqYd,
+		other: pick === x ? y : x,
+		rollWidthIn: input.rollWidthIn,
+		trimPerEndIn: input.trimPerEndIn,
+		rule: 'drops at the roll width; each cut = run + trim per end; less material of the two directions; 1 yd² = 9 ft²',
+		source: 'common practice; roll widths and trim per end are store settings'
+	};
+}
+
+export interface FastenerCount extends Rule {
+	perimeter: number;
+	field: number;
+	perPanel: number;
+}
+
+/** Fasteners along one edge: first and last at the ends, none further apart than `spacing`. */
+function edgeRow(lengthIn: number, s: FasteningSchedule): number {
+	return ceilUnits((lengthIn - 2 * s.edgeDistanceIn) / s.edgeSpacingIn) + 1;
+}
+
+/** Field lines at multiples of the field spacing, none closer than half a spacing to an edge. */
+function fieldLines(lengthIn: number, s: FasteningSchedule): number {
+	return Math.max(0, floorUnits(lengthIn / s.fieldSpacingIn - 0.5));
+}
+
+/**
+ * Fasteners in one panel: edge rows at the edge distance and edge spacing (corners counted
+ * once), plus a field grid at the field spacing each way.
+ */
+export function fastenersPerPanel(
+	panel: { widthIn: number; lengthIn: number },
+	schedule: FasteningSchedule
+): FastenerCount {
+	const perimeter =
+		2 * edgeRow(panel.widthIn, schedule) + 2 * edgeRow(panel.lengthIn, schedule) - 4;
+	const field = fieldLines(panel.widthIn, schedule) * fieldLines(panel.lengthIn, schedule);
+	return {
+		perimeter,
+		field,
+		perPanel: perimeter + field,
+		rule: `edges ${schedule.edgeSpacingIn} in o.c. at ${schedule.edgeDistanceIn} in from the edge, field ${schedule.fieldSpacingIn} in each way`,
+		source: schedule.source
+	};
+}
+
+export interface UnderlaymentTakeoff extends Rule {
+	panels: number;
+	panelSqFt: number;
+	fastenersPerPanel: number;
+	fasteners: number;
+	/** Boxes, when fasteners are sold by the box. */
+	boxes?: number;
+	schedule: FasteningSchedule;
+}
+
+/** Underlayment panels over an area (waste allowed) and the fasteners they take. */
+export function underlaymentTakeoff(input: {
+	areaSqFt: number;
+	wastePct: number;
+	panel: { widthIn: number; lengthIn: number };
+	schedule: FasteningSchedule;
+	perBox?: number;
+}): UnderlaymentTakeoff {
+	const panelSqFt = (input.panel.widthIn * input.panel.lengthIn) / SQIN_PER_SQFT;
+	const panels = ceilUnits((input.areaSqFt * (1 + input.wastePct / 100)) / panelSqFt);
+	const count = fastenersPerPanel(input.panel, input.schedule);
+	const fasteners = panels * count.perPanel;
+	return {
+		panels,
+		panelSqFt,
+		fastenersPerPanel: count.perPanel,
+		fasteners,
+		boxes: input.perBox ? ceilUnits(fasteners / input.perBox) : undefined,
+		schedule: input.schedule,
+		rule: `panels = ⌈area × (1 + waste) ÷ ${panelSqFt} ft²⌉; ${count.rule}`,
+		source: `APA product literature (published) for the panel; ${input.schedule.source} for fasteners`
+	};
+}
+
+/** A patch container: its volume, or a coverage at a stated depth. */
+export type PatchContainer = { volumeCuIn: number } | { coverageSqFt: number; atDepthIn: number };
+
+export interface Void {
+	lengthIn: number;
+	widthIn: number;
+	depthIn: number;
+}
+
+export interface PatchTakeoff extends Rule {
+	volumeCuIn: number;
+	volumeUsGal: number;
+	containerCuIn: number;
+	containers: number;
+}
+
+/** Cubic inches a container holds. */
+export function containerVolume(c: PatchContainer): number {
+	return 'volumeCuIn' in c ? c.volumeCuIn : c.coverageSqFt * SQIN_PER_SQFT * c.atDepthIn;
+}
+
+/** Patch for open seams and dents: Σ length × width × depth, with waste, in whole containers. */
+export function patchTakeoff(input: {
+	voids: readonly Void[];
+	wastePct: number;
+	container: PatchContainer;
+}): PatchTakeoff {
+	const volumeCuIn = input.voids.reduce((t, v) => t + v.lengthIn * v.widthIn * v.depthIn, 0);
+	const containerCuIn = containerVolume(input.container);
+	return {
+		volumeCuIn,
+		volumeUsGal: volumeCuIn / CUIN_PER_US_GAL,
+		containerCuIn,
+		containers: ceilUnits((volumeCuIn * (1 + input.wastePct / 100)) / containerCuIn),
+		rule: 'volume = Σ length × width × depth; containers = ⌈volume × (1 + waste) ÷ container⌉',
+		source: 'geometry; container size from the product data sheet'
+	};
+}
+
+export interface LevellerTakeoff extends Rule {
+	/** Volume to fill, ft³. */
+	volumeCuFt: number;
+	/** ft² one bag covers at the average depth (single area only). */
+	coverageSqFtPerBag?: number;
+	bags: number;
+}
+
+/**
+ * Self-levelling underlayment: coverage = bag yield (ft³) × 12 ÷ depth (in); bags rounded up.
+ * Several areas add their volumes before rounding.
+ */
+export function levellerTakeoff(input: {
+	areas: readonly { areaSqFt: number; depthIn: number }[];
+	bagYieldCuFt: number;
+	wastePct: number;
+}): LevellerTakeoff {
+	const volumeCuFt = input.areas.reduce((t, a) => t + (a.areaSqFt * a.depthIn) / 12, 0);
+	const single = input.areas.length === 1 ? input.areas[0] : undefined;
+	return {
+		volumeCuFt,
+		coverageSqFtPerBag: single ? (input.bagYieldCuFt * 12) / single.depthIn : undefined,
+		bags: ceilUnits((volumeCuFt * (1 + input.wastePct / 100)) / input.bagYieldCuFt),
+		rule: 'coverage = yield (ft³) × 12 ÷ depth (in); bags = ⌈area × (1 + waste) ÷ coverage⌉',
+		source: 'TRADE.md Quantities; yield from the product data sheet'
+	};
+}
+
+/** Adds the rough-cut allowance to a measured length (common practice: 1/2 in). */
+export function roughCut(lengthIn: number, allowanceIn = 0.5): number {
+	return lengthIn + allowanceIn;
+}
+
+export interface RepairPiece {
+	name: 'blocking' | 'infill' | 'backing';
+	count: number;
+	/** Measured size, in. */
+	lengthIn: number;
+	widthIn: number;
+	thicknessIn: number;
+	/** Length to rough-cut (measured + allowance), in. */
+	cutLengthIn: number;
+	cutWidthIn: number;
+}
+
+export interface HoleRepair extends Rule {
+	ignored: boolean;
+	method: HoleMethod;
+	pieces: RepairPiece[];
+	/** New underlayment must go over the repair. */
+	needsUnderlayment: boolean;
+}
+
+/**
+ * How a hole in the subfloor is closed for the floor going over it (TRADE.md "Subfloor
+ * repairs", common practice): blocking between the joists plus a flush infill (tile,
+ * resilient), or backing plus infill for a nailing surface (nailed wood). Holes smaller than
+ * `ignoreUnderIn` need nothing when a new underlayment panel covers them.
+ */
+export function holeRepair(input: {
+	widthIn: number;
+	lengthIn: number;
+	method: HoleMethod;
+	newUnderlayment: boolean;
+	ignoreUnderIn: number;
+	subfloorThicknessIn: number;
+	joistSpacingIn: number;
+	joistThicknessIn: number;
+	backingLapIn: number;
+	roughCutAllowanceIn: number;
+}): HoleRepair {
+	const size = Math.max(input.widthIn, input.lengthIn);
+	const source = 'common practice (TRADE.md "Subfloor repairs")';
+	const needsUnderlayment = input.method === 'blocking_underlayment';
+	if (input.newUnderlayment && size < input.ignoreUnderIn)
+		return {
+			ignored: true,
+			method: input.method,
+			pieces: [],
+			needsUnderlayment,
+			rule: `holes under ${input.ignoreUnderIn} in need no patch under new underlayment`,
+			source
+		};
+	const a = input.roughCutAllowanceIn;
+	const piece = (
+		name: RepairPiece['name'],
+		count: number,
+		lengthIn: number,
+		widthIn: number,
+		thicknessIn: number
+	): RepairPiece => ({
+		name,
+		count,
+		lengthIn,
+		widthIn,
+		thicknessIn,
+		cutLengthIn: roughCut(lengthIn, a),
+		cutWidthIn: roughCut(widthIn, a)
+	});
+	const infill = piece('infill', 1, input.lengthIn, input.widthIn, input.subfloorThicknessIn);
+	const pieces: RepairPiece[] = [];
+	if (input.method === 'backing') {
+		const lap = 2 * input.backingLapIn;
+		pieces.push(
+			piece('backing', 1, input.lengthIn + lap, input.widthIn + lap, input.subfloorThicknessIn),
+			infill
+		);
+	} else {
+		const bays = Math.max(1, ceilUnits(input.widthIn / input.joistSpacingIn));
+		const clear = input.joistSpacingIn - input.joistThicknessIn;
+		// 2x4 blocking, dressed 1.5 × 3.5 in: NDS Supplement Table 1B (published)
+		pieces.push(piece('blocking', 2 * bays, clear, 3.5, 1.5), infill);
+	}
+	return {
+		ignored: false,
+		method: input.method,
+		pieces,
+		needsUnderlayment,
+		rule:
+			input.method === 'backing'
+				? 'backing under the hole and a flush infill, for a nailing surface'
+				: 'blocking between the joists at both sides of the hole and a flush infill of the subfloor thickness',
+		source
+	};
+}
