@@ -8,7 +8,12 @@ import { createAuth } from '../src/lib/server/create-auth';
 import { db, pool } from '../src/lib/server/db/index';
 import * as customers from '../src/lib/server/db/queries/customers';
 import * as jobs from '../src/lib/server/db/queries/jobs';
+import * as priceBook from '../src/lib/server/db/queries/price-book';
+import * as tradeSettings from '../src/lib/server/db/queries/settings';
 import { saveProfile } from '../src/lib/server/db/queries/stores';
+import { defaultSettings } from '../src/lib/estimating';
+import { samplePriceBook } from '../src/lib/estimating/sample';
+import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
 
@@ -82,6 +87,80 @@ const JOBS: { customer: number; title: string; path: JobStatus[]; installer?: nu
 
 const noMail = async () => ({ id: 'seed' });
 
+/** Floors beyond the engine's sample book, so every kind of floor can be sold in the demo. */
+const MORE_FLOORS = [
+	{
+		name: 'Walnut-look laminate 8 mm',
+		kind: 'laminate',
+		cartonSqFt: 19.8,
+		material: { basis: 'carton', priceCents: 5_350, costCents: 3_100 },
+		labourCentsPerSqFt: 175,
+		payCentsPerSqFt: 115
+	},
+	{
+		name: 'Honed slate 16 × 16 in',
+		kind: 'stone_tile',
+		cartonSqFt: 10.7,
+		tileEdgesIn: [16, 16],
+		material: { basis: 'carton', priceCents: 8_900, costCents: 5_400 },
+		labourCentsPerSqFt: 800,
+		payCentsPerSqFt: 520
+	},
+	{
+		name: 'Berber carpet 15 ft',
+		kind: 'carpet',
+		rollWidthIn: 180,
+		material: { basis: 'roll_sqyd', priceCents: 2_450, costCents: 1_350 },
+		labourCentsPerSqFt: 90,
+		payCentsPerSqFt: 60
+	}
+];
+
+/** The demo store's trade settings and price book (invented products, sensible trade prices). */
+export async function seedPriceBook(storeId: string) {
+	await tradeSettings.save(storeId, {
+		settings: {
+			...defaultSettings,
+			taxes: [{ name: 'Bramblefield sales tax', rateBps: 650, groups: ['material'] }],
+			deposit: { percentBps: 3000, minimumCents: 25_000 }
+		},
+		currency: 'USD',
+		quoteValidDays: 30
+	});
+	const { floors, prep, removal, supplies } = samplePriceBook;
+	for (const { id: _id, name, ...data } of floors) {
+		await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+	}
+	for (const floor of MORE_FLOORS) {
+		const { name, ...data } = floor;
+		await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+	}
+	for (const item of prep) {
+		await priceBook.create(storeId, {
+			section: 'prep',
+			code: item.kind,
+			name: PREP_LABELS[item.kind],
+			data: item
+		});
+	}
+	for (const item of removal) {
+		await priceBook.create(storeId, {
+			section: 'removal',
+			code: item.existing,
+			name: `Tear out ${EXISTING_FLOOR_LABELS[item.existing].toLowerCase()}`,
+			data: item
+		});
+	}
+	for (const item of supplies) {
+		await priceBook.create(storeId, {
+			section: 'supply',
+			code: item.kind,
+			name: item.name,
+			data: item
+		});
+	}
+}
+
 export async function seedDemo() {
 	const auth = createAuth({
 		db,
@@ -108,6 +187,7 @@ export async function seedDemo() {
 			body: { userId: ids.get(person.email)!, role: person.role, organizationId: store.id }
 		});
 	}
+	await seedPriceBook(store.id);
 	await saveProfile(store.id, {
 		address: '418 Millrace Road',
 		town: 'Bramblefield',

@@ -48,7 +48,7 @@ test('an owner starts a store and invites a salesperson, who joins with the sale
 	await expect(page).toHaveURL(/\/app$/);
 	await expect(page.getByText('Tamsin Yew · Sales')).toBeVisible();
 	const salesNav = page.getByRole('navigation', { name: 'Main' }).last();
-	await expect(salesNav.getByRole('link')).toHaveText(['Desk', 'Jobs', 'Customers']);
+	await expect(salesNav.getByRole('link')).toHaveText(['Desk', 'Jobs', 'Customers', 'Calculators']);
 
 	const refused = await page.goto('/app/settings');
 	expect(refused?.status()).toBe(403);

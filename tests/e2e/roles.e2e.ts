@@ -2,9 +2,9 @@ import { expect, test } from '@playwright/test';
 import { demoEmail, signIn } from './helpers';
 
 const expected = {
-	owner: ['Desk', 'Jobs', 'Customers', 'Team', 'Store settings'],
-	manager: ['Desk', 'Jobs', 'Customers'],
-	sales: ['Desk', 'Jobs', 'Customers']
+	owner: ['Desk', 'Jobs', 'Customers', 'Price book', 'Calculators', 'Team', 'Store settings'],
+	manager: ['Desk', 'Jobs', 'Customers', 'Price book', 'Calculators'],
+	sales: ['Desk', 'Jobs', 'Customers', 'Calculators']
 } as const;
 
 for (const [role, links] of Object.entries(expected)) {

@@ -3,6 +3,14 @@ import { createAuth } from '$lib/server/create-auth';
 import { db } from '$lib/server/db';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
+import * as measures from '$lib/server/db/queries/measures';
+import * as priceBook from '$lib/server/db/queries/price-book';
+import * as quotes from '$lib/server/db/queries/quotes';
+import * as tradeSettings from '$lib/server/db/queries/settings';
+import * as sites from '$lib/server/db/queries/sites';
+import { defaultSettings } from '$lib/estimating';
+import { samplePriceBook } from '$lib/estimating/sample';
+import { emptyRoom } from '$lib/measure/draft';
 import type { Mail } from '$lib/server/mail/templates';
 import type { Role } from '$lib/server/permissions';
 
@@ -81,4 +89,91 @@ export async function makeJob(storeId: string, actorId: string, customerId?: str
 	);
 	if (!job) throw new Error('job not created');
 	return job;
+}
+
+/** The store's settings (engine defaults, a sales tax and a deposit rule) and the sample price book. */
+export async function makePriceBook(storeId: string) {
+	await tradeSettings.save(storeId, {
+		settings: {
+			...defaultSettings,
+			taxes: [{ name: 'Test sales tax', rateBps: 650, groups: ['material'] }],
+			deposit: { percentBps: 3000, minimumCents: 25_000 }
+		},
+		currency: 'USD',
+		quoteValidDays: 30
+	});
+	const floors: Record<string, string> = {};
+	for (const { id: sampleId, name, ...data } of samplePriceBook.floors) {
+		const row = await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+		floors[sampleId] = row.id;
+	}
+	for (const item of samplePriceBook.prep) {
+		await priceBook.create(storeId, {
+			section: 'prep',
+			code: item.kind,
+			name: item.kind,
+			data: item
+		});
+	}
+	for (const item of samplePriceBook.removal) {
+		await priceBook.create(storeId, {
+			section: 'removal',
+			code: item.existing,
+			name: item.existing,
+			data: item
+		});
+	}
+	for (const item of samplePriceBook.supplies) {
+		await priceBook.create(storeId, {
+			section: 'supply',
+			code: item.kind,
+			name: item.name,
+			data: item
+		});
+	}
+	return { floors };
+}
+
+export async function makeSite(storeId: string, customerId: string) {
+	const row = await sites.create(storeId, customerId, {
+		label: 'Home',
+		address: '9 Test Lane',
+		town: 'Testville',
+		postcode: '',
+		builtYear: 1962,
+		subfloor: 'plywood',
+		notes: ''
+	});
+	if (!row) throw new Error('site not created');
+	return row;
+}
+
+/** A measured room in feet and inches, with the floor given by its price-book id. */
+export function roomDraft(
+	id: string,
+	name: string,
+	productId: string,
+	width = "12'",
+	length = "10'"
+) {
+	return {
+		...emptyRoom(id, name),
+		shape: { kind: 'rect' as const, width, length },
+		floor: { productId, layout: 'straight' as const }
+	};
+}
+
+/** A job with a one-room measure, a price book and a built draft quote. */
+export async function makeQuotedJob(store: TestStore) {
+	const { floors } = await makePriceBook(store.id);
+	const customerRow = await makeCustomer(store.id);
+	const site = await makeSite(store.id, customerRow.id);
+	const jobRow = await makeJob(store.id, store.owner.id, customerRow.id);
+	await sites.setJobSite(store.id, jobRow.id, site.id);
+	const draft = { builtYear: '1962', rooms: [roomDraft('r1', 'Kitchen', floors['lvp-grey'])] };
+	const saved = await measures.save(store.id, jobRow.id, draft, 0, store.owner.id);
+	if (!saved.ok) throw new Error('measure not saved');
+	const built = await quotes.build(store.id, jobRow.id, store.owner.id);
+	if (!built.ok) throw new Error(`quote not built: ${JSON.stringify(built)}`);
+	return { job: jobRow, customer: customerRow, site, floors, draft, quote: built.quote };
 }

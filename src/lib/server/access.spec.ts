@@ -14,6 +14,7 @@ describe('sections by role', () => {
 		expect(refusal('/app/customers', 'installer')).toMatch(/your role in this store is Installer/);
 		expect(refusal('/field', 'sales')).toMatch(/Installer only/);
 		expect(refusal('/field/jobs/x', 'installer')).toBeNull();
+		expect(refusal('/app/price-book', 'sales')).toMatch(/Owner, Manager only/);
 	});
 
 	it('does not take a prefix for a section (/application is not /app)', () => {
@@ -25,16 +26,17 @@ describe('sections by role', () => {
 
 	it('gives each role its own navigation, built from the same rules', () => {
 		const hrefs = (role: Parameters<typeof navFor>[0]) => navFor(role).map((i) => i.href);
+		const desk = ['/app', '/app/jobs', '/app/customers'];
 		expect(hrefs('owner')).toEqual([
-			'/app',
-			'/app/jobs',
-			'/app/customers',
+			...desk,
+			'/app/price-book',
+			'/app/calculators',
 			'/app/team',
 			'/app/settings'
 		]);
-		expect(hrefs('manager')).toEqual(['/app', '/app/jobs', '/app/customers']);
-		expect(hrefs('sales')).toEqual(['/app', '/app/jobs', '/app/customers']);
-		expect(hrefs('installer')).toEqual(['/field']);
+		expect(hrefs('manager')).toEqual([...desk, '/app/price-book', '/app/calculators']);
+		expect(hrefs('sales')).toEqual([...desk, '/app/calculators']);
+		expect(hrefs('installer')).toEqual(['/field', '/field/calculators']);
 	});
 
 	it('lands installers on their own screens', () => {

@@ -16,11 +16,6 @@ const SECTIONS: Section[] = [
 	{ prefix: '/app/team', roles: ['owner'], name: 'The team' },
 	{ prefix: '/app/price-book', roles: ['owner', 'manager'], name: 'The price book' },
 	{ prefix: '/app/payments', roles: ['owner', 'manager'], name: 'Payments' },
-	{
-		prefix: '/app/calculators',
-		roles: ['owner', 'manager', 'sales', 'installer'],
-		name: 'Calculators'
-	},
 	{ prefix: '/app', roles: STAFF, name: 'The store desk' },
 	{ prefix: '/field', roles: ['installer'], name: 'The installer screens' }
 ];
@@ -52,7 +47,8 @@ export function homeFor(role: Role | null): string {
 	return role === 'installer' ? '/field' : '/app';
 }
 
-export type NavIcon = 'desk' | 'jobs' | 'customers' | 'team' | 'settings' | 'calculators' | 'field';
+export type NavIcon =
+	'desk' | 'jobs' | 'customers' | 'priceBook' | 'team' | 'settings' | 'calculators' | 'field';
 
 export interface NavItem {
 	href: string;
@@ -65,9 +61,12 @@ const NAV: NavItem[] = [
 	{ href: '/app', label: 'Desk', icon: 'desk' },
 	{ href: '/app/jobs', label: 'Jobs', icon: 'jobs' },
 	{ href: '/app/customers', label: 'Customers', icon: 'customers' },
+	{ href: '/app/price-book', label: 'Price book', icon: 'priceBook' },
+	{ href: '/app/calculators', label: 'Calculators', icon: 'calculators' },
 	{ href: '/app/team', label: 'Team', icon: 'team' },
 	{ href: '/app/settings', label: 'Store settings', icon: 'settings' },
-	{ href: '/field', label: 'My jobs', icon: 'field' }
+	{ href: '/field', label: 'My jobs', icon: 'field' },
+	{ href: '/field/calculators', label: 'Calculators', icon: 'calculators' }
 ];
 
 /** The navigation a role sees, from the same rules the guards apply. */

@@ -1,8 +1,10 @@
 import { sql } from 'drizzle-orm';
 import {
+	boolean,
 	foreignKey,
 	index,
 	integer,
+	jsonb,
 	pgEnum,
 	pgPolicy,
 	pgTable,
@@ -10,7 +12,9 @@ import {
 	timestamp,
 	unique
 } from 'drizzle-orm/pg-core';
+import type { EstimateInput, EstimateResult, StoreSettings } from '../../estimating';
 import { JOB_STATUSES } from '../../jobs/status';
+import type { MeasureDraft } from '../../measure/draft';
 import { organization, user } from './auth.schema';
 
 /**
@@ -56,9 +60,56 @@ export const storeProfile = pgTable(
 		town: text('town').notNull().default(''),
 		phone: text('phone').notNull().default(''),
 		email: text('email').notNull().default(''),
+		/** Storage key of the logo shown on customer pages and PDFs. */
+		logoKey: text('logo_key'),
 		...timestamps
 	},
 	() => [storeIsolation]
+).enableRLS();
+
+/**
+ * The store's trade settings: the estimating engine's `StoreSettings` as a whole (validated with
+ * `settingsSchema`), plus how long a quote stays open.
+ */
+export const storeSettings = pgTable(
+	'store_settings',
+	{
+		organizationId: text('organization_id')
+			.primaryKey()
+			.references(() => organization.id, { onDelete: 'cascade' }),
+		settings: jsonb('settings').$type<StoreSettings>().notNull(),
+		currency: text('currency').notNull().default('USD'),
+		quoteValidDays: integer('quote_valid_days').notNull().default(30),
+		...timestamps
+	},
+	() => [storeIsolation]
+).enableRLS();
+
+export const priceSection = pgEnum('price_section', ['floor', 'prep', 'removal', 'supply']);
+
+/**
+ * One line of the price book. `data` is the engine's shape for its section (floor product,
+ * prep service, removal price or supply), validated with the engine's schema on every write;
+ * `code` is the key the engine prices by (the floor's id, the prep kind, the existing floor kind,
+ * the supply kind). Quotes copy what they used, so changing a line never changes a sent quote.
+ */
+export const priceItem = pgTable(
+	'price_item',
+	{
+		id: id(),
+		organizationId: storeId(),
+		section: priceSection('section').notNull(),
+		code: text('code').notNull(),
+		name: text('name').notNull(),
+		active: boolean('active').notNull().default(true),
+		data: jsonb('data').$type<Record<string, unknown>>().notNull(),
+		...timestamps
+	},
+	(t) => [
+		index('price_item_organization_section_idx').on(t.organizationId, t.section),
+		unique('price_item_code_uq').on(t.organizationId, t.section, t.code),
+		storeIsolation
+	]
 ).enableRLS();
 
 export const customer = pgTable(
@@ -81,6 +132,34 @@ export const customer = pgTable(
 	]
 ).enableRLS();
 
+/** Where a customer wants floors: a customer may have several. */
+export const site = pgTable(
+	'site',
+	{
+		id: id(),
+		organizationId: storeId(),
+		customerId: text('customer_id').notNull(),
+		label: text('label').notNull().default(''),
+		address: text('address').notNull(),
+		town: text('town').notNull().default(''),
+		postcode: text('postcode').notNull().default(''),
+		builtYear: integer('built_year'),
+		subfloor: text('subfloor').notNull().default(''),
+		notes: text('notes').notNull().default(''),
+		...timestamps
+	},
+	(t) => [
+		index('site_organization_customer_idx').on(t.organizationId, t.customerId),
+		unique('site_id_organization_uq').on(t.id, t.organizationId),
+		foreignKey({
+			name: 'site_customer_same_store_fk',
+			columns: [t.customerId, t.organizationId],
+			foreignColumns: [customer.id, customer.organizationId]
+		}).onDelete('cascade'),
+		storeIsolation
+	]
+).enableRLS();
+
 export const job = pgTable(
 	'job',
 	{
@@ -89,6 +168,7 @@ export const job = pgTable(
 		/** Shown to people as J-1001; unique per store. */
 		number: integer('number').notNull(),
 		customerId: text('customer_id').notNull(),
+		siteId: text('site_id'),
 		title: text('title').notNull(),
 		status: jobStatus('status').notNull().default('draft'),
 		salespersonId: text('salesperson_id').references(() => user.id, { onDelete: 'set null' }),
@@ -108,6 +188,11 @@ export const job = pgTable(
 			name: 'job_customer_same_store_fk',
 			columns: [t.customerId, t.organizationId],
 			foreignColumns: [customer.id, customer.organizationId]
+		}).onDelete('restrict'),
+		foreignKey({
+			name: 'job_site_same_store_fk',
+			columns: [t.siteId, t.organizationId],
+			foreignColumns: [site.id, site.organizationId]
 		}).onDelete('restrict'),
 		storeIsolation
 	]
@@ -131,6 +216,87 @@ export const jobEvent = pgTable(
 		index('job_event_job_idx').on(t.organizationId, t.jobId),
 		foreignKey({
 			name: 'job_event_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		storeIsolation
+	]
+).enableRLS();
+
+/**
+ * The site measure of a job, as the salesperson typed it (`draft`: lengths as text, see
+ * $lib/measure). `version` rises with every save: a save that names an older version is told
+ * the measure changed, and nothing is overwritten.
+ */
+export const measure = pgTable(
+	'measure',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		version: integer('version').notNull().default(1),
+		draft: jsonb('draft').$type<MeasureDraft>().notNull(),
+		updatedBy: text('updated_by').references(() => user.id, { onDelete: 'set null' }),
+		...timestamps
+	},
+	(t) => [
+		unique('measure_job_uq').on(t.organizationId, t.jobId),
+		foreignKey({
+			name: 'measure_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		storeIsolation
+	]
+).enableRLS();
+
+export const QUOTE_STATUSES = [
+	'draft',
+	'sent',
+	'accepted',
+	'changes_requested',
+	'superseded'
+] as const;
+export const quoteStatus = pgEnum('quote_status', QUOTE_STATUSES);
+
+/**
+ * A version of a job's quote. `input` is the whole `EstimateInput` it was built from (the
+ * measure, the store settings and a copy of every price used) and `result` the engine's answer,
+ * so every figure the customer sees is reproducible. Once sent, a quote is frozen (a trigger
+ * refuses changes to what it says); an edit makes the next version.
+ */
+export const quote = pgTable(
+	'quote',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		version: integer('version').notNull(),
+		status: quoteStatus('status').notNull().default('draft'),
+		input: jsonb('input').$type<EstimateInput>().notNull(),
+		result: jsonb('result').$type<EstimateResult>().notNull(),
+		currency: text('currency').notNull(),
+		subtotalCents: integer('subtotal_cents').notNull(),
+		taxCents: integer('tax_cents').notNull(),
+		totalCents: integer('total_cents').notNull(),
+		depositCents: integer('deposit_cents').notNull(),
+		validUntil: timestamp('valid_until', { withTimezone: true }),
+		sentAt: timestamp('sent_at', { withTimezone: true }),
+		sentTo: text('sent_to'),
+		acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+		acceptedName: text('accepted_name'),
+		acceptedIp: text('accepted_ip'),
+		acceptedUserAgent: text('accepted_user_agent'),
+		changeNote: text('change_note'),
+		changeRequestedAt: timestamp('change_requested_at', { withTimezone: true }),
+		createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+		...timestamps
+	},
+	(t) => [
+		unique('quote_job_version_uq').on(t.organizationId, t.jobId, t.version),
+		unique('quote_id_organization_uq').on(t.id, t.organizationId),
+		foreignKey({
+			name: 'quote_job_same_store_fk',
 			columns: [t.jobId, t.organizationId],
 			foreignColumns: [job.id, job.organizationId]
 		}).onDelete('cascade'),

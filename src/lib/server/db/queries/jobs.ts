@@ -1,9 +1,9 @@
-import { and, asc, count, desc, eq, ilike, max, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, max, ne, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { canMove, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
 import type { Role } from '../../permissions';
-import { customer, job, jobEvent, member, user } from '../schema';
+import { customer, job, jobEvent, member, quote, user } from '../schema';
 import { inStore, type Tx } from '../tenant';
 import { likePattern } from './customers';
 
@@ -203,33 +203,43 @@ export async function move(
 	actorId: string | null,
 	note = ''
 ): Promise<MoveResult> {
-	return inStore(storeId, async (tx) => {
-		const [current] = await tx
-			.select({ status: job.status })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
-			.for('update');
-		if (!current) return { ok: false, reason: 'not_found' };
-		if (!canMove(current.status, to)) {
-			return { ok: false, reason: 'not_allowed', from: current.status };
-		}
-		const now = new Date();
-		const [row] = await tx
-			.update(job)
-			.set({ status: to, statusChangedAt: now, updatedAt: now })
-			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
-			.returning();
-		await tx.insert(jobEvent).values({
-			organizationId: storeId,
-			jobId: id,
-			kind: 'status',
-			fromStatus: current.status,
-			toStatus: to,
-			actorId,
-			note
-		});
-		return { ok: true, job: row };
+	return inStore(storeId, (tx) => moveIn(tx, storeId, id, to, actorId, note));
+}
+
+/** `move` inside a transaction that already set the store (a quote and its job change together). */
+export async function moveIn(
+	tx: Tx,
+	storeId: string,
+	id: string,
+	to: JobStatus,
+	actorId: string | null,
+	note = ''
+): Promise<MoveResult> {
+	const [current] = await tx
+		.select({ status: job.status })
+		.from(job)
+		.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+		.for('update');
+	if (!current) return { ok: false, reason: 'not_found' };
+	if (!canMove(current.status, to)) {
+		return { ok: false, reason: 'not_allowed', from: current.status };
+	}
+	const now = new Date();
+	const [row] = await tx
+		.update(job)
+		.set({ status: to, statusChangedAt: now, updatedAt: now })
+		.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+		.returning();
+	await tx.insert(jobEvent).values({
+		organizationId: storeId,
+		jobId: id,
+		kind: 'status',
+		fromStatus: current.status,
+		toStatus: to,
+		actorId,
+		note
 	});
+	return { ok: true, job: row };
 }
 
 /** The store's members with the installer role, for assigning jobs. */
@@ -284,7 +294,10 @@ export async function assign(
 	});
 }
 
-/** Deletes a draft or cancelled job; others are kept for their history. */
+/**
+ * Deletes a draft or cancelled job that never had a quote sent; others are kept for their
+ * history (sent quotes are kept for good).
+ */
 export async function remove(
 	storeId: string,
 	id: string
@@ -296,6 +309,13 @@ export async function remove(
 			.where(and(eq(job.organizationId, storeId), eq(job.id, id)));
 		if (!current) return 'not_found';
 		if (current.status !== 'draft' && current.status !== 'cancelled') return 'not_draft';
+		const [{ sent }] = await tx
+			.select({ sent: count() })
+			.from(quote)
+			.where(
+				and(eq(quote.organizationId, storeId), eq(quote.jobId, id), ne(quote.status, 'draft'))
+			);
+		if (sent > 0) return 'not_draft';
 		await tx.delete(job).where(and(eq(job.organizationId, storeId), eq(job.id, id)));
 		return 'deleted';
 	});

@@ -68,7 +68,8 @@ export const actions: Actions = {
 		if (result === 'not_found') error(404, 'Not found');
 		if (result === 'not_draft') {
 			return fail(409, {
-				deleteError: 'Only draft or cancelled jobs can be deleted; others keep their history.'
+				deleteError:
+					'Only draft or cancelled jobs that never had a quote sent can be deleted; others keep their history.'
 			});
 		}
 		redirect(303, '/app/jobs');

@@ -1,0 +1,143 @@
+import { describe, expect, it } from 'vitest';
+import { defaultSettings } from '$lib/estimating';
+import { emptyRoom, measureDraftSchema, toEngine, type RoomDraft } from './draft';
+
+const metric = { units: { system: 'metric' as const, defaultLengthUnit: 'mm' as const } };
+
+function room(patch: Partial<RoomDraft>, id = 'r1'): RoomDraft {
+	return { ...emptyRoom(id, 'Kitchen'), ...patch };
+}
+
+describe('reading the typed measure', () => {
+	it('reads room lengths in feet and small ones in inches by default', () => {
+		// 1 ft = 12 in exactly; 1 in = 25.4 mm exactly (NIST SP 811 appendix B, published).
+		const draft = {
+			builtYear: '1962',
+			rooms: [
+				room({
+					shape: { kind: 'rect', width: '12\' 6"', length: '10' },
+					repairs: {
+						holes: [{ width: '3', length: '4 1/2' }],
+						seams: [],
+						dents: [],
+						fasteners: 'room',
+						fastenerArea: ''
+					}
+				})
+			]
+		};
+		const { job, errors } = toEngine(draft, defaultSettings);
+		expect(errors).toEqual([]);
+		expect(job.builtYear).toBe(1962);
+		expect(job.rooms[0].shape).toEqual({ kind: 'rect', widthIn: 150, lengthIn: 120 });
+		expect(job.rooms[0].repairs?.holes).toEqual([{ widthIn: 3, lengthIn: 4.5 }]);
+		expect(job.rooms[0].repairs?.fasteners).toBe(true);
+	});
+
+	it('reads metres and millimetres for a metric store', () => {
+		const draft = {
+			builtYear: '',
+			rooms: [room({ shape: { kind: 'rect', width: '3.81', length: '3048 mm' } })]
+		};
+		const { job } = toEngine(draft, metric);
+		// 3.81 m = 150 in; 3048 mm = 120 in (exact, 1 in = 25.4 mm).
+		expect(job.rooms[0].shape).toMatchObject({
+			widthIn: expect.closeTo(150, 9),
+			lengthIn: expect.closeTo(120, 9)
+		});
+	});
+
+	it('names the field of every unreadable or missing length, and leaves that room out', () => {
+		const draft = {
+			builtYear: 'old',
+			rooms: [
+				room({ shape: { kind: 'rect', width: '12 ft 6 1/0 in', length: '' } }),
+				room({ shape: { kind: 'rect', width: '10', length: '10' } }, 'r2')
+			]
+		};
+		draft.rooms[1].name = 'Hall';
+		const { job, errors } = toEngine(draft, defaultSettings);
+		expect(errors.map((e) => e.path)).toEqual([
+			'builtYear',
+			'rooms.0.shape.width',
+			'rooms.0.shape.length'
+		]);
+		expect(errors[1].message).toMatch(/bottom cannot be 0/);
+		expect(errors[2]).toMatchObject({ roomId: 'r1', message: 'Enter the length' });
+		expect(job.rooms.map((r) => r.id)).toEqual(['r2']);
+	});
+
+	it('refuses a zero length and a second room of the same name', () => {
+		const draft = {
+			builtYear: '',
+			rooms: [room({ shape: { kind: 'rect', width: '0', length: '10' } }), room({}, 'r2')]
+		};
+		const paths = toEngine(draft, defaultSettings).errors.map((e) => [e.path, e.message]);
+		expect(paths).toContainEqual(['rooms.0.shape.width', 'The width must be more than zero']);
+		expect(paths).toContainEqual(['rooms.1.name', 'Another room is called "Kitchen"']);
+	});
+
+	it('reads an L-shaped room as two rectangles, and sides with turns', () => {
+		const draft = {
+			builtYear: '',
+			rooms: [
+				room({
+					shape: {
+						kind: 'rects',
+						rects: [
+							{ x: '', y: '', width: '12', length: '8' },
+							{ x: '0', y: '8', width: '5', length: '6' }
+						]
+					}
+				}),
+				{
+					...room(
+						{
+							shape: {
+								kind: 'sides',
+								sides: [
+									{ length: '10', turn: 'right' },
+									{ length: '8', turn: 'right' },
+									{ length: '10', turn: 'right' },
+									{ length: '8', turn: 'right' }
+								]
+							}
+						},
+						'r2'
+					),
+					name: 'Den'
+				}
+			]
+		};
+		const { job, errors } = toEngine(draft, defaultSettings);
+		expect(errors).toEqual([]);
+		expect(job.rooms[0].shape).toEqual({
+			kind: 'rects',
+			rects: [
+				{ xIn: 0, yIn: 0, widthIn: 144, lengthIn: 96 },
+				{ xIn: 0, yIn: 96, widthIn: 60, lengthIn: 72 }
+			]
+		});
+		expect(job.rooms[1].shape.kind).toBe('sides');
+	});
+
+	it('leaves the floor out when none is chosen, so the engine can say so by the room', () => {
+		const { job } = toEngine(
+			{ builtYear: '', rooms: [room({ shape: { kind: 'rect', width: '9', length: '9' } })] },
+			defaultSettings
+		);
+		expect(job.rooms[0].floor).toBeUndefined();
+	});
+
+	it('fills what an older draft lacks with defaults', () => {
+		const parsed = measureDraftSchema.parse({
+			builtYear: '',
+			rooms: [{ id: 'a', shape: { kind: 'rect' } }]
+		});
+		expect(parsed.rooms[0]).toMatchObject({
+			name: '',
+			underlayment: 'auto',
+			repairs: { holes: [] }
+		});
+	});
+});

@@ -1,0 +1,403 @@
+/**
+ * The site measure as people type it: every length is the text typed ("12' 6 1/2\"", "3810 mm"),
+ * kept as typed so nothing is lost, and read by the engine's `parseLength` when a quote is built
+ * or a drawing is shown. Shared by the browser (live drawings and totals) and the server (stored
+ * quotes), so both read the same text the same way.
+ */
+import { z } from 'zod';
+import {
+	EXISTING_FLOOR_KINDS,
+	JOIST_SIZES,
+	LAYOUTS,
+	parseLength,
+	SPECIES,
+	SUBFLOOR_KINDS,
+	type Cutout,
+	type JobMeasure,
+	type LengthUnit,
+	type RoomMeasure,
+	type Shape,
+	type StoreSettings
+} from '$lib/estimating';
+
+const text = (max = 40) => z.string().max(max).default('');
+
+const rectDraft = z.object({ x: text(), y: text(), width: text(), length: text() });
+export type RectDraft = z.infer<typeof rectDraft>;
+
+const shapeDraft = z.discriminatedUnion('kind', [
+	z.object({ kind: z.literal('rect'), width: text(), length: text() }),
+	z.object({ kind: z.literal('rects'), rects: z.array(rectDraft).max(20) }),
+	z.object({
+		kind: z.literal('sides'),
+		sides: z
+			.array(z.object({ length: text(), turn: z.union([z.enum(['left', 'right']), text(8)]) }))
+			.max(60)
+	})
+]);
+export type ShapeDraft = z.infer<typeof shapeDraft>;
+
+const voidDraft = z.object({ length: text(), width: text(), depth: text() });
+
+export const roomDraftSchema = z.object({
+	id: z.string().min(1).max(64),
+	name: z.string().max(80).default(''),
+	shape: shapeDraft,
+	cutouts: z
+		.array(rectDraft.extend({ name: text(60) }))
+		.max(20)
+		.default([]),
+	floor: z
+		.object({
+			productId: z.string().max(64).default(''),
+			layout: z.enum(LAYOUTS).default('straight')
+		})
+		.default({ productId: '', layout: 'straight' }),
+	remove: z.array(z.enum(EXISTING_FLOOR_KINDS)).max(4).default([]),
+	subfloor: z
+		.object({
+			kind: z.enum(SUBFLOOR_KINDS).default('plywood'),
+			thickness: text(),
+			spanRating: text(12)
+		})
+		.default({ kind: 'plywood', thickness: '', spanRating: '' }),
+	underlayment: z.enum(['auto', 'yes', 'no']).default('auto'),
+	trim: z.boolean().default(false),
+	transitions: text(4),
+	repairs: z
+		.object({
+			holes: z
+				.array(z.object({ width: text(), length: text() }))
+				.max(50)
+				.default([]),
+			seams: z.array(voidDraft).max(50).default([]),
+			dents: z.array(voidDraft).max(50).default([]),
+			fasteners: z.enum(['none', 'room', 'area']).default('none'),
+			fastenerArea: text(12)
+		})
+		.default({ holes: [], seams: [], dents: [], fasteners: 'none', fastenerArea: '' }),
+	readings: z
+		.object({
+			flatness: z
+				.array(z.object({ span: text(), gap: text() }))
+				.max(50)
+				.default([]),
+			rh: z.array(text(8)).max(50).default([]),
+			calciumChloride: z
+				.array(z.object({ gain: text(10), area: text(10), hours: text(10) }))
+				.max(20)
+				.default([]),
+			woodSubfloor: z.array(text(8)).max(50).default([]),
+			woodFlooring: z.array(text(8)).max(50).default([])
+		})
+		.default({ flatness: [], rh: [], calciumChloride: [], woodSubfloor: [], woodFlooring: [] }),
+	joists: z
+		.object({
+			size: z.enum(JOIST_SIZES),
+			species: z.enum(SPECIES),
+			spacing: text(),
+			span: text()
+		})
+		.nullable()
+		.default(null),
+	notes: z.string().max(2000).default('')
+});
+export type RoomDraft = z.infer<typeof roomDraftSchema>;
+
+export const measureDraftSchema = z.object({
+	builtYear: text(4),
+	rooms: z.array(roomDraftSchema).max(200)
+});
+export type MeasureDraft = z.infer<typeof measureDraftSchema>;
+
+/** A new room: a rectangle with nothing measured yet. */
+export function emptyRoom(id: string, name = ''): RoomDraft {
+	return roomDraftSchema.parse({ id, name, shape: { kind: 'rect', width: '', length: '' } });
+}
+
+export function emptyMeasure(): MeasureDraft {
+	return { builtYear: '', rooms: [] };
+}
+
+/** A problem with one typed field, by its path in the draft (`rooms.0.shape.width`). */
+export interface DraftError {
+	path: string;
+	roomId?: string;
+	message: string;
+}
+
+/** Default units for what people type: rooms in feet (metres), small things in inches (millimetres). */
+export function draftUnits(settings: Pick<StoreSettings, 'units'>): {
+	room: LengthUnit;
+	small: LengthUnit;
+} {
+	return settings.units.system === 'metric'
+		? { room: 'm', small: 'mm' }
+		: { room: 'ft', small: 'in' };
+}
+
+class Reader {
+	errors: DraftError[] = [];
+	constructor(
+		readonly units: { room: LengthUnit; small: LengthUnit },
+		private roomId?: string
+	) {}
+
+	for(roomId: string) {
+		const r = new Reader(this.units, roomId);
+		r.errors = this.errors;
+		return r;
+	}
+
+	/** A required length; blank or unreadable adds an error and gives undefined. */
+	length(value: string, path: string, label: string, unit: 'room' | 'small', optional = false) {
+		if (!value.trim()) {
+			if (!optional) this.fail(path, `Enter the ${label}`);
+			return undefined;
+		}
+		const r = parseLength(value, this.units[unit]);
+		if (!r.ok) return this.fail(path, r.message);
+		if (r.inches < 0) return this.fail(path, `The ${label} cannot be negative`);
+		return r.inches;
+	}
+
+	/** A positive length: zero is refused too. */
+	positive(value: string, path: string, label: string, unit: 'room' | 'small', optional = false) {
+		const inches = this.length(value, path, label, unit, optional);
+		if (inches === 0) return this.fail(path, `The ${label} must be more than zero`);
+		return inches;
+	}
+
+	/** A plain number (%, g, h, ft²) in a range. */
+	number(value: string, path: string, label: string, min: number, max: number, optional = false) {
+		const t = value.trim().replace(/,/g, '.').replace(/\s*%$/, '');
+		if (!t) {
+			if (!optional) this.fail(path, `Enter the ${label}`);
+			return undefined;
+		}
+		const n = Number(t);
+		if (!Number.isFinite(n)) return this.fail(path, `"${value}" is not a number`);
+		if (n < min || n > max)
+			return this.fail(path, `The ${label} must be between ${min} and ${max}`);
+		return n;
+	}
+
+	fail(path: string, message: string): undefined {
+		this.errors.push({ path, roomId: this.roomId, message });
+		return undefined;
+	}
+}
+
+function readShape(shape: ShapeDraft, r: Reader, at: string): Shape | undefined {
+	if (shape.kind === 'rect') {
+		const widthIn = r.positive(shape.width, `${at}.width`, 'width', 'room');
+		const lengthIn = r.positive(shape.length, `${at}.length`, 'length', 'room');
+		return widthIn && lengthIn ? { kind: 'rect', widthIn, lengthIn } : undefined;
+	}
+	if (shape.kind === 'rects') {
+		if (!shape.rects.length) return r.fail(`${at}.rects`, 'Add at least one rectangle');
+		const rects = shape.rects.map((rect, i) => readRect(rect, r, `${at}.rects.${i}`));
+		if (rects.some((x) => !x)) return undefined;
+		return { kind: 'rects', rects: rects as NonNullable<(typeof rects)[number]>[] };
+	}
+	if (shape.sides.length < 3) return r.fail(`${at}.sides`, 'A room needs at least three sides');
+	const sides = shape.sides.map((side, i) => {
+		const lengthIn = r.positive(side.length, `${at}.sides.${i}.length`, 'side', 'room');
+		const turn =
+			side.turn === 'left' || side.turn === 'right'
+				? side.turn
+				: r.number(side.turn, `${at}.sides.${i}.turn`, 'turn', -179, 179);
+		return lengthIn && turn !== undefined ? { lengthIn, turn } : undefined;
+	});
+	if (sides.some((s) => !s)) return undefined;
+	return { kind: 'sides', sides: sides as { lengthIn: number; turn: 'left' | 'right' | number }[] };
+}
+
+function readRect(rect: RectDraft, r: Reader, at: string) {
+	const xIn = rect.x.trim() ? r.length(rect.x, `${at}.x`, 'distance from the left', 'room') : 0;
+	const yIn = rect.y.trim() ? r.length(rect.y, `${at}.y`, 'distance from the top', 'room') : 0;
+	const widthIn = r.positive(rect.width, `${at}.width`, 'width', 'room');
+	const lengthIn = r.positive(rect.length, `${at}.length`, 'length', 'room');
+	if (xIn === undefined || yIn === undefined || !widthIn || !lengthIn) return undefined;
+	return { xIn, yIn, widthIn, lengthIn };
+}
+
+/** The room's outline alone (for drawings as people type); undefined while a length is unreadable. */
+export function readRoomShape(
+	room: Pick<RoomDraft, 'shape' | 'cutouts'>,
+	settings: Pick<StoreSettings, 'units'>
+): { shape?: Shape; cutouts: Cutout[]; errors: DraftError[] } {
+	const r = new Reader(draftUnits(settings));
+	const shape = readShape(room.shape, r, 'shape');
+	const cutouts: Cutout[] = [];
+	room.cutouts.forEach((c, i) => {
+		const rect = readRect(c, r, `cutouts.${i}`);
+		if (rect)
+			cutouts.push({ name: c.name || `Cut-out ${i + 1}`, shape: { kind: 'rect', ...rect } });
+	});
+	return { shape, cutouts, errors: r.errors };
+}
+
+/**
+ * Reads the whole draft into the engine's measure. Every unreadable field is an error with its
+ * path; rooms with errors are left out of `job` so the rest can still be drawn and priced.
+ */
+export function toEngine(
+	draft: MeasureDraft,
+	settings: Pick<StoreSettings, 'units'>
+): { job: JobMeasure; errors: DraftError[] } {
+	const reader = new Reader(draftUnits(settings));
+	const rooms: RoomMeasure[] = [];
+	const builtYear = reader.number(draft.builtYear, 'builtYear', 'year built', 1600, 2200, true);
+	const names = new Set<string>();
+
+	draft.rooms.forEach((room, i) => {
+		const at = `rooms.${i}`;
+		const r = reader.for(room.id);
+		const before = r.errors.length;
+		const name = room.name.trim() || `Room ${i + 1}`;
+		if (names.has(name.toLowerCase())) r.fail(`${at}.name`, `Another room is called "${name}"`);
+		names.add(name.toLowerCase());
+
+		const shape = readShape(room.shape, r, `${at}.shape`);
+		const cutouts: Cutout[] = [];
+		room.cutouts.forEach((c, j) => {
+			const rect = readRect(c, r, `${at}.cutouts.${j}`);
+			if (rect)
+				cutouts.push({ name: c.name || `Cut-out ${j + 1}`, shape: { kind: 'rect', ...rect } });
+		});
+		const thicknessIn = r.positive(
+			room.subfloor.thickness,
+			`${at}.subfloor.thickness`,
+			'subfloor thickness',
+			'small',
+			true
+		);
+		const transitions = r.number(
+			room.transitions,
+			`${at}.transitions`,
+			'number of transitions',
+			0,
+			50,
+			true
+		);
+
+		const holes = room.repairs.holes.map((h, j) => {
+			const widthIn = r.positive(h.width, `${at}.repairs.holes.${j}.width`, 'hole width', 'small');
+			const lengthIn = r.positive(
+				h.length,
+				`${at}.repairs.holes.${j}.length`,
+				'hole length',
+				'small'
+			);
+			return widthIn && lengthIn ? { widthIn, lengthIn } : undefined;
+		});
+		const voids = (list: RoomDraft['repairs']['seams'], kind: 'seams' | 'dents', label: string) =>
+			list.map((v, j) => {
+				const p = `${at}.repairs.${kind}.${j}`;
+				const lengthIn = r.positive(
+					v.length,
+					`${p}.length`,
+					`${label} length`,
+					kind === 'seams' ? 'room' : 'small'
+				);
+				const widthIn = r.positive(v.width, `${p}.width`, `${label} width`, 'small');
+				const depthIn = r.positive(v.depth, `${p}.depth`, `${label} depth`, 'small');
+				return lengthIn && widthIn && depthIn ? { lengthIn, widthIn, depthIn } : undefined;
+			});
+		const seams = voids(room.repairs.seams, 'seams', 'seam');
+		const dents = voids(room.repairs.dents, 'dents', 'dent');
+		let fasteners: boolean | { areaSqFt: number } | undefined;
+		if (room.repairs.fasteners === 'room') fasteners = true;
+		if (room.repairs.fasteners === 'area') {
+			const areaSqFt = r.number(
+				room.repairs.fastenerArea,
+				`${at}.repairs.fastenerArea`,
+				'area with fasteners (ft²)',
+				0.01,
+				100000
+			);
+			fasteners = areaSqFt ? { areaSqFt } : undefined;
+		}
+
+		const flatness = room.readings.flatness.map((f, j) => {
+			const spanIn = r.positive(
+				f.span,
+				`${at}.readings.flatness.${j}.span`,
+				'straightedge length',
+				'room'
+			);
+			const gapIn = r.length(f.gap, `${at}.readings.flatness.${j}.gap`, 'gap', 'small');
+			return spanIn && gapIn !== undefined ? { spanIn, gapIn } : undefined;
+		});
+		const rhPct = room.readings.rh.map((v, j) =>
+			r.number(v, `${at}.readings.rh.${j}`, 'RH', 0, 100)
+		);
+		const calciumChloride = room.readings.calciumChloride.map((t, j) => {
+			const p = `${at}.readings.calciumChloride.${j}`;
+			const gainGrams = r.number(t.gain, `${p}.gain`, 'weight gain (g)', 0, 1000);
+			const areaSqFt = r.number(t.area, `${p}.area`, 'area under the dome (ft²)', 0.01, 100);
+			const hours = r.number(t.hours, `${p}.hours`, 'hours', 1, 1000);
+			return gainGrams !== undefined && areaSqFt && hours
+				? { gainGrams, areaSqFt, hours }
+				: undefined;
+		});
+		const woodSub = room.readings.woodSubfloor.map((v, j) =>
+			r.number(v, `${at}.readings.woodSubfloor.${j}`, 'moisture content', 0, 100)
+		);
+		const woodFloor = room.readings.woodFlooring.map((v, j) =>
+			r.number(v, `${at}.readings.woodFlooring.${j}`, 'moisture content', 0, 100)
+		);
+
+		let joists: RoomMeasure['joists'];
+		if (room.joists) {
+			const spacingIn = r.positive(
+				room.joists.spacing,
+				`${at}.joists.spacing`,
+				'joist spacing',
+				'small'
+			);
+			const spanIn = r.positive(room.joists.span, `${at}.joists.span`, 'joist span', 'room');
+			if (spacingIn && spanIn)
+				joists = { size: room.joists.size, species: room.joists.species, spacingIn, spanIn };
+		}
+
+		if (r.errors.length > before || !shape) return;
+		const defined = <T>(xs: (T | undefined)[]) => xs as T[];
+		rooms.push({
+			id: room.id,
+			name,
+			shape,
+			...(cutouts.length ? { cutouts } : {}),
+			...(room.floor.productId
+				? { floor: { productId: room.floor.productId, layout: room.floor.layout } }
+				: {}),
+			...(room.remove.length ? { remove: room.remove } : {}),
+			subfloor: {
+				kind: room.subfloor.kind,
+				...(thicknessIn ? { thicknessIn } : {}),
+				...(room.subfloor.spanRating.trim() ? { spanRating: room.subfloor.spanRating.trim() } : {})
+			},
+			...(room.underlayment !== 'auto' ? { underlayment: room.underlayment === 'yes' } : {}),
+			...(room.trim ? { trim: true } : {}),
+			...(transitions ? { transitions } : {}),
+			repairs: {
+				holes: defined(holes),
+				seams: defined(seams),
+				dents: defined(dents),
+				...(fasteners !== undefined ? { fasteners } : {})
+			},
+			...(joists ? { joists } : {}),
+			readings: {
+				flatness: defined(flatness),
+				rhPct: defined(rhPct),
+				calciumChloride: defined(calciumChloride),
+				...(woodSub.length || woodFloor.length
+					? { woodMc: { subfloorPct: defined(woodSub), flooringPct: defined(woodFloor) } }
+					: {})
+			}
+		});
+	});
+
+	return { job: { ...(builtYear ? { builtYear } : {}), rooms }, errors: reader.errors };
+}

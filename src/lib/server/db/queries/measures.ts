@@ -1,0 +1,80 @@
+import { and, eq } from 'drizzle-orm';
+import type { MeasureDraft } from '../../../measure/draft';
+import { job, measure, user } from '../schema';
+import { inStore } from '../tenant';
+
+export interface StoredMeasure {
+	draft: MeasureDraft;
+	version: number;
+	updatedAt: Date;
+	updatedByName: string | null;
+}
+
+export type SaveResult =
+	| { ok: true; version: number; updatedAt: Date }
+	| { ok: false; reason: 'not_found' }
+	| { ok: false; reason: 'conflict'; current: StoredMeasure };
+
+/** The job's measure, or undefined when nothing was measured yet (or the job is not the store's). */
+export async function read(storeId: string, jobId: string): Promise<StoredMeasure | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select({
+				draft: measure.draft,
+				version: measure.version,
+				updatedAt: measure.updatedAt,
+				updatedByName: user.name
+			})
+			.from(measure)
+			.leftJoin(user, eq(user.id, measure.updatedBy))
+			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
+		return row;
+	});
+}
+
+/**
+ * Saves the measure when `baseVersion` is the version the editor started from (0: nothing
+ * saved yet). Otherwise someone else saved in between: nothing is written and their version
+ * comes back, so the editor can show both.
+ */
+export async function save(
+	storeId: string,
+	jobId: string,
+	draft: MeasureDraft,
+	baseVersion: number,
+	userId: string
+): Promise<SaveResult> {
+	return inStore(storeId, async (tx) => {
+		const [owner] = await tx
+			.select({ id: job.id })
+			.from(job)
+			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)))
+			.for('update');
+		if (!owner) return { ok: false, reason: 'not_found' };
+		const [current] = await tx
+			.select({
+				draft: measure.draft,
+				version: measure.version,
+				updatedAt: measure.updatedAt,
+				updatedByName: user.name
+			})
+			.from(measure)
+			.leftJoin(user, eq(user.id, measure.updatedBy))
+			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
+		const now = new Date();
+		if (!current) {
+			if (baseVersion !== 0) return { ok: false, reason: 'not_found' };
+			await tx
+				.insert(measure)
+				.values({ organizationId: storeId, jobId, draft, version: 1, updatedBy: userId });
+			return { ok: true, version: 1, updatedAt: now };
+		}
+		if (current.version !== baseVersion) return { ok: false, reason: 'conflict', current };
+		const version = current.version + 1;
+		await tx
+			.update(measure)
+			.set({ draft, version, updatedBy: userId, updatedAt: now })
+			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
+		return { ok: true, version, updatedAt: now };
+	});
+}

@@ -1,0 +1,60 @@
+import { eq } from 'drizzle-orm';
+import { defaultSettings, type StoreSettings } from '../../../estimating';
+import { settingsSchema } from '../../../schemas/estimate';
+import { storeSettings } from '../schema';
+import { inStore } from '../tenant';
+
+export interface StoreTradeSettings {
+	settings: StoreSettings;
+	currency: string;
+	quoteValidDays: number;
+}
+
+type Plain = Record<string, unknown>;
+const isPlain = (v: unknown): v is Plain =>
+	typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Saved values over the defaults, key by key, so settings added later get their default. */
+export function mergeSettings<T>(defaults: T, saved: unknown): T {
+	if (!isPlain(defaults) || !isPlain(saved)) return (saved === undefined ? defaults : saved) as T;
+	const out: Plain = { ...defaults };
+	for (const [key, value] of Object.entries(saved)) {
+		out[key] = key in defaults ? mergeSettings((defaults as Plain)[key], value) : value;
+	}
+	return out as T;
+}
+
+/** The store's settings; the engine's defaults where the store has saved nothing. */
+export async function read(storeId: string): Promise<StoreTradeSettings> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select()
+			.from(storeSettings)
+			.where(eq(storeSettings.organizationId, storeId));
+		if (!row) return { settings: defaultSettings, currency: 'USD', quoteValidDays: 30 };
+		const merged = settingsSchema.safeParse(mergeSettings(defaultSettings, row.settings));
+		return {
+			settings: merged.success ? (merged.data as StoreSettings) : defaultSettings,
+			currency: row.currency,
+			quoteValidDays: row.quoteValidDays
+		};
+	});
+}
+
+/** Saves the whole settings document (validated by the caller with `settingsSchema`). */
+export async function save(storeId: string, input: StoreTradeSettings) {
+	return inStore(storeId, async (tx) => {
+		const values = {
+			settings: input.settings,
+			currency: input.currency,
+			quoteValidDays: input.quoteValidDays
+		};
+		await tx
+			.insert(storeSettings)
+			.values({ organizationId: storeId, ...values })
+			.onConflictDoUpdate({
+				target: storeSettings.organizationId,
+				set: { ...values, updatedAt: new Date() }
+			});
+	});
+}

@@ -1,0 +1,280 @@
+import { pool } from '$lib/server/db';
+import * as measures from '$lib/server/db/queries/measures';
+import * as priceBook from '$lib/server/db/queries/price-book';
+import * as quotes from '$lib/server/db/queries/quotes';
+import * as jobs from '$lib/server/db/queries/jobs';
+import { estimate } from '$lib/estimating';
+import { describe, expect, it } from 'vitest';
+import { makeJob, makeQuotedJob, makeStore, makePriceBook, roomDraft } from './factories';
+
+const staff = (userId: string) => ({ userId, role: 'owner' as const });
+
+async function asOwner<T>(sqlText: string, params: unknown[]) {
+	// The schema owner is subject to forced row security too; the trigger is what refuses here.
+	const client = await pool.connect();
+	try {
+		await client.query('begin');
+		await client.query(`select set_config('app.store_id', $1, true)`, [params[0]]);
+		return (await client.query(sqlText, params.slice(1))) as T;
+	} finally {
+		await client.query('rollback');
+		client.release();
+	}
+}
+
+describe('building a quote', () => {
+	it('stores every input, and its totals are what the engine gives for them', async () => {
+		const store = await makeStore('Quote Floors');
+		const { quote } = await makeQuotedJob(store);
+		expect(quote.version).toBe(1);
+		expect(quote.status).toBe('draft');
+		const again = estimate(quote.input);
+		expect(again).toEqual(quote.result);
+		expect([quote.subtotalCents, quote.taxCents, quote.totalCents, quote.depositCents]).toEqual([
+			again.totals.subtotalCents,
+			again.totals.taxCents,
+			again.totals.totalCents,
+			again.totals.depositCents
+		]);
+		// The price book copy is in the quote itself.
+		expect(quote.input.priceBook.floors.length).toBeGreaterThan(0);
+		expect(Number.isInteger(quote.totalCents)).toBe(true);
+	});
+
+	it('refuses a room with no floor or an unreadable length, by its field, and saves nothing', async () => {
+		const store = await makeStore('Refusing Floors');
+		const { floors } = await makePriceBook(store.id);
+		const job = await makeJob(store.id, store.owner.id);
+		const noFloor = {
+			...roomDraft('r1', 'Hall', floors['lvp-grey']),
+			floor: { productId: '', layout: 'straight' as const }
+		};
+		const badLength = roomDraft('r2', 'Den', floors['lvp-grey'], '12\' 6 1/0"');
+		await measures.save(store.id, job.id, { builtYear: '', rooms: [noFloor] }, 0, store.owner.id);
+		const first = await quotes.build(store.id, job.id, store.owner.id);
+		expect(first).toMatchObject({
+			ok: false,
+			reason: 'invalid',
+			errors: [{ path: 'rooms.0.floor', roomId: 'r1' }]
+		});
+		await measures.save(store.id, job.id, { builtYear: '', rooms: [badLength] }, 1, store.owner.id);
+		const second = await quotes.build(store.id, job.id, store.owner.id);
+		expect(second).toMatchObject({
+			ok: false,
+			reason: 'invalid',
+			errors: [{ path: 'rooms.0.shape.width' }]
+		});
+		expect(await quotes.list(store.id, job.id)).toEqual([]);
+	});
+
+	it('says so when nothing was measured', async () => {
+		const store = await makeStore('Empty Floors');
+		const job = await makeJob(store.id, store.owner.id);
+		expect(await quotes.build(store.id, job.id, store.owner.id)).toEqual({
+			ok: false,
+			reason: 'no_measure'
+		});
+	});
+});
+
+describe('a sent quote', () => {
+	it('stays as sent when a price changes afterwards; the next version takes the new price', async () => {
+		const store = await makeStore('Frozen Floors');
+		const { job, quote, floors } = await makeQuotedJob(store);
+		const sent = await quotes.send(store.id, quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		expect(sent.ok).toBe(true);
+		const item = (await priceBook.read(store.id, floors['lvp-grey']))!;
+		const material = item.data.material as { basis: string; priceCents: number };
+		await priceBook.update(store.id, item.id, {
+			data: { ...item.data, material: { ...material, priceCents: material.priceCents * 2 } }
+		});
+
+		const kept = (await quotes.read(store.id, quote.id))!;
+		expect(kept.totalCents).toBe(quote.totalCents);
+		expect(kept.input).toEqual(quote.input);
+		expect(kept.result).toEqual(quote.result);
+
+		const next = await quotes.build(store.id, job.id, store.owner.id);
+		expect(next.ok && next.quote.version).toBe(2);
+		expect(next.ok && next.quote.totalCents).toBeGreaterThan(quote.totalCents);
+	});
+
+	it('cannot be changed or deleted, even by a raw query', async () => {
+		const store = await makeStore('Locked Floors');
+		const { quote } = await makeQuotedJob(store);
+		await quotes.send(store.id, quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		await expect(
+			asOwner(`update quote set total_cents = 1 where id = $1`, [store.id, quote.id])
+		).rejects.toThrow(/frozen/);
+		await expect(asOwner(`delete from quote where id = $1`, [store.id, quote.id])).rejects.toThrow(
+			/kept for good/
+		);
+	});
+
+	it('moves a draft job to quoted, and a newer sent version supersedes it', async () => {
+		const store = await makeStore('Versions Floors');
+		const { job, quote } = await makeQuotedJob(store);
+		await quotes.send(store.id, quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		expect((await jobs.read(store.id, job.id, staff(store.owner.id)))?.status).toBe('quoted');
+		const v2 = await quotes.build(store.id, job.id, store.owner.id);
+		if (!v2.ok) throw new Error('v2');
+		await quotes.send(store.id, v2.quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		const statuses = (await quotes.list(store.id, job.id)).map((q) => [q.version, q.status]);
+		expect(statuses).toEqual([
+			[2, 'sent'],
+			[1, 'superseded']
+		]);
+		expect((await quotes.forCustomer(store.id, job.id))?.version).toBe(2);
+	});
+});
+
+describe("the customer's answer", () => {
+	it('accepts once, recording the name, and the job becomes accepted', async () => {
+		const store = await makeStore('Accept Floors');
+		const { job, quote } = await makeQuotedJob(store);
+		await quotes.send(store.id, quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		const signature = { name: 'Greta Oakhurst', ip: '203.0.113.7', userAgent: 'test' };
+		const accepted = await quotes.accept(store.id, job.id, quote.id, signature);
+		expect(accepted).toMatchObject({
+			ok: true,
+			quote: { status: 'accepted', acceptedName: 'Greta Oakhurst', acceptedIp: '203.0.113.7' }
+		});
+		expect((await jobs.read(store.id, job.id, staff(store.owner.id)))?.status).toBe('accepted');
+		expect(await quotes.accept(store.id, job.id, quote.id, signature)).toEqual({
+			ok: false,
+			reason: 'not_open'
+		});
+	});
+
+	it('cannot accept a draft, an expired quote, or another job’s quote', async () => {
+		const store = await makeStore('Late Floors');
+		const { job, quote } = await makeQuotedJob(store);
+		const signature = { name: 'A', ip: null, userAgent: null };
+		expect(await quotes.accept(store.id, job.id, quote.id, signature)).toEqual({
+			ok: false,
+			reason: 'not_open'
+		});
+		await quotes.send(store.id, quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		const other = await makeJob(store.id, store.owner.id);
+		expect(await quotes.accept(store.id, other.id, quote.id, signature)).toEqual({
+			ok: false,
+			reason: 'not_found'
+		});
+		const expiredStore = await makeStore('Expired Floors');
+		const expired = await makeQuotedJob(expiredStore);
+		await quotes.send(expiredStore.id, expired.quote.id, {
+			to: 'c@test.example',
+			validDays: 0,
+			actorId: expiredStore.owner.id
+		});
+		expect(
+			await quotes.accept(expiredStore.id, expired.job.id, expired.quote.id, signature)
+		).toEqual({ ok: false, reason: 'expired' });
+	});
+
+	it('asks for changes with a note; the job returns to draft for the next version', async () => {
+		const store = await makeStore('Changes Floors');
+		const { job, quote } = await makeQuotedJob(store);
+		await quotes.send(store.id, quote.id, {
+			to: 'c@test.example',
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		const asked = await quotes.requestChanges(
+			store.id,
+			job.id,
+			quote.id,
+			'Oak in the hall instead'
+		);
+		expect(asked).toMatchObject({
+			ok: true,
+			quote: { status: 'changes_requested', changeNote: 'Oak in the hall instead' }
+		});
+		expect((await jobs.read(store.id, job.id, staff(store.owner.id)))?.status).toBe('draft');
+	});
+});
+
+describe('measures', () => {
+	it('tell the later of two saves from the same version that the measure changed, and keep both', async () => {
+		const store = await makeStore('Busy Measure Floors');
+		const { floors } = await makePriceBook(store.id);
+		const job = await makeJob(store.id, store.owner.id);
+		const priya = { builtYear: '', rooms: [roomDraft('r1', 'Kitchen', floors['oak-7'])] };
+		const jonah = { builtYear: '', rooms: [roomDraft('r1', 'Kitchen', floors['lvp-grey'], "14'")] };
+		expect(await measures.save(store.id, job.id, priya, 0, store.owner.id)).toMatchObject({
+			ok: true,
+			version: 1
+		});
+		const late = await measures.save(store.id, job.id, jonah, 0, store.owner.id);
+		expect(late).toMatchObject({
+			ok: false,
+			reason: 'conflict',
+			current: { version: 1, draft: priya }
+		});
+		expect((await measures.read(store.id, job.id))?.draft).toEqual(priya);
+		expect(await measures.save(store.id, job.id, jonah, 1, store.owner.id)).toMatchObject({
+			ok: true,
+			version: 2
+		});
+	});
+});
+
+describe('across stores', () => {
+	it("never reads, builds, sends or answers another store's quote or measure", async () => {
+		const a = await makeStore('Alpha Quote Floors');
+		const b = await makeStore('Beta Quote Floors');
+		const theirs = await makeQuotedJob(b);
+		expect(await quotes.read(a.id, theirs.quote.id)).toBeUndefined();
+		expect(await quotes.readVersion(a.id, theirs.job.id, 1)).toBeUndefined();
+		expect(await quotes.list(a.id, theirs.job.id)).toEqual([]);
+		expect(await quotes.build(a.id, theirs.job.id, a.owner.id)).toEqual({
+			ok: false,
+			reason: 'no_measure'
+		});
+		expect(
+			await quotes.send(a.id, theirs.quote.id, {
+				to: 'x@test.example',
+				validDays: 30,
+				actorId: a.owner.id
+			})
+		).toEqual({
+			ok: false,
+			reason: 'not_found'
+		});
+		const signature = { name: 'X', ip: null, userAgent: null };
+		expect(await quotes.accept(a.id, theirs.job.id, theirs.quote.id, signature)).toEqual({
+			ok: false,
+			reason: 'not_found'
+		});
+		expect(await measures.read(a.id, theirs.job.id)).toBeUndefined();
+		expect(await measures.save(a.id, theirs.job.id, theirs.draft, 1, a.owner.id)).toEqual({
+			ok: false,
+			reason: 'not_found'
+		});
+		expect(await priceBook.read(a.id, theirs.floors['oak-7'])).toBeUndefined();
+	});
+});
