@@ -14,6 +14,10 @@ import { saveProfile } from '../src/lib/server/db/queries/stores';
 import { defaultSettings } from '../src/lib/estimating';
 import { samplePriceBook } from '../src/lib/estimating/sample';
 import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
+import * as measures from '../src/lib/server/db/queries/measures';
+import * as quotes from '../src/lib/server/db/queries/quotes';
+import * as sites from '../src/lib/server/db/queries/sites';
+import { demoMeasure } from './demo-measures';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
 
@@ -49,7 +53,38 @@ const CUSTOMERS = [
 		phone: '555-0107',
 		notes: 'Prefers texts.'
 	},
-	{ name: 'Ivo Thistlewood', email: 'ivo.t@example.com', phone: '555-0191', notes: '' }
+	{ name: 'Ivo Thistlewood', email: 'ivo.t@example.com', phone: '555-0191', notes: '' },
+	{
+		name: 'Beatrix Fallowfield',
+		email: 'b.fallowfield@example.com',
+		phone: '555-0124',
+		notes: 'Asked about stair treads.'
+	},
+	{ name: 'Cosmo Penhallow', email: null, phone: '555-0186', notes: 'No e-mail: call.' },
+	{ name: 'Dagny Wexcombe', email: 'dagny.w@example.com', phone: null, notes: '' },
+	{
+		name: 'Emrys Calloway',
+		email: 'emrys.calloway@example.com',
+		phone: '555-0150',
+		notes: 'Rental units on Quarry Row.'
+	},
+	{ name: 'Fenella Ashdown', email: 'fenella.a@example.com', phone: '555-0133', notes: '' },
+	{
+		name: 'Gideon Marlowe',
+		email: 'g.marlowe@example.com',
+		phone: '555-0175',
+		notes: 'Wants a quote before spring.'
+	}
+];
+
+/** Where each of the first customers lives (invented streets of Bramblefield). */
+const SITES = [
+	{ address: '27 Alder Way', builtYear: 1962, subfloor: 'plywood' },
+	{ address: '4 Tannery Lane', builtYear: 1978, subfloor: 'concrete' },
+	{ address: '112 Wickett Street', builtYear: 1994, subfloor: 'plywood' },
+	{ address: '9 Heron Close', builtYear: 1985, subfloor: 'osb' },
+	{ address: '58 Cobble Rise', builtYear: 1971, subfloor: 'plywood' },
+	{ address: '3 Larkspur Court', builtYear: 2004, subfloor: 'plywood' }
 ];
 
 /** Jobs and the statuses they walk through (every state of PRODUCT.md appears once). */
@@ -78,7 +113,7 @@ const JOBS: { customer: number; title: string; path: JobStatus[]; installer?: nu
 	},
 	{
 		customer: 2,
-		title: 'Stair runner',
+		title: 'Upstairs landing carpet',
 		path: ['quoted', 'accepted', 'sold', 'scheduled', 'in_progress', 'completed', 'closed'],
 		installer: 5
 	},
@@ -128,12 +163,13 @@ export async function seedPriceBook(storeId: string) {
 		quoteValidDays: 30
 	});
 	const { floors, prep, removal, supplies } = samplePriceBook;
-	for (const { id: _id, name, ...data } of floors) {
-		await priceBook.create(storeId, { section: 'floor', code: '', name, data });
-	}
-	for (const floor of MORE_FLOORS) {
-		const { name, ...data } = floor;
-		await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+	const floorIds = new Map<string, string>();
+	for (const { id: _id, name, ...data } of [
+		...floors,
+		...MORE_FLOORS.map((f) => ({ id: '', ...f }))
+	]) {
+		const row = await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+		floorIds.set(name, row.id);
 	}
 	for (const item of prep) {
 		await priceBook.create(storeId, {
@@ -159,6 +195,11 @@ export async function seedPriceBook(storeId: string) {
 			data: item
 		});
 	}
+	return (name: string) => {
+		const id = floorIds.get(name);
+		if (!id) throw new Error(`No demo floor called ${name}`);
+		return id;
+	};
 }
 
 export async function seedDemo() {
@@ -187,7 +228,7 @@ export async function seedDemo() {
 			body: { userId: ids.get(person.email)!, role: person.role, organizationId: store.id }
 		});
 	}
-	await seedPriceBook(store.id);
+	const floor = await seedPriceBook(store.id);
 	await saveProfile(store.id, {
 		address: '418 Millrace Road',
 		town: 'Bramblefield',
@@ -218,22 +259,60 @@ export async function seedDemo() {
 		email: ''
 	});
 
-	const customerIds: string[] = [];
-	for (const c of CUSTOMERS) customerIds.push((await customers.create(store.id, c)).id);
+	const customerRows = [];
+	for (const c of CUSTOMERS) customerRows.push(await customers.create(store.id, c));
+	const siteIds: string[] = [];
+	for (const [i, place] of SITES.entries()) {
+		const row = await sites.create(store.id, customerRows[i].id, {
+			label: 'Home',
+			address: place.address,
+			town: 'Bramblefield',
+			postcode: '',
+			builtYear: place.builtYear,
+			subfloor: place.subfloor,
+			notes: ''
+		});
+		siteIds.push(row!.id);
+	}
 	const sellers = [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!];
 	const managerId = ids.get('manager@tallowcreek.example')!;
 	for (const [n, j] of JOBS.entries()) {
-		const job = await jobs.create(
-			store.id,
-			{ customerId: customerIds[j.customer], title: j.title },
-			sellers[n % 2]
-		);
+		const seller = sellers[n % 2];
+		const customer = customerRows[j.customer];
+		const job = await jobs.create(store.id, { customerId: customer.id, title: j.title }, seller);
 		if (!job) throw new Error(`Demo job ${j.title} was not created`);
+		await sites.setJobSite(store.id, job.id, siteIds[j.customer]);
+		const saved = await measures.save(store.id, job.id, demoMeasure(j.title, floor), 0, seller);
+		if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
 		for (const to of j.path) {
+			// Quoting and acceptance go the way they do in the product: build, send, the customer accepts.
+			if (to === 'quoted') {
+				const built = await quotes.build(store.id, job.id, seller);
+				if (!built.ok) throw new Error(`Demo quote of ${j.title}: ${JSON.stringify(built)}`);
+				const sent = await quotes.send(store.id, built.quote.id, {
+					to: customer.email ?? 'no-email@example.com',
+					validDays: 30,
+					actorId: seller
+				});
+				if (!sent.ok) throw new Error(`Demo quote of ${j.title} was not sent`);
+				continue;
+			}
+			if (to === 'accepted') {
+				const latest = await quotes.forCustomer(store.id, job.id);
+				const accepted = await quotes.accept(store.id, job.id, latest!.id, {
+					name: customer.name,
+					// An address from the range kept for documentation (RFC 5737).
+					ip: '198.51.100.20',
+					userAgent: 'demo seed'
+				});
+				if (!accepted.ok) throw new Error(`Demo quote of ${j.title} was not accepted`);
+				continue;
+			}
 			if (to === 'scheduled' && j.installer !== undefined) {
 				await jobs.assign(store.id, job.id, ids.get(DEMO_PEOPLE[j.installer].email)!, managerId);
 			}
-			const moved = await jobs.move(store.id, job.id, to, managerId);
+			const note = to === 'sold' ? 'Deposit taken in the store' : '';
+			const moved = await jobs.move(store.id, job.id, to, managerId, note);
 			if (!moved.ok) throw new Error(`Demo job ${j.title} could not move to ${to}`);
 		}
 	}

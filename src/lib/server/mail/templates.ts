@@ -89,3 +89,71 @@ export function passwordResetMail(input: { to: string; name: string; url: string
 		})
 	};
 }
+
+/** The quote, from the store, with the customer's link. */
+export function quoteMail(input: {
+	to: string;
+	storeName: string;
+	storePhone: string;
+	customerName: string;
+	jobTitle: string;
+	total: string;
+	deposit: string;
+	validUntil: Date;
+	url: string;
+	replyTo?: string;
+}): Mail {
+	const until = input.validUntil.toLocaleDateString('en-US', {
+		dateStyle: 'long',
+		timeZone: 'UTC'
+	});
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		replyTo: input.replyTo || undefined,
+		subject: `Your quote from ${input.storeName}: ${input.jobTitle}`,
+		...layout({
+			heading: `Your quote: ${input.jobTitle}`,
+			paragraphs: [
+				`Hello ${input.customerName},`,
+				`Here is your quote from ${input.storeName}: ${input.total} in all, with a deposit of ${input.deposit} to book the install.`,
+				`Open it to see each room drawn to scale, what we found under the old floor, and what it costs. You can accept it there by typing your name, or ask us for changes. It is good until ${until}.`,
+				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
+			].filter(Boolean),
+			action: { label: 'Open your quote', url: input.url },
+			footer: `Sent by ${input.storeName}. This link is for you: please do not forward it.`
+		})
+	};
+}
+
+/** Tells the salesperson what the customer did with the quote. */
+export function customerAnswerMail(input: {
+	to: string;
+	storeName: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	answer: 'accepted' | 'changes';
+	note?: string;
+	url: string;
+}): Mail {
+	const accepted = input.answer === 'accepted';
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		subject: accepted
+			? `${input.customerName} accepted the quote for ${input.jobLabel}`
+			: `${input.customerName} asked for changes to ${input.jobLabel}`,
+		...layout({
+			heading: accepted ? 'Quote accepted' : 'Changes asked for',
+			paragraphs: [
+				accepted
+					? `${input.customerName} accepted the quote for ${input.jobLabel} ${input.jobTitle}. The job is ready for the deposit.`
+					: `${input.customerName} asked for changes to the quote for ${input.jobLabel} ${input.jobTitle}:`,
+				...(input.note ? [`“${input.note}”`] : [])
+			],
+			action: { label: 'Open the job', url: input.url },
+			footer: `${input.storeName} · Flushline`
+		})
+	};
+}

@@ -30,6 +30,7 @@ const jobColumns = {
 	customerId: job.customerId,
 	customerName: customer.name,
 	customerPhone: customer.phone,
+	siteId: job.siteId,
 	installerId: job.installerId,
 	installerName: installer.name,
 	salespersonId: job.salespersonId,

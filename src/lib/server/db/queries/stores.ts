@@ -182,3 +182,12 @@ export async function listInvitations(storeId: string) {
 		.where(and(eq(invitation.organizationId, storeId), eq(invitation.status, 'pending')))
 		.orderBy(desc(invitation.createdAt));
 }
+
+/** A store's public face: its name and logo key (for customer pages, which have no session). */
+export async function readStore(storeId: string) {
+	const [row] = await db
+		.select({ id: organization.id, name: organization.name })
+		.from(organization)
+		.where(eq(organization.id, storeId));
+	return row;
+}

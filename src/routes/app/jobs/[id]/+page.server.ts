@@ -1,4 +1,5 @@
 import * as jobs from '$lib/server/db/queries/jobs';
+import * as quotes from '$lib/server/db/queries/quotes';
 import { parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
@@ -13,14 +14,16 @@ export const load: PageServerLoad = async ({ params }) => {
 	if (!job) error(404, 'Not found');
 	const canSchedule = can(role, { job: ['schedule'] });
 	const canAssign = can(role, { job: ['assign'] });
-	const [history, installers] = await Promise.all([
+	const [history, installers, quoteVersions] = await Promise.all([
 		jobs.events(store.id, job.id),
-		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([])
+		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([]),
+		can(role, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([])
 	]);
 	return {
 		job,
 		history,
 		installers,
+		latestQuote: quoteVersions[0] ?? null,
 		moves: canSchedule ? nextStatuses(job.status) : [],
 		canAssign,
 		canEdit: can(role, { job: ['update'] }),

@@ -1,0 +1,55 @@
+import type { Basis } from '$lib/estimating';
+
+const moneyFormats = new Map<string, Intl.NumberFormat>();
+
+/**
+ * Integer cents (the currency's smallest unit) as money for display. Intl knows each currency's
+ * minor digits, so zero-decimal currencies (JPY) show whole units: 1500 JPY is ¥1,500.
+ */
+export function formatMoney(minor: number, currency = 'USD'): string {
+	let format = moneyFormats.get(currency);
+	if (!format) {
+		format = new Intl.NumberFormat('en-US', { style: 'currency', currency });
+		moneyFormats.set(currency, format);
+	}
+	const digits = format.resolvedOptions().maximumFractionDigits ?? 2;
+	return format.format(minor / 10 ** digits);
+}
+
+const UNITS: Record<Basis, [string, string]> = {
+	each: ['each', 'each'],
+	sqft: ['ft²', 'ft²'],
+	linft: ['lin ft', 'lin ft'],
+	sqft_per_eighth_in: ['ft² per ⅛ in', 'ft² per ⅛ in'],
+	hour: ['hour', 'hours'],
+	room: ['room', 'rooms'],
+	carton: ['carton', 'cartons'],
+	roll_sqyd: ['yd²', 'yd²'],
+	roll_linft: ['lin ft', 'lin ft'],
+	panel: ['panel', 'panels'],
+	box: ['box', 'boxes'],
+	bag: ['bag', 'bags'],
+	container: ['pail', 'pails']
+};
+
+/** A quantity with its unit: "14 cartons", "126.5 ft²". */
+export function formatQty(qty: number, basis: Basis): string {
+	const [one, many] = UNITS[basis];
+	const n = Number.isInteger(qty)
+		? String(qty)
+		: qty.toLocaleString('en-US', { maximumFractionDigits: 2 });
+	return `${n} ${qty === 1 ? one : many}`;
+}
+
+/** The unit a price is per: "per carton", "per ft²". */
+export function perUnit(basis: Basis): string {
+	return `per ${UNITS[basis][0]}`;
+}
+
+export function formatDate(value: Date | string, style: 'medium' | 'long' = 'medium'): string {
+	return new Date(value).toLocaleDateString('en-US', { dateStyle: style });
+}
+
+export function formatDateTime(value: Date | string): string {
+	return new Date(value).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' });
+}

@@ -1,0 +1,27 @@
+import * as jobs from '$lib/server/db/queries/jobs';
+import * as quotes from '$lib/server/db/queries/quotes';
+import { requirePermission } from '$lib/server/guards';
+import { pdfOf } from '$lib/server/quote-service';
+import { jobLabel } from '$lib/jobs/status';
+import { error } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+
+/** A version of the job's quote as PDF, for store staff. */
+export const GET: RequestHandler = async ({ params }) => {
+	const { store, user, role } = requirePermission({ quote: ['read'] });
+	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const version = Number(params.version);
+	const quote =
+		job && Number.isInteger(version)
+			? await quotes.readVersion(store.id, job.id, version)
+			: undefined;
+	if (!job || !quote) error(404, 'Not found');
+	const bytes = await pdfOf(store, quote);
+	return new Response(Buffer.from(bytes), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-disposition': `inline; filename="${jobLabel(job.number)}-quote-v${quote.version}.pdf"`,
+			'cache-control': 'private, no-store'
+		}
+	});
+};

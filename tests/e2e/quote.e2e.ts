@@ -1,0 +1,101 @@
+import { expect, test } from '@playwright/test';
+import { createHmac } from 'node:crypto';
+import { demoEmail, lastMailLink, signIn } from './helpers';
+
+test('a salesperson builds and sends the quote; the customer accepts it from the e-mailed link', async ({
+	page,
+	browser
+}) => {
+	await signIn(page, demoEmail('sales'));
+	await page.goto('/app/jobs?q=Kitchen and hall');
+	await page.getByRole('link', { name: /Kitchen and hall, vinyl plank/ }).click();
+	await page.getByRole('link', { name: 'Open the quote' }).click();
+	await expect(page.getByRole('heading', { name: 'No quote yet' })).toBeVisible();
+	await page.getByRole('button', { name: 'Build the quote' }).click();
+
+	await expect(page.getByText('Draft: not sent')).toBeVisible();
+	// The demo kitchen: an L of 12 × 8 ft and 5 × 6 ft, less a 4 × 2 1/2 ft island: 96 + 30 − 10 = 116 ft².
+	await expect(page.getByRole('img', { name: /Kitchen, 116 ft², drawn to scale/ })).toBeVisible();
+	// The 1962 house: tear-out of old sheet vinyl carries the asbestos caution (TRADE.md, "Cautions to show").
+	await expect(page.getByText(/can contain asbestos/).first()).toBeVisible();
+	const total = await page.getByTestId('quote-total').innerText();
+	expect(total).toMatch(/^\$[\d,]+\.\d\d$/);
+
+	await expect(page.getByLabel("Customer's e-mail")).toHaveValue('greta.oakhurst@example.com');
+	await page.getByRole('button', { name: 'Send the quote' }).click();
+	await expect(page.getByText('Sent. The customer has the link by e-mail.')).toBeVisible();
+	await expect(page.getByText('Sent to the customer').first()).toBeVisible();
+
+	const customer = await browser.newPage({ viewport: { width: 390, height: 844 } });
+	const link = await lastMailLink(customer, 'greta.oakhurst@example.com');
+	expect(link).toMatch(/\/c\/[\w-]+\.[\w-]+$/);
+	await customer.goto(link);
+	await expect(customer.getByText('Tallow Creek Floors').first()).toBeVisible();
+	await expect(
+		customer.getByRole('heading', { name: 'Kitchen and hall, vinyl plank' })
+	).toBeVisible();
+	await expect(customer.getByTestId('quote-total')).toHaveText(total);
+	// The customer never sees installer pay or the store's margin.
+	await expect(customer.getByText('Installer pay')).toHaveCount(0);
+	await expect(customer.getByText('For the store only')).toHaveCount(0);
+
+	await customer.getByRole('button', { name: 'Accept the quote' }).click();
+	await expect(customer.getByText('Type your full name to accept')).toBeVisible();
+	await customer.getByLabel('Type your full name').fill('Greta Oakhurst');
+	await customer.getByRole('button', { name: 'Accept the quote' }).click();
+	await expect(customer.getByText('You accepted this quote')).toBeVisible();
+	await expect(customer.getByText('Accepted by Greta Oakhurst')).toBeVisible();
+	const pdf = await customer.request.get(`${new URL(link).pathname}/quote.pdf`);
+	expect(pdf.headers()['content-type']).toBe('application/pdf');
+	expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
+
+	await page.reload();
+	await expect(page.getByText('Accepted by the customer').first()).toBeVisible();
+	await page.getByRole('link', { name: /Kitchen and hall, vinyl plank/ }).click();
+	await expect(page.getByText('Accepted', { exact: true }).first()).toBeVisible();
+	await expect(page.getByText('Accepted by Greta Oakhurst (version 1)')).toBeVisible();
+});
+
+test('a customer can ask for changes instead; the job goes back to draft', async ({
+	page,
+	browser
+}) => {
+	await signIn(page, demoEmail('sales'));
+	await page.goto('/app/jobs?q=Basement');
+	await page.getByRole('link', { name: /Basement carpet/ }).click();
+	await page.getByRole('link', { name: 'Open the quote' }).click();
+	const link = await page.getByLabel("The customer's link").inputValue();
+	const customer = await browser.newPage();
+	await customer.goto(link);
+	// The slab's RH readings are over the 75 % limit (ASTM F710 / F2170, secondary).
+	await expect(customer.getByText(/RH/).first()).toBeVisible();
+	await customer.getByRole('button', { name: 'Ask for changes instead' }).click();
+	await customer
+		.getByLabel('What should change?')
+		.fill('Could we use the berber instead of the plush?');
+	await customer.getByRole('button', { name: 'Send to Tallow Creek Floors' }).click();
+	await expect(customer.getByText('You asked for changes')).toBeVisible();
+	await page.reload();
+	await expect(page.getByText('The customer asked for changes').first()).toBeVisible();
+	await expect(page.getByText('Could we use the berber instead of the plush?')).toBeVisible();
+});
+
+test('a forged or expired customer link shows a clear page and no data', async ({ page }) => {
+	const forged = await page.goto(
+		'/c/eyJzIjoieCIsImoiOiJ5IiwiZSI6NDEwMjQ0NDgwMH0.not-the-signature'
+	);
+	expect(forged?.status()).toBe(404);
+	await expect(page.getByRole('heading', { name: 'This link cannot be opened' })).toBeVisible();
+	await expect(page.getByText('Tallow Creek Floors')).toHaveCount(0);
+
+	// A correctly signed link whose time is up (signed as the server signs, with its secret).
+	const secret = process.env.BETTER_AUTH_SECRET!;
+	const payload = Buffer.from(JSON.stringify({ s: 'any', j: 'any', e: 1_000_000_000 })).toString(
+		'base64url'
+	);
+	const key = createHmac('sha256', secret).update('flushline customer link v1').digest();
+	const signature = createHmac('sha256', key).update(payload).digest('base64url');
+	const expired = await page.goto(`/c/${payload}.${signature}`);
+	expect(expired?.status()).toBe(410);
+	await expect(page.getByRole('heading', { name: 'This link has expired' })).toBeVisible();
+});
