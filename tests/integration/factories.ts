@@ -4,6 +4,8 @@ import { db } from '$lib/server/db';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
+import * as payments from '$lib/server/db/queries/payments';
+import { inStore } from '$lib/server/db/tenant';
 import * as priceBook from '$lib/server/db/queries/price-book';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
@@ -176,4 +178,47 @@ export async function makeQuotedJob(store: TestStore) {
 	const built = await quotes.build(store.id, jobRow.id, store.owner.id);
 	if (!built.ok) throw new Error(`quote not built: ${JSON.stringify(built)}`);
 	return { job: jobRow, customer: customerRow, site, floors, draft, quote: built.quote };
+}
+
+/** A quoted job the customer accepted, with a cash deposit, a partial refund and a Stripe event. */
+export async function makePaidJob(store: TestStore) {
+	const made = await makeQuotedJob(store);
+	await quotes.send(store.id, made.quote.id, {
+		to: 'c@test.example',
+		validDays: 30,
+		actorId: store.owner.id
+	});
+	await quotes.accept(store.id, made.job.id, made.quote.id, {
+		name: 'A Customer',
+		ip: null,
+		userAgent: null
+	});
+	const paid = await payments.recordInStore(
+		store.id,
+		made.job.id,
+		{
+			purpose: 'deposit',
+			method: 'cash',
+			amountCents: made.quote.depositCents,
+			reference: 'Receipt 1'
+		},
+		store.owner.id
+	);
+	if (!paid.ok) throw new Error(`deposit not recorded: ${paid.reason}`);
+	const refunded = await payments.refundInStore(
+		store.id,
+		paid.payment.id,
+		{ amountCents: 100, reason: 'overcharge', note: 'Rounded down' },
+		store.owner.id
+	);
+	if (!refunded.ok) throw new Error(`refund not recorded: ${refunded.reason}`);
+	await inStore(store.id, (tx) =>
+		payments.firstSight(tx, store.id, {
+			id: unique('evt'),
+			type: 'charge.succeeded',
+			objectId: null,
+			created: 1_800_000_000
+		})
+	);
+	return { ...made, payment: paid.payment, refund: refunded.refund };
 }

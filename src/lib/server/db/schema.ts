@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm';
 import {
 	boolean,
+	check,
 	foreignKey,
 	index,
 	integer,
@@ -80,6 +81,11 @@ export const storeSettings = pgTable(
 		settings: jsonb('settings').$type<StoreSettings>().notNull(),
 		currency: text('currency').notNull().default('USD'),
 		quoteValidDays: integer('quote_valid_days').notNull().default(30),
+		/**
+		 * The store's own Stripe account (`acct_…`), connected to the platform: charges, refunds and
+		 * payouts live there, so one store's money is never in another's reports.
+		 */
+		stripeAccountId: text('stripe_account_id').unique(),
 		...timestamps
 	},
 	() => [storeIsolation]
@@ -302,6 +308,120 @@ export const quote = pgTable(
 		}).onDelete('cascade'),
 		storeIsolation
 	]
+).enableRLS();
+
+export const paymentPurpose = pgEnum('payment_purpose', ['deposit', 'balance', 'change_order']);
+export const paymentMethod = pgEnum('payment_method', [
+	'card',
+	'cash',
+	'cheque',
+	'card_terminal',
+	'bank_transfer'
+]);
+export const paymentStatus = pgEnum('payment_status', [
+	'pending',
+	'succeeded',
+	'failed',
+	'refunded'
+]);
+
+/**
+ * One payment of a job: by card through Stripe Checkout, or taken in the store. Amounts are
+ * integers in the currency's smallest unit; `refunded_cents` never exceeds `amount_cents`.
+ */
+export const payment = pgTable(
+	'payment',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		quoteId: text('quote_id'),
+		purpose: paymentPurpose('purpose').notNull(),
+		method: paymentMethod('method').notNull(),
+		status: paymentStatus('status').notNull().default('pending'),
+		currency: text('currency').notNull(),
+		amountCents: integer('amount_cents').notNull(),
+		refundedCents: integer('refunded_cents').notNull().default(0),
+		feeCents: integer('fee_cents'),
+		/** Cheque number, terminal slip, transfer reference: what the store wrote down. */
+		reference: text('reference').notNull().default(''),
+		failureMessage: text('failure_message'),
+		stripeCheckoutSessionId: text('stripe_checkout_session_id').unique(),
+		stripePaymentIntentId: text('stripe_payment_intent_id').unique(),
+		stripeChargeId: text('stripe_charge_id').unique(),
+		stripeBalanceTransactionId: text('stripe_balance_transaction_id'),
+		checkoutUrl: text('checkout_url'),
+		checkoutExpiresAt: timestamp('checkout_expires_at', { withTimezone: true }),
+		recordedBy: text('recorded_by').references(() => user.id, { onDelete: 'set null' }),
+		succeededAt: timestamp('succeeded_at', { withTimezone: true }),
+		...timestamps
+	},
+	(t) => [
+		index('payment_job_idx').on(t.organizationId, t.jobId),
+		index('payment_created_idx').on(t.organizationId, t.createdAt),
+		unique('payment_id_organization_uq').on(t.id, t.organizationId),
+		foreignKey({
+			name: 'payment_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('restrict'),
+		foreignKey({
+			name: 'payment_quote_same_store_fk',
+			columns: [t.quoteId, t.organizationId],
+			foreignColumns: [quote.id, quote.organizationId]
+		}).onDelete('restrict'),
+		check('payment_amount_positive', sql`${t.amountCents} > 0`),
+		check(
+			'payment_refund_within',
+			sql`${t.refundedCents} >= 0 and ${t.refundedCents} <= ${t.amountCents}`
+		),
+		storeIsolation
+	]
+).enableRLS();
+
+export const refundReason = pgEnum('refund_reason', ['cancellation', 'overcharge', 'other']);
+export const refundStatus = pgEnum('refund_status', ['pending', 'succeeded', 'failed']);
+
+/** Money given back on a payment, in part or whole, with its reason. */
+export const refund = pgTable(
+	'refund',
+	{
+		id: id(),
+		organizationId: storeId(),
+		paymentId: text('payment_id').notNull(),
+		amountCents: integer('amount_cents').notNull(),
+		reason: refundReason('reason').notNull(),
+		note: text('note').notNull().default(''),
+		status: refundStatus('status').notNull().default('pending'),
+		stripeRefundId: text('stripe_refund_id').unique(),
+		createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+		...timestamps
+	},
+	(t) => [
+		index('refund_payment_idx').on(t.organizationId, t.paymentId),
+		foreignKey({
+			name: 'refund_payment_same_store_fk',
+			columns: [t.paymentId, t.organizationId],
+			foreignColumns: [payment.id, payment.organizationId]
+		}).onDelete('restrict'),
+		check('refund_amount_positive', sql`${t.amountCents} > 0`),
+		storeIsolation
+	]
+).enableRLS();
+
+/** Each Stripe event handled, once: a redelivered event finds its id here and changes nothing. */
+export const stripeEvent = pgTable(
+	'stripe_event',
+	{
+		id: text('id').primaryKey(),
+		organizationId: storeId(),
+		type: text('type').notNull(),
+		objectId: text('object_id'),
+		stripeCreated: timestamp('stripe_created', { withTimezone: true }).notNull(),
+		receivedAt: timestamp('received_at', { withTimezone: true }).defaultNow().notNull(),
+		outcome: text('outcome').notNull().default('')
+	},
+	(t) => [index('stripe_event_organization_idx').on(t.organizationId, t.receivedAt), storeIsolation]
 ).enableRLS();
 
 export * from './auth.schema';
