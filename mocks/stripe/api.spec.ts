@@ -1,4 +1,4 @@
-import { existsSync, mkdtempSync, readdirSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import Stripe from 'stripe';
@@ -666,5 +666,20 @@ describe('persistence', () => {
 		expect((await t.stripe.checkout.sessions.retrieve(session.id)).status).toBe('complete');
 		const again = await t.stripe.customers.create({ name: 'Kept' }, { idempotencyKey: 'keep-1' });
 		expect(again.id).toBe(customer.id);
+	});
+
+	it('sets an unreadable file aside instead of losing it, and starts empty', () => {
+		const dataDir = mkdtempSync(path.join(tmpdir(), 'stripe-fake-broken-'));
+		writeFileSync(path.join(dataDir, 'stripe.json'), '{"version":1,"customers":');
+		const fake = createStripeFake({
+			dataDir,
+			origin: 'http://x',
+			webhookUrl: null,
+			webhookSecret: 'whsec_x'
+		});
+		expect(fake.store.state.customers).toEqual({});
+		const aside = readdirSync(dataDir).find((f) => f.startsWith('stripe.json.unreadable-'));
+		expect(aside).toBeDefined();
+		expect(readFileSync(path.join(dataDir, aside!), 'utf8')).toBe('{"version":1,"customers":');
 	});
 });

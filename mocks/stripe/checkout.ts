@@ -14,7 +14,6 @@ export interface CheckoutView {
 	total: string;
 	lines: {
 		name: string;
-		description: string | null;
 		quantity: number;
 		unit: string;
 		amount: string;
@@ -60,7 +59,6 @@ export function checkoutView(store: Store, id: string): CheckoutView | null {
 		total: formatAmount(session.amount_total ?? 0, currency),
 		lines: (store.state.lineItems[id] ?? []).map((item) => ({
 			name: item.description ?? '',
-			description: null,
 			quantity: item.quantity ?? 1,
 			unit: formatAmount(item.price?.unit_amount ?? 0, currency),
 			amount: formatAmount(item.amount_total, currency)

@@ -67,7 +67,10 @@ export class Webhooks {
 		});
 		this.store.state.events[event.id] = event;
 		if (this.mode === 'auto' && this.options.url) {
-			this.track((this.queue = this.queue.then(() => this.send(event.id, 'automatic', {}))));
+			this.queue = this.queue
+				.then(() => this.send(event.id, 'automatic', {}))
+				.catch((e) => console.error(`The Stripe fake could not deliver ${event.id}:`, e));
+			this.track(this.queue);
 		}
 		return event;
 	}

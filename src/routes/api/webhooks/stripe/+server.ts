@@ -18,9 +18,8 @@ export const POST: RequestHandler = async ({ request }) => {
 		}
 		throw e;
 	}
-	// TODO(issue 5, the webhook ledger): record the event here, once per event.id (Stripe delivers
-	// at least once and in no set order), inside the store's transaction found from
-	// event.data.object.metadata.store_id — then answer 200. Until then every verified event is
-	// acknowledged and nothing is stored.
+	// Here the webhook ledger (issue 5) will record the event: once per event.id (Stripe delivers
+	// at least once and in no set order), in the store found from the object's metadata.store_id,
+	// before answering 200. Until it exists, a verified event is acknowledged and nothing is stored.
 	return json({ received: true, id: event.id, type: event.type });
 };
