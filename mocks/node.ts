@@ -1,13 +1,16 @@
 import type { RequestHandler } from 'msw';
 import { setupServer } from 'msw/node';
 import { resendHandlers } from './resend';
+import { createStripeFake, setCurrentStripeFake } from './stripe';
 
 type SetupServer = ReturnType<typeof setupServer>;
 
 export interface FakeOptions {
-	/** Where the fakes keep what they accepted (the outbox, later the payment objects). */
+	/** Where the fakes keep what they accepted (the outbox, the Stripe objects). */
 	dataDir: string;
 	mail: boolean;
+	/** The Stripe fake's settings; absent while a real Stripe key is set. */
+	stripe?: { origin: string; webhookUrl: string; webhookSecret: string };
 }
 
 const key = Symbol.for('flushline.fakes');
@@ -22,6 +25,11 @@ export function startFakes(options: FakeOptions): SetupServer {
 	if (g[key]) return g[key];
 	const handlers: RequestHandler[] = [];
 	if (options.mail) handlers.push(...resendHandlers(options.dataDir));
+	if (options.stripe) {
+		const fake = createStripeFake({ dataDir: options.dataDir, ...options.stripe });
+		setCurrentStripeFake(fake);
+		handlers.push(...fake.handlers);
+	}
 	const server = setupServer(...handlers);
 	server.listen({ onUnhandledRequest: 'bypass' });
 	g[key] = server;

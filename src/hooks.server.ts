@@ -16,10 +16,21 @@ import { svelteKitHandler } from 'better-auth/svelte-kit';
 
 export const init: ServerInit = async () => {
 	checkConfig();
-	if (config.fakeMail) {
+	if (config.fakeMail || config.fakeStripe) {
 		const { startFakes } = await import('$mocks/node');
-		startFakes({ dataDir: config.dataDir, mail: true });
-		console.log('Local fakes on: e-mail goes to /dev/outbox');
+		startFakes({
+			dataDir: config.dataDir,
+			mail: config.fakeMail,
+			stripe: config.fakeStripe
+				? {
+						origin: config.origin,
+						webhookUrl: config.stripeFakeWebhookUrl,
+						webhookSecret: config.stripeWebhookSecret
+					}
+				: undefined
+		});
+		if (config.fakeMail) console.log('Local fakes on: e-mail goes to /dev/outbox');
+		if (config.fakeStripe) console.log('Local fakes on: Stripe test payments, see /dev/stripe');
 	}
 };
 

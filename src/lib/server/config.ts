@@ -2,6 +2,12 @@ import { env } from '$env/dynamic/private';
 import path from 'node:path';
 
 /**
+ * The webhook signing secret while the Stripe fake is on: fixed, so the fake and the endpoint
+ * agree without setup. It signs nothing outside this machine.
+ */
+export const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_flushline_local_fake_not_a_real_secret';
+
+/**
  * The server's settings, read once from the environment (README, "Environment"). ORIGIN is the
  * one setting for the served origin: adapter-node's CSRF check and better-auth's baseURL both
  * use it, so `localhost` and `127.0.0.1` never disagree.
@@ -18,6 +24,19 @@ export const config = {
 	/** The Resend fake answers while no real key is set. */
 	get fakeMail() {
 		return !this.resendApiKey;
+	},
+	stripeSecretKey: env.STRIPE_SECRET_KEY ?? '',
+	/** The Stripe fake answers the SDK while no real secret key is set. */
+	get fakeStripe() {
+		return !this.stripeSecretKey;
+	},
+	/** The webhook endpoint's signing secret: the real one, or the fake's fixed local one. */
+	get stripeWebhookSecret() {
+		return env.STRIPE_WEBHOOK_SECRET || (this.fakeStripe ? LOCAL_STRIPE_WEBHOOK_SECRET : '');
+	},
+	/** Where the Stripe fake delivers its events (the app's own endpoint unless set). */
+	get stripeFakeWebhookUrl() {
+		return env.STRIPE_FAKE_WEBHOOK_URL || `${this.origin}/api/webhooks/stripe`;
 	}
 };
 
@@ -31,5 +50,13 @@ export function checkConfig() {
 	}
 	if (config.authSecret.length < 32) {
 		throw new Error('BETTER_AUTH_SECRET must be at least 32 characters');
+	}
+	if (config.stripeSecretKey && !/^(sk|rk)_(test|live)_/.test(config.stripeSecretKey)) {
+		throw new Error('STRIPE_SECRET_KEY must be a Stripe secret key (sk_test_…, sk_live_… or rk_…)');
+	}
+	if (config.stripeSecretKey && !env.STRIPE_WEBHOOK_SECRET) {
+		throw new Error(
+			'STRIPE_WEBHOOK_SECRET is required with STRIPE_SECRET_KEY: the signing secret of the endpoint /api/webhooks/stripe'
+		);
 	}
 }
