@@ -25,27 +25,33 @@ async function refusal(call: Promise<unknown>): Promise<Stripe.errors.StripeErro
 	throw new Error('expected the call to be refused');
 }
 
-const deposit = (overrides: Partial<Stripe.Checkout.SessionCreateParams> = {}) =>
-	t.stripe.checkout.sessions.create({
-		mode: 'payment',
-		line_items: [
-			{
-				price_data: {
-					currency: 'usd',
-					unit_amount: 125_000,
-					product_data: { name: 'Deposit for job J-1042' }
-				},
-				quantity: 1
-			}
-		],
-		customer_email: 'ada.quill@example.example',
-		success_url: 'http://127.0.0.1:4173/paid?session={CHECKOUT_SESSION_ID}',
-		cancel_url: 'http://127.0.0.1:4173/quote',
-		metadata: { store_id: 'org_1', store_name: 'Tallow Creek Floors', purpose: 'deposit' },
-		payment_intent_data: { metadata: { store_id: 'org_1', job_id: 'job_1' } },
-		client_reference_id: 'quote_1',
-		...overrides
-	});
+const deposit = (
+	overrides: Partial<Stripe.Checkout.SessionCreateParams> = {},
+	request?: Stripe.RequestOptions
+) =>
+	t.stripe.checkout.sessions.create(
+		{
+			mode: 'payment',
+			line_items: [
+				{
+					price_data: {
+						currency: 'usd',
+						unit_amount: 125_000,
+						product_data: { name: 'Deposit for job J-1042' }
+					},
+					quantity: 1
+				}
+			],
+			customer_email: 'ada.quill@example.example',
+			success_url: 'http://127.0.0.1:4173/paid?session={CHECKOUT_SESSION_ID}',
+			cancel_url: 'http://127.0.0.1:4173/quote',
+			metadata: { store_id: 'org_1', store_name: 'Tallow Creek Floors', purpose: 'deposit' },
+			payment_intent_data: { metadata: { store_id: 'org_1', job_id: 'job_1' } },
+			client_reference_id: 'quote_1',
+			...overrides
+		},
+		request
+	);
 
 /** A paid deposit: the session, its PaymentIntent and its charge. */
 async function paidDeposit(amount = 10_000, currency = 'usd') {
@@ -681,5 +687,43 @@ describe('persistence', () => {
 		const aside = readdirSync(dataDir).find((f) => f.startsWith('stripe.json.unreadable-'));
 		expect(aside).toBeDefined();
 		expect(readFileSync(path.join(dataDir, aside!), 'utf8')).toBe('{"version":1,"customers":');
+	});
+});
+
+describe('connected accounts (Stripe-Account)', () => {
+	const A = { stripeAccount: 'acct_alphafloors01' };
+	const B = { stripeAccount: 'acct_betafloors002' };
+
+	it("keeps each account's objects apart from the others' and the platform's", async () => {
+		const mine = await t.stripe.customers.create({ email: 'a@example.com' }, A);
+		await t.stripe.customers.create({ email: 'b@example.com' }, B);
+		const listed = await t.stripe.customers.list({}, A);
+		expect(listed.data.map((c) => c.id)).toEqual([mine.id]);
+		expect((await t.stripe.customers.list({})).data).toEqual([]);
+		const other = await refusal(t.stripe.customers.retrieve(mine.id, {}, B));
+		expect(other.statusCode).toBe(404);
+	});
+
+	it('pays, refunds and pays out in the account, with events that name it', async () => {
+		const session = await deposit({}, A);
+		expect((await t.fake.pay(session.id, 'success')).outcome).toBe('paid');
+		const paid = await t.stripe.checkout.sessions.retrieve(
+			session.id,
+			{ expand: ['payment_intent'] },
+			A
+		);
+		expect(paid.payment_status).toBe('paid');
+		expect((await t.stripe.charges.list({}, B)).data).toEqual([]);
+		const events = t.fake.events({ type: 'checkout.session.completed' });
+		expect(events[0].account).toBe('acct_alphafloors01');
+		const payouts = await t.fake.payout(undefined, 'acct_alphafloors01');
+		expect(payouts).toHaveLength(1);
+		expect((await t.stripe.payouts.list({}, A)).data.map((p) => p.id)).toEqual([payouts[0].id]);
+		expect((await t.stripe.payouts.list({}, B)).data).toEqual([]);
+	});
+
+	it('refuses an account id that is not one', async () => {
+		const e = await refusal(t.stripe.customers.list({}, { stripeAccount: 'not-an-account' }));
+		expect(e.statusCode).toBe(403);
 	});
 });

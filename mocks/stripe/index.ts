@@ -1,3 +1,4 @@
+import { existsSync, readdirSync } from 'node:fs';
 import type { RequestHandler } from 'msw';
 import Stripe from 'stripe';
 import { CHECKOUT_CARDS, checkoutView, type CheckoutView } from './checkout';
@@ -29,7 +30,10 @@ export interface StripeFakeOptions {
  */
 export interface StripeFake {
 	handlers: RequestHandler[];
+	/** The platform account's objects. */
 	store: Store;
+	/** A connected account's objects (`acct_…`), or the platform's for null. */
+	account(id: string | null): Store;
 	options: StripeFakeOptions;
 	/** The hosted page's view of a session (expiring it first when its time has passed), or null. */
 	checkout(sessionId: string): CheckoutView | null;
@@ -50,65 +54,125 @@ export interface StripeFake {
 	/** `hold` keeps new events undelivered (to deliver them later in a chosen order); `auto` is Stripe's way. */
 	setDeliveryMode(mode: 'auto' | 'hold'): void;
 	deliveryMode(): 'auto' | 'hold';
-	/** Pays out the available balance (every currency, or one) and waits for its events' delivery. */
-	payout(currency?: string): Promise<Stripe.Payout[]>;
+	/**
+	 * Pays out the available balance (every currency, or one) of every account, or of one
+	 * (`null` for the platform's), and waits for its events' delivery.
+	 */
+	payout(currency?: string, account?: string | null): Promise<Stripe.Payout[]>;
 	/** Waits for every delivery in flight. */
 	settled(): Promise<void>;
 	/** Forgets every object, event and delivery. */
 	reset(): void;
 }
 
+/** One Stripe account's objects, payments engine and webhook queue. */
+interface Account {
+	store: Store;
+	webhooks: Webhooks;
+	payments: Payments;
+}
+
 export function createStripeFake(options: StripeFakeOptions): StripeFake {
-	const store = new Store(options.dataDir);
-	const webhooks = new Webhooks(store, {
-		url: options.webhookUrl,
-		secret: options.webhookSecret,
-		apiVersion: Stripe.API_VERSION,
-		timeoutMs: options.deliveryTimeoutMs
-	});
-	const payments = new Payments(store, webhooks, options.origin.replace(/\/$/, ''));
-	const sweep = () => {
-		if (payments.sweepExpired()) store.save();
+	const origin = options.origin.replace(/\/$/, '');
+	const accounts = new Map<string, Account>();
+	let mode: 'auto' | 'hold' = 'auto';
+
+	/**
+	 * The platform's own objects (no `Stripe-Account` header) or a connected account's; each is
+	 * kept apart, as in Stripe, in its own file, and its events carry its `account`.
+	 */
+	function account(id: string | null): Account {
+		const name = id ?? '';
+		let found = accounts.get(name);
+		if (!found) {
+			const store = new Store(options.dataDir, id);
+			const webhooks = new Webhooks(store, {
+				url: options.webhookUrl,
+				secret: options.webhookSecret,
+				apiVersion: Stripe.API_VERSION,
+				timeoutMs: options.deliveryTimeoutMs,
+				account: id
+			});
+			webhooks.mode = mode;
+			found = { store, webhooks, payments: new Payments(store, webhooks, origin) };
+			accounts.set(name, found);
+		}
+		return found;
+	}
+	// Accounts saved by an earlier run, so their sessions and events are found again.
+	if (options.dataDir && existsSync(options.dataDir)) {
+		for (const file of readdirSync(options.dataDir)) {
+			const m = /^stripe-(acct_[A-Za-z0-9]+)\.json$/.exec(file);
+			if (m) account(m[1]);
+		}
+	}
+	const platform = account(null);
+	const all = () => [...accounts.values()];
+	/** The account holding an object (ids are unique across accounts). */
+	const holding = (id: string) => all().find((a) => a.store.find(id)) ?? platform;
+	const settled = async () => {
+		await Promise.all(all().map((a) => a.webhooks.settled()));
 	};
+	const newestFirst = <T extends { created: number }>(lists: T[][]) =>
+		lists.flat().sort((a, b) => b.created - a.created);
 
 	return {
-		handlers: stripeHandlers(store, payments, Stripe.API_VERSION),
-		store,
+		handlers: stripeHandlers(account, Stripe.API_VERSION),
+		store: platform.store,
+		account: (id) => account(id).store,
 		options,
 		checkout(sessionId) {
-			sweep();
-			return checkoutView(store, sessionId);
+			const a = holding(sessionId);
+			if (a.payments.sweepExpired()) a.store.save();
+			return checkoutView(a.store, sessionId);
 		},
 		async pay(sessionId, card, billing = {}) {
-			const result = payments.pay(sessionId, card, {
+			const a = holding(sessionId);
+			const result = a.payments.pay(sessionId, card, {
 				email: billing.email || null,
 				name: billing.name || null
 			});
-			store.save();
-			await webhooks.settled();
+			a.store.save();
+			await settled();
 			return result;
 		},
 		events(filter = {}) {
-			return store.newestFirst('events').filter((e) => !filter.type || e.type === filter.type);
+			return newestFirst(all().map((a) => a.store.newestFirst('events'))).filter(
+				(e) => !filter.type || e.type === filter.type
+			);
 		},
-		deliveries: (filter) => webhooks.deliveries(filter),
-		deliver: (ids, deliverOptions) => webhooks.deliver(ids, deliverOptions),
+		deliveries: (filter) =>
+			all()
+				.flatMap((a) => a.webhooks.deliveries(filter))
+				.sort((a, b) => b.at - a.at),
+		async deliver(ids, deliverOptions) {
+			// In the order asked, whichever accounts the events belong to.
+			const done: Delivery[] = [];
+			for (const id of ids)
+				done.push(...(await holding(id).webhooks.deliver([id], deliverOptions)));
+			return done;
+		},
 		async redeliver(eventId, times = 1) {
-			return webhooks.deliver(Array.from({ length: times }, () => eventId));
+			return holding(eventId).webhooks.deliver(Array.from({ length: times }, () => eventId));
 		},
-		setDeliveryMode(mode) {
-			webhooks.mode = mode;
+		setDeliveryMode(next) {
+			mode = next;
+			for (const a of all()) a.webhooks.mode = next;
 		},
-		deliveryMode: () => webhooks.mode,
-		async payout(currency) {
-			const payouts = payments.makePayout(currency);
-			store.save();
-			await webhooks.settled();
+		deliveryMode: () => mode,
+		async payout(currency, accountId) {
+			const targets = accountId === undefined ? all() : [account(accountId)];
+			const payouts = targets.flatMap((a) => {
+				const made = a.payments.makePayout(currency);
+				a.store.save();
+				return made;
+			});
+			await settled();
 			return payouts;
 		},
-		settled: () => webhooks.settled(),
+		settled,
 		reset() {
-			store.reset();
+			for (const a of all()) a.store.reset();
 		}
 	};
 }

@@ -494,10 +494,13 @@ export function eventObject(input: {
 	previous?: Record<string, unknown>;
 	request: Stripe.Event.Request;
 	apiVersion: string;
+	/** The connected account the object lives in (Connect events carry it). */
+	account?: string | null;
 }): Stripe.Event {
 	const event: Stripe.EventBase = {
 		id: newId(PREFIX.event),
 		object: 'event',
+		...(input.account ? { account: input.account } : {}),
 		api_version: input.apiVersion,
 		created: now(),
 		data: {

@@ -268,12 +268,42 @@ const keepsResult = (status: number) => status < 400 || status === 402 || status
  * The msw handlers answering everything under https://api.stripe.com. Unknown paths get
  * Stripe's "Unrecognized request URL" 404, so nothing reaches the real Stripe while the fake is on.
  */
-export function stripeHandlers(store: Store, payments: Payments, apiVersion: string) {
-	const table = routes(store, payments);
-	const extra = extraExpansions(store);
-
+export function stripeHandlers(
+	accountFor: (id: string | null) => { store: Store; payments: Payments },
+	apiVersion: string
+) {
 	return [
 		http.all(`${BASE}/*`, async ({ request }) => {
+			const header = request.headers.get('stripe-account');
+			if (header !== null && !/^acct_[A-Za-z0-9]{6,}$/.test(header)) {
+				return HttpResponse.json(
+					{
+						error: {
+							type: 'invalid_request_error',
+							message: `The provided key does not have access to account '${header}' (or that account does not exist).`
+						}
+					},
+					{ status: 403 }
+				);
+			}
+			const { store, payments } = accountFor(header);
+			return answer(store, payments, apiVersion, request);
+		})
+	];
+}
+
+const tables = new WeakMap<Store, { table: Route[]; extra: Expander }>();
+
+/** One request to one account's objects. */
+async function answer(store: Store, payments: Payments, apiVersion: string, request: Request) {
+	let cached = tables.get(store);
+	if (!cached) {
+		cached = { table: routes(store, payments), extra: extraExpansions(store) };
+		tables.set(store, cached);
+	}
+	const { table, extra } = cached;
+	{
+		{
 			const url = new URL(request.url);
 			const method = request.method.toUpperCase();
 			const headers: Record<string, string> = {
@@ -349,8 +379,8 @@ export function stripeHandlers(store: Store, payments: Payments, apiVersion: str
 				if (method === 'POST') store.save();
 				return respond(error.status, error.toJSON());
 			}
-		})
-	];
+		}
+	}
 }
 
 /**

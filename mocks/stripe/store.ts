@@ -106,8 +106,14 @@ export class Store {
 	state: FakeState;
 	readonly file: string | null;
 
-	constructor(dataDir?: string | null) {
-		this.file = dataDir ? path.join(dataDir, 'stripe.json') : null;
+	/** `account`: a connected account's objects are kept apart, in their own file. */
+	constructor(
+		dataDir?: string | null,
+		readonly account: string | null = null
+	) {
+		this.file = dataDir
+			? path.join(dataDir, account ? `stripe-${account}.json` : 'stripe.json')
+			: null;
 		this.state = this.load();
 	}
 

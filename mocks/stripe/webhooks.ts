@@ -14,6 +14,8 @@ export interface WebhookOptions {
 	apiVersion: string;
 	/** How long one delivery may take before it counts as failed. */
 	timeoutMs?: number;
+	/** The connected account these events come from; null for the platform's own. */
+	account?: string | null;
 }
 
 /** How an event is delivered: its signature's age, or a wrong signature, for tests. */
@@ -63,7 +65,8 @@ export class Webhooks {
 			object,
 			previous,
 			request,
-			apiVersion: this.options.apiVersion
+			apiVersion: this.options.apiVersion,
+			account: this.options.account
 		});
 		this.store.state.events[event.id] = event;
 		if (this.mode === 'auto' && this.options.url) {
