@@ -142,7 +142,7 @@ export const forms: Record<CalculatorName, CalculatorForm> = {
 		failField: 'areaSqFt',
 		parts: [
 			area('areaSqFt', 'Floor area'),
-			{ ...area('coverageSqFt', 'One carton covers'), placeholder: 'e.g. 20.5' },
+			{ ...area('coverageSqFt', 'Area one carton covers'), placeholder: 'e.g. 20.5' },
 			{
 				kind: 'select',
 				name: 'layout',
@@ -306,7 +306,7 @@ export const forms: Record<CalculatorName, CalculatorForm> = {
 				when: (v) => (v.containerKind || 'volume') === 'volume'
 			},
 			{
-				...area('container.coverageSqFt', 'One container covers'),
+				...area('container.coverageSqFt', 'Area one container covers'),
 				placeholder: 'e.g. 25',
 				when: (v) => v.containerKind === 'coverage'
 			},
@@ -444,7 +444,7 @@ export const forms: Record<CalculatorName, CalculatorForm> = {
 				min: 0,
 				max: 50,
 				initialRows: 1,
-				fields: [pct('', 'RH')]
+				fields: [pct('', 'RH, %')]
 			},
 			pct('rhLimitPct', 'RH limit (leave empty for the store’s)', true),
 			{
@@ -493,7 +493,7 @@ export const forms: Record<CalculatorName, CalculatorForm> = {
 				min: 0,
 				max: 50,
 				initialRows: 1,
-				fields: [pct('', 'MC')]
+				fields: [pct('', 'MC, %')]
 			},
 			{
 				kind: 'rows',
@@ -504,7 +504,7 @@ export const forms: Record<CalculatorName, CalculatorForm> = {
 				min: 0,
 				max: 50,
 				initialRows: 1,
-				fields: [pct('', 'MC')]
+				fields: [pct('', 'MC, %')]
 			},
 			{
 				kind: 'length',
@@ -732,7 +732,7 @@ export function hintOf(field: FieldSpec, s: CalculatorSettings): string | undefi
 
 /** "Joist spacing", but "RH" stays "RH". */
 function lower(label: string) {
-	const plain = label.replace(/\s*\(.*\)$/, '');
+	const plain = label.replace(/\s*\(.*\)$/, '').replace(/,.*$/, '');
 	return /^[A-Z][a-z]/.test(plain) ? plain.charAt(0).toLowerCase() + plain.slice(1) : plain;
 }
 

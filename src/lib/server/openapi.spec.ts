@@ -1,4 +1,4 @@
-import Ajv2020 from 'ajv/dist/2020';
+import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
 import { calculatorExamples } from '$lib/calculators/examples';
 import { defaultSettings, estimate, forInstaller } from '$lib/estimating';
