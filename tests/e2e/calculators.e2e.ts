@@ -35,6 +35,49 @@ test('the joists calculator says when a floor does not pass and to confirm with 
 	await expect(page.getByText(/Source: .*AISC Manual Table 3-23/)).toBeVisible();
 });
 
+test('from the keyboard, sending an empty form names each missing field and focuses the first', async ({
+	page
+}) => {
+	await signIn(page, demoEmail('manager'));
+	await page.goto('/app/calculators?c=leveller');
+	const area = page.getByLabel('Area to level');
+	await area.focus();
+	await page.keyboard.press('Enter');
+	await expect(area).toBeFocused();
+	await expect(area).toHaveAccessibleDescription(/Enter the area to level/);
+	await expect(page.getByLabel('Average depth')).toHaveAccessibleDescription(
+		/Enter the average depth/
+	);
+	await page.keyboard.type('10 x 10');
+	await page.keyboard.press('Tab');
+	await expect(page.getByLabel('Average depth')).toBeFocused();
+	await page.keyboard.type('1/4');
+	await page.keyboard.press('Tab');
+	await page.keyboard.type('0.45');
+	// 100 ft² × 1/4 in ÷ 12 = 2.083 ft³ × 1.10 ÷ 0.45 ft³ = 5.09 → 6 bags (TRADE.md Quantities)
+	await expect(page.getByTestId('calc-headline')).toHaveText('6 bags');
+});
+
+test('each role opens only its own Calculators page; the form action answers the same way', async ({
+	page,
+	baseURL
+}) => {
+	await signIn(page, demoEmail('installer'));
+	expect((await page.request.get('/app/calculators')).status()).toBe(403);
+	const posted = await page.request.post('/field/calculators?c=cartons', {
+		headers: { origin: baseURL!, accept: 'text/html' },
+		form: { calculator: 'cartons', areaSqFt: '120', coverageSqFt: '20.5', layout: 'straight' }
+	});
+	expect(posted.status()).toBe(200);
+	expect(await posted.text()).toContain('7 cartons');
+	const refused = await page.request.post('/field/calculators?c=cartons', {
+		headers: { origin: baseURL!, accept: 'text/html' },
+		form: { calculator: 'cartons', areaSqFt: 'a lot', coverageSqFt: '20.5' }
+	});
+	expect(refused.status()).toBe(400);
+	expect(await refused.text()).toContain('Cannot read "a lot"');
+});
+
 test.describe('without JavaScript', () => {
 	test.use({ javaScriptEnabled: false });
 
@@ -54,6 +97,14 @@ test.describe('without JavaScript', () => {
 			/Enter the area one carton covers/
 		);
 
+		// Enter in a field works the form out; it does not press the rows' Add button.
+		await page.goto('/app/calculators?c=flatness');
+		await page.getByLabel('Straightedge length').fill(`10'`);
+		await page.getByLabel('Largest gap under it').fill('3/16');
+		await page.getByLabel('Largest gap under it').press('Enter');
+		// Tile with every edge under 15 in: 1/4 in in 10 ft (ANSI A108.02, secondary, via NTCA)
+		await expect(page.getByTestId('calc-headline')).toHaveText(/^Passes/);
+		await expect(page.getByRole('group', { name: /^Reading \d/ })).toHaveCount(1);
 		await page.goto('/app/calculators?c=area');
 		await page.getByLabel('Width').fill(`12'`);
 		await page.getByLabel('Length').fill(`10'`);

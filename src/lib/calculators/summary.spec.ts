@@ -49,6 +49,10 @@ describe('summarize', () => {
 		expect(s.headline).toBe('110 ft²');
 		expect(s.outline?.holes).toHaveLength(1);
 		expect(summarize('units', run('units', { text: 'soon' }))).toBeUndefined();
+		// 110 ft² × 0.09290304 = 10.22 m² (exact factor, published)
+		expect(
+			summarize('area', run('area', calculatorExamples.area), { metric: true })?.headline
+		).toBe('10.22 m²');
 	});
 
 	it('moisture always carries the caution to confirm', () => {

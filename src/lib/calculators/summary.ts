@@ -74,7 +74,7 @@ function verdictOf(r: CalculatorResult, what: string): Pick<Summary, 'headline' 
 	};
 }
 
-const describe: { [K in CalculatorName]: (r: CalculatorResult) => Parts } = {
+const describe: { [K in CalculatorName]: (r: CalculatorResult, metric: boolean) => Parts } = {
 	units: (r) => ({
 		headline: String(r.ftIn),
 		figures: [
@@ -83,14 +83,16 @@ const describe: { [K in CalculatorName]: (r: CalculatorResult) => Parts } = {
 			{ label: 'Metres', value: String(r.m) }
 		]
 	}),
-	area: (r) => {
+	area: (r, metric) => {
 		const text = r.areaText as { sqft: string; sqyd: string; sqm: string };
 		const cut = (r.perimeterIn as number) !== (r.wallPerimeterIn as number);
 		return {
-			headline: text.sqft,
+			headline: metric ? text.sqm : text.sqft,
 			figures: [
+				metric
+					? { label: 'Square feet', value: text.sqft }
+					: { label: 'Square metres', value: text.sqm },
 				{ label: 'Square yards', value: text.sqyd },
-				{ label: 'Square metres', value: text.sqm },
 				{
 					label: cut ? 'Floor edge (walls and cut-outs)' : 'Perimeter',
 					value: formatLength(r.perimeterIn as number)
@@ -217,10 +219,17 @@ const describe: { [K in CalculatorName]: (r: CalculatorResult) => Parts } = {
 	})
 };
 
-/** The answer of a calculator as the page shows it; undefined for a refusal (`ok: false`). */
-export function summarize(name: CalculatorName, r: CalculatorResult): Summary | undefined {
+/**
+ * The answer of a calculator as the page shows it (a metric store reads room areas in m²);
+ * undefined for a refusal (`ok: false`).
+ */
+export function summarize(
+	name: CalculatorName,
+	r: CalculatorResult,
+	options: { metric?: boolean } = {}
+): Summary | undefined {
 	if (!r.ok) return undefined;
-	const parts = describe[name](r);
+	const parts = describe[name](r, !!options.metric);
 	const cautions = [...r.cautions];
 	if (STRUCTURAL.includes(name)) cautions.push(CONFIRM_WITH_PROFESSIONAL);
 	return {
