@@ -730,7 +730,7 @@ export function hintOf(field: FieldSpec, s: CalculatorSettings): string | undefi
 	return undefined;
 }
 
-/** "Joist spacing", but "RH" stays "RH". */
+/** A label for messages: "Joist spacing, in" → "joist spacing"; "RH, %" → "RH". */
 function lower(label: string) {
 	const plain = label.replace(/\s*\(.*\)$/, '').replace(/,.*$/, '');
 	return /^[A-Z][a-z]/.test(plain) ? plain.charAt(0).toLowerCase() + plain.slice(1) : plain;
