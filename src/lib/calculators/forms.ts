@@ -1,0 +1,1002 @@
+/**
+ * The Calculators page's forms: what each calculator asks for, typed as people type it, and
+ * `evaluate`, which reads what was typed into the calculator's own input, checks it with the
+ * calculator's zod schema and runs it. The browser runs it on every keystroke; the form action
+ * runs the very same function on the server for browsers without JavaScript.
+ *
+ * Values are flat strings keyed by the calculator's input path (`readings.0.spanIn`), so a form
+ * posts them as they are and a zod issue's path names its field.
+ */
+import {
+	CUIN_PER_US_GAL,
+	formatArea,
+	formatLength,
+	JOIST_SIZES,
+	parseLength,
+	type Cutout,
+	type Shape,
+	type StoreSettings
+} from '$lib/estimating';
+import { draftUnits, readRoomShape, type RectDraft, type ShapeDraft } from '$lib/measure/draft';
+import {
+	FLOOR_KIND_LABELS,
+	LAYOUT_LABELS,
+	options,
+	SPECIES_LABELS,
+	SUBFLOOR_LABELS
+} from '$lib/measure/labels';
+import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
+import { parseArea, parseNumber } from './read';
+
+/** What was typed, by field name. */
+export type Values = Record<string, string>;
+
+/** The store settings the calculators read; money settings never reach the browser. */
+export type CalculatorSettings = Omit<StoreSettings, 'taxes' | 'taxRounding' | 'deposit'>;
+
+/** The settings without the money keys, for the page's load. */
+export function calculatorSettings(settings: StoreSettings): CalculatorSettings {
+	const { taxes: _t, taxRounding: _r, deposit: _d, ...rest } = settings;
+	return rest;
+}
+
+type Option = { value: string; label: string };
+
+interface Base {
+	/** The input path this field fills, e.g. `spanIn` or `container.atDepthIn`. */
+	name: string;
+	label: string;
+	hint?: string;
+	placeholder?: string;
+	optional?: boolean;
+	/** Asked only when this holds (e.g. coverage fields for a coverage container). */
+	when?: (values: Values) => boolean;
+}
+
+export type FieldSpec =
+	| (Base & { kind: 'length'; size: 'room' | 'small' })
+	| (Base & { kind: 'area' })
+	| (Base & {
+			kind: 'number';
+			units?: string[];
+			min?: number;
+			max?: number;
+			integer?: boolean;
+			/** Multiplies what was typed into the input's unit (US gal → in³). */
+			scale?: number;
+	  })
+	| (Base & {
+			kind: 'select';
+			options: Option[] | ((s: CalculatorSettings) => Option[]);
+			initial?: string | ((s: CalculatorSettings) => string);
+			/** Not part of the input: only chooses which other fields are asked. */
+			uiOnly?: boolean;
+	  })
+	| (Base & { kind: 'text'; maxLength: number });
+
+/** Rows of the same fields (readings, voids); a row left blank is not counted. */
+export interface RowsSpec {
+	kind: 'rows';
+	name: string;
+	label: string;
+	/** One field per row with `name: ''` makes a list of plain values (`rhPct.0`). */
+	fields: FieldSpec[];
+	rowLabel: string;
+	addLabel: string;
+	min: number;
+	max: number;
+	initialRows: number;
+	/** May have no rows at all (cut-outs); other groups always show one to type in. */
+	allowNone?: boolean;
+	hint?: string;
+}
+
+/** A room outline: a rectangle, several rectangles or the walls walked, with cut-outs. */
+export interface ShapeSpec {
+	kind: 'shape';
+	cutouts: boolean;
+}
+
+export type Part = FieldSpec | RowsSpec | ShapeSpec;
+
+export interface CalculatorForm {
+	parts: Part[];
+	/** Where the engine's own refusal is shown when it names no field. */
+	failField: string;
+	/** Checks across fields that the schema cannot state. */
+	finish?: (input: Record<string, unknown>, problems: Problems) => void;
+}
+
+export interface Problem {
+	message: string;
+	/** Nothing typed yet: shown once the field was left or the form sent. */
+	missing: boolean;
+}
+export type Problems = Record<string, Problem>;
+
+const none = { value: '', label: 'Not chosen' };
+const floorOptions = [none, ...options(FLOOR_KIND_LABELS)];
+const sizeOptions = JOIST_SIZES.map((s) => ({ value: s, label: s }));
+
+const pct = (name: string, label: string, optional = false, hint?: string): FieldSpec => ({
+	kind: 'number',
+	name,
+	label,
+	units: ['%'],
+	min: 0,
+	max: 100,
+	optional,
+	hint
+});
+const area = (name: string, label: string, hint?: string): FieldSpec => ({
+	kind: 'area',
+	name,
+	label,
+	hint,
+	placeholder: 'e.g. 120 or 12 x 10'
+});
+
+/** The forms, one per calculator, in the order the page lists them. */
+export const forms: Record<CalculatorName, CalculatorForm> = {
+	cartons: {
+		failField: 'areaSqFt',
+		parts: [
+			area('areaSqFt', 'Floor area'),
+			{ ...area('coverageSqFt', 'Area one carton covers'), placeholder: 'e.g. 20.5' },
+			{
+				kind: 'select',
+				name: 'layout',
+				label: 'Layout',
+				options: options(LAYOUT_LABELS),
+				initial: 'straight'
+			},
+			pct('wastePct', 'Waste (leave empty for the store’s)', true)
+		]
+	},
+	area: { failField: 'shape', parts: [{ kind: 'shape', cutouts: true }] },
+	joists: {
+		failField: 'spanIn',
+		parts: [
+			{ kind: 'select', name: 'size', label: 'Joist size', options: sizeOptions, initial: '2x10' },
+			{
+				kind: 'select',
+				name: 'species',
+				label: 'Species (No.2 grade)',
+				options: options(SPECIES_LABELS),
+				initial: 'spruce_pine_fir'
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'spacingIn',
+				label: 'Spacing, centre to centre',
+				placeholder: 'e.g. 16'
+			},
+			{
+				kind: 'length',
+				size: 'room',
+				name: 'spanIn',
+				label: 'Span between supports',
+				placeholder: `e.g. 14' 6"`
+			},
+			{ kind: 'select', name: 'floorKind', label: 'Floor going over it', options: floorOptions },
+			{
+				kind: 'number',
+				name: 'ratio',
+				label: 'Required L/Δ (leave empty for the floor’s)',
+				units: [],
+				min: 1,
+				max: 10000,
+				optional: true,
+				placeholder: 'e.g. 360'
+			},
+			{
+				kind: 'number',
+				name: 'livePsf',
+				label: 'Live load, psf (leave empty for the store’s)',
+				units: ['psf'],
+				min: 1,
+				max: 1000,
+				optional: true
+			},
+			{
+				kind: 'number',
+				name: 'deadPsf',
+				label: 'Dead load, psf (leave empty for the store’s)',
+				units: ['psf'],
+				min: 0,
+				max: 1000,
+				optional: true
+			}
+		]
+	},
+	roll: {
+		failField: 'shape',
+		parts: [
+			{ kind: 'shape', cutouts: false },
+			{
+				kind: 'length',
+				size: 'room',
+				name: 'rollWidthIn',
+				label: 'Roll width',
+				placeholder: 'e.g. 12 or 4 m'
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'trimPerEndIn',
+				label: 'Trim per cut end (leave empty for the store’s)',
+				optional: true
+			},
+			{
+				kind: 'select',
+				name: 'direction',
+				label: 'Drops run',
+				options: [
+					{ value: '', label: 'Whichever uses less' },
+					{ value: 'x', label: 'Along the width' },
+					{ value: 'y', label: 'Along the length' }
+				]
+			}
+		]
+	},
+	underlayment: {
+		failField: 'schedule',
+		parts: [
+			area('areaSqFt', 'Floor area'),
+			{
+				kind: 'select',
+				name: 'schedule',
+				label: 'Fastening schedule',
+				options: (s) =>
+					Object.entries(s.underlayment.schedules).map(([value, f]) => ({
+						value,
+						label: f.name
+					})),
+				initial: (s) => s.underlayment.schedule
+			},
+			{
+				kind: 'number',
+				name: 'perBox',
+				label: 'Fasteners per box (optional)',
+				integer: true,
+				min: 1,
+				max: 1_000_000,
+				optional: true
+			}
+		]
+	},
+	patch: {
+		failField: 'voids',
+		parts: [
+			{
+				kind: 'rows',
+				name: 'voids',
+				label: 'Seams and dents',
+				rowLabel: 'Seam or dent',
+				addLabel: 'Add a seam or dent',
+				min: 1,
+				max: 30,
+				initialRows: 1,
+				fields: [
+					{ kind: 'length', size: 'room', name: 'lengthIn', label: 'Length' },
+					{ kind: 'length', size: 'small', name: 'widthIn', label: 'Width (widest)' },
+					{ kind: 'length', size: 'small', name: 'depthIn', label: 'Depth' }
+				]
+			},
+			{
+				kind: 'select',
+				name: 'containerKind',
+				label: 'The container is sold by',
+				uiOnly: true,
+				options: [
+					{ value: 'volume', label: 'Volume (US gallons)' },
+					{ value: 'coverage', label: 'Coverage at a depth' }
+				],
+				initial: 'volume'
+			},
+			{
+				kind: 'number',
+				name: 'container.volumeCuIn',
+				label: 'Container size, US gal',
+				units: ['gal', 'us gal'],
+				min: 0.001,
+				max: 10000,
+				scale: CUIN_PER_US_GAL,
+				when: (v) => (v.containerKind || 'volume') === 'volume'
+			},
+			{
+				...area('container.coverageSqFt', 'Area one container covers'),
+				placeholder: 'e.g. 25',
+				when: (v) => v.containerKind === 'coverage'
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'container.atDepthIn',
+				label: 'At a depth of',
+				when: (v) => v.containerKind === 'coverage'
+			},
+			pct('wastePct', 'Waste (leave empty for the store’s)', true)
+		]
+	},
+	leveller: {
+		failField: 'areaSqFt',
+		parts: [
+			area('areaSqFt', 'Area to level'),
+			{ kind: 'length', size: 'small', name: 'depthIn', label: 'Average depth' },
+			{
+				kind: 'number',
+				name: 'bagYieldCuFt',
+				label: 'Bag yield, ft³ (from the data sheet)',
+				units: ['ft³', 'ft3', 'cu ft'],
+				min: 0.001,
+				max: 100,
+				placeholder: 'e.g. 0.45'
+			},
+			pct('wastePct', 'Waste (leave empty for the store’s)', true)
+		]
+	},
+	sheathing: {
+		failField: 'thicknessIn',
+		parts: [
+			{
+				kind: 'select',
+				name: 'kind',
+				label: 'Subfloor',
+				options: (['plywood', 'osb', 'board'] as const).map((k) => ({
+					value: k,
+					label: SUBFLOOR_LABELS[k]
+				})),
+				initial: 'plywood'
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'thicknessIn',
+				label: 'Thickness',
+				placeholder: 'e.g. 5/8 or 19/32'
+			},
+			{
+				kind: 'text',
+				name: 'spanRating',
+				label: 'Span rating stamped on the panel (optional)',
+				maxLength: 12,
+				optional: true,
+				placeholder: 'e.g. 32/16'
+			},
+			{ kind: 'length', size: 'small', name: 'joistSpacingIn', label: 'Joist spacing' },
+			{ kind: 'select', name: 'floorKind', label: 'Floor going over it', options: floorOptions }
+		]
+	},
+	flatness: {
+		failField: 'readings',
+		parts: [
+			{
+				kind: 'select',
+				name: 'floorKind',
+				label: 'Floor going down',
+				options: options(FLOOR_KIND_LABELS),
+				initial: 'ceramic_tile'
+			},
+			{
+				kind: 'select',
+				name: 'subfloor',
+				label: 'Over',
+				options: [
+					{ value: 'wood', label: 'A wood subfloor' },
+					{ value: 'concrete', label: 'Concrete' }
+				],
+				initial: 'wood'
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'tileEdgesIn.0',
+				label: 'Tile length (tile only)',
+				optional: true
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'tileEdgesIn.1',
+				label: 'Tile width (tile only)',
+				optional: true
+			},
+			{
+				kind: 'rows',
+				name: 'readings',
+				label: 'Straightedge readings',
+				rowLabel: 'Reading',
+				addLabel: 'Add a reading',
+				min: 1,
+				max: 30,
+				initialRows: 1,
+				fields: [
+					{
+						kind: 'length',
+						size: 'room',
+						name: 'spanIn',
+						label: 'Straightedge length',
+						placeholder: `e.g. 10'`
+					},
+					{
+						kind: 'length',
+						size: 'small',
+						name: 'gapIn',
+						label: 'Largest gap under it',
+						placeholder: 'e.g. 3/16'
+					}
+				]
+			}
+		]
+	},
+	moisture: {
+		failField: 'areaSqFt',
+		parts: [
+			area('areaSqFt', 'Floor area tested'),
+			{
+				kind: 'rows',
+				name: 'rhPct',
+				label: 'Concrete RH probes (in-situ), %',
+				rowLabel: 'Probe',
+				addLabel: 'Add a probe',
+				min: 0,
+				max: 50,
+				initialRows: 1,
+				fields: [pct('', 'RH, %')]
+			},
+			pct('rhLimitPct', 'RH limit (leave empty for the store’s)', true),
+			{
+				kind: 'rows',
+				name: 'calciumChloride',
+				label: 'Calcium chloride tests',
+				rowLabel: 'Test',
+				addLabel: 'Add a test',
+				min: 0,
+				max: 20,
+				initialRows: 1,
+				fields: [
+					{
+						kind: 'number',
+						name: 'gainGrams',
+						label: 'Dish weight gain, g',
+						units: ['g'],
+						min: 0,
+						max: 1000
+					},
+					{ ...area('areaSqFt', 'Area under the dome'), placeholder: 'e.g. 0.25' },
+					{
+						kind: 'number',
+						name: 'hours',
+						label: 'Hours under the dome',
+						units: ['h', 'hours'],
+						min: 1,
+						max: 1000
+					}
+				]
+			},
+			{
+				kind: 'number',
+				name: 'mverLimit',
+				label: 'MVER limit, lb/1000 ft²/24 h (leave empty for the store’s)',
+				min: 0.01,
+				max: 100,
+				optional: true
+			},
+			{
+				kind: 'rows',
+				name: 'woodMc.subfloorPct',
+				label: 'Wood subfloor moisture readings, % MC',
+				rowLabel: 'Subfloor reading',
+				addLabel: 'Add a subfloor reading',
+				min: 0,
+				max: 50,
+				initialRows: 1,
+				fields: [pct('', 'MC, %')]
+			},
+			{
+				kind: 'rows',
+				name: 'woodMc.flooringPct',
+				label: 'Wood flooring moisture readings, % MC',
+				rowLabel: 'Flooring reading',
+				addLabel: 'Add a flooring reading',
+				min: 0,
+				max: 50,
+				initialRows: 1,
+				fields: [pct('', 'MC, %')]
+			},
+			{
+				kind: 'length',
+				size: 'small',
+				name: 'woodMc.boardWidthIn',
+				label: 'Flooring board width (wood only)',
+				optional: true
+			}
+		],
+		finish: (input, problems) => {
+			const wood = input.woodMc as
+				{ subfloorPct?: number[]; flooringPct?: number[]; boardWidthIn?: number } | undefined;
+			if (wood) {
+				if (!wood.subfloorPct?.length && !wood.flooringPct?.length) delete input.woodMc;
+				else if (!wood.subfloorPct?.length)
+					problems['woodMc.subfloorPct'] = {
+						message: 'Add a subfloor reading to compare the flooring with',
+						missing: true
+					};
+				else {
+					wood.subfloorPct ??= [];
+					wood.flooringPct ??= [];
+				}
+			}
+			if (
+				!(input.rhPct as unknown[] | undefined)?.length &&
+				!(input.calciumChloride as unknown[] | undefined)?.length &&
+				!input.woodMc &&
+				!problems['woodMc.subfloorPct']
+			)
+				problems.rhPct = {
+					message: 'Enter at least one reading: an RH probe, a calcium chloride test or wood',
+					missing: true
+				};
+		}
+	},
+	units: {
+		failField: 'text',
+		parts: [
+			{
+				kind: 'text',
+				name: 'text',
+				label: 'Length as typed',
+				maxLength: 80,
+				placeholder: `e.g. 12' 6 1/2" or 3810 mm`
+			},
+			{
+				kind: 'select',
+				name: 'defaultUnit',
+				label: 'A plain number is in',
+				options: [
+					{ value: 'in', label: 'Inches' },
+					{ value: 'ft', label: 'Feet' },
+					{ value: 'mm', label: 'Millimetres' },
+					{ value: 'cm', label: 'Centimetres' },
+					{ value: 'm', label: 'Metres' }
+				],
+				initial: (s) => s.units.defaultLengthUnit
+			}
+		]
+	}
+};
+
+/** The calculators in the order the page lists them (the most used first). */
+export const CALCULATOR_ORDER = Object.keys(forms) as CalculatorName[];
+
+/** Whether a name (from a URL or a form) is one of the calculators. */
+export function isCalculatorName(name: unknown): name is CalculatorName {
+	return typeof name === 'string' && Object.hasOwn(calculators, name);
+}
+
+/** The options of a select field for this store. */
+export function optionsOf(field: FieldSpec & { kind: 'select' }, s: CalculatorSettings) {
+	return typeof field.options === 'function' ? field.options(s) : field.options;
+}
+
+function initialOf(field: FieldSpec & { kind: 'select' }, s: CalculatorSettings) {
+	const initial = typeof field.initial === 'function' ? field.initial(s) : field.initial;
+	return initial ?? optionsOf(field, s)[0]?.value ?? '';
+}
+
+/** Rows shown for a group: what the values say (`voids.rows`), within its bounds. */
+export function rowCount(values: Values, rows: RowsSpec): number {
+	const typed = values[`${rows.name}.rows`];
+	const n = typed === undefined || typed === '' ? NaN : Number(typed);
+	const count = Number.isInteger(n) ? n : rows.initialRows;
+	const least = rows.allowNone ? rows.min : Math.max(rows.min, 1);
+	return Math.min(rows.max, Math.max(least, count));
+}
+
+export type ShapeKind = 'rect' | 'rects' | 'sides';
+export const SHAPE_KINDS: Option[] = [
+	{ value: 'rect', label: 'A rectangle' },
+	{ value: 'rects', label: 'Rectangles joined (L, T, closets)' },
+	{ value: 'sides', label: 'Walk the walls' }
+];
+export const TURNS: Option[] = [
+	{ value: 'left', label: 'Turn left 90°' },
+	{ value: 'right', label: 'Turn right 90°' },
+	{ value: '45', label: 'Turn left 45°' },
+	{ value: '-45', label: 'Turn right 45°' }
+];
+
+/** The rows groups a shape part uses, so the page can add and remove them like any other. */
+export const SHAPE_ROWS: Record<'rects' | 'sides' | 'cutouts', RowsSpec> = {
+	rects: {
+		kind: 'rows',
+		name: 'shape.rects',
+		label: 'Rectangles',
+		rowLabel: 'Rectangle',
+		addLabel: 'Add a rectangle',
+		min: 1,
+		max: 20,
+		initialRows: 2,
+		fields: [
+			{ kind: 'length', size: 'room', name: 'x', label: 'From the left', optional: true },
+			{ kind: 'length', size: 'room', name: 'y', label: 'From the bottom', optional: true },
+			{ kind: 'length', size: 'room', name: 'width', label: 'Width' },
+			{ kind: 'length', size: 'room', name: 'length', label: 'Length' }
+		]
+	},
+	sides: {
+		kind: 'rows',
+		name: 'shape.sides',
+		label: 'Walls, walked from the first corner',
+		rowLabel: 'Wall',
+		addLabel: 'Add a wall',
+		min: 3,
+		max: 60,
+		initialRows: 4,
+		hint: 'The first wall runs to the right; after each wall, turn as the room does.',
+		fields: [
+			{ kind: 'length', size: 'room', name: 'length', label: 'Length' },
+			{ kind: 'select', name: 'turn', label: 'Then', options: TURNS, initial: 'left' }
+		]
+	},
+	cutouts: {
+		kind: 'rows',
+		name: 'cutouts',
+		label: 'Cut-outs (no floor: islands, cabinets, hearths)',
+		rowLabel: 'Cut-out',
+		addLabel: 'Add a cut-out',
+		min: 0,
+		max: 20,
+		initialRows: 0,
+		allowNone: true,
+		fields: [
+			{ kind: 'text', name: 'name', label: 'What', maxLength: 60, optional: true },
+			{ kind: 'length', size: 'room', name: 'x', label: 'From the left', optional: true },
+			{ kind: 'length', size: 'room', name: 'y', label: 'From the bottom', optional: true },
+			{ kind: 'length', size: 'room', name: 'width', label: 'Width' },
+			{ kind: 'length', size: 'room', name: 'length', label: 'Length' }
+		]
+	}
+};
+
+/** Every rows group of a form (its own and its shape's), for adding and removing rows. */
+export function rowsOf(name: CalculatorName): RowsSpec[] {
+	return forms[name].parts.flatMap((p) =>
+		p.kind === 'rows'
+			? [p]
+			: p.kind === 'shape'
+				? [SHAPE_ROWS.rects, SHAPE_ROWS.sides, ...(p.cutouts ? [SHAPE_ROWS.cutouts] : [])]
+				: []
+	);
+}
+
+/** The values with one more row in a group (the no-JavaScript "Add" button posts this). */
+export function addRow(values: Values, calculator: CalculatorName, group: string): Values {
+	const rows = rowsOf(calculator).find((r) => r.name === group);
+	if (!rows) return values;
+	return { ...values, [`${group}.rows`]: String(Math.min(rows.max, rowCount(values, rows) + 1)) };
+}
+
+/** The values without row `index` of a group; the rows after it move up. */
+export function removeRow(
+	values: Values,
+	calculator: CalculatorName,
+	group: string,
+	index: number
+): Values {
+	const rows = rowsOf(calculator).find((r) => r.name === group);
+	if (!rows) return values;
+	const count = rowCount(values, rows);
+	if (count <= (rows.allowNone ? rows.min : Math.max(rows.min, 1)) || index < 0 || index >= count)
+		return values;
+	const out: Values = {};
+	const prefix = `${group}.`;
+	for (const [key, value] of Object.entries(values)) {
+		if (!key.startsWith(prefix)) {
+			out[key] = value;
+			continue;
+		}
+		const m = /^(\d+)(\..*)?$/.exec(key.slice(prefix.length));
+		if (!m) continue;
+		const i = Number(m[1]);
+		if (i < index) out[key] = value;
+		else if (i > index) out[`${prefix}${i - 1}${m[2] ?? ''}`] = value;
+	}
+	out[`${group}.rows`] = String(count - 1);
+	return out;
+}
+
+/** The value a field shows: what was typed, or a select's first choice for this store. */
+export function valueOf(values: Values, field: FieldSpec, key: string, s: CalculatorSettings) {
+	const typed = values[key];
+	if (typed !== undefined) return typed;
+	return field.kind === 'select' ? initialOf(field, s) : '';
+}
+
+/** What a field reads a plain number as, for the hint under it. */
+export function hintOf(field: FieldSpec, s: CalculatorSettings): string | undefined {
+	if (field.hint) return field.hint;
+	const units = draftUnits(s);
+	if (field.kind === 'length') {
+		const unit = { ft: 'Feet', m: 'Metres', in: 'Inches', mm: 'Millimetres' }[
+			units[field.size] as 'ft' | 'm' | 'in' | 'mm'
+		];
+		return `${unit} unless you type a unit (12' 6 1/2", 3810 mm)`;
+	}
+	if (field.kind === 'area')
+		return `${units.room === 'm' ? 'm²' : 'ft²'} unless you type a unit, or two sides (12' x 10')`;
+	return undefined;
+}
+
+/** A label for messages: "Joist spacing, in" → "joist spacing"; "RH, %" → "RH". */
+function lower(label: string) {
+	const plain = label.replace(/\s*\(.*\)$/, '').replace(/,.*$/, '');
+	return /^[A-Z][a-z]/.test(plain) ? plain.charAt(0).toLowerCase() + plain.slice(1) : plain;
+}
+
+function setPath(target: Record<string, unknown>, path: string, value: unknown) {
+	const keys = path.split('.');
+	let at: Record<string, unknown> = target;
+	keys.forEach((key, i) => {
+		if (i === keys.length - 1) {
+			at[key] = value;
+			return;
+		}
+		at[key] ??= /^\d+$/.test(keys[i + 1]) ? [] : {};
+		at = at[key] as Record<string, unknown>;
+	});
+}
+
+/** Arrays without the holes left by blank optional entries. */
+function compact(v: unknown): unknown {
+	if (Array.isArray(v)) return v.filter((x) => x !== undefined).map(compact);
+	if (v && typeof v === 'object')
+		return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, compact(x)]));
+	return v;
+}
+
+export interface Evaluation {
+	/** Problems by field name, row (`readings.1`) or group (`readings`). */
+	problems: Problems;
+	/** How each readable length or area was read, to show beside it. */
+	readAs: Record<string, string>;
+	/** The calculator's input, once everything could be read. */
+	input?: unknown;
+	result?: CalculatorResult;
+}
+
+function readField(
+	field: FieldSpec,
+	key: string,
+	values: Values,
+	s: CalculatorSettings,
+	ev: Evaluation
+): unknown {
+	const text = valueOf(values, field, key, s);
+	const units = draftUnits(s);
+	const metric = units.room === 'm';
+	if (field.kind === 'select') {
+		const allowed = optionsOf(field, s).map((o) => o.value);
+		if (!allowed.includes(text)) {
+			ev.problems[key] = {
+				message: `Choose one of the choices for ${lower(field.label)}`,
+				missing: false
+			};
+			return undefined;
+		}
+		return text === '' || field.uiOnly ? undefined : text;
+	}
+	if (!text.trim()) {
+		if (!field.optional)
+			ev.problems[key] = { message: `Enter the ${lower(field.label)}`, missing: true };
+		return undefined;
+	}
+	if (field.kind === 'text') {
+		if (text.length > field.maxLength) {
+			ev.problems[key] = { message: `Keep it under ${field.maxLength} characters`, missing: false };
+			return undefined;
+		}
+		return text.trim();
+	}
+	if (field.kind === 'length') {
+		const r = parseLength(text, units[field.size]);
+		if (!r.ok) {
+			ev.problems[key] = { message: r.message, missing: false };
+			return undefined;
+		}
+		ev.readAs[key] =
+			`${formatLength(r.inches)} · ${formatLength(r.inches, field.size === 'room' ? 'm' : 'mm', field.size === 'room' ? {} : { digits: 1 })}`;
+		return r.inches;
+	}
+	if (field.kind === 'area') {
+		const r = parseArea(text, metric ? 'sqm' : 'sqft', units.room);
+		if (!r.ok) {
+			ev.problems[key] = { message: r.message, missing: false };
+			return undefined;
+		}
+		ev.readAs[key] = `${formatArea(r.value)} · ${formatArea(r.value, 'sqm')}`;
+		return r.value;
+	}
+	const r = parseNumber(text, {
+		label: `the ${lower(field.label)}`,
+		units: field.units,
+		min: field.min,
+		max: field.max,
+		integer: field.integer
+	});
+	if (!r.ok) {
+		ev.problems[key] = { message: r.message, missing: false };
+		return undefined;
+	}
+	return r.value * (field.scale ?? 1);
+}
+
+function shapeDraft(
+	values: Values,
+	s: CalculatorSettings
+): { shape: ShapeDraft; cutouts: (RectDraft & { name: string })[] } {
+	const v = (k: string) => values[k] ?? '';
+	const kind = (values['shape.kind'] ?? 'rect') as ShapeKind;
+	const rect = (prefix: string): RectDraft => ({
+		x: v(`${prefix}.x`),
+		y: v(`${prefix}.y`),
+		width: v(`${prefix}.width`),
+		length: v(`${prefix}.length`)
+	});
+	const range = (rows: RowsSpec) => Array.from({ length: rowCount(values, rows) }, (_, i) => i);
+	const shape: ShapeDraft =
+		kind === 'rects'
+			? { kind, rects: range(SHAPE_ROWS.rects).map((i) => rect(`shape.rects.${i}`)) }
+			: kind === 'sides'
+				? {
+						kind,
+						sides: range(SHAPE_ROWS.sides).map((i) => ({
+							length: v(`shape.sides.${i}.length`),
+							turn: valueOf(values, SHAPE_ROWS.sides.fields[1], `shape.sides.${i}.turn`, s)
+						}))
+					}
+				: { kind: 'rect', width: v('shape.width'), length: v('shape.length') };
+	const cutouts = range(SHAPE_ROWS.cutouts).map((i) => ({
+		...rect(`cutouts.${i}`),
+		name: v(`cutouts.${i}.name`)
+	}));
+	return { shape, cutouts };
+}
+
+function readShape(
+	spec: ShapeSpec,
+	values: Values,
+	s: CalculatorSettings,
+	ev: Evaluation
+): { shape?: Shape; cutouts: Cutout[]; kept: number[] } {
+	const kind = values['shape.kind'] ?? 'rect';
+	if (!SHAPE_KINDS.some((k) => k.value === kind)) {
+		ev.problems['shape.kind'] = { message: 'Choose how the room is drawn', missing: false };
+		return { cutouts: [], kept: [] };
+	}
+	const draft = shapeDraft(values, s);
+	const drafted = { shape: draft.shape, cutouts: spec.cutouts ? draft.cutouts : [] };
+	// A cut-out row left blank is not a cut-out.
+	const kept = drafted.cutouts
+		.map((c, i) => ({ c, i }))
+		.filter(({ c }) => [c.name, c.x, c.y, c.width, c.length].some((t) => t.trim()));
+	const read = readRoomShape({ shape: drafted.shape, cutouts: kept.map((k) => k.c) }, s);
+	for (const e of read.errors) {
+		const key = e.path.replace(/^cutouts\.(\d+)/, (_, j) => `cutouts.${kept[Number(j)].i}`);
+		ev.problems[key] = {
+			message: e.message,
+			missing: /^Enter /.test(e.message) || e.path === 'shape.rects'
+		};
+	}
+	const lengthKeys = Object.keys(values).filter(
+		(k) => /^(shape|cutouts)\./.test(k) && /\.(x|y|width|length)$/.test(k)
+	);
+	for (const key of lengthKeys) {
+		if (ev.problems[key] || !values[key].trim()) continue;
+		const r = parseLength(values[key], draftUnits(s).room);
+		if (r.ok) ev.readAs[key] = `${formatLength(r.inches)} · ${formatLength(r.inches, 'm')}`;
+	}
+	return { shape: read.shape, cutouts: read.cutouts, kept: kept.map((k) => k.i) };
+}
+
+/** A zod or engine path (`voids.0.depthIn`) back to the row the user typed it in. */
+function formKey(path: string, rowMaps: Map<string, number[]>): string {
+	for (const [group, rows] of rowMaps) {
+		if (path === group || path.startsWith(`${group}.`)) {
+			const rest = path.slice(group.length + 1);
+			const m = /^(\d+)(.*)$/.exec(rest);
+			if (!m) return path;
+			const row = rows[Number(m[1])];
+			return row === undefined ? group : `${group}.${row}${m[2]}`;
+		}
+	}
+	return path;
+}
+
+/**
+ * Reads what was typed for a calculator, checks it with the calculator's schema and runs it
+ * with the store's settings. Never throws: every problem comes back by its field.
+ */
+export function evaluate(name: CalculatorName, values: Values, s: CalculatorSettings): Evaluation {
+	const form = forms[name];
+	const ev: Evaluation = { problems: {}, readAs: {} };
+	const input: Record<string, unknown> = {};
+	const rowMaps = new Map<string, number[]>();
+
+	for (const part of form.parts) {
+		if (part.kind === 'shape') {
+			const { shape, cutouts, kept } = readShape(part, values, s, ev);
+			rowMaps.set('cutouts', kept);
+			if (shape) input.shape = shape;
+			if (part.cutouts && cutouts.length) input.cutouts = cutouts;
+			continue;
+		}
+		if (part.kind === 'rows') {
+			const kept: number[] = [];
+			const list: unknown[] = [];
+			for (let i = 0; i < rowCount(values, part); i++) {
+				const key = (f: FieldSpec) =>
+					f.name ? `${part.name}.${i}.${f.name}` : `${part.name}.${i}`;
+				const typed = part.fields.some(
+					(f) => f.kind !== 'select' && (values[key(f)] ?? '').trim() !== ''
+				);
+				if (!typed) continue;
+				const row: Record<string, unknown> = {};
+				let value: unknown;
+				for (const f of part.fields) {
+					const v = readField(f, key(f), values, s, ev);
+					if (f.name) {
+						if (v !== undefined) row[f.name] = v;
+					} else value = v;
+				}
+				kept.push(i);
+				list.push(part.fields.length === 1 && !part.fields[0].name ? value : row);
+			}
+			rowMaps.set(part.name, kept);
+			if (list.length === 0) {
+				if (part.min > 0)
+					ev.problems[part.name] = {
+						message: `Enter at least ${part.min === 1 ? 'one' : part.min} ${part.rowLabel.toLowerCase()}${part.min === 1 ? '' : 's'}`,
+						missing: true
+					};
+				continue;
+			}
+			setPath(input, part.name, list);
+			continue;
+		}
+		if (part.when && !part.when(values)) continue;
+		const v = readField(part, part.name, values, s, ev);
+		if (v !== undefined) setPath(input, part.name, v);
+	}
+	const built = compact(input) as Record<string, unknown>;
+	form.finish?.(built, ev.problems);
+	if (Object.keys(ev.problems).length > 0) return ev;
+
+	const calculator = calculators[name];
+	const parsed = calculator.input.safeParse(built);
+	if (!parsed.success) {
+		for (const issue of parsed.error.issues) {
+			const key = formKey(issue.path.join('.'), rowMaps) || form.failField;
+			ev.problems[key] ??= { message: issue.message, missing: false };
+		}
+		return ev;
+	}
+	ev.input = parsed.data;
+	// The calculators never read the money settings left out of CalculatorSettings.
+	const result = (calculator.run as (i: unknown, s: StoreSettings) => CalculatorResult)(
+		parsed.data,
+		s as StoreSettings
+	);
+	ev.result = result;
+	if (!result.ok) {
+		const field =
+			typeof result.field === 'string' ? formKey(result.field, rowMaps) : form.failField;
+		ev.problems[field] = {
+			message: typeof result.message === 'string' ? result.message : 'This cannot be worked out',
+			missing: false
+		};
+	}
+	return ev;
+}

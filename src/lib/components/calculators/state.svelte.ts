@@ -1,0 +1,52 @@
+import type { CalculatorName } from '$lib/schemas/estimate';
+import type { Evaluation, Values } from '$lib/calculators/forms';
+
+/** What the form action sends back: what was typed, kept, and whether it was a real submit. */
+export interface CalculatorFormData {
+	calculator?: CalculatorName;
+	values?: Values;
+	submitted?: boolean;
+}
+
+/**
+ * What was typed in each calculator (kept when switching between them), which fields were left,
+ * and which forms were sent: a field's "Enter the ..." shows only after one of those.
+ */
+export class CalculatorState {
+	valuesBy = $state<Partial<Record<CalculatorName, Values>>>({});
+	touched = $state<Record<string, boolean>>({});
+	submitted = $state<Partial<Record<CalculatorName, boolean>>>({});
+
+	constructor(initial?: CalculatorFormData | null) {
+		if (initial?.calculator && initial.values) {
+			this.valuesBy[initial.calculator] = initial.values;
+			this.submitted[initial.calculator] = !!initial.submitted;
+		}
+	}
+
+	values(name: CalculatorName): Values {
+		return this.valuesBy[name] ?? {};
+	}
+
+	set(name: CalculatorName, key: string, value: string) {
+		this.valuesBy[name] = { ...this.values(name), [key]: value };
+	}
+
+	replace(name: CalculatorName, values: Values) {
+		this.valuesBy[name] = values;
+	}
+
+	touch(name: CalculatorName, key: string) {
+		this.touched[`${name}:${key}`] = true;
+	}
+
+	/** A problem's message once it should show: unreadable at once, missing after leaving or sending. */
+	shown(name: CalculatorName, ev: Evaluation | undefined, key: string): string | undefined {
+		const p = ev?.problems[key];
+		if (!p) return undefined;
+		if (!p.missing || this.submitted[name]) return p.message;
+		const prefix = `${name}:${key}`;
+		const left = Object.keys(this.touched).some((k) => k === prefix || k.startsWith(`${prefix}.`));
+		return left ? p.message : undefined;
+	}
+}

@@ -1,0 +1,45 @@
+import { fail } from '@sveltejs/kit';
+import {
+	addRow,
+	calculatorSettings,
+	evaluate,
+	isCalculatorName,
+	removeRow
+} from '$lib/calculators/forms';
+import { read } from './db/queries/settings';
+import { typedValues } from './forms';
+import { requireMember } from './guards';
+
+/**
+ * The Calculators page's load, shared by the staff desk and the installer screens: the store's
+ * settings (its overrides apply in the browser), without the money settings.
+ */
+export async function calculatorLoad() {
+	const { store } = requireMember();
+	const { settings } = await read(store.id);
+	return { settings: calculatorSettings(settings) };
+}
+
+/**
+ * The form action for browsers without JavaScript: the same `evaluate` on the server, keeping
+ * what was typed; "Add" and "Remove" post here too and change the rows.
+ */
+export const calculatorActions = {
+	default: async ({ request }: { request: Request }) => {
+		const { store } = requireMember();
+		const form = await request.formData();
+		const calculator = form.get('calculator');
+		if (!isCalculatorName(calculator)) return fail(400, { message: 'Choose a calculator first' });
+		const { calculator: _c, add, remove, ...typed } = typedValues(form);
+		let values = typed;
+		if (add) values = addRow(values, calculator, add);
+		const at = remove ? /^(.+)\.(\d+)$/.exec(remove) : null;
+		if (at) values = removeRow(values, calculator, at[1], Number(at[2]));
+		const changedRows = Boolean(add || remove);
+		const { settings } = await read(store.id);
+		const ev = evaluate(calculator, values, calculatorSettings(settings));
+		const body = { calculator, values, submitted: !changedRows };
+		if (!changedRows && Object.keys(ev.problems).length > 0) return fail(400, body);
+		return body;
+	}
+};

@@ -1,0 +1,13 @@
+import { estimatePreviewSchema } from '$lib/schemas/preview';
+import { endpoint, readJson } from '$lib/server/api';
+import { previewEstimate } from '$lib/server/estimates';
+import { requireMember } from '$lib/server/guards';
+import { json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+
+/** The whole estimate of a job; nothing is saved. Installers get the installer view. */
+export const POST: RequestHandler = endpoint(async ({ request }) => {
+	const { store, role } = requireMember();
+	const input = await readJson(request, estimatePreviewSchema);
+	return json(await previewEstimate(store.id, role, input));
+});
