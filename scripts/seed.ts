@@ -9,6 +9,7 @@ import { db, pool } from '../src/lib/server/db/index';
 import * as customers from '../src/lib/server/db/queries/customers';
 import * as jobs from '../src/lib/server/db/queries/jobs';
 import * as priceBook from '../src/lib/server/db/queries/price-book';
+import * as sites from '../src/lib/server/db/queries/sites';
 import * as tradeSettings from '../src/lib/server/db/queries/settings';
 import { saveProfile } from '../src/lib/server/db/queries/stores';
 import { defaultSettings } from '../src/lib/estimating';
@@ -220,6 +221,15 @@ export async function seedDemo() {
 
 	const customerIds: string[] = [];
 	for (const c of CUSTOMERS) customerIds.push((await customers.create(store.id, c)).id);
+	const gretaHome = await sites.create(store.id, customerIds[0], {
+		label: 'Home',
+		address: '27 Fallowfield Lane',
+		town: 'Bramblefield',
+		postcode: '',
+		builtYear: 1962,
+		subfloor: 'Plywood',
+		notes: 'Ranch on a crawl space; kitchen sheet vinyl is original.'
+	});
 	const sellers = [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!];
 	const managerId = ids.get('manager@tallowcreek.example')!;
 	for (const [n, j] of JOBS.entries()) {
@@ -229,6 +239,7 @@ export async function seedDemo() {
 			sellers[n % 2]
 		);
 		if (!job) throw new Error(`Demo job ${j.title} was not created`);
+		if (j.customer === 0 && gretaHome) await sites.setJobSite(store.id, job.id, gretaHome.id);
 		for (const to of j.path) {
 			if (to === 'scheduled' && j.installer !== undefined) {
 				await jobs.assign(store.id, job.id, ids.get(DEMO_PEOPLE[j.installer].email)!, managerId);
@@ -243,6 +254,29 @@ export async function seedDemo() {
 		email: 'pim.arkwright@example.com',
 		phone: '555-0231',
 		notes: ''
+	});
+	// A site and a price of the second store, for the tenancy checks.
+	await sites.create(second.id, hollinCustomer.id, {
+		label: 'Home',
+		address: '12 Sluice Row',
+		town: 'Hollin Vale',
+		postcode: '',
+		builtYear: 1931,
+		subfloor: 'Boards',
+		notes: ''
+	});
+	await priceBook.create(second.id, {
+		section: 'floor',
+		code: '',
+		name: 'Hollin porcelain 24 × 24 in',
+		data: {
+			kind: 'ceramic_tile',
+			cartonSqFt: 16,
+			tileEdgesIn: [24, 24],
+			material: { basis: 'carton', priceCents: 7_200, costCents: 4_300 },
+			labourCentsPerSqFt: 700,
+			payCentsPerSqFt: 450
+		}
 	});
 	const hollinJob = await jobs.create(
 		second.id,

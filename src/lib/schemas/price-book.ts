@@ -252,7 +252,7 @@ const nameField = (message: string) =>
 	z.string({ error: message }).trim().min(1, message).max(120, 'Keep it under 120 characters');
 const optionalName = fieldText.pipe(z.string().max(120, 'Keep it under 120 characters'));
 
-const enumField = <T extends readonly [string, ...string[]]>(values: T, message: string) =>
+const enumField = <const T extends readonly [string, ...string[]]>(values: T, message: string) =>
 	z.enum(values, { error: message });
 
 /** Adds a field issue and counts them, so a transform can stop once every check has spoken. */
@@ -495,7 +495,7 @@ export const removalFormSchema = z
 			'Choose the existing floor'
 		),
 		name: optionalName,
-		basis: enumField(['sqft', 'room'], 'Choose per ft² or per room'),
+		basis: enumField(['sqft', 'room'] as const, 'Choose per ft² or per room'),
 		price: priceField('the customer price'),
 		pay: priceField('the installer pay')
 	})

@@ -175,7 +175,8 @@ export function tradeSettingsFormSchema(schedules: string[]) {
 				system: z.enum(['imperial', 'metric'], { error: 'Choose imperial or metric' }),
 				defaultLengthUnit: z.enum(['in', 'ft', 'mm', 'cm', 'm'], { error: 'Choose a unit' })
 			})
-			.prefault({}),
+			// A missing group is parsed as empty, so each of its fields gets its own message.
+			.prefault({} as never),
 		waste: byLayout.prefault({}),
 		fasteningSchedule: z
 			.string({ error: 'Choose a fastening schedule' })
