@@ -9,6 +9,7 @@ import { db, pool } from '../src/lib/server/db/index';
 import * as customers from '../src/lib/server/db/queries/customers';
 import * as jobs from '../src/lib/server/db/queries/jobs';
 import * as priceBook from '../src/lib/server/db/queries/price-book';
+import * as sites from '../src/lib/server/db/queries/sites';
 import * as tradeSettings from '../src/lib/server/db/queries/settings';
 import { saveProfile } from '../src/lib/server/db/queries/stores';
 import { defaultSettings } from '../src/lib/estimating';
@@ -322,6 +323,29 @@ export async function seedDemo() {
 		email: 'pim.arkwright@example.com',
 		phone: '555-0231',
 		notes: ''
+	});
+	// A site and a price of the second store, for the tenancy checks.
+	await sites.create(second.id, hollinCustomer.id, {
+		label: 'Home',
+		address: '12 Sluice Row',
+		town: 'Hollin Vale',
+		postcode: '',
+		builtYear: 1931,
+		subfloor: 'Boards',
+		notes: ''
+	});
+	await priceBook.create(second.id, {
+		section: 'floor',
+		code: '',
+		name: 'Hollin porcelain 24 × 24 in',
+		data: {
+			kind: 'ceramic_tile',
+			cartonSqFt: 16,
+			tileEdgesIn: [24, 24],
+			material: { basis: 'carton', priceCents: 7_200, costCents: 4_300 },
+			labourCentsPerSqFt: 700,
+			payCentsPerSqFt: 450
+		}
 	});
 	const hollinJob = await jobs.create(
 		second.id,

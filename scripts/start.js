@@ -61,7 +61,9 @@ async function main() {
 			FLUSHLINE_DATA_DIR: dataDir,
 			ORIGIN: origin,
 			HOST: host,
-			PORT: String(port)
+			PORT: String(port),
+			// Logo uploads are up to 2 MB; adapter-node refuses bodies over 512 kB by default.
+			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '3M'
 		};
 		step('Seeding the demo store when the database is empty');
 		run('npx', ['tsx', 'scripts/seed.ts'], { env });

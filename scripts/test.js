@@ -48,6 +48,8 @@ async function main() {
 			ORIGIN: origin,
 			PORT: String(appPort),
 			HOST: '127.0.0.1',
+			// Logo uploads are up to 2 MB; adapter-node refuses bodies over 512 kB by default.
+			BODY_SIZE_LIMIT: '3M',
 			// The fakes must answer in tests even where real keys are set in the shell.
 			RESEND_API_KEY: '',
 			STRIPE_SECRET_KEY: ''

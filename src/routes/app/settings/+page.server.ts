@@ -1,18 +1,42 @@
 import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
+import * as tradeSettings from '$lib/server/db/queries/settings';
 import { readProfile, saveProfile } from '$lib/server/db/queries/stores';
-import { parseForm, refuse } from '$lib/server/forms';
+import { fieldErrors, parseForm, refuse, typedValues } from '$lib/server/forms';
 import { requireRole } from '$lib/server/guards';
+import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
 import { storeProfileSchema } from '$lib/schemas/store';
+import {
+	applyTradeSettings,
+	nestForm,
+	tradeSettingsFormSchema,
+	tradeSettingsToForm
+} from '$lib/schemas/store-settings';
+import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const { store } = requireRole('owner');
-	return { profile: { ...(await readProfile(store.id)), name: store.name } };
+	const [profile, trade] = await Promise.all([readProfile(store.id), tradeSettings.read(store.id)]);
+	const schedules = Object.entries(trade.settings.underlayment.schedules).map(([key, s]) => ({
+		key,
+		...s
+	}));
+	return {
+		profile: { ...profile, name: store.name },
+		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
+		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays),
+		schedules
+	};
 };
 
+/** A refused trade form: what was typed and each field's message, kept apart from the other forms. */
+function refuseTrade(form: FormData, errors: Record<string, string[]>) {
+	return fail(400, { trade: { values: typedValues(form), errors } });
+}
+
 export const actions: Actions = {
-	default: async ({ request }) => {
+	profile: async ({ request }) => {
 		const { store } = requireRole('owner');
 		const parsed = await parseForm(request, storeProfileSchema);
 		if (!parsed.ok) return parsed.failure;
@@ -29,5 +53,40 @@ export const actions: Actions = {
 		}
 		await saveProfile(store.id, profile);
 		return { saved: true };
+	},
+	/** Taxes, deposit, quote validity, units, waste, fastening schedule, crew output; the rest is kept. */
+	trade: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const form = await request.formData();
+		const current = await tradeSettings.read(store.id);
+		const schema = tradeSettingsFormSchema(Object.keys(current.settings.underlayment.schedules));
+		const parsed = schema.safeParse(nestForm(form));
+		if (!parsed.success) return refuseTrade(form, fieldErrors(parsed.error));
+		const applied = applyTradeSettings(current.settings, parsed.data);
+		if (!applied.ok) return refuseTrade(form, applied.errors);
+		await tradeSettings.save(store.id, {
+			settings: applied.settings,
+			currency: current.currency,
+			quoteValidDays: applied.quoteValidDays
+		});
+		return { tradeSaved: true };
+	},
+	logo: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const file = (await request.formData()).get('logo');
+		if (!(file instanceof File) || file.size === 0) {
+			return fail(400, { logoError: 'Choose a PNG or JPEG file' });
+		}
+		if (file.size > LOGO_MAX_BYTES) {
+			return fail(400, { logoError: 'The logo is over 2 MB: save it smaller and try again' });
+		}
+		const saved = await saveLogo(store.id, Buffer.from(await file.arrayBuffer()));
+		if (!saved.ok) return fail(400, { logoError: saved.message });
+		return { logoSaved: true };
+	},
+	removeLogo: async () => {
+		const { store } = requireRole('owner');
+		await removeLogo(store.id);
+		return { logoRemoved: true };
 	}
 };

@@ -1,5 +1,6 @@
 import { and, asc, eq } from 'drizzle-orm';
 import type { PriceBook } from '../../../estimating';
+import { engineItem } from '../../../schemas/price-book';
 import { priceItem } from '../schema';
 import { inStore } from '../tenant';
 
@@ -15,6 +16,42 @@ export interface PriceItemInput {
 	/** The engine's object for the section (FloorProduct, PrepPrice, RemovalPrice, SupplyPrice). */
 	data: object;
 }
+
+/** A write the engine's schema refused; `issues` name each bad field of the engine's shape. */
+export class InvalidPriceItem extends Error {
+	constructor(readonly issues: { path: string; message: string }[]) {
+		super(
+			`The price-book line is not valid: ${issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`
+		);
+	}
+}
+
+/** A second line for a prep kind, existing floor or supply that already has one. */
+export class DuplicatePriceItem extends Error {
+	constructor(
+		readonly section: PriceSection,
+		readonly code: string
+	) {
+		super(`The price book already has a ${section} line for ${code}`);
+	}
+}
+
+/** The data to store for a line, checked with the engine's schema for its section. */
+function checked(section: PriceSection, code: string, name: string, data: unknown) {
+	const r = engineItem(section, code, name, data);
+	if (!r.ok) {
+		throw new InvalidPriceItem(
+			r.issues.map((i) => ({ path: ['data', ...i.path].join('.'), message: i.message }))
+		);
+	}
+	return r.data;
+}
+
+const isUniqueViolation = (e: unknown) =>
+	typeof e === 'object' &&
+	e !== null &&
+	((e as { code?: string }).code === '23505' ||
+		(e as { cause?: { code?: string } }).cause?.code === '23505');
 
 /** The store's price-book lines, one section or all, by section and name. */
 export async function list(storeId: string, section?: PriceSection): Promise<PriceItem[]> {
@@ -42,39 +79,72 @@ export async function read(storeId: string, id: string): Promise<PriceItem | und
 	});
 }
 
-/** A floor's code is its own id (measures refer to it); other sections key by their kind. */
-export async function create(storeId: string, input: PriceItemInput): Promise<PriceItem> {
+/** The line of a section with this code (a prep kind, existing floor or supply kind), if any. */
+export async function readByCode(
+	storeId: string,
+	section: PriceSection,
+	code: string
+): Promise<PriceItem | undefined> {
 	return inStore(storeId, async (tx) => {
-		const id = crypto.randomUUID();
-		const code = input.section === 'floor' ? id : input.code;
 		const [row] = await tx
-			.insert(priceItem)
-			.values({
-				...input,
-				data: input.data as Record<string, unknown>,
-				id,
-				code,
-				organizationId: storeId
-			})
-			.returning();
+			.select()
+			.from(priceItem)
+			.where(
+				and(
+					eq(priceItem.organizationId, storeId),
+					eq(priceItem.section, section),
+					eq(priceItem.code, code)
+				)
+			);
 		return row;
 	});
 }
 
+/**
+ * A floor's code is its own id (measures refer to it); other sections key by their kind, one line
+ * per kind. The data is checked with the engine's schema first: `InvalidPriceItem` when it does
+ * not fit, `DuplicatePriceItem` when the kind already has a line. Nothing is written then.
+ */
+export async function create(storeId: string, input: PriceItemInput): Promise<PriceItem> {
+	const id = crypto.randomUUID();
+	const code = input.section === 'floor' ? id : input.code;
+	const data = checked(input.section, code, input.name, input.data);
+	try {
+		return await inStore(storeId, async (tx) => {
+			const [row] = await tx
+				.insert(priceItem)
+				.values({ ...input, data, id, code, organizationId: storeId })
+				.returning();
+			return row;
+		});
+	} catch (e) {
+		if (isUniqueViolation(e)) throw new DuplicatePriceItem(input.section, code);
+		throw e;
+	}
+}
+
+/**
+ * Changes a line's name, data or active flag; undefined when it is not the store's. The line as
+ * changed is checked with the engine's schema (`InvalidPriceItem`), so a rename cannot break it.
+ * Quotes keep their own copy of every price: a sent quote never changes.
+ */
 export async function update(
 	storeId: string,
 	id: string,
 	input: Partial<Omit<PriceItemInput, 'section' | 'code'>>
 ): Promise<PriceItem | undefined> {
 	return inStore(storeId, async (tx) => {
+		const [current] = await tx
+			.select()
+			.from(priceItem)
+			.where(and(eq(priceItem.organizationId, storeId), eq(priceItem.id, id)))
+			.for('update');
+		if (!current) return undefined;
+		const name = input.name ?? current.name;
+		const data = checked(current.section, current.code, name, input.data ?? current.data);
 		const [row] = await tx
 			.update(priceItem)
-			.set({
-				name: input.name,
-				active: input.active,
-				data: input.data as Record<string, unknown> | undefined,
-				updatedAt: new Date()
-			})
+			.set({ name, active: input.active, data, updatedAt: new Date() })
 			.where(and(eq(priceItem.organizationId, storeId), eq(priceItem.id, id)))
 			.returning();
 		return row;

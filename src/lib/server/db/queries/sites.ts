@@ -1,4 +1,4 @@
-import { and, asc, count, eq } from 'drizzle-orm';
+import { and, asc, count, eq, getTableColumns } from 'drizzle-orm';
 import { customer, job, site } from '../schema';
 import { inStore } from '../tenant';
 
@@ -23,6 +23,34 @@ export async function listForCustomer(storeId: string, customerId: string): Prom
 			.where(and(eq(site.organizationId, storeId), eq(site.customerId, customerId)))
 			.orderBy(asc(site.label), asc(site.address))
 	);
+}
+
+/** A customer's sites with how many jobs are at each (a site with jobs is kept when deleted). */
+export async function listWithJobCounts(
+	storeId: string,
+	customerId: string
+): Promise<(Site & { jobs: number })[]> {
+	return inStore(storeId, (tx) =>
+		tx
+			.select({ ...getTableColumns(site), jobs: count(job.id) })
+			.from(site)
+			.leftJoin(job, and(eq(job.siteId, site.id), eq(job.organizationId, site.organizationId)))
+			.where(and(eq(site.organizationId, storeId), eq(site.customerId, customerId)))
+			.groupBy(site.id)
+			.orderBy(asc(site.label), asc(site.address))
+	);
+}
+
+/** The site a job is at (undefined when none, or when the job is not the store's). */
+export async function forJob(storeId: string, jobId: string): Promise<Site | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select(getTableColumns(site))
+			.from(job)
+			.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
+			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)));
+		return row;
+	});
 }
 
 export async function read(storeId: string, id: string): Promise<Site | undefined> {

@@ -88,7 +88,22 @@ export async function readProfile(storeId: string) {
 			.select()
 			.from(storeProfile)
 			.where(eq(storeProfile.organizationId, storeId));
-		return row ?? { organizationId: storeId, address: '', town: '', phone: '', email: '' };
+		return (
+			row ?? { organizationId: storeId, address: '', town: '', phone: '', email: '', logoKey: null }
+		);
+	});
+}
+
+/** Sets (or, with null, clears) the storage key of the store's logo. */
+export async function saveLogoKey(storeId: string, logoKey: string | null) {
+	return inStore(storeId, async (tx) => {
+		await tx
+			.insert(storeProfile)
+			.values({ organizationId: storeId, logoKey })
+			.onConflictDoUpdate({
+				target: storeProfile.organizationId,
+				set: { logoKey, updatedAt: new Date() }
+			});
 	});
 }
 

@@ -7,6 +7,7 @@ import { nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
 import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
+import { loadJobSite, siteAction } from './site.server';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, user, role } = requirePermission({ job: ['read'] });
@@ -26,6 +27,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		latestQuote: quoteVersions[0] ?? null,
 		moves: canSchedule ? nextStatuses(job.status) : [],
 		canAssign,
+		site: await loadJobSite(store.id, job, role),
 		canEdit: can(role, { job: ['update'] }),
 		canDelete:
 			can(role, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')
@@ -33,6 +35,7 @@ export const load: PageServerLoad = async ({ params }) => {
 };
 
 export const actions: Actions = {
+	site: siteAction,
 	save: async ({ request, params }) => {
 		const { store } = requirePermission({ job: ['update'] });
 		const parsed = await parseForm(request, jobUpdateSchema);

@@ -1,7 +1,9 @@
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
-import { parseForm, refuse } from '$lib/server/forms';
+import * as sites from '$lib/server/db/queries/sites';
+import { fieldErrors, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
+import { placeJob, readSiteChoice, siteFits } from '$lib/server/job-sites';
 import { jobCreateSchema } from '$lib/schemas/job';
 import { redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
@@ -15,19 +17,33 @@ export const load: PageServerLoad = async ({ url }) => {
 		page: 1,
 		pageSize: 100
 	});
+	const customerId = url.searchParams.get('customer') ?? '';
+	const known = rows.some((c) => c.id === customerId);
 	return {
 		customers: rows.map((c) => ({ id: c.id, name: c.name })),
-		customerId: url.searchParams.get('customer') ?? ''
+		customerId: known ? customerId : '',
+		sites: known ? await sites.listForCustomer(store.id, customerId) : []
 	};
 };
 
 export const actions: Actions = {
 	default: async ({ request }) => {
 		const { store, user } = requirePermission({ job: ['create'] });
-		const parsed = await parseForm(request, jobCreateSchema);
-		if (!parsed.ok) return parsed.failure;
+		const form = await request.formData();
+		const parsed = jobCreateSchema.safeParse(Object.fromEntries(form));
+		const where = readSiteChoice(form);
+		if (!parsed.success || !where.ok) {
+			return refuse(form, {
+				...(parsed.success ? {} : fieldErrors(parsed.error)),
+				...(where.ok ? {} : where.errors)
+			});
+		}
+		if (!(await siteFits(store.id, parsed.data.customerId, where.choice))) {
+			return refuse(form, { siteId: ['Choose one of this customer’s sites, or a new address'] });
+		}
 		const row = await jobs.create(store.id, parsed.data, user.id);
-		if (!row) return refuse(parsed.form, { customerId: ['Choose one of the store’s customers'] });
+		if (!row) return refuse(form, { customerId: ['Choose one of the store’s customers'] });
+		await placeJob(store.id, row, where.choice);
 		redirect(303, `/app/jobs/${row.id}`);
 	}
 };

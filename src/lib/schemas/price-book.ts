@@ -1,0 +1,663 @@
+/**
+ * The price book's forms: fields as people type them (prices in dollars "12.50", lengths as text
+ * "12 ft", "7 in") turned into the estimating engine's shapes (integer cents, inches), then checked
+ * with the engine's own schemas, so what is saved is exactly what the engine prices by.
+ * Browser-safe: shared by the pages, their actions and the JSON API.
+ */
+import { z } from 'zod';
+import {
+	BASES,
+	CUIN_PER_CUFT,
+	CUIN_PER_US_GAL,
+	EXISTING_FLOOR_KINDS,
+	FLOOR_KINDS,
+	formatLength,
+	MM_PER_IN,
+	parseLength,
+	PREP,
+	PREP_KINDS,
+	ROLL_KINDS,
+	SUPPLY_KINDS,
+	type Basis,
+	type ExistingFloorKind,
+	type FloorKind,
+	type FloorProduct,
+	type PrepKind,
+	type PrepPrice,
+	type RemovalPrice,
+	type SupplyKind,
+	type SupplyPrice
+} from '$lib/estimating';
+import { EXISTING_FLOOR_LABELS, PREP_LABELS, SUPPLY_LABELS } from '$lib/measure/labels';
+import { floorProductSchema, priceBookSchema } from './estimate';
+import { centsToInput, parseMoney } from './money';
+
+export const PRICE_SECTIONS = ['floor', 'prep', 'removal', 'supply'] as const;
+export type PriceSectionName = (typeof PRICE_SECTIONS)[number];
+
+export const SECTION_LABELS: Record<PriceSectionName, string> = {
+	floor: 'Floors',
+	prep: 'Prep services',
+	removal: 'Removal of existing floors',
+	supply: 'Supplies'
+};
+
+/** How each basis reads after a price: "$1.25 per ft²". */
+export const BASIS_LABELS: Record<Basis, string> = {
+	each: 'each',
+	sqft: 'per ft²',
+	linft: 'per linear ft',
+	sqft_per_eighth_in: 'per ft² for each 1/8 in of depth',
+	hour: 'per hour',
+	room: 'per room',
+	carton: 'per carton',
+	roll_sqyd: 'per yd² of roll',
+	roll_linft: 'per linear ft of roll',
+	panel: 'per panel',
+	box: 'per box',
+	bag: 'per bag',
+	container: 'per container'
+};
+
+export const MATERIAL_BASES = ['carton', 'sqft', 'roll_sqyd', 'roll_linft'] as const;
+export type MaterialBasis = (typeof MATERIAL_BASES)[number];
+
+export const FASTENINGS = ['nailed', 'glued', 'floating'] as const;
+export const FASTENING_LABELS: Record<(typeof FASTENINGS)[number], string> = {
+	nailed: 'Nailed or stapled',
+	glued: 'Glued down',
+	floating: 'Floating'
+};
+
+/** Floors sold by the roll; every other kind by the carton (the engine's `ROLL_KINDS`). */
+export const isRollKind = (kind: string) => (ROLL_KINDS as readonly string[]).includes(kind);
+export const isTileKind = (kind: string) => kind === 'ceramic_tile' || kind === 'stone_tile';
+export const isWoodKind = (kind: string) => kind === 'hardwood' || kind === 'engineered_wood';
+
+/** The material bases that fit a kind of floor: cartons for carton goods, roll units for roll goods. */
+export function materialBasesFor(kind: string): MaterialBasis[] {
+	return isRollKind(kind) ? ['roll_sqyd', 'roll_linft'] : ['carton', 'sqft'];
+}
+
+/**
+ * The supplies each prep service consumes, as the engine takes them off (estimate.ts): panels and
+ * their fasteners for underlayment (and for holes under resilient floors, which get new panels),
+ * patch for seams and dents, self-levelling underlayment for low spots.
+ */
+export const PREP_SUPPLIES: Partial<Record<PrepKind, SupplyKind[]>> = {
+	underlayment: ['underlayment_panel', 'fastener'],
+	hole_repair: ['underlayment_panel', 'fastener'],
+	seam_patch: ['patch'],
+	dent_patch: ['patch'],
+	level: ['leveller']
+};
+
+/** The prep services that draw on a supply. */
+export function prepUsing(kind: SupplyKind): PrepKind[] {
+	return PREP_KINDS.filter((p) => PREP_SUPPLIES[p]?.includes(kind));
+}
+
+/** The units the engine counts each supply in (estimate.ts): its own unit, or each. */
+export const SUPPLY_BASES: Record<SupplyKind, Basis[]> = {
+	underlayment_panel: ['panel', 'each'],
+	fastener: ['box', 'each'],
+	patch: ['container', 'each'],
+	leveller: ['bag', 'each']
+};
+
+// ---------------------------------------------------------------- typed fields
+
+const fieldText = z
+	.string()
+	.optional()
+	.transform((v) => (v ?? '').trim());
+
+/** A required price in dollars, to integer cents; empty is a field error. */
+export const priceField = (what: string) =>
+	fieldText.transform((v, ctx) => {
+		const r = parseMoney(v);
+		if (!r.ok) {
+			ctx.addIssue({ code: 'custom', message: v ? r.message : `Enter ${what}, e.g. 12.50` });
+			return z.NEVER;
+		}
+		return r.cents;
+	});
+
+/** A price that may be left empty (undefined). */
+export const optionalPriceField = fieldText.transform((v, ctx) => {
+	if (!v) return undefined;
+	const r = parseMoney(v);
+	if (!r.ok) {
+		ctx.addIssue({ code: 'custom', message: r.message });
+		return z.NEVER;
+	}
+	return r.cents;
+});
+
+/** A positive number (ft², ft³, %), or undefined when empty. */
+const optionalNumber = (what: string, max = 1_000_000) =>
+	fieldText.transform((v, ctx) => {
+		if (!v) return undefined;
+		const n = Number(v.replace(/,/g, ''));
+		if (!Number.isFinite(n) || !/^[\d.,\s]+$/.test(v)) {
+			ctx.addIssue({ code: 'custom', message: `Cannot read "${v}": type a number for ${what}` });
+			return z.NEVER;
+		}
+		if (n <= 0 || n > max) {
+			ctx.addIssue({ code: 'custom', message: `${what} must be above 0 and at most ${max}` });
+			return z.NEVER;
+		}
+		return n;
+	});
+
+/** A length typed as text (`12 ft`, `7 in`, `3.66 m`, `144`: plain numbers are inches), to inches. */
+const optionalLength = (what: string) =>
+	fieldText.transform((v, ctx) => {
+		if (!v) return undefined;
+		const r = parseLength(v, 'in');
+		if (!r.ok) {
+			ctx.addIssue({ code: 'custom', message: r.message });
+			return z.NEVER;
+		}
+		if (!(r.inches > 0)) {
+			ctx.addIssue({ code: 'custom', message: `${what} must be more than 0` });
+			return z.NEVER;
+		}
+		return r.inches;
+	});
+
+/** Tile edges typed as `12 x 24`, `12" × 24"`, `300 x 600 mm` (a trailing unit applies to both). */
+export function parseTileEdges(
+	text: string
+): { ok: true; edges: number[] } | { ok: false; message: string } {
+	const parts = text
+		.split(/\s*(?:x|×|by|,)\s*/i)
+		.map((p) => p.trim())
+		.filter(Boolean);
+	if (parts.length < 1 || parts.length > 2) {
+		return { ok: false, message: 'Type one or two tile edges, e.g. 12 x 24 in' };
+	}
+	const unit = /(mm|cm|m|in|")\s*$/i.exec(parts[parts.length - 1])?.[1];
+	const edges: number[] = [];
+	for (const p of parts) {
+		const typed = unit && /^[\d.\s/]+$/.test(p) ? `${p} ${unit === '"' ? 'in' : unit}` : p;
+		const r = parseLength(typed, 'in');
+		if (!r.ok) return { ok: false, message: r.message };
+		if (!(r.inches > 0)) return { ok: false, message: 'A tile edge must be more than 0' };
+		edges.push(r.inches);
+	}
+	return { ok: true, edges };
+}
+
+const optionalTileEdges = fieldText.transform((v, ctx) => {
+	if (!v) return undefined;
+	const r = parseTileEdges(v);
+	if (!r.ok) {
+		ctx.addIssue({ code: 'custom', message: r.message });
+		return z.NEVER;
+	}
+	return r.edges;
+});
+
+/** `L/720` or `720`: the span-to-deflection ratio a floor needs. */
+const optionalRatio = fieldText.transform((v, ctx) => {
+	if (!v) return undefined;
+	const m = /^(?:l\s*\/\s*)?(\d+(?:\.\d+)?)$/i.exec(v);
+	const n = m ? Number(m[1]) : NaN;
+	if (!(n >= 1 && n <= 10_000)) {
+		ctx.addIssue({ code: 'custom', message: `Cannot read "${v}": type it as L/360 or 360` });
+		return z.NEVER;
+	}
+	return n;
+});
+
+const US_QT_CUIN = CUIN_PER_US_GAL / 4;
+/** 1 L = 1000 cm³ and 1 in = 2.54 cm exactly, so 1 in³ = 16.387064 cm³. */
+const CUIN_PER_LITRE = 1000 / (MM_PER_IN / 10) ** 3;
+const VOLUME_UNITS: [RegExp, number][] = [
+	[/^(gal|gallons?)$/i, CUIN_PER_US_GAL],
+	[/^(qt|quarts?)$/i, US_QT_CUIN],
+	[/^(l|litres?|liters?)$/i, CUIN_PER_LITRE],
+	[/^(cu\s*in|in³|in3|cubic\s+inch(es)?)$/i, 1],
+	[/^(cu\s*ft|ft³|ft3|cubic\s+f(oo|ee)t)$/i, CUIN_PER_CUFT]
+];
+
+/** A container volume typed as `1 gal`, `2 qt`, `3.78 L`, `231 cu in`, to cubic inches (US units). */
+export function parseVolume(
+	text: string
+): { ok: true; cuIn: number } | { ok: false; message: string } {
+	const m = /^\s*(\d+(?:\.\d+)?|\.\d+)\s*(.*)$/.exec(text);
+	if (!m) return { ok: false, message: `Cannot read "${text.trim()}": type e.g. 1 gal or 3.78 L` };
+	const n = Number(m[1]);
+	const unitText = m[2].trim();
+	if (!unitText) return { ok: false, message: 'Add the unit: gal, qt, L, cu in or cu ft' };
+	const unit = VOLUME_UNITS.find(([re]) => re.test(unitText));
+	if (!unit)
+		return { ok: false, message: `Cannot read "${unitText}": use gal, qt, L, cu in or cu ft` };
+	if (!(n > 0)) return { ok: false, message: 'A volume must be more than 0' };
+	return { ok: true, cuIn: n * unit[1] };
+}
+
+const optionalVolume = fieldText.transform((v, ctx) => {
+	if (!v) return undefined;
+	const r = parseVolume(v);
+	if (!r.ok) {
+		ctx.addIssue({ code: 'custom', message: r.message });
+		return z.NEVER;
+	}
+	return r.cuIn;
+});
+
+const nameField = (message: string) =>
+	z.string({ error: message }).trim().min(1, message).max(120, 'Keep it under 120 characters');
+const optionalName = fieldText.pipe(z.string().max(120, 'Keep it under 120 characters'));
+
+const enumField = <const T extends readonly [string, ...string[]]>(values: T, message: string) =>
+	z.enum(values, { error: message });
+
+/** Adds a field issue and counts them, so a transform can stop once every check has spoken. */
+function refuser(ctx: z.RefinementCtx) {
+	const add = (field: string, message: string) => {
+		add.count += 1;
+		ctx.addIssue({ code: 'custom', path: [field], message });
+	};
+	add.count = 0;
+	return add;
+}
+
+/** Reports the engine schema's issues on the form field each one came from. */
+function engineCheck<S extends z.ZodType>(
+	schema: S,
+	value: unknown,
+	ctx: z.RefinementCtx,
+	fieldOf: (path: PropertyKey[]) => string
+): z.output<S> | typeof z.NEVER {
+	const r = schema.safeParse(value);
+	if (r.success) return r.data;
+	for (const issue of r.error.issues) {
+		ctx.addIssue({ code: 'custom', message: issue.message, path: [fieldOf(issue.path)] });
+	}
+	return z.NEVER;
+}
+
+// ---------------------------------------------------------------- the engine's item shapes
+
+/** What a floor line stores: the engine's `FloorProduct` without its id and name (the row has them). */
+export type FloorData = Omit<FloorProduct, 'id' | 'name'>;
+export type PrepData = Omit<PrepPrice, 'kind' | 'name'>;
+export type RemovalData = Omit<RemovalPrice, 'existing'>;
+export type SupplyData = Omit<SupplyPrice, 'kind' | 'name'>;
+
+export const floorDataSchema = floorProductSchema.omit({ id: true, name: true });
+const prepItemSchema = priceBookSchema.shape.prep.element;
+const removalItemSchema = priceBookSchema.shape.removal.element;
+const supplyItemSchema = priceBookSchema.shape.supplies.element;
+
+/**
+ * Checks a price-book line with the engine's schema for its section and returns the data to
+ * store (the engine's shape without the fields the row keeps: id, name, kind). Used on every write.
+ */
+export function engineItem(
+	section: PriceSectionName,
+	code: string,
+	name: string,
+	data: unknown
+): { ok: true; data: Record<string, unknown> } | { ok: false; issues: z.core.$ZodIssue[] } {
+	const d = (data ?? {}) as Record<string, unknown>;
+	let r;
+	switch (section) {
+		case 'floor':
+			r = floorProductSchema.safeParse({ ...d, id: code || 'new', name });
+			break;
+		case 'prep':
+			r = prepItemSchema.safeParse({ ...d, kind: code, name });
+			break;
+		case 'removal':
+			r = removalItemSchema.safeParse({ ...d, existing: code });
+			break;
+		case 'supply':
+			r = supplyItemSchema.safeParse({ ...d, kind: code, name });
+			break;
+	}
+	if (!r.success) return { ok: false, issues: r.error.issues };
+	// The row keeps these itself: the floor's id and name, the kind or existing floor as its code.
+	const rest: Record<string, unknown> = { ...r.data };
+	for (const key of KEPT_BY_ROW[section]) delete rest[key];
+	return { ok: true, data: rest };
+}
+
+const KEPT_BY_ROW: Record<PriceSectionName, string[]> = {
+	floor: ['id', 'name'],
+	prep: ['kind', 'name'],
+	removal: ['existing'],
+	supply: ['kind', 'name']
+};
+
+// ---------------------------------------------------------------- floor products
+
+const FLOOR_FIELDS: Record<string, string> = {
+	kind: 'kind',
+	fastening: 'fastening',
+	cartonSqFt: 'cartonSqFt',
+	rollWidthIn: 'rollWidth',
+	tileEdgesIn: 'tileEdges',
+	boardWidthIn: 'boardWidth',
+	material: 'materialPrice',
+	labourCentsPerSqFt: 'labourPrice',
+	payCentsPerSqFt: 'payPrice',
+	needs: 'deflectionRatio'
+};
+
+export const floorFormSchema = z
+	.object({
+		name: nameField('Name the product, e.g. "Oak plank 7 in"'),
+		kind: enumField(FLOOR_KINDS as [FloorKind, ...FloorKind[]], 'Choose the kind of floor'),
+		fastening: z.enum(['', ...FASTENINGS]).default(''),
+		cartonSqFt: optionalNumber('Carton coverage', 1000),
+		rollWidth: optionalLength('Roll width'),
+		tileEdges: optionalTileEdges,
+		boardWidth: optionalLength('Board width'),
+		materialBasis: enumField(MATERIAL_BASES, 'Choose how the material is priced'),
+		materialPrice: priceField('the material price'),
+		materialCost: optionalPriceField,
+		labourPrice: priceField('the install price per ft²'),
+		payPrice: priceField('the installer pay per ft²'),
+		deflectionRatio: optionalRatio,
+		rhLimit: optionalNumber('The RH limit', 100),
+		mverLimit: optionalNumber('The MVER limit', 100),
+		underlayment: z.enum(['', 'yes', 'no']).default('')
+	})
+	.transform((f, ctx) => {
+		const issue = refuser(ctx);
+		const roll = isRollKind(f.kind);
+		if (roll && f.rollWidth === undefined) {
+			issue('rollWidth', 'Enter the roll width, e.g. 12 ft');
+		}
+		if (!roll && f.cartonSqFt === undefined) {
+			issue('cartonSqFt', 'Enter the ft² one carton covers (on the carton label)');
+		}
+		if (!materialBasesFor(f.kind).includes(f.materialBasis)) {
+			issue(
+				'materialBasis',
+				roll
+					? 'Roll goods are priced per yd² or per linear ft of roll'
+					: 'Carton goods are priced per carton or per ft² (whole cartons)'
+			);
+		}
+		if (issue.count) return z.NEVER;
+		const needs = {
+			...(f.deflectionRatio !== undefined && { deflectionRatio: f.deflectionRatio }),
+			...(f.rhLimit !== undefined && { rhLimitPct: f.rhLimit }),
+			...(f.mverLimit !== undefined && { mverLimit: f.mverLimit }),
+			...(f.underlayment && { underlayment: f.underlayment === 'yes' })
+		};
+		const data: FloorData = {
+			kind: f.kind,
+			...(f.fastening && { fastening: f.fastening }),
+			...(roll ? { rollWidthIn: f.rollWidth } : { cartonSqFt: f.cartonSqFt }),
+			...(isTileKind(f.kind) && f.tileEdges && { tileEdgesIn: f.tileEdges }),
+			...(isWoodKind(f.kind) && f.boardWidth !== undefined && { boardWidthIn: f.boardWidth }),
+			material: {
+				basis: f.materialBasis,
+				priceCents: f.materialPrice,
+				...(f.materialCost !== undefined && { costCents: f.materialCost })
+			},
+			labourCentsPerSqFt: f.labourPrice,
+			payCentsPerSqFt: f.payPrice,
+			...(Object.keys(needs).length && { needs })
+		};
+		const checked = engineCheck(
+			floorDataSchema,
+			data,
+			ctx,
+			(p) => FLOOR_FIELDS[String(p[0])] ?? 'name'
+		);
+		if (checked === z.NEVER) return z.NEVER;
+		return { section: 'floor' as const, code: '', name: f.name, data: checked as FloorData };
+	});
+
+/** A floor line as its form shows it (prices in dollars, lengths as text). */
+export function floorToForm(name: string, d: FloorData): Record<string, string> {
+	return {
+		name,
+		kind: d.kind,
+		fastening: d.fastening ?? '',
+		cartonSqFt: d.cartonSqFt !== undefined ? String(d.cartonSqFt) : '',
+		rollWidth: d.rollWidthIn !== undefined ? formatLength(d.rollWidthIn) : '',
+		tileEdges: d.tileEdgesIn?.map((e) => formatLength(e, 'in')).join(' x ') ?? '',
+		boardWidth: d.boardWidthIn !== undefined ? formatLength(d.boardWidthIn, 'in') : '',
+		materialBasis: d.material.basis,
+		materialPrice: centsToInput(d.material.priceCents),
+		materialCost: centsToInput(d.material.costCents),
+		labourPrice: centsToInput(d.labourCentsPerSqFt),
+		payPrice: centsToInput(d.payCentsPerSqFt),
+		deflectionRatio: d.needs?.deflectionRatio ? `L/${d.needs.deflectionRatio}` : '',
+		rhLimit: d.needs?.rhLimitPct !== undefined ? String(d.needs.rhLimitPct) : '',
+		mverLimit: d.needs?.mverLimit !== undefined ? String(d.needs.mverLimit) : '',
+		underlayment: d.needs?.underlayment === undefined ? '' : d.needs.underlayment ? 'yes' : 'no'
+	};
+}
+
+// ---------------------------------------------------------------- prep services
+
+export const prepFormSchema = z
+	.object({
+		kind: enumField(PREP_KINDS as [PrepKind, ...PrepKind[]], 'Choose the prep service'),
+		name: optionalName,
+		basis: enumField(BASES as [Basis, ...Basis[]], 'Choose what the price is per'),
+		price: priceField('the customer price'),
+		pay: priceField('the installer pay'),
+		cost: optionalPriceField
+	})
+	.transform((f, ctx) => {
+		const name = f.name || PREP_LABELS[f.kind];
+		const data: PrepData = {
+			basis: f.basis,
+			priceCents: f.price,
+			payCents: f.pay,
+			...(f.cost !== undefined && { costCents: f.cost })
+		};
+		const fields: Record<string, string> = {
+			priceCents: 'price',
+			payCents: 'pay',
+			costCents: 'cost'
+		};
+		const checked = engineCheck(
+			prepItemSchema,
+			{ ...data, kind: f.kind, name },
+			ctx,
+			(p) => fields[String(p[0])] ?? String(p[0])
+		);
+		if (checked === z.NEVER) return z.NEVER;
+		return { section: 'prep' as const, code: f.kind, name, data };
+	});
+
+export function prepToForm(code: string, name: string, d: PrepData): Record<string, string> {
+	return {
+		kind: code,
+		name: name === PREP_LABELS[code as PrepKind] ? '' : name,
+		basis: d.basis,
+		price: centsToInput(d.priceCents),
+		pay: centsToInput(d.payCents),
+		cost: centsToInput(d.costCents)
+	};
+}
+
+/** The measure the engine counts a prep in (and schedules its hours by). */
+export const prepUnit = (kind: PrepKind) => PREP[kind].unit;
+
+// ---------------------------------------------------------------- removal
+
+export const removalFormSchema = z
+	.object({
+		existing: enumField(
+			EXISTING_FLOOR_KINDS as [ExistingFloorKind, ...ExistingFloorKind[]],
+			'Choose the existing floor'
+		),
+		name: optionalName,
+		basis: enumField(['sqft', 'room'] as const, 'Choose per ft² or per room'),
+		price: priceField('the customer price'),
+		pay: priceField('the installer pay')
+	})
+	.transform((f, ctx) => {
+		const name = f.name || removalName(f.existing);
+		const data: RemovalData = { basis: f.basis, priceCents: f.price, payCents: f.pay };
+		const fields: Record<string, string> = { priceCents: 'price', payCents: 'pay' };
+		const checked = engineCheck(
+			removalItemSchema,
+			{ ...data, existing: f.existing },
+			ctx,
+			(p) => fields[String(p[0])] ?? String(p[0])
+		);
+		if (checked === z.NEVER) return z.NEVER;
+		return { section: 'removal' as const, code: f.existing, name, data };
+	});
+
+export const removalName = (existing: ExistingFloorKind) =>
+	`Tear out ${EXISTING_FLOOR_LABELS[existing].toLowerCase()}`;
+
+export function removalToForm(code: string, name: string, d: RemovalData): Record<string, string> {
+	return {
+		existing: code,
+		name: name === removalName(code as ExistingFloorKind) ? '' : name,
+		basis: d.basis,
+		price: centsToInput(d.priceCents),
+		pay: centsToInput(d.payCents)
+	};
+}
+
+// ---------------------------------------------------------------- supplies
+
+export const supplyFormSchema = z
+	.object({
+		kind: enumField(SUPPLY_KINDS as [SupplyKind, ...SupplyKind[]], 'Choose the supply'),
+		name: nameField('Name the product, e.g. "Plywood underlayment 1/4 in, 4 × 8 ft"'),
+		basis: enumField(BASES as [Basis, ...Basis[]], 'Choose what the price is per'),
+		price: priceField('the price'),
+		cost: optionalPriceField,
+		perBox: fieldText.transform((v, ctx) => {
+			if (!v) return undefined;
+			const n = Number(v.replace(/,/g, ''));
+			if (!Number.isInteger(n) || n < 1) {
+				ctx.addIssue({ code: 'custom', message: 'Type a whole number of fasteners, e.g. 1000' });
+				return z.NEVER;
+			}
+			return n;
+		}),
+		patchBy: z.enum(['volume', 'coverage']).default('volume'),
+		patchVolume: optionalVolume,
+		patchCoverage: optionalNumber('The coverage', 10_000),
+		patchDepth: optionalLength('The depth'),
+		bagYield: optionalNumber('The bag yield', 100)
+	})
+	.transform((f, ctx) => {
+		const issue = refuser(ctx);
+		if (!SUPPLY_BASES[f.kind].includes(f.basis)) {
+			issue(
+				'basis',
+				`${SUPPLY_LABELS[f.kind]} is counted ${SUPPLY_BASES[f.kind].map((b) => BASIS_LABELS[b]).join(' or ')}`
+			);
+		}
+		if (f.kind === 'fastener' && f.basis === 'box' && f.perBox === undefined) {
+			issue('perBox', 'Enter how many fasteners come in a box');
+		}
+		let container: SupplyData['container'];
+		if (f.kind === 'patch') {
+			if (f.patchBy === 'volume') {
+				if (f.patchVolume === undefined) {
+					issue('patchVolume', 'Enter what one container holds, e.g. 1 gal');
+				} else container = { volumeCuIn: f.patchVolume };
+			} else {
+				if (f.patchCoverage === undefined) {
+					issue('patchCoverage', 'Enter the ft² one container covers');
+				}
+				if (f.patchDepth === undefined) {
+					issue('patchDepth', 'Enter the depth that coverage is at, e.g. 1/8 in');
+				}
+				if (f.patchCoverage !== undefined && f.patchDepth !== undefined) {
+					container = { coverageSqFt: f.patchCoverage, atDepthIn: f.patchDepth };
+				}
+			}
+		}
+		if (f.kind === 'leveller' && f.bagYield === undefined) {
+			issue('bagYield', 'Enter the bag yield in ft³ (on the data sheet)');
+		}
+		if (issue.count) return z.NEVER;
+		const data: SupplyData = {
+			basis: f.basis,
+			priceCents: f.price,
+			...(f.cost !== undefined && { costCents: f.cost }),
+			...(f.kind === 'fastener' && f.perBox !== undefined && { perBox: f.perBox }),
+			...(container && { container }),
+			...(f.kind === 'leveller' && { bagYieldCuFt: f.bagYield })
+		};
+		const fields: Record<string, string> = {
+			priceCents: 'price',
+			costCents: 'cost',
+			perBox: 'perBox',
+			container: 'patchVolume',
+			bagYieldCuFt: 'bagYield'
+		};
+		const checked = engineCheck(
+			supplyItemSchema,
+			{ ...data, kind: f.kind, name: f.name },
+			ctx,
+			(p) => fields[String(p[0])] ?? String(p[0])
+		);
+		if (checked === z.NEVER) return z.NEVER;
+		return { section: 'supply' as const, code: f.kind, name: f.name, data };
+	});
+
+export function supplyToForm(code: string, name: string, d: SupplyData): Record<string, string> {
+	const c = d.container;
+	return {
+		kind: code,
+		name,
+		basis: d.basis,
+		price: centsToInput(d.priceCents),
+		cost: centsToInput(d.costCents),
+		perBox: d.perBox !== undefined ? String(d.perBox) : '',
+		patchBy: c && 'coverageSqFt' in c ? 'coverage' : 'volume',
+		patchVolume: c && 'volumeCuIn' in c ? volumeText(c.volumeCuIn) : '',
+		patchCoverage: c && 'coverageSqFt' in c ? String(c.coverageSqFt) : '',
+		patchDepth: c && 'atDepthIn' in c ? formatLength(c.atDepthIn, 'in') : '',
+		bagYield: d.bagYieldCuFt !== undefined ? String(d.bagYieldCuFt) : ''
+	};
+}
+
+/** A volume in the unit it reads best in: whole gallons, else cubic inches. */
+export function volumeText(cuIn: number): string {
+	const gal = cuIn / CUIN_PER_US_GAL;
+	if (Math.abs(gal - Math.round(gal * 100) / 100) < 1e-9 && gal >= 0.25)
+		return `${Math.round(gal * 100) / 100} gal`;
+	return `${Math.round(cuIn * 100) / 100} cu in`;
+}
+
+/** The form schema of a section. */
+export const SECTION_FORMS = {
+	floor: floorFormSchema,
+	prep: prepFormSchema,
+	removal: removalFormSchema,
+	supply: supplyFormSchema
+} as const;
+
+export const isSection = (s: string): s is PriceSectionName =>
+	(PRICE_SECTIONS as readonly string[]).includes(s);
+
+// ---------------------------------------------------------------- the JSON API
+
+/** `POST /api/v1/price-items`: a line in the engine's own shape (cents, inches). */
+export const priceItemCreateSchema = z.object({
+	section: z.enum(PRICE_SECTIONS),
+	code: z.string().trim().max(64).default(''),
+	name: z.string().trim().min(1, 'Name the line').max(120),
+	active: z.boolean().default(true),
+	data: z.record(z.string(), z.unknown())
+});
+
+/** `PATCH /api/v1/price-items/:id`: the fields sent are changed; `data` is replaced whole. */
+export const priceItemPatchSchema = z.object({
+	name: z.string().trim().min(1, 'Name the line').max(120).optional(),
+	active: z.boolean().optional(),
+	data: z.record(z.string(), z.unknown()).optional()
+});

@@ -1,0 +1,264 @@
+/**
+ * The store's trade settings form: taxes, deposit, quote validity, units, waste by layout, the
+ * underlayment fastening schedule and crew output, typed as people type them (rates "6.5",
+ * dollars "250.00") and laid over the store's whole settings document, which is then checked with
+ * the engine's `settingsSchema`. Every other default of the engine is kept as it is.
+ * Browser-safe.
+ */
+import { z } from 'zod';
+import {
+	FLOOR_KINDS,
+	LAYOUTS,
+	LINE_GROUPS,
+	type FloorKind,
+	type LineGroup,
+	type StoreSettings
+} from '$lib/estimating';
+import { settingsSchema } from './estimate';
+import { bpsToInput, centsToInput, parseMoney, parsePercentBps } from './money';
+
+export const LINE_GROUP_LABELS: Record<LineGroup, string> = {
+	material: 'Materials',
+	labour: 'Install labour',
+	prep: 'Prep services',
+	removal: 'Removal'
+};
+
+export const TAX_ROUNDING_LABELS: Record<StoreSettings['taxRounding'], string> = {
+	half_up: 'To the nearest cent, halves up',
+	half_even: 'To the nearest cent, halves to even',
+	up: 'Always up to the next cent',
+	down: 'Always down'
+};
+
+export const LENGTH_UNIT_LABELS: Record<StoreSettings['units']['defaultLengthUnit'], string> = {
+	in: 'inches',
+	ft: 'feet',
+	mm: 'millimetres',
+	cm: 'centimetres',
+	m: 'metres'
+};
+
+/** Turns dotted form names (`taxes.0.rate`, `waste.straight`) into nested objects and arrays. */
+export function nestForm(entries: Iterable<[string, FormDataEntryValue]>): Record<string, unknown> {
+	const root: Record<string, unknown> = {};
+	for (const [key, value] of entries) {
+		if (typeof value !== 'string') continue;
+		const parts = key.split('.');
+		let node: Record<string, unknown> = root;
+		parts.forEach((part, i) => {
+			if (i === parts.length - 1) {
+				node[part] = value;
+				return;
+			}
+			const nextIsIndex = /^\d+$/.test(parts[i + 1]);
+			node[part] ??= nextIsIndex ? [] : {};
+			node = node[part] as Record<string, unknown>;
+		});
+	}
+	return root;
+}
+
+const text = z
+	.string()
+	.optional()
+	.transform((v) => (v ?? '').trim());
+
+const number = (what: string, { min = 0, max = 1_000_000, whole = false } = {}) =>
+	text.transform((v, ctx) => {
+		if (!v) {
+			ctx.addIssue({ code: 'custom', message: `Enter ${what}` });
+			return z.NEVER;
+		}
+		const n = Number(v.replace(/,/g, ''));
+		if (!Number.isFinite(n) || (whole && !Number.isInteger(n))) {
+			ctx.addIssue({
+				code: 'custom',
+				message: `Cannot read "${v}": type ${whole ? 'a whole number' : 'a number'}`
+			});
+			return z.NEVER;
+		}
+		if (n < min || n > max) {
+			ctx.addIssue({ code: 'custom', message: `Type a number from ${min} to ${max}` });
+			return z.NEVER;
+		}
+		return n;
+	});
+
+const percentBps = (what: string) =>
+	text.transform((v, ctx) => {
+		const r = parsePercentBps(v);
+		if (!r.ok) {
+			ctx.addIssue({ code: 'custom', message: v ? r.message : `Enter ${what}, e.g. 6.5` });
+			return z.NEVER;
+		}
+		return r.bps;
+	});
+
+const checkbox = z
+	.string()
+	.optional()
+	.transform((v) => v === 'on' || v === 'true');
+
+const taxRow = z
+	.object({
+		name: text.pipe(z.string().max(60, 'Keep it under 60 characters')),
+		rate: text,
+		material: checkbox,
+		labour: checkbox,
+		prep: checkbox,
+		removal: checkbox
+	})
+	.transform((row, ctx) => {
+		const groups = LINE_GROUPS.filter((g) => row[g]);
+		if (!row.name && !row.rate && groups.length === 0) return null;
+		let bad = false;
+		if (!row.name) {
+			ctx.addIssue({ code: 'custom', path: ['name'], message: 'Name this tax, e.g. Sales tax' });
+			bad = true;
+		}
+		const rate = parsePercentBps(row.rate);
+		if (!rate.ok) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['rate'],
+				message: row.rate ? rate.message : 'Enter the rate, e.g. 6.5'
+			});
+			bad = true;
+		}
+		if (bad || !rate.ok) return z.NEVER;
+		return { name: row.name, rateBps: rate.bps, groups };
+	});
+
+const byLayout = z.object(
+	Object.fromEntries(LAYOUTS.map((l) => [l, number('the waste in %', { max: 100 })])) as Record<
+		(typeof LAYOUTS)[number],
+		ReturnType<typeof number>
+	>
+);
+const byFloor = z.object(
+	Object.fromEntries(
+		FLOOR_KINDS.map((k) => [k, number('the ft² a crew lays in a day', { min: 1, max: 100_000 })])
+	) as Record<FloorKind, ReturnType<typeof number>>
+);
+
+/** The trade settings form; `schedules` are the fastening schedules the store's settings hold. */
+export function tradeSettingsFormSchema(schedules: string[]) {
+	return z.object({
+		taxes: z
+			.array(taxRow)
+			.max(10)
+			.default([])
+			.transform((rows) => rows.filter((r) => r !== null)),
+		taxRounding: z.enum(['half_up', 'half_even', 'up', 'down'], {
+			error: 'Choose how taxes round'
+		}),
+		deposit: z
+			.object({
+				percent: percentBps('the deposit percentage'),
+				minimum: text.transform((v, ctx) => {
+					const r = parseMoney(v);
+					if (!r.ok) {
+						ctx.addIssue({
+							code: 'custom',
+							message: v ? r.message : 'Enter the minimum deposit (0.00 for none)'
+						});
+						return z.NEVER;
+					}
+					return r.cents;
+				})
+			})
+			.prefault({}),
+		quoteValidDays: number('how many days a quote stays open', { min: 1, max: 365, whole: true }),
+		units: z
+			.object({
+				system: z.enum(['imperial', 'metric'], { error: 'Choose imperial or metric' }),
+				defaultLengthUnit: z.enum(['in', 'ft', 'mm', 'cm', 'm'], { error: 'Choose a unit' })
+			})
+			// A missing group is parsed as empty, so each of its fields gets its own message.
+			.prefault({} as never),
+		waste: byLayout.prefault({}),
+		fasteningSchedule: z
+			.string({ error: 'Choose a fastening schedule' })
+			.refine((s) => schedules.includes(s), 'Choose one of the schedules listed'),
+		crew: byFloor.prefault({})
+	});
+}
+
+export type TradeSettingsForm = z.output<ReturnType<typeof tradeSettingsFormSchema>>;
+
+/**
+ * The whole settings document with the form's values laid over the current one, checked with the
+ * engine's schema; issues come back on the form field they belong to.
+ */
+export function applyTradeSettings(
+	current: StoreSettings,
+	form: TradeSettingsForm
+):
+	| { ok: true; settings: StoreSettings; quoteValidDays: number }
+	| { ok: false; errors: Record<string, string[]> } {
+	const next: StoreSettings = {
+		...current,
+		units: form.units,
+		wastePct: form.waste,
+		underlayment: { ...current.underlayment, schedule: form.fasteningSchedule },
+		schedule: { ...current.schedule, crewSqFtPerDay: form.crew },
+		taxes: form.taxes,
+		taxRounding: form.taxRounding,
+		deposit: { percentBps: form.deposit.percent, minimumCents: form.deposit.minimum }
+	};
+	const checked = settingsSchema.safeParse(next);
+	if (!checked.success) {
+		const field: Record<string, string> = {
+			wastePct: 'waste',
+			schedule: 'crew',
+			underlayment: 'fasteningSchedule'
+		};
+		const errors: Record<string, string[]> = {};
+		for (const issue of checked.error.issues) {
+			const [head, ...rest] = issue.path.map(String);
+			const key =
+				head === 'deposit'
+					? `deposit.${rest[0] === 'minimumCents' ? 'minimum' : 'percent'}`
+					: head === 'taxes'
+						? `taxes.${rest[0]}.rate`
+						: head === 'schedule'
+							? `crew.${rest[rest.length - 1]}`
+							: [field[head] ?? head, ...rest].join('.');
+			(errors[key] ??= []).push(issue.message);
+		}
+		return { ok: false, errors };
+	}
+	return { ok: true, settings: checked.data as StoreSettings, quoteValidDays: form.quoteValidDays };
+}
+
+/** The form's fields for the saved settings (dotted names, as the form posts them). */
+export function tradeSettingsToForm(s: StoreSettings, quoteValidDays: number) {
+	const values: Record<string, string> = {
+		taxRounding: s.taxRounding,
+		'deposit.percent': bpsToInput(s.deposit.percentBps),
+		'deposit.minimum': centsToInput(s.deposit.minimumCents),
+		quoteValidDays: String(quoteValidDays),
+		'units.system': s.units.system,
+		'units.defaultLengthUnit': s.units.defaultLengthUnit,
+		fasteningSchedule: s.underlayment.schedule
+	};
+	s.taxes.forEach((t, i) => {
+		values[`taxes.${i}.name`] = t.name;
+		values[`taxes.${i}.rate`] = bpsToInput(t.rateBps);
+		for (const g of t.groups) values[`taxes.${i}.${g}`] = 'on';
+	});
+	for (const l of LAYOUTS) values[`waste.${l}`] = String(s.wastePct[l]);
+	for (const k of FLOOR_KINDS) values[`crew.${k}`] = String(s.schedule.crewSqFtPerDay[k]);
+	return values;
+}
+
+/** How many tax rows a form of these values shows: every row typed, and one empty to add. */
+export function taxRowCount(values: Record<string, string>): number {
+	let n = 0;
+	for (const [key, value] of Object.entries(values)) {
+		const m = /^taxes\.(\d+)\./.exec(key);
+		if (m && value.trim()) n = Math.max(n, Number(m[1]) + 1);
+	}
+	return Math.min(n + 1, 10);
+}

@@ -1,0 +1,34 @@
+import { endpoint, readJson } from '$lib/server/api';
+import * as priceBook from '$lib/server/db/queries/price-book';
+import { requireRole } from '$lib/server/guards';
+import { priceItemPatchSchema } from '$lib/schemas/price-book';
+import { error, json } from '@sveltejs/kit';
+import type { RequestHandler } from './$types';
+import { priceItemRefusal } from '../refusal.server';
+
+export const GET: RequestHandler = endpoint(async ({ params }) => {
+	const { store } = requireRole('owner', 'manager');
+	const row = await priceBook.read(store.id, params.id);
+	if (!row) error(404, 'Not found');
+	return json(row);
+});
+
+/** Changes the name, the active flag or the whole data of a line; sent quotes keep their copy. */
+export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
+	const { store } = requireRole('owner', 'manager');
+	const input = await readJson(request, priceItemPatchSchema);
+	let row;
+	try {
+		row = await priceBook.update(store.id, params.id, input);
+	} catch (e) {
+		return priceItemRefusal(e);
+	}
+	if (!row) error(404, 'Not found');
+	return json(row);
+});
+
+export const DELETE: RequestHandler = endpoint(async ({ params }) => {
+	const { store } = requireRole('owner', 'manager');
+	if (!(await priceBook.remove(store.id, params.id))) error(404, 'Not found');
+	return new Response(null, { status: 204 });
+});

@@ -1,0 +1,303 @@
+import * as priceBook from '$lib/server/db/queries/price-book';
+import * as quotes from '$lib/server/db/queries/quotes';
+import * as tradeSettings from '$lib/server/db/queries/settings';
+import { estimate } from '$lib/estimating';
+import {
+	floorFormSchema,
+	floorToForm,
+	prepFormSchema,
+	removalFormSchema,
+	supplyFormSchema,
+	supplyToForm
+} from '$lib/schemas/price-book';
+import {
+	applyTradeSettings,
+	nestForm,
+	tradeSettingsFormSchema,
+	tradeSettingsToForm
+} from '$lib/schemas/store-settings';
+import { fieldErrors } from '$lib/server/forms';
+import { describe, expect, it } from 'vitest';
+import { makeQuotedJob, makeStore } from './factories';
+
+const floorFields = {
+	name: 'Hickory plank 5 in',
+	kind: 'hardwood',
+	fastening: 'nailed',
+	cartonSqFt: '22.5',
+	boardWidth: '5 in',
+	materialBasis: 'carton',
+	materialPrice: '$129.90',
+	materialCost: '78',
+	labourPrice: '4.25',
+	payPrice: '2.75',
+	deflectionRatio: 'L/480',
+	rhLimit: '',
+	mverLimit: '',
+	underlayment: 'no'
+};
+
+function errorsOf(result: { success: boolean; error?: unknown }) {
+	expect(result.success).toBe(false);
+	return fieldErrors(result.error as never);
+}
+
+describe('price-book forms', () => {
+	it('turn a floor typed in dollars and text lengths into the engine’s product', () => {
+		const r = floorFormSchema.safeParse(floorFields);
+		expect(r.success).toBe(true);
+		expect(r.data).toEqual({
+			section: 'floor',
+			code: '',
+			name: 'Hickory plank 5 in',
+			data: {
+				kind: 'hardwood',
+				fastening: 'nailed',
+				cartonSqFt: 22.5,
+				boardWidthIn: 5,
+				material: { basis: 'carton', priceCents: 12_990, costCents: 7_800 },
+				labourCentsPerSqFt: 425,
+				payCentsPerSqFt: 275,
+				needs: { deflectionRatio: 480, underlayment: false }
+			}
+		});
+	});
+
+	it('read roll widths and tile edges as typed, in any unit', () => {
+		const carpet = floorFormSchema.safeParse({
+			...floorFields,
+			kind: 'carpet',
+			rollWidth: "12'",
+			cartonSqFt: '',
+			materialBasis: 'roll_sqyd'
+		});
+		expect(carpet.data?.data).toMatchObject({ kind: 'carpet', rollWidthIn: 144 });
+		expect(carpet.data?.data).not.toHaveProperty('cartonSqFt');
+		const tile = floorFormSchema.safeParse({
+			...floorFields,
+			kind: 'ceramic_tile',
+			tileEdges: '300 x 600 mm'
+		});
+		expect(tile.data?.data.tileEdgesIn?.map((e) => Math.round(e * 1000) / 1000)).toEqual([
+			11.811, 23.622
+		]);
+		expect(tile.data?.data).not.toHaveProperty('boardWidthIn');
+	});
+
+	it('refuse an empty price by its field, and a length the engine cannot read', () => {
+		const errors = errorsOf(
+			floorFormSchema.safeParse({ ...floorFields, materialPrice: '', boardWidth: '5 1/0 in' })
+		);
+		expect(errors.materialPrice).toEqual(['Enter the material price, e.g. 12.50']);
+		expect(errors.boardWidth?.[0]).toMatch(/fraction's bottom cannot be 0/);
+		const prep = errorsOf(
+			prepFormSchema.safeParse({ kind: 'level', basis: 'sqft', price: '', pay: '' })
+		);
+		expect(Object.keys(prep).sort()).toEqual(['pay', 'price']);
+		const removal = errorsOf(
+			removalFormSchema.safeParse({ existing: 'carpet', basis: 'sqft', price: '0.6', pay: '-1' })
+		);
+		expect(removal.pay).toEqual(['A price cannot be negative']);
+		const cents = errorsOf(
+			prepFormSchema.safeParse({ kind: 'trim', basis: 'linft', price: '2.755', pay: '1' })
+		);
+		expect(cents.price?.[0]).toMatch(/two decimals/);
+	});
+
+	it('ask what each kind of floor needs: coverage for cartons, width and roll units for rolls', () => {
+		const carton = errorsOf(floorFormSchema.safeParse({ ...floorFields, cartonSqFt: '' }));
+		expect(carton.cartonSqFt?.[0]).toMatch(/one carton covers/);
+		const roll = errorsOf(
+			floorFormSchema.safeParse({ ...floorFields, kind: 'sheet_vinyl', materialBasis: 'carton' })
+		);
+		expect(Object.keys(roll).sort()).toEqual(['materialBasis', 'rollWidth']);
+	});
+
+	it('keep the product data of supplies: box count, container, bag yield', () => {
+		const patch = supplyFormSchema.safeParse({
+			kind: 'patch',
+			name: 'Floor patch, 1 gal pail',
+			basis: 'container',
+			price: '36',
+			patchBy: 'volume',
+			patchVolume: '1 gal'
+		});
+		expect(patch.data?.data).toEqual({
+			basis: 'container',
+			priceCents: 3_600,
+			container: { volumeCuIn: 231 }
+		});
+		expect(supplyToForm('patch', 'Floor patch', patch.data!.data).patchVolume).toBe('1 gal');
+		const leveller = errorsOf(
+			supplyFormSchema.safeParse({ kind: 'leveller', name: 'SLU', basis: 'bag', price: '42' })
+		);
+		expect(leveller.bagYield?.[0]).toMatch(/data sheet/);
+		const fasteners = errorsOf(
+			supplyFormSchema.safeParse({ kind: 'fastener', name: 'Nails', basis: 'bag', price: '24' })
+		);
+		expect(fasteners.basis?.[0]).toMatch(/per box or each/);
+	});
+
+	it('show a saved floor back as it was typed', () => {
+		const r = floorFormSchema.safeParse(floorFields);
+		const again = floorFormSchema.safeParse(floorToForm(r.data!.name, r.data!.data));
+		expect(again.data).toEqual(r.data);
+	});
+});
+
+describe('trade settings form', () => {
+	it('lays taxes, deposit, waste, schedule and crew output over the whole settings document', async () => {
+		const store = await makeStore('Settings Floors');
+		const current = await tradeSettings.read(store.id);
+		const values = {
+			...tradeSettingsToForm(current.settings, current.quoteValidDays),
+			'taxes.0.name': 'County tax',
+			'taxes.0.rate': '6.5',
+			'taxes.0.labour': 'on',
+			'taxes.1.name': '',
+			'taxes.1.rate': '',
+			'deposit.percent': '25',
+			'deposit.minimum': '150',
+			'waste.herringbone': '22.5',
+			fasteningSchedule: 'staples',
+			'crew.carpet': '900'
+		};
+		const form = tradeSettingsFormSchema(
+			Object.keys(current.settings.underlayment.schedules)
+		).safeParse(nestForm(Object.entries(values)));
+		expect(form.success).toBe(true);
+		const applied = applyTradeSettings(current.settings, form.data!);
+		if (!applied.ok) throw new Error(JSON.stringify(applied.errors));
+		expect(applied.settings.taxes).toEqual([
+			{ name: 'County tax', rateBps: 650, groups: ['material', 'labour'] }
+		]);
+		expect(applied.settings.deposit).toEqual({ percentBps: 2500, minimumCents: 15_000 });
+		expect(applied.settings.wastePct.herringbone).toBe(22.5);
+		expect(applied.settings.underlayment.schedule).toBe('staples');
+		expect(applied.settings.schedule.crewSqFtPerDay.carpet).toBe(900);
+		// Every other default is kept.
+		expect(applied.settings.joists).toEqual(current.settings.joists);
+		expect(applied.settings.moisture).toEqual(current.settings.moisture);
+	});
+
+	it('refuses an empty rate and a deposit over 100 % by their fields', () => {
+		const form = tradeSettingsFormSchema(['apa_quarter_in']).safeParse(
+			nestForm(
+				Object.entries({
+					'taxes.0.name': 'Sales tax',
+					'taxes.0.rate': '',
+					taxRounding: 'half_up',
+					'deposit.percent': '120',
+					'deposit.minimum': '',
+					quoteValidDays: '30',
+					'units.system': 'imperial',
+					'units.defaultLengthUnit': 'in',
+					fasteningSchedule: 'nope'
+				})
+			)
+		);
+		const errors = errorsOf(form);
+		expect(errors['taxes.0.rate']).toEqual(['Enter the rate, e.g. 6.5']);
+		expect(errors['deposit.percent']).toEqual(['A percentage is at most 100']);
+		expect(errors['deposit.minimum']?.[0]).toMatch(/minimum deposit/);
+		expect(errors.fasteningSchedule).toBeDefined();
+		expect(errors['waste.straight']).toBeDefined();
+		expect(errors['crew.laminate']).toBeDefined();
+	});
+});
+
+describe('price-book lines', () => {
+	it('are checked with the engine’s schema on create and update, and nothing is written when refused', async () => {
+		const store = await makeStore('Checked Floors');
+		await expect(
+			priceBook.create(store.id, {
+				section: 'prep',
+				code: 'level',
+				name: 'Level',
+				data: { basis: 'sqft', priceCents: 12.5, payCents: 50 }
+			})
+		).rejects.toBeInstanceOf(priceBook.InvalidPriceItem);
+		await expect(
+			priceBook.create(store.id, {
+				section: 'prep',
+				code: 'not_a_prep',
+				name: 'x',
+				data: { basis: 'sqft', priceCents: 100, payCents: 50 }
+			})
+		).rejects.toThrow(/code|kind|Invalid/);
+		expect(await priceBook.list(store.id)).toEqual([]);
+
+		const line = await priceBook.create(store.id, {
+			section: 'removal',
+			code: 'carpet',
+			name: 'Tear out carpet',
+			data: { basis: 'sqft', priceCents: 60, payCents: 40 }
+		});
+		await expect(
+			priceBook.update(store.id, line.id, { data: { basis: 'yard', priceCents: 60, payCents: 40 } })
+		).rejects.toBeInstanceOf(priceBook.InvalidPriceItem);
+		await expect(
+			priceBook.create(store.id, {
+				section: 'removal',
+				code: 'carpet',
+				name: 'Again',
+				data: { basis: 'sqft', priceCents: 1, payCents: 1 }
+			})
+		).rejects.toBeInstanceOf(priceBook.DuplicatePriceItem);
+		const updated = await priceBook.update(store.id, line.id, {
+			data: { basis: 'room', priceCents: 9_000, payCents: 6_000 }
+		});
+		expect(updated?.data).toEqual({ basis: 'room', priceCents: 9_000, payCents: 6_000 });
+		expect((await priceBook.list(store.id)).length).toBe(1);
+	});
+
+	it('a price change leaves a built quote’s stored input and result as they were', async () => {
+		const store = await makeStore('Frozen Floors');
+		const { quote, floors, job } = await makeQuotedJob(store);
+		const lvp = (await priceBook.read(store.id, floors['lvp-grey']))!;
+		const before = quote.input.priceBook.floors.find((f) => f.id === lvp.id)!;
+		expect(before.material.priceCents).toBe(329);
+
+		const parsed = floorFormSchema.safeParse({
+			...floorToForm(lvp.name, lvp.data as never),
+			materialPrice: '4.99'
+		});
+		await priceBook.update(store.id, lvp.id, { data: parsed.data!.data });
+		expect(
+			((await priceBook.read(store.id, lvp.id))!.data as { material: { priceCents: number } })
+				.material.priceCents
+		).toBe(499);
+
+		const stored = (await quotes.read(store.id, quote.id))!;
+		expect(stored.input).toEqual(quote.input);
+		expect(stored.totalCents).toBe(quote.totalCents);
+		expect(estimate(stored.input).totals).toEqual(quote.result.totals);
+		// Today's preview uses the new price.
+		const preview = await quotes.preview(store.id, job.id);
+		expect(preview!.result.totals.subtotalCents).toBeGreaterThan(quote.subtotalCents);
+	});
+
+	it('of another store cannot be read, changed or deleted', async () => {
+		const a = await makeStore('A Floors');
+		const b = await makeStore('B Floors');
+		const theirs = await priceBook.create(b.id, {
+			section: 'removal',
+			code: 'laminate',
+			name: 'Tear out laminate',
+			data: { basis: 'sqft', priceCents: 75, payCents: 50 }
+		});
+		expect(await priceBook.read(a.id, theirs.id)).toBeUndefined();
+		expect(
+			await priceBook.update(a.id, theirs.id, {
+				data: { basis: 'sqft', priceCents: 1, payCents: 1 }
+			})
+		).toBeUndefined();
+		expect(await priceBook.remove(a.id, theirs.id)).toBe(false);
+		expect(await priceBook.list(a.id)).toEqual([]);
+		expect((await priceBook.read(b.id, theirs.id))?.data).toEqual({
+			basis: 'sqft',
+			priceCents: 75,
+			payCents: 50
+		});
+	});
+});
