@@ -112,7 +112,11 @@ export type MeasureDraft = z.infer<typeof measureDraftSchema>;
 
 /** A new room: a rectangle with nothing measured yet. */
 export function emptyRoom(id: string, name = ''): RoomDraft {
-	return roomDraftSchema.parse({ id, name, shape: { kind: 'rect', width: '', length: '' } });
+	// zod copies a default object shallowly: without the clone every new room would share the
+	// lists inside `repairs` and `readings`, and a hole added to one would appear in all.
+	return structuredClone(
+		roomDraftSchema.parse({ id, name, shape: { kind: 'rect', width: '', length: '' } })
+	);
 }
 
 export function emptyMeasure(): MeasureDraft {

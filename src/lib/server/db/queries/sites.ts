@@ -118,3 +118,15 @@ export async function setJobSite(
 		return 'saved';
 	});
 }
+
+/** The site a job is at, or undefined (no site, or the job is not the store's). */
+export async function forJob(storeId: string, jobId: string): Promise<Site | undefined> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select({ site })
+			.from(job)
+			.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
+			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)));
+		return row?.site;
+	});
+}
