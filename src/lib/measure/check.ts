@@ -89,7 +89,8 @@ export function collectMessages(
 			out.fields[e.path] = e.message;
 			if (/^Enter the /.test(e.message)) out.empty.add(e.path);
 		} else if (e.roomId) {
-			(out.rooms[e.roomId] ??= []).includes(e.message) || out.rooms[e.roomId].push(e.message);
+			const list = (out.rooms[e.roomId] ??= []);
+			if (!list.includes(e.message)) list.push(e.message);
 		} else if (!out.general.includes(e.message)) out.general.push(e.message);
 	}
 	return out;

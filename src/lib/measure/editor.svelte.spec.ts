@@ -52,7 +52,12 @@ function server(answers: Answer[]) {
 }
 
 function editor(
-	opts: { draft?: MeasureDraft; version?: number; storage?: DraftStorage; answers?: Answer[] } = {}
+	opts: {
+		draft?: MeasureDraft;
+		version?: number;
+		storage?: ReturnType<typeof memoryStorage>;
+		answers?: Answer[];
+	} = {}
 ) {
 	const storage = opts.storage ?? memoryStorage();
 	const s = server(opts.answers ?? []);

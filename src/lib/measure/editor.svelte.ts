@@ -9,6 +9,7 @@ import { SvelteSet } from 'svelte/reactivity';
 import { estimate, type EstimateResult, type PriceBook, type StoreSettings } from '$lib/estimating';
 import { collectMessages, draftPathsOf, roomOutlineOf } from './check';
 import { toEngine, type DraftError, type MeasureDraft, type RoomDraft } from './draft';
+import { isoTime } from './format';
 import { LocalDrafts, restorePlan, type DraftStorage } from './local';
 import { compareMeasures, mergeMeasures, type FloorChoice, type Side } from './merge';
 import { applyOp, type OpResult } from './ops';
@@ -48,6 +49,8 @@ export interface EditorOptions {
 	fetch?: typeof fetch;
 	/** Whether the device thinks it is online (navigator.onLine). */
 	online?: () => boolean;
+	/** Changes sent by a form that was refused (the page without JavaScript), to take back first. */
+	pending?: { draft: MeasureDraft; baseVersion: number } | null;
 	/** Wait after the last keystroke before saving, ms. */
 	saveDelay?: number;
 	estimateDelay?: number;
@@ -73,7 +76,8 @@ export class MeasureEditor {
 	draft: MeasureDraft = $state({ builtYear: '', rooms: [] });
 	/** The stored version the draft is based on (0: nothing saved yet). */
 	version = $state(0);
-	savedAt: Date | null = $state(null);
+	/** When the server last saved it (ISO time). */
+	savedAt: string | null = $state(null);
 	savedBy: string | null = $state(null);
 	save: SaveState = $state({ kind: 'saved' });
 	/** Their measure, when a save found that someone else saved in between. */
@@ -93,8 +97,10 @@ export class MeasureEditor {
 	result: EstimateResult | null = $state.raw(null);
 	engineErrors: DraftError[] = $state.raw([]);
 
-	readonly reading = $derived(toEngine(this.draft, this.settings));
-	readonly outlines = $derived(this.draft.rooms.map((room) => roomOutlineOf(room, this.settings)));
+	readonly reading = $derived.by(() => toEngine(this.draft, this.settings));
+	readonly outlines = $derived.by(() =>
+		this.draft.rooms.map((room) => roomOutlineOf(room, this.settings))
+	);
 	readonly messages = $derived(
 		collectMessages(this.draft, {
 			draft: this.reading.errors,
@@ -112,13 +118,14 @@ export class MeasureEditor {
 	readonly selected = $derived(
 		this.selectedIndex >= 0 ? this.draft.rooms[this.selectedIndex] : undefined
 	);
-	readonly comparison = $derived(
+	readonly comparison = $derived.by(() =>
 		this.conflict
 			? compareMeasures(this.conflict.theirs.draft, this.draft, this.conflict.base, this.floors)
 			: null
 	);
 
 	private local: LocalDrafts;
+	private pending: EditorOptions['pending'];
 	private fetch: typeof fetch;
 	private online: () => boolean;
 	private userName: string;
@@ -141,13 +148,14 @@ export class MeasureEditor {
 		this.floors = o.floors;
 		this.userName = o.userName;
 		this.local = new LocalDrafts(o.storage ?? null);
+		this.pending = o.pending ? plain(o.pending) : null;
 		this.fetch = o.fetch ?? ((...args) => fetch(...args));
 		this.online = o.online ?? (() => true);
 		this.saveDelay = o.saveDelay ?? 800;
 		this.estimateDelay = o.estimateDelay ?? 200;
 		this.draft = plain(o.stored.draft);
 		this.version = o.stored.version;
-		this.savedAt = o.stored.updatedAt ? new Date(o.stored.updatedAt) : null;
+		this.savedAt = isoTime(o.stored.updatedAt);
 		this.savedBy = o.stored.updatedByName;
 		this.savedDraft = plain(o.stored.draft);
 		this.savedJson = JSON.stringify(o.stored.draft);
@@ -161,7 +169,9 @@ export class MeasureEditor {
 	 * not have (saving them, or showing both when someone saved over them), and runs the estimate.
 	 */
 	start(): void {
-		const kept = this.local.read(this.jobId);
+		const kept = this.pending
+			? { jobId: this.jobId, changedAt: 0, ...this.pending }
+			: this.local.read(this.jobId);
 		const plan = restorePlan(kept, { draft: this.savedDraft, version: this.version });
 		if (plan.action === 'none') this.local.clear(this.jobId);
 		else {
@@ -253,7 +263,7 @@ export class MeasureEditor {
 			const body = await res.json();
 			this.attempt = 0;
 			this.version = body.version;
-			this.savedAt = new Date(body.updatedAt);
+			this.savedAt = String(body.updatedAt);
 			this.savedBy = this.userName;
 			this.savedJson = json;
 			this.savedDraft = JSON.parse(json);
@@ -320,7 +330,7 @@ export class MeasureEditor {
 		const { theirs } = this.conflict;
 		const merged = mergeMeasures(theirs.draft, plain(this.draft), picks);
 		this.version = theirs.version;
-		this.savedAt = theirs.updatedAt ? new Date(theirs.updatedAt) : null;
+		this.savedAt = isoTime(theirs.updatedAt);
 		this.savedBy = theirs.updatedByName;
 		this.savedDraft = plain(theirs.draft);
 		this.savedJson = JSON.stringify(theirs.draft);
@@ -335,7 +345,7 @@ export class MeasureEditor {
 
 	/** Runs a button's operation on the draft; `remove-room` keeps the room to put back. */
 	apply(op: string): OpResult {
-		const result = applyOp(this.draft, op.replace(/^remove-room-now:/, 'remove-room:'));
+		const result = applyOp(this.draft, op);
 		if (result.removed) this.undo = result.removed;
 		if (result.selected !== undefined) this.selectedId = result.selected ?? null;
 		if (!this.draft.rooms.some((r) => r.id === this.selectedId))

@@ -25,7 +25,10 @@ export function lengthText(inches: number, settings: Units, size: 'room' | 'smal
 	if (settings.units.system === 'metric')
 		return size === 'room' ? formatLength(inches, 'm') : formatLength(inches, 'mm', { digits: 1 });
 	const typed = formatLength(inches, size === 'room' ? 'ft-in' : 'in', { denominator: 16 });
-	return typed.replace(/'/g, ' ft').replace(/"/g, ' in');
+	return typed
+		.replace(/'/g, ' ft')
+		.replace(/"/g, ' in')
+		.replace(/ ft 0 in$/, ' ft');
 }
 
 /**
@@ -54,4 +57,9 @@ export function savedTime(when: Date | string, now = new Date()): string {
 	return d.toDateString() === now.toDateString()
 		? time
 		: `${d.toLocaleDateString('en-US', { month: 'short', day: 'numeric' })}, ${time}`;
+}
+
+/** A time as ISO text (what JSON carries), or null. */
+export function isoTime(when: Date | string | null | undefined): string | null {
+	return when ? new Date(when).toISOString() : null;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { emptyRoom, measureDraftSchema, type MeasureDraft } from './draft';
+import { emptyRoom, measureDraftSchema, type MeasureDraft, type ShapeDraft } from './draft';
 import { applyFields, applyOp, convertShape, fieldId, freeName, valueAt } from './ops';
 
 let n = 0;
@@ -88,14 +88,15 @@ describe('operations on the draft', () => {
 			rects: [{ x: '', y: '', width: "12'", length: "8'" }]
 		});
 		convertShape(room, 'sides');
-		expect(room.shape.kind === 'sides' && room.shape.sides.map((s) => s.length)).toEqual([
+		const walked = room.shape as ShapeDraft;
+		expect(walked.kind === 'sides' && walked.sides.map((s) => s.length)).toEqual([
 			"12'",
 			"8'",
 			"12'",
 			"8'"
 		]);
 		convertShape(room, 'rect');
-		expect(room.shape).toEqual({ kind: 'rect', width: "12'", length: "8'" });
+		expect(room.shape as ShapeDraft).toEqual({ kind: 'rect', width: "12'", length: "8'" });
 	});
 
 	it('names without clashing', () => {

@@ -166,7 +166,7 @@ export function applyOp(draft: MeasureDraft, op: string, newId = newRoomId): OpR
 		draft.rooms.splice(i + 1, 0, copy);
 		return { selected: copy.id, focus: `rooms.${i + 1}.name` };
 	}
-	if (verb === 'remove-room') {
+	if (verb === 'remove-room' || verb === 'remove-room-now') {
 		const i = roomIndex(draft, arg);
 		if (i < 0) return {};
 		const [room] = draft.rooms.splice(i, 1);

@@ -1,5 +1,6 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import { parseForm } from '$lib/server/forms';
+import { measureSummary } from '$lib/server/measure-summary';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
@@ -17,12 +18,14 @@ export const load: PageServerLoad = async ({ params }) => {
 		jobs.events(store.id, job.id),
 		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([])
 	]);
+	const measure = await measureSummary(store.id, job.id);
 	return {
 		job,
 		history,
 		installers,
 		moves: canSchedule ? nextStatuses(job.status) : [],
 		canAssign,
+		measure,
 		canEdit: can(role, { job: ['update'] }),
 		canDelete:
 			can(role, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')
