@@ -2,7 +2,7 @@
 // message by a field the engine cannot read, nothing lost to a reload or a dropped connection,
 // and two salespeople on one measure shown both inputs instead of one overwriting the other.
 import { expect, test, type Page } from '@playwright/test';
-import { demoEmail, signIn } from './helpers';
+import { demoEmail, HOLLIN_OWNER, signIn, signInRequest } from './helpers';
 
 const JONAH = 'jonah@tallowcreek.example';
 
@@ -240,4 +240,22 @@ test('two salespeople on one measure: the later save sees both, and keeping mine
 		})
 	).toBeVisible();
 	await jonahContext.close();
+});
+
+test('installers and other stores never reach a measure', async ({ page, playwright, baseURL }) => {
+	await signIn(page, demoEmail('sales'));
+	const job = await newJob(page, 'Closed to installers');
+	const rosa = await playwright.request.newContext({ baseURL });
+	const hollin = await playwright.request.newContext({ baseURL });
+	await signInRequest(rosa, baseURL!, demoEmail('installer'));
+	await signInRequest(hollin, baseURL!, HOLLIN_OWNER);
+	expect((await rosa.get(`/app/jobs/${job.id}/measure`)).status()).toBe(403);
+	expect((await rosa.get(`/api/v1/jobs/${job.id}/measure`)).status()).toBe(403);
+	expect((await hollin.get(`/app/jobs/${job.id}/measure`)).status()).toBe(404);
+	const put = await hollin.put(`/api/v1/jobs/${job.id}/measure`, {
+		headers: { 'content-type': 'application/json', accept: 'application/json' },
+		data: { baseVersion: 0, draft: { builtYear: '', rooms: [] } }
+	});
+	expect(put.status()).toBe(404);
+	await Promise.all([rosa.dispose(), hollin.dispose()]);
 });

@@ -128,11 +128,12 @@ describe('posted fields into the draft (the form without JavaScript)', () => {
 		});
 	});
 
-	it('changes a shape kind before its fields, and ignores what the draft does not have', () => {
+	it('changes a shape kind after its fields, carrying them over; ignores what the draft lacks', () => {
 		const d = draft();
 		applyFields(d, [
 			['rooms.1.shape.kind', 'rects'],
-			['rooms.1.shape.rects.0.width', '5'],
+			['rooms.1.shape.width', '5'],
+			['rooms.1.shape.rects.0.width', '6'],
 			['rooms.1.shape.rects.3.width', '9'],
 			['rooms.1.joists.size', '2x8'],
 			['rooms.5.name', 'Ghost'],

@@ -238,7 +238,7 @@ function lastFilled(values: string[]): string {
 /**
  * Writes posted form fields, named by their path in the draft (`rooms.0.shape.width`), into the
  * draft in place. Only fields the draft already has are written (lists grow through `applyOp`),
- * each as the type it already has; a shape's kind is changed first, so its fields can follow.
+ * each as the type it already has; then a shape's kind is changed, carrying the sizes just typed.
  */
 export function applyFields(draft: MeasureDraft, entries: Iterable<[string, unknown]>): void {
 	const values = new Map<string, string[]>();
@@ -246,12 +246,6 @@ export function applyFields(draft: MeasureDraft, entries: Iterable<[string, unkn
 		if (typeof value !== 'string') continue;
 		if (key !== 'builtYear' && !key.startsWith('rooms.')) continue;
 		values.set(key, [...(values.get(key) ?? []), value]);
-	}
-	for (const [key, vs] of values) {
-		const m = /^rooms\.(\d+)\.shape\.kind$/.exec(key);
-		const kind = lastFilled(vs);
-		if (m && draft.rooms[Number(m[1])] && ['rect', 'rects', 'sides'].includes(kind))
-			convertShape(draft.rooms[Number(m[1])], kind as ShapeDraft['kind']);
 	}
 	for (const [key, vs] of values) {
 		if (key.endsWith('.shape.kind')) continue;
@@ -270,6 +264,12 @@ export function applyFields(draft: MeasureDraft, entries: Iterable<[string, unkn
 		const value = lastFilled(vs);
 		if (typeof current === 'string') holder[last] = value;
 		else if (typeof current === 'boolean') holder[last] = value === 'true' || value === 'on';
+	}
+	for (const [key, vs] of values) {
+		const m = /^rooms\.(\d+)\.shape\.kind$/.exec(key);
+		const kind = lastFilled(vs);
+		if (m && draft.rooms[Number(m[1])] && ['rect', 'rects', 'sides'].includes(kind))
+			convertShape(draft.rooms[Number(m[1])], kind as ShapeDraft['kind']);
 	}
 }
 
