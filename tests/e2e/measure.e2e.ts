@@ -59,7 +59,10 @@ for (const device of [
 
 			// The kitchen: an L of 12 × 8 ft and 5 × 6 ft, the second above the first.
 			await addRoom(page, 'Kitchen');
-			await shape(page).getByLabel('Joined rectangles').check();
+			await expect(
+				shape(page).getByRole('radio', { name: 'Rectangle', exact: true })
+			).toBeChecked();
+			await shape(page).getByRole('radio', { name: 'Joined rectangles' }).check();
 			const first = page.getByRole('group', { name: 'Rectangle 1' });
 			await first.getByLabel('Width').fill("12'");
 			await first.getByLabel('Length').fill('8');
