@@ -141,3 +141,14 @@ describe('reading the typed measure', () => {
 		});
 	});
 });
+
+describe('new rooms', () => {
+	it('share no list with each other', () => {
+		const a = emptyRoom('a');
+		const b = emptyRoom('b');
+		a.repairs.holes.push({ width: '3', length: '4' });
+		a.readings.rh.push('80');
+		expect(b.repairs.holes).toEqual([]);
+		expect(b.readings.rh).toEqual([]);
+	});
+});

@@ -112,7 +112,11 @@ export type MeasureDraft = z.infer<typeof measureDraftSchema>;
 
 /** A new room: a rectangle with nothing measured yet. */
 export function emptyRoom(id: string, name = ''): RoomDraft {
-	return roomDraftSchema.parse({ id, name, shape: { kind: 'rect', width: '', length: '' } });
+	// zod copies a default object shallowly: without the clone every new room would share the
+	// lists inside `repairs` and `readings`, and a hole added to one would appear in all.
+	return structuredClone(
+		roomDraftSchema.parse({ id, name, shape: { kind: 'rect', width: '', length: '' } })
+	);
 }
 
 export function emptyMeasure(): MeasureDraft {
@@ -214,8 +218,12 @@ function readShape(shape: ShapeDraft, r: Reader, at: string): Shape | undefined 
 }
 
 function readRect(rect: RectDraft, r: Reader, at: string) {
-	const xIn = rect.x.trim() ? r.length(rect.x, `${at}.x`, 'distance from the left', 'room') : 0;
-	const yIn = rect.y.trim() ? r.length(rect.y, `${at}.y`, 'distance from the top', 'room') : 0;
+	const xIn = rect.x.trim()
+		? r.length(rect.x, `${at}.x`, 'distance across from the left', 'room')
+		: 0;
+	const yIn = rect.y.trim()
+		? r.length(rect.y, `${at}.y`, 'distance up from the bottom', 'room')
+		: 0;
 	const widthIn = r.positive(rect.width, `${at}.width`, 'width', 'room');
 	const lengthIn = r.positive(rect.length, `${at}.length`, 'length', 'room');
 	if (xIn === undefined || yIn === undefined || !widthIn || !lengthIn) return undefined;

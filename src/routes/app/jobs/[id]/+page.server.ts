@@ -1,6 +1,7 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as quotes from '$lib/server/db/queries/quotes';
 import { parseForm } from '$lib/server/forms';
+import { measureSummary } from '$lib/server/measure-summary';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
@@ -20,6 +21,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([]),
 		can(role, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([])
 	]);
+	const measure = await measureSummary(store.id, job.id);
 	return {
 		job,
 		history,
@@ -28,6 +30,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		moves: canSchedule ? nextStatuses(job.status) : [],
 		canAssign,
 		site: await loadJobSite(store.id, job, role),
+		measure,
 		canEdit: can(role, { job: ['update'] }),
 		canDelete:
 			can(role, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')

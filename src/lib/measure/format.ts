@@ -1,0 +1,65 @@
+/** How the measure's numbers read on screen, in the store's unit system. */
+import {
+	formatArea,
+	formatLength,
+	parseLength,
+	type AreaUnit,
+	type StoreSettings
+} from '$lib/estimating';
+import { draftUnits } from './draft';
+
+type Units = Pick<StoreSettings, 'units'>;
+
+export function areaUnit(settings: Units): AreaUnit {
+	return settings.units.system === 'metric' ? 'sqm' : 'sqft';
+}
+
+/** An area held in ft², as the store reads areas: whole ft² (ANSI Z765 reports to the foot), or m² to 2 places. */
+export function areaText(sqFt: number, settings: Units): string {
+	const unit = areaUnit(settings);
+	return formatArea(sqFt, unit, unit === 'sqft' ? 0 : 2);
+}
+
+/** A length in words, e.g. `12 ft 6 1/2 in`, `4 1/2 in`, `3.81 m`, `12 mm`. */
+export function lengthText(inches: number, settings: Units, size: 'room' | 'small'): string {
+	if (settings.units.system === 'metric')
+		return size === 'room' ? formatLength(inches, 'm') : formatLength(inches, 'mm', { digits: 1 });
+	const typed = formatLength(inches, size === 'room' ? 'ft-in' : 'in', { denominator: 16 });
+	return typed
+		.replace(/'/g, ' ft')
+		.replace(/"/g, ' in')
+		.replace(/ ft 0 in$/, ' ft');
+}
+
+/**
+ * What a typed length reads as, for the line under its field: the reading when the engine can
+ * read it, undefined while it is empty or cannot be read (the field then shows the message).
+ */
+export function readingOf(value: string, settings: Units, size: 'room' | 'small') {
+	if (!value.trim()) return undefined;
+	const r = parseLength(value, draftUnits(settings)[size]);
+	return r.ok ? lengthText(r.inches, settings, size) : undefined;
+}
+
+/** Integer cents as money, e.g. `$1,234.56`. */
+export function money(cents: number, currency = 'USD'): string {
+	try {
+		return new Intl.NumberFormat('en-US', { style: 'currency', currency }).format(cents / 100);
+	} catch {
+		return `${(cents / 100).toFixed(2)} ${currency}`;
+	}
+}
+
+/** A save time: `10:42` today, else `Mar 3, 10:42`. */
+export function savedTime(when: Date | string, now = new Date()): string {
+	const d = new Date(when);
+	const time = d.toLocaleTimeString('en-US', { hour: 'numeric', minute: '2-digit' });
+	return d.toDateString() === now.toDateString()
+		? time
+		: `${d.toLocaleDateString('en-US', { month: 'short', day: 'numeric' })}, ${time}`;
+}
+
+/** A time as ISO text (what JSON carries), or null. */
+export function isoTime(when: Date | string | null | undefined): string | null {
+	return when ? new Date(when).toISOString() : null;
+}

@@ -1,0 +1,158 @@
+import * as jobs from '$lib/server/db/queries/jobs';
+import * as measures from '$lib/server/db/queries/measures';
+import * as priceBook from '$lib/server/db/queries/price-book';
+import * as tradeSettings from '$lib/server/db/queries/settings';
+import * as sites from '$lib/server/db/queries/sites';
+import { requirePermission } from '$lib/server/guards';
+import { emptyMeasure, measureDraftSchema, type MeasureDraft } from '$lib/measure/draft';
+import { sameDraft } from '$lib/measure/local';
+import { mergeMeasures, type Side } from '$lib/measure/merge';
+import { applyFields, applyOp, fieldId } from '$lib/measure/ops';
+import { error, fail, redirect } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params, url }) => {
+	const { store, user, role } = requirePermission({ job: ['update'] });
+	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	if (!job) error(404, 'Not found');
+	const [stored, trade, items, site] = await Promise.all([
+		measures.read(store.id, job.id),
+		tradeSettings.read(store.id),
+		priceBook.list(store.id),
+		sites.forJob(store.id, job.id)
+	]);
+	const book = priceBook.toPriceBook(items, trade.currency);
+	const builtYear = site?.builtYear ? String(site.builtYear) : '';
+	return {
+		job: { id: job.id, number: job.number, title: job.title, customerName: job.customerName },
+		measure: stored ?? {
+			draft: { ...emptyMeasure(), builtYear },
+			version: 0,
+			updatedAt: null,
+			updatedByName: null
+		},
+		settings: trade.settings,
+		priceBook: book,
+		floors: book.floors.map((f) => ({ id: f.id, name: f.name, kind: f.kind })),
+		site: site ? { label: site.label, address: site.address, builtYear: site.builtYear } : null,
+		room: url.searchParams.get('room'),
+		confirmRemove: url.searchParams.get('remove'),
+		userName: user.name
+	};
+};
+
+/** The draft the form was drawn from, sent back with it (a copy: zod shares default lists). */
+function formDraft(form: FormData, field: string): MeasureDraft | undefined {
+	try {
+		const parsed = measureDraftSchema.safeParse(JSON.parse(String(form.get(field) ?? '')));
+		return parsed.success ? structuredClone(parsed.data) : undefined;
+	} catch {
+		return undefined;
+	}
+}
+
+/** Someone saved first: nothing is written, and the page shows both (`baseVersion`: mine's). */
+function conflictOf(
+	current: Awaited<ReturnType<typeof measures.read>>,
+	mine: MeasureDraft,
+	baseVersion: number,
+	base?: MeasureDraft
+) {
+	return fail(409, {
+		conflict: {
+			current: current ?? {
+				draft: emptyMeasure(),
+				version: 0,
+				updatedAt: null,
+				updatedByName: null
+			},
+			mine,
+			baseVersion,
+			base
+		}
+	});
+}
+
+export const actions: Actions = {
+	/**
+	 * The editor without JavaScript: every field is named by its path in the draft, the draft it
+	 * was drawn from comes along, and the button pressed is an operation (add a hole, a room...).
+	 * The result is saved on top of the version the form was drawn from, or refused with both.
+	 */
+	save: async ({ request, params, url }) => {
+		const { store, user, role } = requirePermission({ job: ['update'] });
+		const form = await request.formData();
+		const baseVersion = Number(form.get('baseVersion'));
+		const drawn = formDraft(form, '_draft');
+		if (!drawn || !Number.isInteger(baseVersion) || baseVersion < 0) {
+			return fail(400, { message: 'The form was not sent whole: reload the page and try again.' });
+		}
+		const draft: MeasureDraft = structuredClone(drawn);
+		applyFields(draft, form.entries());
+		const op = String(form.get('op') ?? 'save');
+		let room = String(form.get('room') ?? '');
+		let focus: string | undefined;
+		let askRemove: string | undefined;
+		if (op.startsWith('remove-room:')) askRemove = op.slice('remove-room:'.length);
+		else {
+			const done = applyOp(draft, op);
+			if (done.selected !== undefined) room = done.selected ?? '';
+			focus = done.focus;
+		}
+		const checked = measureDraftSchema.safeParse(draft);
+		if (!checked.success) {
+			return fail(400, {
+				draft,
+				message: 'Some fields are too long or not valid',
+				issues: checked.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message }))
+			});
+		}
+		const saved = sameDraft(drawn, draft)
+			? { ok: true as const }
+			: await measures.save(store.id, params.id, checked.data, baseVersion, user.id);
+		if (!saved.ok) {
+			if (saved.reason === 'conflict') return conflictOf(saved.current, draft, baseVersion, drawn);
+			if (!(await jobs.read(store.id, params.id, { userId: user.id, role })))
+				error(404, 'Not found');
+			return conflictOf(undefined, draft, baseVersion, drawn);
+		}
+		const query = new URLSearchParams();
+		if (room) query.set('room', room);
+		if (askRemove) query.set('remove', askRemove);
+		redirect(303, `${url.pathname}?${query}${focus ? `#${fieldId(focus)}` : ''}`);
+	},
+
+	/** Settles a conflict without JavaScript: a side for each room, saved on top of theirs. */
+	resolve: async ({ request, params, url }) => {
+		const { store, user, role } = requirePermission({ job: ['update'] });
+		const form = await request.formData();
+		const mine = formDraft(form, '_mine');
+		const theirVersion = Number(form.get('baseVersion'));
+		const mineVersion = Number(form.get('mineVersion'));
+		if (!mine || !Number.isInteger(theirVersion)) {
+			return fail(400, { message: 'The form was not sent whole: reload the page and try again.' });
+		}
+		const current = await measures.read(store.id, params.id);
+		if (!current && !(await jobs.read(store.id, params.id, { userId: user.id, role })))
+			error(404, 'Not found');
+		const theirs = current ?? { draft: emptyMeasure(), version: 0 };
+		// Someone saved again while this one was choosing: choose again against the newest.
+		if (theirs.version !== theirVersion) return conflictOf(current, mine, mineVersion);
+		const all = form.get('all');
+		const side = (v: FormDataEntryValue | null): Side => (v === 'theirs' ? 'theirs' : 'mine');
+		const rooms: Record<string, Side> = {};
+		for (const r of [...theirs.draft.rooms, ...mine.rooms])
+			rooms[r.id] = all ? side(all) : side(form.get(`pick.${r.id}`));
+		const merged = mergeMeasures(theirs.draft, mine, {
+			rooms,
+			builtYear: all ? side(all) : side(form.get('pick.builtYear'))
+		});
+		if (!sameDraft(theirs.draft, merged)) {
+			const saved = await measures.save(store.id, params.id, merged, theirs.version, user.id);
+			if (!saved.ok && saved.reason === 'conflict')
+				return conflictOf(saved.current, mine, mineVersion);
+			if (!saved.ok) error(404, 'Not found');
+		}
+		redirect(303, url.pathname);
+	}
+};
