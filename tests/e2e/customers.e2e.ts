@@ -93,7 +93,7 @@ test('a second site is added to a customer, a job starts there and moves to the 
 	await start.getByLabel('Site').selectOption({ label: 'Rental: 4 Weaver Court, Bramblefield' });
 	await start.getByRole('button', { name: 'Start the job' }).click();
 	await expect(page.getByRole('heading', { name: /Rental hallway/ })).toBeVisible();
-	const site = page.getByRole('region', { name: 'Site' });
+	const site = page.getByRole('region', { name: 'Site', exact: true });
 	await expect(site).toContainText('Rental: 4 Weaver Court, Bramblefield');
 	await expect(site).toContainText('Built 1988');
 
@@ -115,5 +115,7 @@ test('a job started from the jobs page goes to a new address of its customer', a
 	await page.getByLabel('Year built').fill('2004');
 	await page.getByRole('button', { name: 'Start the job' }).click();
 	await expect(page.getByRole('heading', { name: /Porch laminate/ })).toBeVisible();
-	await expect(page.getByRole('region', { name: 'Site' })).toContainText('88 Copse End');
+	await expect(page.getByRole('region', { name: 'Site', exact: true })).toContainText(
+		'88 Copse End'
+	);
 });

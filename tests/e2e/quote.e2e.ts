@@ -1,5 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { createHmac } from 'node:crypto';
+import sharp from 'sharp';
 import { demoEmail, lastMailLink, signIn } from './helpers';
 
 test('a salesperson builds and sends the quote; the customer accepts it from the e-mailed link', async ({
@@ -98,4 +99,38 @@ test('a forged or expired customer link shows a clear page and no data', async (
 	const expired = await page.goto(`/c/${payload}.${signature}`);
 	expect(expired?.status()).toBe(410);
 	await expect(page.getByRole('heading', { name: 'This link has expired' })).toBeVisible();
+});
+
+test("the customer's page and PDF carry the store's logo", async ({ page, browser }) => {
+	await signIn(page, demoEmail('owner'));
+	await page.goto('/app/settings');
+	const png = await sharp({
+		create: { width: 320, height: 120, channels: 3, background: { r: 169, g: 101, b: 44 } }
+	})
+		.png()
+		.toBuffer();
+	await page
+		.getByLabel('Logo file')
+		.setInputFiles({ name: 'logo.png', mimeType: 'image/png', buffer: png });
+	await page.getByRole('button', { name: 'Upload the logo' }).click();
+	await expect(page.getByRole('img', { name: 'Tallow Creek Floors logo' })).toBeVisible();
+
+	await page.goto('/app/jobs?q=Living room oak');
+	await page.getByRole('link', { name: /Living room oak/ }).click();
+	await page.getByRole('link', { name: 'Open the quote' }).click();
+	const link = await page.getByLabel("The customer's link").inputValue();
+	const customer = await browser.newPage();
+	await customer.goto(link);
+	await expect(customer.getByRole('img', { name: 'Tallow Creek Floors logo' })).toBeVisible();
+	const served = await customer.request.get(`${new URL(link).pathname}/logo`);
+	expect(served.headers()['content-type']).toBe('image/png');
+	const pdf = await customer.request.get(`${new URL(link).pathname}/quote.pdf`);
+	// An embedded image is an XObject of subtype Image in the PDF.
+	expect((await pdf.body()).toString('latin1')).toMatch(/\/Subtype\s*\/Image/);
+	// A forged link gets no logo either.
+	expect((await customer.request.get('/c/not.valid/logo')).status()).toBe(404);
+
+	await page.goto('/app/settings');
+	await page.getByRole('button', { name: 'Remove the logo' }).click();
+	await expect(page.getByText('No logo yet')).toBeVisible();
 });

@@ -41,14 +41,8 @@ export function readingOf(value: string, settings: Units, size: 'room' | 'small'
 	return r.ok ? lengthText(r.inches, settings, size) : undefined;
 }
 
-/** Integer cents as money, e.g. `$1,234.56`. */
-export function money(cents: number, currency = 'USD'): string {
-	try {
-		return new Intl.NumberFormat('en-US', { style: 'currency', currency }).format(cents / 100);
-	} catch {
-		return `${(cents / 100).toFixed(2)} ${currency}`;
-	}
-}
+/** Money for display: the one formatter, which knows each currency's minor unit. */
+export { formatMoney as money } from '$lib/format';
 
 /** A save time: `10:42` today, else `Mar 3, 10:42`. */
 export function savedTime(when: Date | string, now = new Date()): string {

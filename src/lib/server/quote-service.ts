@@ -6,6 +6,7 @@ import * as quotes from './db/queries/quotes';
 import * as tradeSettings from './db/queries/settings';
 import * as sites from './db/queries/sites';
 import { readProfile } from './db/queries/stores';
+import { readLogo } from './logo';
 import { mailer } from './mail';
 import { quoteMail } from './mail/templates';
 import { quotePdf } from './pdf/quote-pdf';
@@ -58,9 +59,10 @@ export async function pdfOf(store: Store, quote: quotes.Quote) {
 		tradeSettings.read(store.id)
 	]);
 	if (!job) throw new Error('quote without its job');
-	const [customer, site] = await Promise.all([
+	const [customer, site, logo] = await Promise.all([
 		customers.read(store.id, job.customerId),
-		job.siteId ? sites.read(store.id, job.siteId) : Promise.resolve(undefined)
+		job.siteId ? sites.read(store.id, job.siteId) : Promise.resolve(undefined),
+		readLogo(store.id)
 	]);
 	return quotePdf({
 		store: {
@@ -70,6 +72,10 @@ export async function pdfOf(store: Store, quote: quotes.Quote) {
 			phone: profile.phone,
 			email: profile.email
 		},
+		logo:
+			logo && (logo.type === 'image/png' || logo.type === 'image/jpeg')
+				? { bytes: new Uint8Array(logo.bytes), type: logo.type }
+				: undefined,
 		customer: {
 			name: job.customerName,
 			email: customer?.email ?? null,

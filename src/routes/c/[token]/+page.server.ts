@@ -46,7 +46,8 @@ export const load: PageServerLoad = async ({ params, setHeaders }) => {
 			address: profile.address,
 			town: profile.town,
 			phone: profile.phone,
-			email: profile.email
+			email: profile.email,
+			hasLogo: Boolean(profile.logoKey)
 		},
 		job: { label: jobLabel(job.number), title: job.title, status: job.status },
 		customerName: customer?.name ?? job.customerName,
