@@ -16,6 +16,7 @@ import { defaultSettings } from '../src/lib/estimating';
 import { samplePriceBook } from '../src/lib/estimating/sample';
 import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
 import * as measures from '../src/lib/server/db/queries/measures';
+import * as payments from '../src/lib/server/db/queries/payments';
 import * as quotes from '../src/lib/server/db/queries/quotes';
 import * as sites from '../src/lib/server/db/queries/sites';
 import { demoMeasure } from './demo-measures';
@@ -230,6 +231,8 @@ export async function seedDemo() {
 		});
 	}
 	const floor = await seedPriceBook(store.id);
+	// Each store's own Stripe account (the local fake keeps each apart, as Stripe does).
+	await tradeSettings.saveStripeAccount(store.id, 'acct_tallowcreekdemo1');
 	await saveProfile(store.id, {
 		address: '418 Millrace Road',
 		town: 'Bramblefield',
@@ -245,6 +248,7 @@ export async function seedDemo() {
 		}
 	});
 	if (!second) throw new Error('The second demo store was not created');
+	await tradeSettings.saveStripeAccount(second.id, 'acct_hollinvaledemo1');
 	// Rosa installs for both stores with one login.
 	await auth.api.addMember({
 		body: {
@@ -312,8 +316,39 @@ export async function seedDemo() {
 			if (to === 'scheduled' && j.installer !== undefined) {
 				await jobs.assign(store.id, job.id, ids.get(DEMO_PEOPLE[j.installer].email)!, managerId);
 			}
-			const note = to === 'sold' ? 'Deposit taken in the store' : '';
-			const moved = await jobs.move(store.id, job.id, to, managerId, note);
+			if (to === 'sold') {
+				// The deposit, taken on the store's card terminal: the ledger moves the job to sold.
+				const money = await payments.moneyFor(store.id, job.id);
+				const paid = await payments.recordInStore(
+					store.id,
+					job.id,
+					{
+						purpose: 'deposit',
+						method: 'card_terminal',
+						amountCents: money.ledger.depositDueCents,
+						reference: `Terminal slip ${4100 + n}`
+					},
+					managerId
+				);
+				if (!paid.ok) throw new Error(`Demo deposit of ${j.title}: ${paid.reason}`);
+				continue;
+			}
+			if (to === 'closed') {
+				const money = await payments.moneyFor(store.id, job.id);
+				const paid = await payments.recordInStore(
+					store.id,
+					job.id,
+					{
+						purpose: 'balance',
+						method: 'cheque',
+						amountCents: money.ledger.balanceDueCents,
+						reference: `Cheque ${880 + n}`
+					},
+					managerId
+				);
+				if (!paid.ok) throw new Error(`Demo balance of ${j.title}: ${paid.reason}`);
+			}
+			const moved = await jobs.move(store.id, job.id, to, managerId);
 			if (!moved.ok) throw new Error(`Demo job ${j.title} could not move to ${to}`);
 		}
 	}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatMoney, formatQty } from './format';
+import { formatMoney, formatQty, majorText } from './format';
 
 describe('money for display', () => {
 	it('shows cents as dollars, and respects zero-decimal currencies', () => {
@@ -7,6 +7,12 @@ describe('money for display', () => {
 		expect(formatMoney(123456, 'USD')).toBe('$1,234.56');
 		expect(formatMoney(1500, 'JPY')).toBe('¥1,500');
 		expect(formatMoney(-2500, 'USD')).toBe('-$25.00');
+	});
+
+	it('writes plain amounts for files in the currency’s own decimals', () => {
+		expect(majorText(123456, 'USD')).toBe('1234.56');
+		expect(majorText(1500, 'JPY')).toBe('1500');
+		expect(majorText(-5, 'USD')).toBe('-0.05');
 	});
 });
 

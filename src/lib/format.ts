@@ -12,8 +12,23 @@ export function formatMoney(minor: number, currency = 'USD'): string {
 		format = new Intl.NumberFormat('en-US', { style: 'currency', currency });
 		moneyFormats.set(currency, format);
 	}
-	const digits = format.resolvedOptions().maximumFractionDigits ?? 2;
-	return format.format(minor / 10 ** digits);
+	return format.format(minor / 10 ** minorDigits(currency));
+}
+
+/** How many decimals a currency's amounts have (USD 2, JPY 0), as Intl knows them. */
+export function minorDigits(currency: string): number {
+	let format = moneyFormats.get(currency);
+	if (!format) {
+		format = new Intl.NumberFormat('en-US', { style: 'currency', currency });
+		moneyFormats.set(currency, format);
+	}
+	return format.resolvedOptions().maximumFractionDigits ?? 2;
+}
+
+/** An amount in the smallest unit as plain decimal text for files: 123456 USD → `1234.56`, 1500 JPY → `1500`. */
+export function majorText(minor: number, currency: string): string {
+	const digits = minorDigits(currency);
+	return (minor / 10 ** digits).toFixed(digits);
 }
 
 const UNITS: Record<Basis, [string, string]> = {

@@ -2,8 +2,17 @@ import { expect, test } from '@playwright/test';
 import { demoEmail, signIn } from './helpers';
 
 const expected = {
-	owner: ['Desk', 'Jobs', 'Customers', 'Price book', 'Calculators', 'Team', 'Store settings'],
-	manager: ['Desk', 'Jobs', 'Customers', 'Price book', 'Calculators'],
+	owner: [
+		'Desk',
+		'Jobs',
+		'Customers',
+		'Price book',
+		'Payments',
+		'Calculators',
+		'Team',
+		'Store settings'
+	],
+	manager: ['Desk', 'Jobs', 'Customers', 'Price book', 'Payments', 'Calculators'],
 	sales: ['Desk', 'Jobs', 'Customers', 'Calculators']
 } as const;
 

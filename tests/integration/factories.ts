@@ -95,6 +95,13 @@ export async function makeJob(storeId: string, actorId: string, customerId?: str
 
 /** The store's settings (engine defaults, a sales tax and a deposit rule) and the sample price book. */
 export async function makePriceBook(storeId: string) {
+	const existing = await priceBook.list(storeId, 'floor');
+	if (existing.length) {
+		const byName = new Map(existing.map((row) => [row.name, row.id]));
+		return {
+			floors: Object.fromEntries(samplePriceBook.floors.map((f) => [f.id, byName.get(f.name)!]))
+		};
+	}
 	await tradeSettings.save(storeId, {
 		settings: {
 			...defaultSettings,

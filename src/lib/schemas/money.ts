@@ -45,10 +45,8 @@ export function centsToInput(cents: number | null | undefined): string {
 	return `${sign}${Math.floor(a / 100)}.${String(a % 100).padStart(2, '0')}`;
 }
 
-/** Cents for display: `$12.50` (the store's currency, en-US style). */
-export function formatCents(cents: number, currency = 'USD'): string {
-	return new Intl.NumberFormat('en-US', { style: 'currency', currency }).format(cents / 100);
-}
+/** Cents for display: `$12.50` (the one formatter, which knows each currency's minor unit). */
+export { formatMoney as formatCents } from '../format';
 
 /** Basis points as a percentage field shows them: `650` → `6.5`. */
 export function bpsToInput(bps: number): string {

@@ -29,7 +29,10 @@ export const deliverSchema = z.object({
 
 export const deliveryModeSchema = z.object({ mode: z.enum(['auto', 'hold']) });
 
+const stripeAccountId = z.string().regex(/^acct_[A-Za-z0-9]{6,}$/, 'A Stripe account id (acct_…)');
+
 export const payoutSchema = z.object({
+	account: stripeAccountId.optional(),
 	currency: z
 		.string()
 		.regex(/^[a-zA-Z]{3}$/, 'A three-letter currency code')
@@ -49,7 +52,9 @@ export const testSessionSchema = z.object({
 	customer_email: z.email().optional(),
 	success_url: z.url().optional(),
 	cancel_url: z.url().optional(),
-	metadata: z.record(z.string().max(40), z.string().max(500)).optional()
+	metadata: z.record(z.string().max(40), z.string().max(500)).optional(),
+	/** A store's connected account (`acct_…`); the platform's own without it. */
+	account: stripeAccountId.optional()
 });
 
 /** The tester's form on /dev/stripe: an amount as typed (`1250.00`, or `12000` in yen). */

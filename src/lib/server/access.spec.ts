@@ -30,11 +30,17 @@ describe('sections by role', () => {
 		expect(hrefs('owner')).toEqual([
 			...desk,
 			'/app/price-book',
+			'/app/payments',
 			'/app/calculators',
 			'/app/team',
 			'/app/settings'
 		]);
-		expect(hrefs('manager')).toEqual([...desk, '/app/price-book', '/app/calculators']);
+		expect(hrefs('manager')).toEqual([
+			...desk,
+			'/app/price-book',
+			'/app/payments',
+			'/app/calculators'
+		]);
 		expect(hrefs('sales')).toEqual([...desk, '/app/calculators']);
 		expect(hrefs('installer')).toEqual(['/field', '/field/calculators']);
 	});

@@ -48,7 +48,15 @@ export function homeFor(role: Role | null): string {
 }
 
 export type NavIcon =
-	'desk' | 'jobs' | 'customers' | 'priceBook' | 'team' | 'settings' | 'calculators' | 'field';
+	| 'desk'
+	| 'jobs'
+	| 'customers'
+	| 'priceBook'
+	| 'payments'
+	| 'team'
+	| 'settings'
+	| 'calculators'
+	| 'field';
 
 export interface NavItem {
 	href: string;
@@ -62,6 +70,7 @@ const NAV: NavItem[] = [
 	{ href: '/app/jobs', label: 'Jobs', icon: 'jobs' },
 	{ href: '/app/customers', label: 'Customers', icon: 'customers' },
 	{ href: '/app/price-book', label: 'Price book', icon: 'priceBook' },
+	{ href: '/app/payments', label: 'Payments', icon: 'payments' },
 	{ href: '/app/calculators', label: 'Calculators', icon: 'calculators' },
 	{ href: '/app/team', label: 'Team', icon: 'team' },
 	{ href: '/app/settings', label: 'Store settings', icon: 'settings' },

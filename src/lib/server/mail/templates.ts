@@ -157,3 +157,66 @@ export function customerAnswerMail(input: {
 		})
 	};
 }
+
+/** The customer's receipt for a payment, from the store. */
+export function receiptMail(input: {
+	to: string;
+	storeName: string;
+	storePhone: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	what: string;
+	amount: string;
+	balance: string;
+	paidAt: Date;
+	reference: string;
+	url: string;
+}): Mail {
+	const when = input.paidAt.toLocaleString('en-US', {
+		dateStyle: 'long',
+		timeStyle: 'short',
+		timeZone: 'UTC'
+	});
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		subject: `Receipt from ${input.storeName}: ${input.amount} for ${input.jobTitle}`,
+		...layout({
+			heading: `Thank you, ${input.customerName}`,
+			paragraphs: [
+				`${input.storeName} received ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle} on ${when} UTC.`,
+				`Reference: ${input.reference}. Still to pay: ${input.balance}.`,
+				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
+			].filter(Boolean),
+			action: { label: 'See your job', url: input.url },
+			footer: `Keep this e-mail as your receipt. Sent by ${input.storeName}.`
+		})
+	};
+}
+
+/** Tells the salesperson the customer paid. */
+export function paidNoticeMail(input: {
+	to: string;
+	storeName: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	what: string;
+	amount: string;
+	url: string;
+}): Mail {
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		subject: `${input.customerName} paid the ${input.what} for ${input.jobLabel}`,
+		...layout({
+			heading: `${input.what[0].toUpperCase()}${input.what.slice(1)} paid`,
+			paragraphs: [
+				`${input.customerName} paid ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle}.`
+			],
+			action: { label: 'Open the job', url: input.url },
+			footer: `${input.storeName} · Flushline`
+		})
+	};
+}

@@ -22,7 +22,9 @@ export const load: PageServerLoad = async () => {
 		key,
 		...s
 	}));
+	const stripeAccount = await tradeSettings.stripeAccount(store.id);
 	return {
+		stripeAccount,
 		profile: { ...profile, name: store.name },
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
 		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays),
@@ -36,6 +38,28 @@ function refuseTrade(form: FormData, errors: Record<string, string[]>) {
 }
 
 export const actions: Actions = {
+	/** The store's own Stripe account, where its card payments, refunds and payouts live. */
+	stripe: async ({ request }) => {
+		const { store } = requireRole('owner');
+		const form = await request.formData();
+		const account = String(form.get('account') ?? '').trim();
+		if (account && !/^acct_[A-Za-z0-9]{6,}$/.test(account)) {
+			return fail(400, {
+				stripe: { value: account, error: 'A Stripe account id looks like acct_1A2b3C4d5E6f' }
+			});
+		}
+		try {
+			await tradeSettings.saveStripeAccount(store.id, account || null);
+		} catch (e) {
+			if ((e as { cause?: { code?: string } }).cause?.code === '23505') {
+				return fail(409, {
+					stripe: { value: account, error: 'That Stripe account is connected to another store.' }
+				});
+			}
+			throw e;
+		}
+		return { stripeSaved: true };
+	},
 	profile: async ({ request }) => {
 		const { store } = requireRole('owner');
 		const parsed = await parseForm(request, storeProfileSchema);

@@ -1,4 +1,7 @@
 import { resolveLink } from '$lib/server/customer-page';
+import * as payments from '$lib/server/db/queries/payments';
+import { stripeAccount } from '$lib/server/db/queries/settings';
+import { startCheckout, syncSession } from '$lib/server/payments';
 import * as customers from '$lib/server/db/queries/customers';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
@@ -13,7 +16,7 @@ import { customerAnswerMail } from '$lib/server/mail/templates';
 import { jobLabel } from '$lib/jobs/status';
 import { quoteView } from '$lib/quote-view';
 import { requiredText } from '$lib/schemas/fields';
-import { fail } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
@@ -30,17 +33,64 @@ const changesSchema = z.object({
 	note: requiredText('Tell the store what to change', 2000)
 });
 
-export const load: PageServerLoad = async ({ params, setHeaders }) => {
-	setHeaders({ 'cache-control': 'private, no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
+	// same-origin: the link's token never goes to another site in a Referer, while this page's own
+	// form posts still carry their Origin (no-referrer would send Origin: null, refused as cross-site).
+	setHeaders({ 'cache-control': 'private, no-store', 'referrer-policy': 'same-origin' });
 	const { store, job } = await resolveLink(params.token);
-	const [profile, quote, customer, site, trade] = await Promise.all([
+	// Back from the checkout: read the payment's state from Stripe now rather than wait for the
+	// webhook, which may come later (or, if the app was down, never).
+	const paid = url.searchParams.get('paid');
+	if (paid && /^cs_[\w]+$/.test(paid)) {
+		try {
+			await syncSession(store.id, paid);
+		} catch (e) {
+			console.error('Could not read the checkout back from Stripe', e);
+		}
+	}
+	const [profile, quote, customer, site, trade, money, account] = await Promise.all([
 		readProfile(store.id),
 		quotes.forCustomer(store.id, job.id),
 		customers.read(store.id, job.customerId),
 		job.siteId ? sites.read(store.id, job.siteId) : Promise.resolve(undefined),
-		tradeSettings.read(store.id)
+		tradeSettings.read(store.id),
+		payments.moneyFor(store.id, job.id),
+		stripeAccount(store.id)
 	]);
+	const lastCard = [...money.payments].reverse().find((p) => p.method === 'card');
 	return {
+		money: {
+			currency: money.currency,
+			depositDueCents: money.ledger.depositDueCents,
+			balanceDueCents: money.ledger.balanceDueCents,
+			netPaidCents: money.ledger.netPaidCents,
+			canPayByCard: Boolean(account),
+			payable:
+				job.status === 'accepted' && money.ledger.depositDueCents > 0
+					? ('deposit' as const)
+					: job.status === 'completed' && money.ledger.balanceDueCents > 0
+						? ('balance' as const)
+						: null,
+			paid: money.payments
+				.filter((p) => p.status === 'succeeded' || p.status === 'refunded')
+				.map((p) => ({
+					id: p.id,
+					purpose: p.purpose,
+					amountCents: p.amountCents,
+					refundedCents: p.refundedCents,
+					at: p.succeededAt
+				})),
+			declined: lastCard?.status === 'pending' ? lastCard.failureMessage : null,
+			justPaid: Boolean(
+				paid &&
+				money.payments.some((p) => p.stripeCheckoutSessionId === paid && p.status !== 'pending')
+			),
+			confirming: Boolean(
+				paid &&
+				money.payments.some((p) => p.stripeCheckoutSessionId === paid && p.status === 'pending')
+			),
+			cancelled: url.searchParams.has('cancelled')
+		},
 		store: {
 			name: store.name,
 			address: profile.address,
@@ -107,7 +157,31 @@ const REFUSED = {
 	expired: 'This quote has expired. Ask the store for an up-to-date one.'
 } as const;
 
+const CHECKOUT_REFUSED = {
+	no_account: 'This store does not take card payments online. Call the store to pay.',
+	nothing_due: 'Nothing is due right now.',
+	not_payable: 'There is nothing to pay yet.',
+	not_found: 'This link is not valid.',
+	stripe: 'The card payment page could not be opened. Try again in a minute.'
+} as const;
+
 export const actions: Actions = {
+	pay: async ({ params, request }) => {
+		const { store, job } = await resolveLink(params.token);
+		const form = await request.formData();
+		const purpose = form.get('purpose') === 'balance' ? 'balance' : 'deposit';
+		const started = await startCheckout({
+			storeId: store.id,
+			jobId: job.id,
+			purpose,
+			linkToken: params.token
+		});
+		if (!started.ok)
+			return fail(started.reason === 'stripe' ? 502 : 409, {
+				payError: CHECKOUT_REFUSED[started.reason]
+			});
+		redirect(303, started.url);
+	},
 	accept: async ({ params, request, getClientAddress }) => {
 		const { store, job } = await resolveLink(params.token);
 		const parsed = await parseForm(request, acceptSchema);

@@ -58,3 +58,34 @@ export async function save(storeId: string, input: StoreTradeSettings) {
 			});
 	});
 }
+
+/** The store's own Stripe account (`acct_…`), or null when card payments are not set up. */
+export async function stripeAccount(storeId: string): Promise<string | null> {
+	return inStore(storeId, async (tx) => {
+		const [row] = await tx
+			.select({ account: storeSettings.stripeAccountId })
+			.from(storeSettings)
+			.where(eq(storeSettings.organizationId, storeId));
+		return row?.account ?? null;
+	});
+}
+
+/** Connects (or, with null, disconnects) the store's Stripe account. */
+export async function saveStripeAccount(storeId: string, account: string | null) {
+	const current = await read(storeId);
+	return inStore(storeId, async (tx) => {
+		await tx
+			.insert(storeSettings)
+			.values({
+				organizationId: storeId,
+				settings: current.settings,
+				currency: current.currency,
+				quoteValidDays: current.quoteValidDays,
+				stripeAccountId: account
+			})
+			.onConflictDoUpdate({
+				target: storeSettings.organizationId,
+				set: { stripeAccountId: account, updatedAt: new Date() }
+			});
+	});
+}

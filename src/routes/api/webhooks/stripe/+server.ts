@@ -1,3 +1,4 @@
+import { handleEvent } from '$lib/server/payments';
 import { verifiedEvent } from '$lib/server/stripe';
 import { json } from '@sveltejs/kit';
 import Stripe from 'stripe';
@@ -18,8 +19,8 @@ export const POST: RequestHandler = async ({ request }) => {
 		}
 		throw e;
 	}
-	// Here the webhook ledger (issue 5) will record the event: once per event.id (Stripe delivers
-	// at least once and in no set order), in the store found from the object's metadata.store_id,
-	// before answering 200. Until it exists, a verified event is acknowledged and nothing is stored.
-	return json({ received: true, id: event.id, type: event.type });
+	// Once per event id, in the store its object names; an error here is a 500, so Stripe
+	// delivers the event again and nothing is lost.
+	const outcome = await handleEvent(event);
+	return json({ received: true, id: event.id, type: event.type, outcome });
 };

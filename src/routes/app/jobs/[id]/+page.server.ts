@@ -1,4 +1,5 @@
 import * as jobs from '$lib/server/db/queries/jobs';
+import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
 import { parseForm } from '$lib/server/forms';
 import { measureSummary } from '$lib/server/measure-summary';
@@ -16,10 +17,11 @@ export const load: PageServerLoad = async ({ params }) => {
 	if (!job) error(404, 'Not found');
 	const canSchedule = can(role, { job: ['schedule'] });
 	const canAssign = can(role, { job: ['assign'] });
-	const [history, installers, quoteVersions] = await Promise.all([
+	const [history, installers, quoteVersions, money] = await Promise.all([
 		jobs.events(store.id, job.id),
 		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([]),
-		can(role, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([])
+		can(role, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([]),
+		can(role, { payment: ['read'] }) ? payments.moneyFor(store.id, job.id) : Promise.resolve(null)
 	]);
 	const measure = await measureSummary(store.id, job.id);
 	return {
@@ -27,6 +29,11 @@ export const load: PageServerLoad = async ({ params }) => {
 		history,
 		installers,
 		latestQuote: quoteVersions[0] ?? null,
+		money: money && {
+			currency: money.currency,
+			ledger: money.ledger,
+			count: money.payments.length
+		},
 		moves: canSchedule ? nextStatuses(job.status) : [],
 		canAssign,
 		site: await loadJobSite(store.id, job, role),

@@ -15,23 +15,26 @@ export const POST: RequestHandler = endpoint(async ({ request }) => {
 	requireStripeFake();
 	const body = await readJson(request, testSessionSchema);
 	try {
-		const session = await stripe.checkout.sessions.create({
-			mode: 'payment',
-			line_items: [
-				{
-					price_data: {
-						currency: body.currency,
-						unit_amount: body.amount,
-						product_data: { name: body.name }
-					},
-					quantity: 1
-				}
-			],
-			customer_email: body.customer_email,
-			success_url: body.success_url ?? `${config.origin}/dev/stripe?paid={CHECKOUT_SESSION_ID}`,
-			cancel_url: body.cancel_url ?? `${config.origin}/dev/stripe`,
-			metadata: body.metadata
-		});
+		const session = await stripe.checkout.sessions.create(
+			{
+				mode: 'payment',
+				line_items: [
+					{
+						price_data: {
+							currency: body.currency,
+							unit_amount: body.amount,
+							product_data: { name: body.name }
+						},
+						quantity: 1
+					}
+				],
+				customer_email: body.customer_email,
+				success_url: body.success_url ?? `${config.origin}/dev/stripe?paid={CHECKOUT_SESSION_ID}`,
+				cancel_url: body.cancel_url ?? `${config.origin}/dev/stripe`,
+				metadata: body.metadata
+			},
+			body.account ? { stripeAccount: body.account } : undefined
+		);
 		return json({ id: session.id, url: session.url });
 	} catch (e) {
 		if (e instanceof Stripe.errors.StripeInvalidRequestError) {

@@ -10,6 +10,6 @@ import type { RequestHandler } from './$types';
  */
 export const POST: RequestHandler = endpoint(async ({ request }) => {
 	const fake = requireStripeFake();
-	const { currency } = await readJson(request, payoutSchema);
-	return json({ data: await fake.payout(currency) });
+	const { currency, account } = await readJson(request, payoutSchema);
+	return json({ data: await fake.payout(currency, account) });
 });

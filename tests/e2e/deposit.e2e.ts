@@ -1,0 +1,185 @@
+// Issue 5: the customer pays the deposit on the Stripe fake's checkout page; a declined card
+// leaves the job as it was; the paid one makes it sold, with a receipt in the outbox; the manager's
+// reconciliation flags every kind of mismatch.
+import { expect, test, type Page } from '@playwright/test';
+import pg from 'pg';
+import { demoEmail, lastMailLink, signIn } from './helpers';
+
+const ACCOUNT = 'acct_tallowcreekdemo1';
+
+async function customerLinkOf(page: Page, title: string) {
+	await page.goto(`/app/jobs?q=${encodeURIComponent(title)}`);
+	await page.getByRole('link', { name: new RegExp(title) }).click();
+	await page.getByRole('link', { name: 'Open the quote' }).click();
+	return page.getByLabel("The customer's link").inputValue();
+}
+
+async function payOnCheckout(customer: Page, card: 'Succeeds' | 'Declined') {
+	await expect(customer).toHaveURL(/\/dev\/checkout\/cs_\w+/);
+	await customer.getByRole('radio', { name: new RegExp(card) }).check();
+	await customer.getByRole('button', { name: /^Pay / }).click();
+}
+
+test('a declined card leaves the job accepted; the succeeding card makes it sold, with a receipt', async ({
+	page,
+	browser
+}) => {
+	await signIn(page, demoEmail('sales'));
+	const link = await customerLinkOf(page, 'Living room oak');
+	const jobUrl = page.url().replace(/\/quote.*$/, '');
+	const customer = await browser.newPage({ viewport: { width: 390, height: 844 } });
+	await customer.goto(link);
+	await expect(
+		customer.getByRole('heading', { name: 'Deposit to book the install' })
+	).toBeVisible();
+
+	await customer.getByRole('button', { name: 'Pay the deposit by card' }).click();
+	await customer.waitForURL(/\/dev\/checkout\/cs_\w+/);
+	const session = /cs_\w+/.exec(customer.url())![0];
+	await payOnCheckout(customer, 'Declined');
+	await expect(customer.getByRole('alert')).toContainText('Your card was declined.');
+	await customer.goto(link);
+	await expect(customer.getByText('Your card was declined').first()).toBeVisible();
+	await page.goto(jobUrl);
+	await expect(page.getByText('Accepted', { exact: true }).first()).toBeVisible();
+
+	// Trying again reaches the same checkout: one session, however many tries or tabs.
+	await customer.getByRole('button', { name: 'Pay the deposit by card' }).click();
+	await customer.waitForURL(/\/dev\/checkout\/cs_\w+/);
+	expect(customer.url()).toContain(session);
+	await payOnCheckout(customer, 'Succeeds');
+	await expect(customer).toHaveURL(new RegExp(`\\?paid=${session}`));
+	await expect(customer.getByText('Payment received')).toBeVisible();
+	await expect(customer.getByRole('heading', { name: 'Paid so far' })).toBeVisible();
+
+	await page.goto(jobUrl);
+	await expect(page.getByText('Sold', { exact: true }).first()).toBeVisible();
+	await expect(page.getByText('Accepted → Sold')).toBeVisible();
+	await page.getByRole('link', { name: 'Open the payments' }).click();
+	await expect(page.getByText('Deposit · Card (online)')).toBeVisible();
+	await expect(page.getByRole('cell', { name: 'Paid', exact: true })).toBeVisible();
+
+	const receipt = await browser.newPage();
+	await lastMailLink(receipt, 'hana.ruskin@example.com');
+	await expect(
+		receipt.getByRole('listitem').filter({ hasText: 'To hana.ruskin@example.com' }).first()
+	).toContainText('Receipt from Tallow Creek Floors');
+	await expect(receipt.getByText(/paid the deposit for J-\d+/).first()).toBeVisible();
+});
+
+test('the manager records a cheque and refunds part of it, never more than was paid', async ({
+	page
+}) => {
+	await signIn(page, demoEmail('manager'));
+	await page.goto('/app/jobs?q=Laundry sheet vinyl');
+	await page.getByRole('link', { name: /Laundry sheet vinyl/ }).click();
+	await page.getByRole('link', { name: 'Open the payments' }).click();
+	const due = await page.getByTestId('ledger-balance-due').innerText();
+	await page.getByLabel('For').selectOption('balance');
+	await page.getByLabel('Paid by').selectOption('cheque');
+	await page.getByLabel('Amount ($)').last().fill('25.00');
+	await page.getByRole('button', { name: 'Record the payment' }).click();
+	await expect(
+		page.getByText('Write down the cheque number, slip or transfer reference')
+	).toBeVisible();
+	await expect(page.getByLabel('Amount ($)').last()).toHaveValue('25.00');
+	await page.getByLabel('Reference').fill('Cheque 1043');
+	await page.getByRole('button', { name: 'Record the payment' }).click();
+	await expect(page.getByText('Payment recorded.')).toBeVisible();
+	expect(await page.getByTestId('ledger-balance-due').innerText()).not.toBe(due);
+
+	const cheque = page.locator('details').filter({ hasText: /\$25\.00 left/ });
+	await cheque.locator('summary').click();
+	await cheque.getByLabel('Amount ($)').fill('30');
+	await cheque.getByRole('button', { name: 'Record the refund' }).click();
+	await expect(page.getByText('More than is left on this payment.')).toBeVisible();
+	await cheque.getByLabel('Amount ($)').fill('10');
+	await cheque.getByRole('button', { name: 'Record the refund' }).click();
+	await expect(page.getByText('Refund made.')).toBeVisible();
+	await expect(page.getByText('−$10.00 refunded')).toBeVisible();
+});
+
+test('the reconciliation flags a mismatch of each kind, and exports the period', async ({
+	page,
+	request,
+	baseURL,
+	browser
+}) => {
+	// Make one mismatch of each kind beside the deposit that matches (paid in the test above).
+	const loose = await request.post('/dev/stripe/checkout-sessions', {
+		headers: { 'content-type': 'application/json', origin: baseURL! },
+		data: {
+			amount: 12_345,
+			name: 'Counter sale',
+			account: ACCOUNT,
+			customer_email: 'walk-in@example.com'
+		}
+	});
+	expect(loose.status()).toBe(200);
+	await page.goto((await loose.json()).url);
+	await payOnCheckout(page, 'Succeeds');
+	await page.waitForURL(/\/dev\/stripe\?paid=cs_/);
+
+	const db = new pg.Client({ connectionString: process.env.DATABASE_OWNER_URL });
+	await db.connect();
+	try {
+		await db.query('begin');
+		const { rows } = await db.query(
+			`select id from organization where slug = 'tallow-creek-floors'`
+		);
+		await db.query(`select set_config('app.store_id', $1, true)`, [rows[0].id]);
+		// A card payment in the ledger that Stripe never saw, and one whose amount was changed.
+		const paid = await db.query(
+			`select job_id, id from payment where method = 'card' and status = 'succeeded' limit 1`
+		);
+		await db.query(
+			`insert into payment (id, organization_id, job_id, purpose, method, status, currency, amount_cents, stripe_charge_id, succeeded_at)
+			 values (gen_random_uuid(), $1, $2, 'balance', 'card', 'succeeded', 'USD', 7000, 'ch_not_in_stripe', now())`,
+			[rows[0].id, paid.rows[0].job_id]
+		);
+		await db.query(`update payment set amount_cents = amount_cents - 500 where id = $1`, [
+			paid.rows[0].id
+		]);
+		await db.query('commit');
+	} finally {
+		await db.end();
+	}
+	expect(
+		(
+			await request.post('/dev/stripe/payouts', {
+				headers: { 'content-type': 'application/json', origin: baseURL! },
+				data: { account: ACCOUNT }
+			})
+		).status()
+	).toBe(200);
+
+	await signIn(page, demoEmail('manager'));
+	await page.goto('/app/payments');
+	await expect(page.getByRole('heading', { name: 'Payments', level: 1 })).toBeVisible();
+	await expect(page.getByTestId('count-amount_differs')).toHaveText('1');
+	await expect(page.getByTestId('count-stripe_only')).toHaveText('1');
+	await expect(page.getByTestId('count-ledger_only')).toHaveText('1');
+	await expect(page.getByText('No ledger payment for this charge')).toBeVisible();
+	await expect(page.getByText(/Stripe has no such charge in the period/)).toBeVisible();
+	await expect(page.getByText(/Stripe charged \$[\d,.]+, the ledger has \$[\d,.]+/)).toBeVisible();
+	await expect(page.getByRole('region', { name: 'Payouts' }).getByRole('row')).toHaveCount(2);
+
+	await page.getByTestId('count-stripe_only').click();
+	await expect(page.getByText('No ledger payment for this charge')).toBeVisible();
+	await expect(page.getByText(/Stripe has no such charge/)).toHaveCount(0);
+
+	const csv = await page.request.get('/app/payments/export.csv');
+	expect(csv.headers()['content-type']).toContain('text/csv');
+	const text = await csv.text();
+	expect(text.split('\n')[0]).toBe(
+		'kind,status,date,job,stripe_id,payment_id,currency,stripe_amount,ledger_amount,stripe_fee,ledger_fee,note'
+	);
+	expect(text).toContain('stripe_only');
+	expect(text).toContain('123.45');
+	expect(text).toMatch(/^payout,paid,/m);
+
+	// A salesperson may not reconcile.
+	const sales = await browser.newPage();
+	await signIn(sales, demoEmail('sales'));
+	expect((await sales.goto('/app/payments'))?.status()).toBe(403);
+});
