@@ -77,6 +77,7 @@ async function main() {
 		for (const p of demo.people)
 			console.log(`    ${p.role.padEnd(10)} ${p.email.padEnd(32)} ${p.name}`);
 		console.log(`\n  E-mail sent by the app: ${origin}/dev/outbox`);
+		console.log(`  Test card payments (the local Stripe): ${origin}/dev/stripe`);
 		console.log('  Ctrl-C stops the server and PostgreSQL.\n');
 	} catch (e) {
 		stopDatabase();
