@@ -9,6 +9,7 @@ import * as jobs from './db/queries/jobs';
 import {
 	afterSuccess,
 	lockForRefund,
+	firstSight,
 	moneyIn,
 	type Payment,
 	type RefundReason
@@ -489,17 +490,12 @@ export async function handleEvent(
 		if (!found) outcome = 'not in the ledger';
 	}
 	await inStore(storeId, (tx) =>
-		tx
-			.insert(stripeEvent)
-			.values({
-				id: event.id,
-				organizationId: storeId,
-				type: event.type,
-				objectId: object.id,
-				stripeCreated: new Date(event.created * 1000),
-				outcome
-			})
-			.onConflictDoNothing()
+		firstSight(
+			tx,
+			storeId,
+			{ id: event.id, type: event.type, objectId: object.id, created: event.created },
+			outcome
+		)
 	);
 	return 'handled';
 }

@@ -15,16 +15,18 @@ export type SaveResult =
 	| { ok: false; reason: 'not_found' }
 	| { ok: false; reason: 'conflict'; current: StoredMeasure };
 
+const storedColumns = {
+	draft: measure.draft,
+	version: measure.version,
+	updatedAt: measure.updatedAt,
+	updatedByName: user.name
+};
+
 /** The job's measure, or undefined when nothing was measured yet (or the job is not the store's). */
 export async function read(storeId: string, jobId: string): Promise<StoredMeasure | undefined> {
 	return inStore(storeId, async (tx) => {
 		const [row] = await tx
-			.select({
-				draft: measure.draft,
-				version: measure.version,
-				updatedAt: measure.updatedAt,
-				updatedByName: user.name
-			})
+			.select(storedColumns)
 			.from(measure)
 			.leftJoin(user, eq(user.id, measure.updatedBy))
 			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
@@ -52,12 +54,7 @@ export async function save(
 			.for('update');
 		if (!owner) return { ok: false, reason: 'not_found' };
 		const [current] = await tx
-			.select({
-				draft: measure.draft,
-				version: measure.version,
-				updatedAt: measure.updatedAt,
-				updatedByName: user.name
-			})
+			.select(storedColumns)
 			.from(measure)
 			.leftJoin(user, eq(user.id, measure.updatedBy))
 			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));

@@ -255,7 +255,8 @@ export async function refundInStore(
 export async function firstSight(
 	tx: Tx,
 	storeId: string,
-	event: { id: string; type: string; objectId: string | null; created: number }
+	event: { id: string; type: string; objectId: string | null; created: number },
+	outcome = ''
 ): Promise<boolean> {
 	const inserted = await tx
 		.insert(stripeEvent)
@@ -264,7 +265,8 @@ export async function firstSight(
 			organizationId: storeId,
 			type: event.type,
 			objectId: event.objectId,
-			stripeCreated: new Date(event.created * 1000)
+			stripeCreated: new Date(event.created * 1000),
+			outcome
 		})
 		.onConflictDoNothing()
 		.returning({ id: stripeEvent.id });
