@@ -10,8 +10,21 @@ export const customerSchema = z.object({
 
 export type CustomerInput = z.infer<typeof customerSchema>;
 
-/** A partial change through the API: only the fields sent are changed. */
-export const customerPatchSchema = customerSchema.partial();
+/**
+ * A partial change through the API: only the fields sent are changed. Built without defaults
+ * (a default would fill a field left out and overwrite what was saved).
+ */
+export const customerPatchSchema = z
+	.object({
+		name: requiredText("Enter the customer's name", 120),
+		email: optionalEmail,
+		phone,
+		notes: z.string().trim().max(2000, 'Keep notes under 2000 characters')
+	})
+	.partial()
+	.transform((patch) =>
+		Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined))
+	);
 
 export const CUSTOMER_SORTS = ['name', 'created', 'updated'] as const;
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { safeRedirect, signUpSchema } from './auth';
-import { customerSchema } from './customer';
+import { customerPatchSchema, customerSchema } from './customer';
 import { inviteSchema } from './store';
 
 /** The first message per field: the one the form shows. */
@@ -60,6 +60,13 @@ describe('customer', () => {
 			name: "Enter the customer's name",
 			phone: 'Enter a phone number: digits, spaces, + ( ) - only'
 		});
+	});
+});
+
+describe('customer changes through the API', () => {
+	it('change only the fields sent, so a name change keeps the notes', () => {
+		expect(customerPatchSchema.parse({ name: 'Greta O.' })).toEqual({ name: 'Greta O.' });
+		expect(customerPatchSchema.parse({ notes: '' })).toEqual({ notes: '' });
 	});
 });
 
