@@ -7,22 +7,21 @@ const moneyFormats = new Map<string, Intl.NumberFormat>();
  * minor digits, so zero-decimal currencies (JPY) show whole units: 1500 JPY is ¥1,500.
  */
 export function formatMoney(minor: number, currency = 'USD'): string {
-	let format = moneyFormats.get(currency);
-	if (!format) {
-		format = new Intl.NumberFormat('en-US', { style: 'currency', currency });
-		moneyFormats.set(currency, format);
-	}
-	return format.format(minor / 10 ** minorDigits(currency));
+	return moneyFormat(currency).format(minor / 10 ** minorDigits(currency));
 }
 
 /** How many decimals a currency's amounts have (USD 2, JPY 0), as Intl knows them. */
 export function minorDigits(currency: string): number {
+	return moneyFormat(currency).resolvedOptions().maximumFractionDigits ?? 2;
+}
+
+function moneyFormat(currency: string): Intl.NumberFormat {
 	let format = moneyFormats.get(currency);
 	if (!format) {
 		format = new Intl.NumberFormat('en-US', { style: 'currency', currency });
 		moneyFormats.set(currency, format);
 	}
-	return format.resolvedOptions().maximumFractionDigits ?? 2;
+	return format;
 }
 
 /** An amount in the smallest unit as plain decimal text for files: 123456 USD → `1234.56`, 1500 JPY → `1500`. */

@@ -8,6 +8,15 @@ import {
 	type Totals
 } from '$lib/estimating';
 
+/** What each quote status means, in words for the store's staff. */
+export const QUOTE_STATUS_LABELS = {
+	draft: 'Draft: not sent',
+	sent: 'Sent to the customer',
+	accepted: 'Accepted by the customer',
+	changes_requested: 'Customer asked for changes',
+	superseded: 'Replaced by a newer version'
+} as const satisfies Record<string, string>;
+
 /** A quote as the customer may see it, with the store-only figures when the viewer may. */
 export interface QuoteViewData {
 	currency: string;

@@ -21,7 +21,7 @@ import { inStore } from './db/tenant';
 import { mailer } from './mail';
 import { paidNoticeMail, receiptMail } from './mail/templates';
 import { customerLink } from './quote-service';
-import { stripe as appStripe } from './stripe';
+import { stripe as appStripe, idOf } from './stripe';
 
 /**
  * Card payments through Stripe Checkout in the store's own Stripe account. The ledger follows
@@ -167,9 +167,6 @@ export async function startCheckout(
 	);
 	return { ok: true, url: session.url ?? base };
 }
-
-const idOf = (v: string | { id: string } | null | undefined) =>
-	typeof v === 'string' ? v : (v?.id ?? null);
 
 export type SyncOutcome = 'succeeded' | 'failed' | 'pending' | 'unchanged' | 'unknown';
 

@@ -97,3 +97,14 @@ export async function pdfOf(store: Store, quote: quotes.Quote) {
 		})
 	});
 }
+
+/** A quote PDF as the answer to a request: shown in the browser, never cached by others. */
+export function pdfResponse(bytes: Uint8Array, filename: string) {
+	return new Response(Buffer.from(bytes), {
+		headers: {
+			'content-type': 'application/pdf',
+			'content-disposition': `inline; filename="${filename}"`,
+			'cache-control': 'private, no-store'
+		}
+	});
+}

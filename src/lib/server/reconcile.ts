@@ -5,7 +5,7 @@ import { jobLabel } from '../jobs/status';
 import { read as readSettings, stripeAccount } from './db/queries/settings';
 import { job, payment, refund } from './db/schema';
 import { inStore } from './db/tenant';
-import { stripe as appStripe } from './stripe';
+import { stripe as appStripe, idOf } from './stripe';
 
 /**
  * The manager's week-end check: what Stripe says happened in the store's account over a period
@@ -65,8 +65,6 @@ async function all<T>(list: Stripe.ApiListPromise<T>, max = 10_000): Promise<T[]
 
 const seconds = (d: Date) => Math.floor(d.getTime() / 1000);
 const iso = (unix: number) => new Date(unix * 1000).toISOString();
-const idOf = (v: string | { id: string } | null | undefined) =>
-	typeof v === 'string' ? v : (v?.id ?? null);
 
 /** Matches the store's Stripe activity between two dates (inclusive) with its ledger. */
 export async function reconcile(

@@ -37,3 +37,8 @@ export async function verifiedEvent(request: Request): Promise<Stripe.Event> {
 		WEBHOOK_TOLERANCE_SECONDS
 	);
 }
+
+/** The id of a Stripe field that is an id or, when expanded, the object itself. */
+export function idOf(value: string | { id: string } | null | undefined): string | null {
+	return typeof value === 'string' ? value : (value?.id ?? null);
+}

@@ -1,6 +1,6 @@
 import { resolveLink } from '$lib/server/customer-page';
 import * as quotes from '$lib/server/db/queries/quotes';
-import { pdfOf } from '$lib/server/quote-service';
+import { pdfOf, pdfResponse } from '$lib/server/quote-service';
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 
@@ -10,11 +10,5 @@ export const GET: RequestHandler = async ({ params }) => {
 	const quote = await quotes.forCustomer(store.id, job.id);
 	if (!quote) error(404, 'There is no quote to show yet.');
 	const bytes = await pdfOf(store, quote);
-	return new Response(Buffer.from(bytes), {
-		headers: {
-			'content-type': 'application/pdf',
-			'content-disposition': `inline; filename="quote-${quote.version}.pdf"`,
-			'cache-control': 'private, no-store'
-		}
-	});
+	return pdfResponse(bytes, `quote-${quote.version}.pdf`);
 };

@@ -1,6 +1,6 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
-import { refuse } from '$lib/server/forms';
+import { fieldErrors, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { refundCard } from '$lib/server/payments';
@@ -50,9 +50,7 @@ export const actions: Actions = {
 		const { form, fields } = await readForm(request);
 		const parsed = recordSchema.safeParse(fields);
 		const amount = parseMoney(fields.amount ?? '');
-		const errors: Record<string, string[]> = {};
-		if (!parsed.success)
-			for (const i of parsed.error.issues) (errors[String(i.path[0])] ??= []).push(i.message);
+		const errors = parsed.success ? {} : fieldErrors(parsed.error);
 		if (!amount.ok) errors.amount = [amount.message];
 		else if (amount.cents === 0) errors.amount = ['Enter the amount received'];
 		if (parsed.success && parsed.data.method !== 'cash' && !parsed.data.reference) {
@@ -81,9 +79,7 @@ export const actions: Actions = {
 		const { fields } = await readForm(request);
 		const parsed = refundSchema.safeParse(fields);
 		const amount = parseMoney(fields.amount ?? '');
-		const errors: Record<string, string[]> = {};
-		if (!parsed.success)
-			for (const i of parsed.error.issues) (errors[String(i.path[0])] ??= []).push(i.message);
+		const errors = parsed.success ? {} : fieldErrors(parsed.error);
 		if (!amount.ok) errors.amount = [amount.message];
 		else if (amount.cents === 0) errors.amount = ['Enter the amount to give back'];
 		const refundFor = fields.paymentId ?? '';

@@ -1,7 +1,7 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as quotes from '$lib/server/db/queries/quotes';
 import { requirePermission } from '$lib/server/guards';
-import { pdfOf } from '$lib/server/quote-service';
+import { pdfOf, pdfResponse } from '$lib/server/quote-service';
 import { jobLabel } from '$lib/jobs/status';
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
@@ -17,11 +17,5 @@ export const GET: RequestHandler = async ({ params }) => {
 			: undefined;
 	if (!job || !quote) error(404, 'Not found');
 	const bytes = await pdfOf(store, quote);
-	return new Response(Buffer.from(bytes), {
-		headers: {
-			'content-type': 'application/pdf',
-			'content-disposition': `inline; filename="${jobLabel(job.number)}-quote-v${quote.version}.pdf"`,
-			'cache-control': 'private, no-store'
-		}
-	});
+	return pdfResponse(bytes, `${jobLabel(job.number)}-quote-v${quote.version}.pdf`);
 };
