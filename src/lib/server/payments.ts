@@ -3,7 +3,6 @@ import type Stripe from 'stripe';
 import { formatMoney } from '../format';
 import { jobLabel } from '../jobs/status';
 import { config } from './config';
-import { db } from './db';
 import * as customers from './db/queries/customers';
 import * as jobs from './db/queries/jobs';
 import {
@@ -15,8 +14,8 @@ import {
 	type RefundReason
 } from './db/queries/payments';
 import { stripeAccount } from './db/queries/settings';
-import { readProfile, readStore } from './db/queries/stores';
-import { payment, refund, stripeEvent, user, job as jobTable } from './db/schema';
+import { emailOf, readProfile, readStore } from './db/queries/stores';
+import { payment, refund, stripeEvent, job as jobTable } from './db/schema';
 import { inStore } from './db/tenant';
 import { mailer } from './mail';
 import { paidNoticeMail, receiptMail } from './mail/templates';
@@ -181,7 +180,20 @@ export async function syncSession(
 	client: Stripe = appStripe
 ): Promise<SyncOutcome> {
 	const account = await stripeAccount(storeId);
-	if (!account) return 'unknown';
+	return account ? syncSessionIn({ storeId, account }, sessionId, client) : 'unknown';
+}
+
+/** A store and its Stripe account, looked up once by whoever syncs several things. */
+interface StoreAccount {
+	storeId: string;
+	account: string;
+}
+
+async function syncSessionIn(
+	{ storeId, account }: StoreAccount,
+	sessionId: string,
+	client: Stripe
+): Promise<SyncOutcome> {
 	const session = await client.checkout.sessions.retrieve(
 		sessionId,
 		{ expand: ['payment_intent.latest_charge.balance_transaction'] },
@@ -264,6 +276,14 @@ export async function syncSession(
  */
 export async function syncRefunds(storeId: string, paymentId: string, client: Stripe = appStripe) {
 	const account = await stripeAccount(storeId);
+	if (account) await syncRefundsIn({ storeId, account }, paymentId, client);
+}
+
+async function syncRefundsIn(
+	{ storeId, account }: StoreAccount,
+	paymentId: string,
+	client: Stripe
+) {
 	const p = await inStore(storeId, async (tx) => {
 		const [row] = await tx
 			.select()
@@ -271,7 +291,7 @@ export async function syncRefunds(storeId: string, paymentId: string, client: St
 			.where(and(eq(payment.organizationId, storeId), eq(payment.id, paymentId)));
 		return row;
 	});
-	if (!account || !p?.stripeChargeId) return;
+	if (!p?.stripeChargeId) return;
 	const charge = await client.charges.retrieve(
 		p.stripeChargeId,
 		{ expand: ['refunds'] },
@@ -404,20 +424,20 @@ export async function refundCard(
 		);
 		return { ok: false, reason: 'stripe', message };
 	}
-	await syncRefunds(storeId, paymentId, client);
+	await syncRefundsIn({ storeId, account }, paymentId, client);
 	return { ok: true };
 }
 
 export type EventOutcome = 'handled' | 'duplicate' | 'ignored';
 
 /** The store an event's object names, if the store's Stripe account is the one it came from. */
-async function storeOfEvent(event: Stripe.Event): Promise<string | null> {
+async function storeOfEvent(event: Stripe.Event): Promise<StoreAccount | null> {
 	const object = event.data.object as { metadata?: Record<string, string> | null };
 	const storeId = object.metadata?.store_id;
 	if (!storeId || !(await readStore(storeId))) return null;
 	const account = await stripeAccount(storeId);
 	if (!account || (event.account && event.account !== account)) return null;
-	return storeId;
+	return { storeId, account };
 }
 
 async function seen(storeId: string, eventId: string) {
@@ -457,8 +477,9 @@ export async function handleEvent(
 	event: Stripe.Event,
 	client: Stripe = appStripe
 ): Promise<EventOutcome> {
-	const storeId = await storeOfEvent(event);
-	if (!storeId) return 'ignored';
+	const store = await storeOfEvent(event);
+	if (!store) return 'ignored';
+	const { storeId } = store;
 	if (await seen(storeId, event.id)) return 'duplicate';
 	const object = event.data.object as {
 		id: string;
@@ -468,7 +489,7 @@ export async function handleEvent(
 	};
 	let outcome = 'no change';
 	if (object.object === 'checkout.session') {
-		outcome = await syncSession(storeId, object.id, client);
+		outcome = await syncSessionIn(store, object.id, client);
 	} else if (
 		object.object === 'payment_intent' ||
 		object.object === 'charge' ||
@@ -479,9 +500,9 @@ export async function handleEvent(
 			intent: object.object === 'payment_intent' ? object.id : idOf(object.payment_intent)
 		});
 		if (found?.stripeCheckoutSessionId)
-			outcome = await syncSession(storeId, found.stripeCheckoutSessionId, client);
+			outcome = await syncSessionIn(store, found.stripeCheckoutSessionId, client);
 		if (found && (object.object === 'charge' || object.object === 'refund')) {
-			await syncRefunds(storeId, found.id, client);
+			await syncRefundsIn(store, found.id, client);
 			outcome = `${outcome}; refunds synced`;
 		}
 		if (!found) outcome = 'not in the ledger';
@@ -511,9 +532,12 @@ export async function catchUp(storeId: string, client: Stripe = appStripe) {
 				)
 			)
 	);
+	const account = await stripeAccount(storeId);
 	const outcomes: SyncOutcome[] = [];
-	for (const p of pending)
-		if (p.session) outcomes.push(await syncSession(storeId, p.session, client));
+	if (!account) return outcomes;
+	for (const p of pending) {
+		if (p.session) outcomes.push(await syncSessionIn({ storeId, account }, p.session, client));
+	}
 	return outcomes;
 }
 
@@ -548,25 +572,20 @@ async function announce(storeId: string, paid: Payment) {
 				})
 			);
 		}
-		if (job.salespersonId) {
-			const [seller] = await db
-				.select({ email: user.email })
-				.from(user)
-				.where(eq(user.id, job.salespersonId));
-			if (seller) {
-				await mailer(
-					paidNoticeMail({
-						to: seller.email,
-						storeName: store.name,
-						customerName: job.customerName,
-						jobLabel: jobLabel(job.number),
-						jobTitle: job.title,
-						what,
-						amount,
-						url: `${config.origin}/app/jobs/${job.id}/payments`
-					})
-				);
-			}
+		const seller = await emailOf(job.salespersonId);
+		if (seller) {
+			await mailer(
+				paidNoticeMail({
+					to: seller,
+					storeName: store.name,
+					customerName: job.customerName,
+					jobLabel: jobLabel(job.number),
+					jobTitle: job.title,
+					what,
+					amount,
+					url: `${config.origin}/app/jobs/${job.id}/payments`
+				})
+			);
 		}
 	} catch (e) {
 		console.error(`Could not send the receipt for payment ${paid.id}`, e);

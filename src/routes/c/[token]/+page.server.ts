@@ -6,9 +6,7 @@ import * as customers from '$lib/server/db/queries/customers';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
-import { readProfile } from '$lib/server/db/queries/stores';
-import { db } from '$lib/server/db';
-import { user } from '$lib/server/db/schema';
+import { emailOf, readProfile } from '$lib/server/db/queries/stores';
 import { config } from '$lib/server/config';
 import { parseForm } from '$lib/server/forms';
 import { mailer } from '$lib/server/mail';
@@ -17,7 +15,6 @@ import { jobLabel } from '$lib/jobs/status';
 import { quoteView } from '$lib/quote-view';
 import { requiredText } from '$lib/schemas/fields';
 import { fail, redirect } from '@sveltejs/kit';
-import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -126,16 +123,12 @@ async function tellSalesperson(
 	answer: 'accepted' | 'changes',
 	note?: string
 ) {
-	if (!job.salespersonId) return;
-	const [seller] = await db
-		.select({ email: user.email })
-		.from(user)
-		.where(eq(user.id, job.salespersonId));
+	const seller = await emailOf(job.salespersonId);
 	if (!seller) return;
 	try {
 		await mailer(
 			customerAnswerMail({
-				to: seller.email,
+				to: seller,
 				storeName,
 				customerName: job.customerName,
 				jobLabel: jobLabel(job.number),

@@ -206,3 +206,10 @@ export async function readStore(storeId: string) {
 		.where(eq(organization.id, storeId));
 	return row;
 }
+
+/** A login's e-mail (to tell a salesperson what their customer did), or null. */
+export async function emailOf(userId: string | null): Promise<string | null> {
+	if (!userId) return null;
+	const [row] = await db.select({ email: user.email }).from(user).where(eq(user.id, userId));
+	return row?.email ?? null;
+}
