@@ -1,26 +1,35 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
-import { fieldErrors, refuse } from '$lib/server/forms';
+import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { refundCard } from '$lib/server/payments';
-import { parseMoney } from '$lib/schemas/money';
+import { priceField } from '$lib/schemas/price-book';
 import { formatMoney } from '$lib/format';
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
-const recordSchema = z.object({
-	purpose: z.enum(['deposit', 'balance'], { error: 'Choose what the payment is for' }),
-	method: z.enum(['cash', 'cheque', 'card_terminal', 'bank_transfer'], {
-		error: 'Choose how it was paid'
-	}),
-	amount: z.string(),
-	reference: z.string().trim().max(120, 'Keep it under 120 characters').default('')
-});
+/** Dollars typed, to integer cents above zero. */
+const amountField = (what: string) =>
+	priceField(what).refine((cents) => cents > 0, `Enter ${what}`);
+
+const recordSchema = z
+	.object({
+		purpose: z.enum(['deposit', 'balance'], { error: 'Choose what the payment is for' }),
+		method: z.enum(['cash', 'cheque', 'card_terminal', 'bank_transfer'], {
+			error: 'Choose how it was paid'
+		}),
+		amount: amountField('the amount received'),
+		reference: z.string().trim().max(120, 'Keep it under 120 characters').default('')
+	})
+	.refine((v) => v.method === 'cash' || v.reference, {
+		path: ['reference'],
+		message: 'Write down the cheque number, slip or transfer reference'
+	});
 const refundSchema = z.object({
 	paymentId: z.string().min(1),
-	amount: z.string(),
+	amount: amountField('the amount to give back'),
 	reason: z.enum(['cancellation', 'overcharge', 'other'], { error: 'Choose a reason' }),
 	note: z.string().trim().max(500, 'Keep the note under 500 characters').default('')
 });
@@ -39,28 +48,17 @@ export const load: PageServerLoad = async ({ params }) => {
 	};
 };
 
-async function readForm(request: Request) {
-	const form = await request.formData();
-	return { form, fields: Object.fromEntries(form) as Record<string, string> };
-}
-
 export const actions: Actions = {
 	record: async ({ request, params }) => {
 		const { store, user } = requirePermission({ payment: ['record'] });
-		const { form, fields } = await readForm(request);
-		const parsed = recordSchema.safeParse(fields);
-		const amount = parseMoney(fields.amount ?? '');
-		const errors = parsed.success ? {} : fieldErrors(parsed.error);
-		if (!amount.ok) errors.amount = [amount.message];
-		else if (amount.cents === 0) errors.amount = ['Enter the amount received'];
-		if (parsed.success && parsed.data.method !== 'cash' && !parsed.data.reference) {
-			errors.reference = ['Write down the cheque number, slip or transfer reference'];
-		}
-		if (Object.keys(errors).length || !parsed.success || !amount.ok) return refuse(form, errors);
+		const parsed = await parseForm(request, recordSchema);
+		if (!parsed.ok) return parsed.failure;
+		const { form } = parsed;
+		const { amount, ...input } = parsed.data;
 		const result = await payments.recordInStore(
 			store.id,
 			params.id,
-			{ ...parsed.data, amountCents: amount.cents },
+			{ ...input, amountCents: amount },
 			user.id
 		);
 		if (!result.ok) {
@@ -76,27 +74,19 @@ export const actions: Actions = {
 	},
 	refund: async ({ request }) => {
 		const { store, user } = requirePermission({ payment: ['refund'] });
-		const { fields } = await readForm(request);
+		const fields = Object.fromEntries(await request.formData()) as Record<string, string>;
 		const parsed = refundSchema.safeParse(fields);
-		const amount = parseMoney(fields.amount ?? '');
-		const errors = parsed.success ? {} : fieldErrors(parsed.error);
-		if (!amount.ok) errors.amount = [amount.message];
-		else if (amount.cents === 0) errors.amount = ['Enter the amount to give back'];
+		// Each payment has its own refund form: the answer says which one it is for.
 		const refundFor = fields.paymentId ?? '';
-		if (Object.keys(errors).length || !parsed.success || !amount.ok) {
-			return fail(400, {
-				refundFor,
-				values: { amount: fields.amount ?? '', note: fields.note ?? '' },
-				errors
-			});
-		}
-		const input = { amountCents: amount.cents, reason: parsed.data.reason, note: parsed.data.note };
+		const values = { amount: fields.amount ?? '', note: fields.note ?? '' };
+		if (!parsed.success) return fail(400, { refundFor, values, errors: fieldErrors(parsed.error) });
+		const input = {
+			amountCents: parsed.data.amount,
+			reason: parsed.data.reason,
+			note: parsed.data.note
+		};
 		const refused = (status: number, message: string) =>
-			fail(status, {
-				refundFor,
-				values: { amount: fields.amount, note: fields.note },
-				errors: { amount: [message] }
-			});
+			fail(status, { refundFor, values, errors: { amount: [message] } });
 		const inStore = await payments.refundInStore(store.id, parsed.data.paymentId, input, user.id);
 		if (inStore.ok) return { refunded: true };
 		// A card payment goes back through Stripe, to the card it came from.
