@@ -19,6 +19,7 @@ export default defineConfig({
 				extends: './vite.config.ts',
 				test: {
 					name: 'unit',
+					env: { FLUSHLINE_FAKES: '1' },
 					environment: 'node',
 					include: ['src/**/*.spec.ts', 'mocks/**/*.spec.ts'],
 					exclude: ['src/**/*.db.spec.ts']
@@ -28,12 +29,26 @@ export default defineConfig({
 				extends: './vite.config.ts',
 				test: {
 					name: 'integration',
+					env: { FLUSHLINE_FAKES: '1' },
 					environment: 'node',
 					include: ['src/**/*.db.spec.ts', 'tests/integration/**/*.spec.ts'],
 					fileParallelism: false,
 					setupFiles: ['tests/integration/setup.ts'],
 					testTimeout: 20000,
 					hookTimeout: 20000
+				}
+			},
+			{
+				// The production build (`node build`) started with chosen settings, sent real requests;
+				// `npm test` runs it after the build.
+				extends: './vite.config.ts',
+				test: {
+					name: 'server',
+					environment: 'node',
+					include: ['tests/server/**/*.spec.ts'],
+					fileParallelism: false,
+					testTimeout: 30000,
+					hookTimeout: 60000
 				}
 			}
 		]

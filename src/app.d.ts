@@ -13,6 +13,8 @@ declare global {
 			issues?: { path: string; message: string }[];
 		}
 		interface Locals {
+			/** This request's id: on every log line and in the `X-Request-Id` answer header. */
+			requestId: string;
 			user: AuthSession['user'] | null;
 			session: AuthSession['session'] | null;
 			/** The active store (a better-auth organization) the user is a member of. */
