@@ -25,20 +25,28 @@ export function currentRequestId(): string | undefined {
 /** Field names whose values are personal data or secrets, wherever they appear in a log object. */
 const PERSONAL = ['email', 'phone', 'password', 'token', 'cookie', 'authorization'];
 
-export const log = pino({
-	level: process.env.LOG_LEVEL || (process.env.VITEST ? 'silent' : 'info'),
-	base: { service: 'flushline' },
-	timestamp: pino.stdTimeFunctions.isoTime,
-	formatters: { level: (label) => ({ level: label }) },
-	mixin: () => {
-		const requestId = currentRequestId();
-		return requestId ? { requestId } : {};
-	},
-	redact: {
-		paths: [...PERSONAL, ...PERSONAL.map((k) => `*.${k}`), 'headers', '*.headers'],
-		censor: '[redacted]'
-	}
-});
+/** A logger with Flushline's options (request id, redaction), writing to `destination` or stdout. */
+export function createLogger(destination?: pino.DestinationStream, level?: string) {
+	return pino(
+		{
+			level: level ?? (process.env.LOG_LEVEL || (process.env.VITEST ? 'silent' : 'info')),
+			base: { service: 'flushline' },
+			timestamp: pino.stdTimeFunctions.isoTime,
+			formatters: { level: (label) => ({ level: label }) },
+			mixin: () => {
+				const requestId = currentRequestId();
+				return requestId ? { requestId } : {};
+			},
+			redact: {
+				paths: [...PERSONAL, ...PERSONAL.map((k) => `*.${k}`), 'headers', '*.headers'],
+				censor: '[redacted]'
+			}
+		},
+		destination
+	);
+}
+
+export const log = createLogger();
 
 /** Query parameters whose values say nothing about a person, kept as they are in logs. */
 const PLAIN_PARAMS = new Set([
