@@ -19,7 +19,6 @@ export default defineConfig({
 				extends: './vite.config.ts',
 				test: {
 					name: 'unit',
-					env: { FLUSHLINE_FAKES: '1' },
 					environment: 'node',
 					include: ['src/**/*.spec.ts', 'mocks/**/*.spec.ts'],
 					exclude: ['src/**/*.db.spec.ts']
@@ -29,7 +28,6 @@ export default defineConfig({
 				extends: './vite.config.ts',
 				test: {
 					name: 'integration',
-					env: { FLUSHLINE_FAKES: '1' },
 					environment: 'node',
 					include: ['src/**/*.db.spec.ts', 'tests/integration/**/*.spec.ts'],
 					fileParallelism: false,

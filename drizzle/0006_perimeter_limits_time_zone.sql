@@ -4,4 +4,4 @@ CREATE TABLE "auth_limit" (
 	"expire" bigint
 );
 --> statement-breakpoint
-ALTER TABLE "store_profile" ADD COLUMN "time_zone" text DEFAULT 'UTC' NOT NULL;
+ALTER TABLE "organization" ADD COLUMN "time_zone" text DEFAULT 'UTC';

@@ -8,6 +8,7 @@ import { invitationMail, passwordResetMail } from './mail/templates';
 import type { SendMail } from './mail/send';
 import { waitText, type AttemptKind, type AuthLimits } from './auth-limits';
 import { ac, isRole, ROLE_LABELS, roles } from './permissions';
+import { timeZoneOr } from '../time-zone';
 
 export const PASSWORD_MIN_LENGTH = 10;
 export const INVITATION_DAYS = 7;
@@ -121,6 +122,12 @@ export function createAuth(deps: AuthDeps) {
 				invitationExpiresIn: 60 * 60 * 24 * INVITATION_DAYS,
 				membershipLimit: 200,
 				schema: {
+					organization: {
+						additionalFields: {
+							// The store's IANA time zone: every date on its pages, e-mails and PDFs.
+							timeZone: { type: 'string', required: false, defaultValue: 'UTC', input: true }
+						}
+					},
 					member: {
 						additionalFields: {
 							// The plugin's default role is `member`, which is none of ours; the least
@@ -142,7 +149,8 @@ export function createAuth(deps: AuthDeps) {
 							inviterName: inviter.user.name,
 							roleLabel: isRole(role) ? ROLE_LABELS[role] : role,
 							url: `${deps.baseURL}/invite/${id}`,
-							expiresAt: new Date(invitation.expiresAt)
+							expiresAt: new Date(invitation.expiresAt),
+							timeZone: timeZoneOr((organization as { timeZone?: unknown }).timeZone)
 						})
 					);
 				}

@@ -568,7 +568,8 @@ async function announce(storeId: string, paid: Payment) {
 					balance: formatMoney(money.ledger.balanceDueCents, money.currency),
 					paidAt: paid.succeededAt ?? new Date(),
 					reference: paid.stripeChargeId ?? paid.id,
-					url: customerLink(storeId, job.id)
+					url: customerLink(storeId, job.id),
+					timeZone: store.timeZone
 				})
 			);
 		}

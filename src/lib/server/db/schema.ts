@@ -65,8 +65,6 @@ export const storeProfile = pgTable(
 		email: text('email').notNull().default(''),
 		/** Storage key of the logo shown on customer pages and PDFs. */
 		logoKey: text('logo_key'),
-		/** The IANA time zone every date is shown in (pages, e-mails, PDFs). */
-		timeZone: text('time_zone').notNull().default('UTC'),
 		...timestamps
 	},
 	() => [storeIsolation]

@@ -90,6 +90,7 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 		},
 		store: {
 			name: store.name,
+			timeZone: store.timeZone,
 			address: profile.address,
 			town: profile.town,
 			phone: profile.phone,
