@@ -4,6 +4,9 @@
 import { expect, test, type Page } from '@playwright/test';
 import { demoEmail, signIn } from './helpers';
 
+// Each test walks many pages; on a busy two-core machine that takes longer than one page test.
+test.describe.configure({ timeout: 180_000 });
+
 /** Collects CSP violations on a page: the DOM event (from an init script) and the console. */
 function watch(page: Page) {
 	const violations: string[] = [];
