@@ -5,8 +5,9 @@ import { isRedirect, type Handle } from '@sveltejs/kit';
  * svelte.config.js, with a nonce per page). Camera stays allowed for our own pages: installers
  * photograph the subfloor. A route may set its own Referrer-Policy (the customer's page does).
  */
+// Only features Chromium knows: an unknown one is logged as an error on every page.
 export const PERMISSIONS_POLICY =
-	'camera=(self), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), interest-cohort=()';
+	'camera=(self), microphone=(), geolocation=(), payment=(), usb=(), serial=()';
 
 /** HSTS for a year once the origin is https (never on plain http, where browsers ignore it). */
 export const HSTS = 'max-age=31536000; includeSubDomains';
