@@ -35,6 +35,19 @@ export default defineConfig({
 					testTimeout: 20000,
 					hookTimeout: 20000
 				}
+			},
+			{
+				// The production build (`node build`) started with chosen settings, sent real requests;
+				// `npm test` runs it after the build.
+				extends: './vite.config.ts',
+				test: {
+					name: 'server',
+					environment: 'node',
+					include: ['tests/server/**/*.spec.ts'],
+					fileParallelism: false,
+					testTimeout: 30000,
+					hookTimeout: 60000
+				}
 			}
 		]
 	}

@@ -23,4 +23,6 @@ if (which === 'stop') {
 		fresh: isTest
 	});
 	console.log(`export DATABASE_URL=${appUrl}\nexport DATABASE_OWNER_URL=${ownerUrl}`);
+	// Tests run on the local fakes, switched on on purpose as `npm test` does.
+	if (isTest) console.log('export FLUSHLINE_FAKES=1');
 }

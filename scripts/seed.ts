@@ -222,7 +222,12 @@ export async function seedDemo() {
 	const ownerId = ids.get(DEMO_PEOPLE[0].email)!;
 
 	const store = await auth.api.createOrganization({
-		body: { name: 'Tallow Creek Floors', slug: 'tallow-creek-floors', userId: ownerId }
+		body: {
+			name: 'Tallow Creek Floors',
+			slug: 'tallow-creek-floors',
+			userId: ownerId,
+			timeZone: 'America/Chicago'
+		}
 	});
 	if (!store) throw new Error('The demo store was not created');
 	for (const person of DEMO_PEOPLE.slice(1)) {
@@ -244,7 +249,8 @@ export async function seedDemo() {
 		body: {
 			name: SECOND_STORE.name,
 			slug: 'hollin-vale-tile-house',
-			userId: ids.get(SECOND_STORE.owner.email)!
+			userId: ids.get(SECOND_STORE.owner.email)!,
+			timeZone: 'America/Chicago'
 		}
 	});
 	if (!second) throw new Error('The second demo store was not created');

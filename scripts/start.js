@@ -63,7 +63,9 @@ async function main() {
 			HOST: host,
 			PORT: String(port),
 			// Logo uploads are up to 2 MB; adapter-node refuses bodies over 512 kB by default.
-			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '3M'
+			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '3M',
+			// The demo runs on the local fakes, on purpose (a real key still switches its fake off).
+			FLUSHLINE_FAKES: process.env.FLUSHLINE_FAKES ?? '1'
 		};
 		step('Seeding the demo store when the database is empty');
 		run('npx', ['tsx', 'scripts/seed.ts'], { env });

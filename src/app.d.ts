@@ -13,10 +13,19 @@ declare global {
 			issues?: { path: string; message: string }[];
 		}
 		interface Locals {
+			/** This request's id: on every log line and in the `X-Request-Id` answer header. */
+			requestId: string;
 			user: AuthSession['user'] | null;
 			session: AuthSession['session'] | null;
 			/** The active store (a better-auth organization) the user is a member of. */
-			store: { id: string; name: string; slug: string; logo: string | null } | null;
+			store: {
+				id: string;
+				name: string;
+				slug: string;
+				logo: string | null;
+				/** The store's IANA time zone: every date is shown in it. */
+				timeZone: string;
+			} | null;
 			/** The user's role in the active store. */
 			role: Role | null;
 			/** Set by hooks when a page is refused, so the section layout renders the 403 page. */

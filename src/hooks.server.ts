@@ -3,6 +3,12 @@ import { config, checkConfig } from '$lib/server/config';
 import { auth } from '$lib/server/auth';
 import { homeFor, needsMember, refusal } from '$lib/server/access';
 import { defaultMembership, readMembership } from '$lib/server/db/queries/stores';
+import { handleAuthAnswers, handleClientAddress } from '$lib/server/hooks/auth-answers';
+import { handleDevRoutes } from '$lib/server/hooks/dev';
+import { handleHeaders } from '$lib/server/hooks/headers';
+import { handleInput } from '$lib/server/hooks/input';
+import { handleRequestId } from '$lib/server/hooks/request-id';
+import { log, safePath } from '$lib/server/log';
 import {
 	error,
 	json,
@@ -29,8 +35,8 @@ export const init: ServerInit = async () => {
 					}
 				: undefined
 		});
-		if (config.fakeMail) console.log('Local fakes on: e-mail goes to /dev/outbox');
-		if (config.fakeStripe) console.log('Local fakes on: Stripe test payments, see /dev/stripe');
+		if (config.fakeMail) log.info('Local fakes on: e-mail goes to /dev/outbox');
+		if (config.fakeStripe) log.info('Local fakes on: Stripe test payments, see /dev/stripe');
 	}
 };
 
@@ -113,11 +119,25 @@ const handleGuard: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-export const handle = sequence(handleAuth, handleStore, handleGuard);
+export const handle = sequence(
+	handleRequestId,
+	handleHeaders(config.origin),
+	handleDevRoutes(() => config.fakes),
+	handleInput,
+	handleClientAddress,
+	handleAuthAnswers,
+	handleAuth,
+	handleStore,
+	handleGuard
+);
 
+/** Unexpected errors: logged with the request id, which the error page shows as the reference. */
 export const handleError: HandleServerError = ({ error: e, event, status, message }) => {
 	if (status === 404) return { message: 'Not found' };
-	const code = crypto.randomUUID().slice(0, 8);
-	console.error(`[${code}] ${event.request.method} ${event.url.pathname}`, e);
+	const code = event.locals.requestId ?? crypto.randomUUID();
+	log.error(
+		{ err: e, status, method: event.request.method, path: safePath(event.url) },
+		'unexpected error'
+	);
 	return { message: status >= 500 ? 'Something went wrong on our side' : message, code };
 };

@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { formatMoney, formatQty, majorText } from './format';
+import {
+	formatDate,
+	formatDateTime,
+	formatMoney,
+	formatQty,
+	formatSaved,
+	majorText,
+	zoneName
+} from './format';
 
 describe('money for display', () => {
 	it('shows cents as dollars, and respects zero-decimal currencies', () => {
@@ -21,5 +29,33 @@ describe('quantities', () => {
 		expect(formatQty(14, 'carton')).toBe('14 cartons');
 		expect(formatQty(1, 'carton')).toBe('1 carton');
 		expect(formatQty(126.456, 'sqft')).toBe('126.46 ft²');
+	});
+});
+
+describe("dates in the store's time zone", () => {
+	// 03:30 UTC on 4 March 2027 is still the evening of 3 March in Chicago (UTC−6 in winter).
+	const lateEvening = '2027-03-04T03:30:00Z';
+
+	it("show the store's day, not the server's", () => {
+		expect(formatDate(lateEvening, 'UTC')).toBe('Mar 4, 2027');
+		expect(formatDate(lateEvening, 'America/Chicago')).toBe('Mar 3, 2027');
+		expect(formatDate(lateEvening, 'America/Chicago', 'long')).toBe('March 3, 2027');
+		expect(formatDate(lateEvening, 'Asia/Tokyo', 'long')).toBe('March 4, 2027');
+	});
+
+	it("show the store's time, across daylight saving", () => {
+		expect(formatDateTime(lateEvening, 'America/Chicago')).toBe('Mar 3, 2027, 9:30 PM');
+		expect(zoneName(lateEvening, 'America/Chicago')).toBe('CST');
+		// After the change on 14 March 2027 Chicago is UTC−5.
+		expect(formatDateTime('2027-03-20T03:30:00Z', 'America/Chicago')).toBe(
+			'Mar 19, 2027, 10:30 PM'
+		);
+		expect(zoneName('2027-03-20T03:30:00Z', 'America/Chicago')).toBe('CDT');
+	});
+
+	it('give a save time of today without the day, and the day otherwise', () => {
+		const now = new Date('2027-03-03T23:00:00Z'); // 5 PM on 3 March in Chicago, 3 March in UTC
+		expect(formatSaved(lateEvening, 'America/Chicago', now)).toBe('9:30 PM');
+		expect(formatSaved(lateEvening, 'UTC', now)).toBe('Mar 4, 3:30 AM');
 	});
 });

@@ -60,10 +60,53 @@ export function perUnit(basis: Basis): string {
 	return `per ${UNITS[basis][0]}`;
 }
 
-export function formatDate(value: Date | string, style: 'medium' | 'long' = 'medium'): string {
-	return new Date(value).toLocaleDateString('en-US', { dateStyle: style });
+const dateFormats = new Map<string, Intl.DateTimeFormat>();
+
+function dateFormat(timeZone: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
+	const key = `${timeZone}|${JSON.stringify(options)}`;
+	let format = dateFormats.get(key);
+	if (!format) {
+		format = new Intl.DateTimeFormat('en-US', { ...options, timeZone });
+		dateFormats.set(key, format);
+	}
+	return format;
 }
 
-export function formatDateTime(value: Date | string): string {
-	return new Date(value).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' });
+/**
+ * The one date formatter: a day in the store's time zone (`formatDate(at, store.timeZone)`), the
+ * same on the server, in the browser, in e-mails and in PDFs.
+ */
+export function formatDate(
+	value: Date | string,
+	timeZone: string,
+	style: 'medium' | 'long' = 'medium'
+): string {
+	return dateFormat(timeZone, { dateStyle: style }).format(new Date(value));
+}
+
+/** A day and time in the store's time zone: "Mar 4, 2027, 2:30 PM". */
+export function formatDateTime(
+	value: Date | string,
+	timeZone: string,
+	style: 'medium' | 'long' = 'medium'
+): string {
+	return dateFormat(timeZone, { dateStyle: style, timeStyle: 'short' }).format(new Date(value));
+}
+
+/** The zone's short name at that moment ("CST", "GMT+1"), to print beside a time in e-mails. */
+export function zoneName(value: Date | string, timeZone: string): string {
+	return (
+		dateFormat(timeZone, { timeZoneName: 'short' })
+			.formatToParts(new Date(value))
+			.find((p) => p.type === 'timeZoneName')?.value ?? timeZone
+	);
+}
+
+/** A time of day in the store's zone, with the day when it is not today there: `10:42 AM`, `Mar 3, 10:42 AM`. */
+export function formatSaved(when: Date | string, timeZone: string, now = new Date()): string {
+	const d = new Date(when);
+	const day = dateFormat(timeZone, { dateStyle: 'medium' });
+	const time = dateFormat(timeZone, { hour: 'numeric', minute: '2-digit' }).format(d);
+	if (day.format(d) === day.format(now)) return time;
+	return `${dateFormat(timeZone, { month: 'short', day: 'numeric' }).format(d)}, ${time}`;
 }

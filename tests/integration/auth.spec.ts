@@ -240,7 +240,8 @@ describe('e-mail through the Resend SDK and the local fake', () => {
 			inviterName: 'Mira',
 			roleLabel: 'Sales',
 			url: `${TEST_ORIGIN}/invite/abc`,
-			expiresAt: new Date('2026-12-08T00:00:00Z')
+			expiresAt: new Date('2026-12-08T00:00:00Z'),
+			timeZone: 'UTC'
 		});
 		const { id } = await send(mail);
 		const [stored] = readOutbox(dir);

@@ -44,14 +44,8 @@ export function readingOf(value: string, settings: Units, size: 'room' | 'small'
 /** Money for display: the one formatter, which knows each currency's minor unit. */
 export { formatMoney as money } from '$lib/format';
 
-/** A save time: `10:42` today, else `Mar 3, 10:42`. */
-export function savedTime(when: Date | string, now = new Date()): string {
-	const d = new Date(when);
-	const time = d.toLocaleTimeString('en-US', { hour: 'numeric', minute: '2-digit' });
-	return d.toDateString() === now.toDateString()
-		? time
-		: `${d.toLocaleDateString('en-US', { month: 'short', day: 'numeric' })}, ${time}`;
-}
+/** A save time in the store's zone: `10:42 AM` today, else `Mar 3, 10:42 AM`. */
+export { formatSaved as savedTime } from '$lib/format';
 
 /** A time as ISO text (what JSON carries), or null. */
 export function isoTime(when: Date | string | null | undefined): string | null {

@@ -34,10 +34,5 @@ export const resetPasswordSchema = z
 		message: 'The two passwords differ'
 	});
 
-/** Only same-site paths, so a crafted link cannot send people elsewhere after sign-in. */
-export function safeRedirect(value: string | null | undefined, fallback = '/app'): string {
-	if (!value || !value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\')) {
-		return fallback;
-	}
-	return value;
-}
+/** Only same-origin paths, so a crafted link cannot send people elsewhere after sign-in. */
+export { safeRedirect } from '../redirect';

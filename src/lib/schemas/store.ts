@@ -1,10 +1,16 @@
 import { z } from 'zod';
 import { email, optionalEmail, phone, requiredText } from './fields';
+import { DEFAULT_TIME_ZONE, isTimeZone, timeZoneSchema } from '../time-zone';
 
 export const ROLE_VALUES = ['owner', 'manager', 'sales', 'installer'] as const;
 
 export const createStoreSchema = z.object({
-	name: requiredText("Enter the store's name", 80)
+	name: requiredText("Enter the store's name", 80),
+	/** Filled by the browser with its own zone (where the store is being set up); UTC without it. */
+	timeZone: z
+		.string()
+		.optional()
+		.transform((v) => (isTimeZone(v) ? v : DEFAULT_TIME_ZONE))
 });
 
 export const storeProfileSchema = z.object({
@@ -12,7 +18,8 @@ export const storeProfileSchema = z.object({
 	address: z.string().trim().max(200, 'Keep it under 200 characters').default(''),
 	town: z.string().trim().max(100, 'Keep it under 100 characters').default(''),
 	phone: phone.transform((v) => v ?? ''),
-	email: optionalEmail.transform((v) => v ?? '')
+	email: optionalEmail.transform((v) => v ?? ''),
+	timeZone: timeZoneSchema
 });
 
 export const inviteSchema = z.object({

@@ -75,6 +75,12 @@ export function authFailure(e: unknown): AuthFailure {
 		}
 		return { message: 'Some fields are not valid. Check them and try again.', field, status: 400 };
 	}
-	if (status === 429) return { message: 'Too many tries. Wait a minute and try again.', status };
+	if (status === 429) {
+		const message =
+			code === 'TOO_MANY_ATTEMPTS' && e.body?.message
+				? e.body.message
+				: 'Too many tries. Wait a minute and try again.';
+		return { message, status };
+	}
 	return { message: e.body?.message ?? 'That did not work. Try again.', status };
 }

@@ -1,8 +1,9 @@
 import { getRequestEvent } from '$app/server';
 import { sveltekitCookies } from 'better-auth/svelte-kit';
 import { config } from './config';
+import { createAuthLimits } from './auth-limits';
 import { createAuth } from './create-auth';
-import { db } from './db';
+import { db, pool } from './db';
 import { mailer } from './mail';
 
 export const auth = createAuth({
@@ -10,5 +11,6 @@ export const auth = createAuth({
 	baseURL: config.origin,
 	secret: config.authSecret || 'build-time-placeholder-secret-never-served',
 	sendMail: mailer,
+	limits: createAuthLimits(pool, config.authLimits),
 	plugins: [sveltekitCookies(getRequestEvent)]
 });

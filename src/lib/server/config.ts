@@ -1,5 +1,6 @@
 import { env } from '$env/dynamic/private';
 import path from 'node:path';
+import { readLimitSettings } from './auth-limits';
 
 /**
  * The webhook signing secret while the Stripe fake is on: fixed, so the fake and the endpoint
@@ -12,6 +13,10 @@ export const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_flushline_local_fake_not_a_rea
  * one setting for the served origin: adapter-node's CSRF check and better-auth's baseURL both
  * use it, so `localhost` and `127.0.0.1` never disagree.
  */
+function isOn(value: string | undefined) {
+	return value === '1' || value === 'true';
+}
+
 export const config = {
 	origin: (env.ORIGIN ?? `http://${env.HOST ?? '127.0.0.1'}:${env.PORT ?? '3000'}`).replace(
 		/\/$/,
@@ -21,18 +26,27 @@ export const config = {
 	resendApiKey: env.RESEND_API_KEY ?? '',
 	mailFrom: env.MAIL_FROM ?? 'Flushline <desk@flushline.local>',
 	dataDir: path.resolve(env.FLUSHLINE_DATA_DIR ?? '.data/app'),
-	/** The Resend fake answers while no real key is set. */
+	/**
+	 * The local fakes are switched on on purpose (`FLUSHLINE_FAKES=1`, which `npm start` and
+	 * `npm test` set), never because a key is missing: without it a missing key stops start-up.
+	 */
+	fakes: isOn(env.FLUSHLINE_FAKES),
+	/** The Resend fake answers while the fakes are on and no real key is set. */
 	get fakeMail() {
-		return !this.resendApiKey;
+		return this.fakes && !this.resendApiKey;
 	},
 	stripeSecretKey: env.STRIPE_SECRET_KEY ?? '',
-	/** The Stripe fake answers the SDK while no real secret key is set. */
+	/** The Stripe fake answers the SDK while the fakes are on and no real secret key is set. */
 	get fakeStripe() {
-		return !this.stripeSecretKey;
+		return this.fakes && !this.stripeSecretKey;
 	},
 	/** The webhook endpoint's signing secret: the real one, or the fake's fixed local one. */
 	get stripeWebhookSecret() {
 		return env.STRIPE_WEBHOOK_SECRET || (this.fakeStripe ? LOCAL_STRIPE_WEBHOOK_SECRET : '');
+	},
+	/** Sign-in, sign-up, reset and invitation limits (`FLUSHLINE_AUTH_LIMIT_*`). */
+	get authLimits() {
+		return readLimitSettings(env);
 	},
 	/** Where the Stripe fake delivers its events (the app's own endpoint unless set). */
 	get stripeFakeWebhookUrl() {
@@ -48,6 +62,17 @@ export function checkConfig() {
 			`Missing environment variables: ${missing.join(', ')} (see README, "Environment")`
 		);
 	}
+	const services = [
+		['RESEND_API_KEY', config.resendApiKey, 'e-mail'],
+		['STRIPE_SECRET_KEY', config.stripeSecretKey, 'card payments']
+	].filter(([, value]) => !config.fakes && !value);
+	if (services.length) {
+		throw new Error(
+			`Missing ${services.map(([key, , what]) => `${key} (${what})`).join(' and ')}. ` +
+				'Set the real key, or FLUSHLINE_FAKES=1 to use the local fakes on purpose (README, "Environment")'
+		);
+	}
+	void config.authLimits; // throws on a bad FLUSHLINE_AUTH_LIMIT_* value
 	if (config.authSecret.length < 32) {
 		throw new Error('BETTER_AUTH_SECRET must be at least 32 characters');
 	}

@@ -1,3 +1,4 @@
+import { log } from './log';
 import { and, eq, or } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import { formatMoney } from '../format';
@@ -150,7 +151,7 @@ export async function startCheckout(
 			{ idempotencyKey: `checkout:${p.id}`, stripeAccount: account }
 		);
 	} catch (e) {
-		console.error('Checkout could not be created', e);
+		log.error({ err: e, paymentId: p.id }, 'Checkout could not be created');
 		return { ok: false, reason: 'stripe', message: (e as Error).message };
 	}
 	await inStore(storeId, (tx) =>
@@ -568,7 +569,8 @@ async function announce(storeId: string, paid: Payment) {
 					balance: formatMoney(money.ledger.balanceDueCents, money.currency),
 					paidAt: paid.succeededAt ?? new Date(),
 					reference: paid.stripeChargeId ?? paid.id,
-					url: customerLink(storeId, job.id)
+					url: customerLink(storeId, job.id),
+					timeZone: store.timeZone
 				})
 			);
 		}
@@ -588,6 +590,6 @@ async function announce(storeId: string, paid: Payment) {
 			);
 		}
 	} catch (e) {
-		console.error(`Could not send the receipt for payment ${paid.id}`, e);
+		log.error({ err: e, paymentId: paid.id }, 'Could not send the receipt');
 	}
 }

@@ -26,7 +26,8 @@ export function customerLink(storeId: string, jobId: string, now = new Date()) {
 	return `${config.origin}/c/${token}`;
 }
 
-type Store = { id: string; name: string };
+/** The store as locals and customer links carry it: its time zone dates the e-mail and PDF. */
+type Store = { id: string; name: string; timeZone: string };
 
 /** E-mails a sent quote to the customer, from the store, with a fresh link. */
 export async function mailQuote(store: Store, quote: quotes.Quote, to: string) {
@@ -46,6 +47,7 @@ export async function mailQuote(store: Store, quote: quotes.Quote, to: string) {
 			total: formatMoney(quote.totalCents, quote.currency),
 			deposit: formatMoney(quote.depositCents, quote.currency),
 			validUntil: quote.validUntil ?? new Date(),
+			timeZone: store.timeZone,
 			url: customerLink(store.id, job.id)
 		})
 	);
@@ -67,6 +69,7 @@ export async function pdfOf(store: Store, quote: quotes.Quote) {
 	return quotePdf({
 		store: {
 			name: store.name,
+			timeZone: store.timeZone,
 			address: profile.address,
 			town: profile.town,
 			phone: profile.phone,

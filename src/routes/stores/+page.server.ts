@@ -50,7 +50,11 @@ export const actions: Actions = {
 		try {
 			await auth.api.createOrganization({
 				headers: request.headers,
-				body: { name: parsed.data.name, slug: storeSlug(parsed.data.name) }
+				body: {
+					name: parsed.data.name,
+					slug: storeSlug(parsed.data.name),
+					timeZone: parsed.data.timeZone
+				}
 			});
 		} catch (e) {
 			const failure = authFailure(e);

@@ -81,6 +81,7 @@ export const organization = pgTable("organization", {
   logo: text("logo"),
   createdAt: timestamp("created_at").notNull(),
   metadata: text("metadata"),
+  timeZone: text("time_zone").default("UTC"),
 });
 
 export const member = pgTable(

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import {
+	bigint,
 	boolean,
 	check,
 	foreignKey,
@@ -11,7 +12,8 @@ import {
 	pgTable,
 	text,
 	timestamp,
-	unique
+	unique,
+	varchar
 } from 'drizzle-orm/pg-core';
 import type { EstimateInput, EstimateResult, StoreSettings } from '../../estimating';
 import { JOB_STATUSES } from '../../jobs/status';
@@ -423,5 +425,17 @@ export const stripeEvent = pgTable(
 	},
 	(t) => [index('stripe_event_organization_idx').on(t.organizationId, t.receivedAt), storeIsolation]
 ).enableRLS();
+
+/**
+ * Sign-in, sign-up, reset and invitation attempts, per account and per client address, shared by
+ * every server (rate-limiter-flexible's `RateLimiterPostgres` layout: `key`, `points`, `expire`
+ * in epoch milliseconds). Keys carry a hash of the account, never the address typed. Not store
+ * data, so no `organization_id` and no row security.
+ */
+export const authLimit = pgTable('auth_limit', {
+	key: varchar('key', { length: 255 }).primaryKey(),
+	points: integer('points').notNull().default(0),
+	expire: bigint('expire', { mode: 'number' })
+});
 
 export * from './auth.schema';

@@ -1,3 +1,5 @@
+import { formatDate, formatDateTime, zoneName } from '../../format';
+
 /** One e-mail ready to send: what the mailer and the outbox both understand. */
 export interface Mail {
 	to: string;
@@ -52,11 +54,10 @@ export function invitationMail(input: {
 	roleLabel: string;
 	url: string;
 	expiresAt: Date;
+	/** The store's time zone. */
+	timeZone: string;
 }): Mail {
-	const expires = input.expiresAt.toLocaleDateString('en-US', {
-		dateStyle: 'long',
-		timeZone: 'UTC'
-	});
+	const expires = formatDate(input.expiresAt, input.timeZone, 'long');
 	return {
 		to: input.to,
 		fromName: input.storeName,
@@ -102,11 +103,10 @@ export function quoteMail(input: {
 	validUntil: Date;
 	url: string;
 	replyTo?: string;
+	/** The store's time zone. */
+	timeZone: string;
 }): Mail {
-	const until = input.validUntil.toLocaleDateString('en-US', {
-		dateStyle: 'long',
-		timeZone: 'UTC'
-	});
+	const until = formatDate(input.validUntil, input.timeZone, 'long');
 	return {
 		to: input.to,
 		fromName: input.storeName,
@@ -172,12 +172,10 @@ export function receiptMail(input: {
 	paidAt: Date;
 	reference: string;
 	url: string;
+	/** The store's time zone. */
+	timeZone: string;
 }): Mail {
-	const when = input.paidAt.toLocaleString('en-US', {
-		dateStyle: 'long',
-		timeStyle: 'short',
-		timeZone: 'UTC'
-	});
+	const when = `${formatDateTime(input.paidAt, input.timeZone, 'long')} ${zoneName(input.paidAt, input.timeZone)}`;
 	return {
 		to: input.to,
 		fromName: input.storeName,
@@ -185,7 +183,7 @@ export function receiptMail(input: {
 		...layout({
 			heading: `Thank you, ${input.customerName}`,
 			paragraphs: [
-				`${input.storeName} received ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle} on ${when} UTC.`,
+				`${input.storeName} received ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle} on ${when}.`,
 				`Reference: ${input.reference}. Still to pay: ${input.balance}.`,
 				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
 			].filter(Boolean),

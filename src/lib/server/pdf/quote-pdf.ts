@@ -8,7 +8,15 @@ import type { QuoteViewData } from '../../quote-view';
 
 /** Everything printed on a quote: the store's details, never ours. */
 export interface QuotePdfInput {
-	store: { name: string; address: string; town: string; phone: string; email: string };
+	store: {
+		name: string;
+		/** The store's time zone: the dates printed are the store's days. */
+		timeZone: string;
+		address: string;
+		town: string;
+		phone: string;
+		email: string;
+	};
 	logo?: { bytes: Uint8Array; type: 'image/png' | 'image/jpeg' };
 	customer: { name: string; email: string | null; phone: string | null };
 	site?: { address: string; town: string } | null;
@@ -216,8 +224,10 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 	contact.forEach((line, i) => w.text(line, PAGE.margin, top - 34 - i * 12, 9.5, regular, MUTED));
 	const stamp = [
 		['Quote', `${input.job.label} · version ${input.version}`],
-		['Issued', formatDate(input.issuedAt, 'long')],
-		...(input.validUntil ? [['Good until', formatDate(input.validUntil, 'long')]] : [])
+		['Issued', formatDate(input.issuedAt, input.store.timeZone, 'long')],
+		...(input.validUntil
+			? [['Good until', formatDate(input.validUntil, input.store.timeZone, 'long')]]
+			: [])
 	];
 	stamp.forEach(([label, value], i) => {
 		const y = w.y - 14 - i * 14;
@@ -365,7 +375,7 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 			color: PLANK_LIGHT
 		});
 		w.text(
-			`Accepted by ${input.accepted.name} on ${formatDate(input.accepted.at, 'long')}.`,
+			`Accepted by ${input.accepted.name} on ${formatDate(input.accepted.at, input.store.timeZone, 'long')}.`,
 			PAGE.margin + 10,
 			w.y - 21,
 			10.5,

@@ -18,7 +18,8 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		try {
 			await auth.api.resetPassword({
-				body: { newPassword: parsed.data.password, token: parsed.data.token }
+				body: { newPassword: parsed.data.password, token: parsed.data.token },
+				headers: request.headers
 			});
 		} catch (e) {
 			const failure = authFailure(e);

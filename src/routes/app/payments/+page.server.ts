@@ -1,3 +1,4 @@
+import { log } from '$lib/server/log';
 import { requirePermission } from '$lib/server/guards';
 import { catchUp } from '$lib/server/payments';
 import { reconcile } from '$lib/server/reconcile';
@@ -11,7 +12,7 @@ export const load: PageServerLoad = async ({ url }) => {
 		const report = await reconcile(store.id, period.from, period.to);
 		return { period, report, failure: null };
 	} catch (e) {
-		console.error('Reconciliation failed', e);
+		log.error({ err: e }, 'Reconciliation failed');
 		return {
 			period,
 			report: null,

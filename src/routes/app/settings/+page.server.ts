@@ -1,7 +1,7 @@
 import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
 import * as tradeSettings from '$lib/server/db/queries/settings';
-import { readProfile, saveProfile } from '$lib/server/db/queries/stores';
+import { readProfile, saveProfile, saveTimeZone } from '$lib/server/db/queries/stores';
 import { fieldErrors, parseForm, refuse, typedValues } from '$lib/server/forms';
 import { requireRole } from '$lib/server/guards';
 import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
@@ -25,7 +25,7 @@ export const load: PageServerLoad = async () => {
 	const stripeAccount = await tradeSettings.stripeAccount(store.id);
 	return {
 		stripeAccount,
-		profile: { ...profile, name: store.name },
+		profile: { ...profile, name: store.name, timeZone: store.timeZone },
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
 		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays),
 		schedules
@@ -64,7 +64,7 @@ export const actions: Actions = {
 		const { store } = requireRole('owner');
 		const parsed = await parseForm(request, storeProfileSchema);
 		if (!parsed.ok) return parsed.failure;
-		const { name, ...profile } = parsed.data;
+		const { name, timeZone, ...profile } = parsed.data;
 		if (name !== store.name) {
 			try {
 				await auth.api.updateOrganization({
@@ -76,6 +76,7 @@ export const actions: Actions = {
 			}
 		}
 		await saveProfile(store.id, profile);
+		if (timeZone !== store.timeZone) await saveTimeZone(store.id, timeZone);
 		return { saved: true };
 	},
 	/** Taxes, deposit, quote validity, units, waste, fastening schedule, crew output; the rest is kept. */

@@ -1,3 +1,4 @@
+import { log } from '$lib/server/log';
 import { resolveLink } from '$lib/server/customer-page';
 import * as payments from '$lib/server/db/queries/payments';
 import { stripeAccount } from '$lib/server/db/queries/settings';
@@ -42,7 +43,7 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 		try {
 			await syncSession(store.id, paid);
 		} catch (e) {
-			console.error('Could not read the checkout back from Stripe', e);
+			log.error({ err: e, jobId: job.id }, 'Could not read the checkout back from Stripe');
 		}
 	}
 	const [profile, quote, customer, site, trade, money, account] = await Promise.all([
@@ -90,6 +91,7 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 		},
 		store: {
 			name: store.name,
+			timeZone: store.timeZone,
 			address: profile.address,
 			town: profile.town,
 			phone: profile.phone,
@@ -139,7 +141,7 @@ async function tellSalesperson(
 			})
 		);
 	} catch (e) {
-		console.error(`Could not tell the salesperson of ${job.id}`, e);
+		log.error({ err: e, jobId: job.id }, 'Could not tell the salesperson');
 	}
 }
 

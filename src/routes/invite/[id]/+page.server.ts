@@ -4,6 +4,7 @@ import { homeFor } from '$lib/server/access';
 import { readInvitation } from '$lib/server/db/queries/stores';
 import { requireUser } from '$lib/server/guards';
 import { isRole, ROLE_LABELS } from '$lib/server/permissions';
+import { timeZoneOr } from '$lib/time-zone';
 import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -27,6 +28,7 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 			// The address is shown only to its owner once signed in, or as the sign-up default.
 			email: invite.email,
 			expiresAt: invite.expiresAt.toISOString(),
+			timeZone: timeZoneOr(invite.storeTimeZone),
 			state: stateOf(invite)
 		},
 		signedInAs: locals.user?.email ?? null,

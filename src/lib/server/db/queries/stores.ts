@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, gt, isNotNull, type SQL } from 'drizzle-orm';
 import { isRole, type Role } from '../../permissions';
+import { timeZoneOr } from '../../../time-zone';
 import { db } from '../index';
 import { invitation, member, organization, session, storeProfile, user } from '../schema';
 import { inStore } from '../tenant';
@@ -7,7 +8,7 @@ import { inStore } from '../tenant';
 export interface Membership {
 	memberId: string;
 	role: Role;
-	store: { id: string; name: string; slug: string; logo: string | null };
+	store: { id: string; name: string; slug: string; logo: string | null; timeZone: string };
 }
 
 const membershipColumns = {
@@ -16,7 +17,8 @@ const membershipColumns = {
 	id: organization.id,
 	name: organization.name,
 	slug: organization.slug,
-	logo: organization.logo
+	logo: organization.logo,
+	timeZone: organization.timeZone
 };
 
 function toMembership(row: {
@@ -26,12 +28,19 @@ function toMembership(row: {
 	name: string;
 	slug: string;
 	logo: string | null;
+	timeZone: string | null;
 }): Membership | null {
 	if (!isRole(row.role)) return null;
 	return {
 		memberId: row.memberId,
 		role: row.role,
-		store: { id: row.id, name: row.name, slug: row.slug, logo: row.logo }
+		store: {
+			id: row.id,
+			name: row.name,
+			slug: row.slug,
+			logo: row.logo,
+			timeZone: timeZoneOr(row.timeZone)
+		}
 	};
 }
 
@@ -135,6 +144,7 @@ export async function readInvitation(id: string) {
 			expiresAt: invitation.expiresAt,
 			storeId: organization.id,
 			storeName: organization.name,
+			storeTimeZone: organization.timeZone,
 			inviterName: user.name
 		})
 		.from(invitation)
@@ -201,10 +211,10 @@ export async function listInvitations(storeId: string) {
 /** A store's public face: its name and logo key (for customer pages, which have no session). */
 export async function readStore(storeId: string) {
 	const [row] = await db
-		.select({ id: organization.id, name: organization.name })
+		.select({ id: organization.id, name: organization.name, timeZone: organization.timeZone })
 		.from(organization)
 		.where(eq(organization.id, storeId));
-	return row;
+	return row && { ...row, timeZone: timeZoneOr(row.timeZone) };
 }
 
 /** A login's e-mail (to tell a salesperson what their customer did), or null. */
@@ -212,4 +222,9 @@ export async function emailOf(userId: string | null): Promise<string | null> {
 	if (!userId) return null;
 	const [row] = await db.select({ email: user.email }).from(user).where(eq(user.id, userId));
 	return row?.email ?? null;
+}
+
+/** Sets the store's time zone (validated by the caller with `timeZoneSchema`). */
+export async function saveTimeZone(storeId: string, timeZone: string) {
+	await db.update(organization).set({ timeZone }).where(eq(organization.id, storeId));
 }

@@ -1,4 +1,6 @@
+import { config } from '$lib/server/config';
 import { parseForm, refuse } from '$lib/server/forms';
+import { safeRedirect } from '$lib/redirect';
 import { testCheckoutSchema } from '$lib/schemas/test-payments';
 import { CHECKOUT_CARDS } from '$mocks/stripe';
 import { error, redirect } from '@sveltejs/kit';
@@ -9,10 +11,16 @@ import type { Actions, PageServerLoad } from './$types';
 // The payer is not a member of any store, so there is no member guard; the session id in the
 // address is the only key, as with Stripe's own checkout links.
 
+/** A session's own return address, only when it is a path of this site (else none). */
+const ownPath = (url: string | null) => (url ? safeRedirect(url, '', config.origin) || null : null);
+
 export const load: PageServerLoad = async ({ params }) => {
 	const view = requireStripeFake().checkout(params.id);
 	if (!view) error(404, 'Not found');
-	return { session: view, cards: CHECKOUT_CARDS };
+	return {
+		session: { ...view, successUrl: ownPath(view.successUrl), cancelUrl: ownPath(view.cancelUrl) },
+		cards: CHECKOUT_CARDS
+	};
 };
 
 export const actions: Actions = {
@@ -28,7 +36,10 @@ export const actions: Actions = {
 		}
 		const result = await fake.pay(params.id, parsed.data.card, { email, name: parsed.data.name });
 		if (result.outcome === 'paid') {
-			redirect(303, fake.checkout(params.id)?.successUrl ?? `/dev/checkout/${params.id}`);
+			redirect(
+				303,
+				ownPath(fake.checkout(params.id)?.successUrl ?? null) ?? `/dev/checkout/${params.id}`
+			);
 		}
 		if (result.outcome === 'declined') {
 			return refuse(parsed.form, {}, result.error.message ?? 'Your card was declined.', 402);

@@ -1,5 +1,6 @@
 import { endpoint, readJson } from '$lib/server/api';
 import { config } from '$lib/server/config';
+import { safeRedirect } from '$lib/redirect';
 import { stripe } from '$lib/server/stripe';
 import { testSessionSchema } from '$lib/schemas/test-payments';
 import { json } from '@sveltejs/kit';
@@ -14,6 +15,19 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = endpoint(async ({ request }) => {
 	requireStripeFake();
 	const body = await readJson(request, testSessionSchema);
+	// The fake's checkout page sends the payer back only to this site.
+	for (const key of ['success_url', 'cancel_url'] as const) {
+		const url = body[key];
+		if (url && !safeRedirect(url.replace('{CHECKOUT_SESSION_ID}', 'x'), '', config.origin)) {
+			return json(
+				{
+					message: 'Return addresses must be on this site',
+					issues: [{ path: key, message: `Use an address on ${config.origin}` }]
+				},
+				{ status: 400 }
+			);
+		}
+	}
 	try {
 		const session = await stripe.checkout.sessions.create(
 			{

@@ -1,3 +1,4 @@
+import { log } from '$lib/server/log';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
@@ -115,7 +116,7 @@ export const actions: Actions = {
 		try {
 			await mailQuote(store, sent.quote, parsed.data.to);
 		} catch (e) {
-			console.error(e);
+			log.error({ err: e, quoteId: sent.quote.id }, 'The quote e-mail failed');
 			return fail(502, {
 				mailFailed: `The quote is sent and frozen, but the e-mail to ${parsed.data.to} failed. Send the link again.`
 			});
