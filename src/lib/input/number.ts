@@ -165,3 +165,11 @@ export function readNumber(typed: string, options: NumberOptions): Read<number> 
 		};
 	return { ok: true, value: n };
 }
+
+/** A quote's version number as an address carries it (`?v=2`, `/quote/2/pdf`). */
+export const QUOTE_VERSION: NumberOptions = {
+	label: 'the version',
+	min: 1,
+	max: 100_000,
+	integer: true
+};

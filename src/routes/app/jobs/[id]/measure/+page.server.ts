@@ -55,7 +55,8 @@ function versionOf(form: FormData, field: string): number | undefined {
 	const r = readNumber(String(form.get(field) ?? ''), {
 		label: 'the version',
 		integer: true,
-		max: Number.MAX_SAFE_INTEGER
+		// The version is a PostgreSQL integer.
+		max: 2_147_483_647
 	});
 	return r.ok ? r.value : undefined;
 }
