@@ -59,6 +59,11 @@ describe('readArea', () => {
 		expect(readArea('big')).toMatchObject({ ok: false, message: expect.stringContaining('big') });
 		expect(readArea('2 x 3 x 4')).toMatchObject({ ok: false });
 		expect(readArea('0,5 m²')).toMatchObject({ ok: false, message: /use a point for decimals/ });
+		expect(readArea(`${' '.repeat(200_000)}x`)).toMatchObject({ ok: false, message: /under 100/ });
+		expect(readLength(`${'1 '.repeat(100_000)}`)).toMatchObject({
+			ok: false,
+			message: /under 100/
+		});
 	});
 });
 

@@ -14,7 +14,7 @@ import {
 	type AreaUnit,
 	type LengthUnit
 } from '$lib/estimating';
-import { capital, readDecimal, shown, type Read } from './number';
+import { capital, readDecimal, shown, tooLong, type Read } from './number';
 
 export interface LengthOptions {
 	/** The field in messages, with its article: "the roll width". */
@@ -34,6 +34,8 @@ export function readLength(
 	defaultUnit: LengthUnit = 'in',
 	options: LengthOptions = {}
 ): Read<number> {
+	const long = tooLong(text);
+	if (long) return long;
 	const r = parseLength(text, defaultUnit);
 	if (!r.ok) return r;
 	const label = capital(options.label ?? 'a length');
@@ -59,6 +61,8 @@ export function readArea(
 	defaultUnit: AreaUnit = 'sqft',
 	lengthUnit: LengthUnit = 'ft'
 ): Read<number> {
+	const long = tooLong(text);
+	if (long) return long;
 	const t = text.trim();
 	if (!t) return { ok: false, message: 'Enter an area' };
 	const sides = t.split(/\s*(?:[x×*]|\bby\b)\s*/i);
@@ -106,6 +110,8 @@ const VOLUME_UNITS: [RegExp, number][] = [
 
 /** A container volume typed as `1 gal`, `2 qt`, `3.78 L`, `231 cu in`, to cubic inches (US units). */
 export function readVolume(text: string): Read<number> {
+	const long = tooLong(text);
+	if (long) return long;
 	const m = /^\s*([-−]?[\d.,]+)\s*(.*)$/.exec(text);
 	if (!m) return { ok: false, message: `Cannot read "${text.trim()}": type e.g. 1 gal or 3.78 L` };
 	const d = readDecimal(m[1]);

@@ -5,7 +5,7 @@
  * no more. Browser-safe.
  */
 import { formatMoney, minorDigits } from '$lib/format';
-import { capital, readDecimal, shown, withoutUnit, type Read } from './number';
+import { capital, readDecimal, shown, tooLong, withoutUnit, type Read } from './number';
 
 /** The most one typed amount may be by default: 100,000,000 in the smallest unit ($1,000,000.00). */
 export const MAX_MINOR = 100_000_000;
@@ -59,6 +59,8 @@ export interface MoneyOptions {
 export function readMoney(typed: string, currency: string, options: MoneyOptions): Read<number> {
 	const { label, min = 0, max = MAX_MINOR } = options;
 	const example = moneyExample(currency);
+	const long = tooLong(typed);
+	if (long) return long;
 	let text = typed.trim();
 	if (!text) return { ok: false, message: `Enter ${label}, e.g. ${example}` };
 	const sign = /^[-−]/.test(text) ? '-' : '';
@@ -121,6 +123,8 @@ export function moneyToInput(minor: number | null | undefined, currency: string)
  * basis point), from 0 to 100.
  */
 export function readPercentBps(typed: string, label = 'a percentage'): Read<number> {
+	const long = tooLong(typed);
+	if (long) return long;
 	const text = typed.trim();
 	if (!text) return { ok: false, message: `Enter ${label}, e.g. 6.5` };
 	const d = readDecimal(withoutUnit(text, ['%']));

@@ -88,6 +88,15 @@ describe('the number rule', () => {
 		});
 	});
 
+	it('refuses text longer than any number before a pattern reads it', () => {
+		const long = `${' '.repeat(200_000)}x`;
+		expect(readNumber(long, waste)).toEqual({
+			ok: false,
+			message: 'Cannot read this: keep it under 100 characters'
+		});
+		expect(readDecimal('1'.repeat(101))).toMatchObject({ ok: false });
+	});
+
 	it('lets a minus sign in only where the field goes below zero', () => {
 		expect(readNumber('-90', { label: 'the turn', min: -179, max: 179 })).toEqual({
 			ok: true,

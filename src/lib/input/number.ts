@@ -20,6 +20,19 @@ export type Read<T> = { ok: true; value: T } | { ok: false; message: string };
 /** The most digits a typed number may have; 15 digits are exact in an IEEE double. */
 export const MAX_DIGITS = 15;
 
+/**
+ * The longest text a number, amount, length or area may be. Nothing typed in one field is longer,
+ * and it keeps every reader's patterns linear in practice: refused before any pattern runs.
+ */
+export const MAX_TEXT = 100;
+
+/** A refusal for text longer than `MAX_TEXT`, or undefined. */
+export function tooLong(text: string): { ok: false; message: string } | undefined {
+	return text.length > MAX_TEXT
+		? { ok: false, message: `Cannot read this: keep it under ${MAX_TEXT} characters` }
+		: undefined;
+}
+
 /** The message for a comma that does not group thousands. */
 export function commaMessage(text: string) {
 	return `Cannot read "${text}": use a point for decimals (0.5); a comma only separates thousands (1,500)`;
@@ -59,6 +72,8 @@ const DECIMAL = /^([-−]?)(?:(\d+)(?:\.(\d*))?|\.(\d+))$/;
  * ignored. The refusal names what was typed.
  */
 export function readDecimal(typed: string): Read<Decimal> {
+	const long = tooLong(typed);
+	if (long) return long;
 	const text = typed.trim();
 	const grouped = ungroupThousands(text);
 	if (!grouped.ok) return grouped;
@@ -105,10 +120,6 @@ export interface NumberOptions {
 /** The default upper bound of a plain number: every field states its own where it knows one. */
 export const DEFAULT_MAX = 1_000_000;
 
-function escape(word: string) {
-	return word.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
-}
-
 /** `the waste` → `The waste`. */
 export function capital(s: string) {
 	return s.charAt(0).toUpperCase() + s.slice(1);
@@ -121,9 +132,10 @@ export function shown(n: number) {
 
 /** The text without one trailing unit of `units` (longest first), case-insensitively. */
 export function withoutUnit(text: string, units: readonly string[]): string {
+	const lower = text.toLowerCase();
 	for (const unit of [...units].sort((a, b) => b.length - a.length)) {
-		const m = new RegExp(`^(.*?)\\s*${escape(unit)}$`, 'i').exec(text);
-		if (m) return m[1];
+		if (lower.endsWith(unit.toLowerCase()))
+			return text.slice(0, text.length - unit.length).trimEnd();
 	}
 	return text;
 }
@@ -135,6 +147,8 @@ export function withoutUnit(text: string, units: readonly string[]): string {
 export function readNumber(typed: string, options: NumberOptions): Read<number> {
 	const { label, units = [], max = DEFAULT_MAX, above } = options;
 	const min = above ?? options.min ?? 0;
+	const long = tooLong(typed);
+	if (long) return long;
 	const text = typed.trim();
 	if (!text) return { ok: false, message: `Enter ${label}` };
 	const bare = withoutUnit(text, units);

@@ -39,6 +39,7 @@ import {
 	readLength,
 	readNumber,
 	textField as fieldText,
+	tooLong,
 	type Read
 } from '$lib/input';
 import { floorProductSchema, priceBookSchema } from './estimate';
@@ -137,6 +138,8 @@ const optionalLength = (what: string) => optionalLengthField('in', { label: what
  * both). A comma with no space after it is a number's, by the one number rule.
  */
 export function parseTileEdges(text: string): Read<number[]> {
+	const long = tooLong(text);
+	if (long) return long;
 	const parts = text
 		.split(/\s*(?:x|×|by)\s*|,\s+/i)
 		.map((p) => p.trim())
