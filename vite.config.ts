@@ -20,6 +20,9 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					environment: 'node',
+					// Several specs run whole calculators or the OpenAPI document; on a busy 2-core
+					// machine the 5 s default failed them for the load, not for the code.
+					testTimeout: 20000,
 					include: ['src/**/*.spec.ts', 'mocks/**/*.spec.ts'],
 					exclude: ['src/**/*.db.spec.ts']
 				}

@@ -727,3 +727,68 @@ describe('connected accounts (Stripe-Account)', () => {
 		expect(e.statusCode).toBe(403);
 	});
 });
+
+describe('keys a caller chooses (ids, parameter names, idempotency keys)', () => {
+	const prototypeKeys = () => Object.getOwnPropertyNames(Object.prototype).sort();
+	let before: string[];
+	beforeEach(() => {
+		before = prototypeKeys();
+	});
+	afterEach(() => {
+		const added = prototypeKeys().filter((k) => !before.includes(k));
+		for (const k of added) delete (Object.prototype as Record<string, unknown>)[k];
+		expect(added).toEqual([]);
+	});
+
+	/** A raw form POST, as a client other than the SDK could send it. */
+	const post = (path: string, body: string) =>
+		fetch(`https://api.stripe.com${path}`, {
+			method: 'POST',
+			headers: {
+				authorization: 'Bearer sk_test_local_fake',
+				'content-type': 'application/x-www-form-urlencoded'
+			},
+			body
+		});
+
+	it('refuses parameter names that reach a prototype, writing nothing onto it', async () => {
+		for (const body of [
+			'email=a%40example.example&metadata[__proto__][polluted]=yes',
+			'email=a%40example.example&metadata[constructor][prototype][polluted]=yes',
+			'constructor[prototype][polluted]=yes'
+		]) {
+			const answer = await post('/v1/customers', body);
+			expect(answer.status, body).toBe(400);
+			expect(((await answer.json()) as { error: { message: string } }).error.message).toMatch(
+				/^Invalid parameter name/
+			);
+		}
+		expect((await t.stripe.customers.list()).data).toEqual([]);
+	});
+
+	it('answers 404 for an id that names a prototype property', async () => {
+		for (const id of ['__proto__', 'constructor', 'toString', 'hasOwnProperty']) {
+			const missing = await refusal(t.stripe.checkout.sessions.retrieve(id));
+			expect(missing, id).toMatchObject({ statusCode: 404, code: 'resource_missing' });
+			expect(await refusal(t.stripe.customers.retrieve(id))).toMatchObject({ statusCode: 404 });
+		}
+		expect(t.fake.checkout('__proto__')).toBeNull();
+		expect(t.fake.checkout('constructor')).toBeNull();
+	});
+
+	it('keeps any idempotency key as a key, __proto__ and constructor too', async () => {
+		for (const key of ['__proto__', 'constructor']) {
+			const one = await t.stripe.customers.create(
+				{ email: `${key}@example.example` },
+				{ idempotencyKey: key }
+			);
+			const two = await t.stripe.customers.create(
+				{ email: `${key}@example.example` },
+				{ idempotencyKey: key }
+			);
+			expect(two.id, key).toBe(one.id);
+			expect(two.lastResponse.headers['idempotent-replayed']).toBe('true');
+		}
+		expect((await t.stripe.customers.list()).data).toHaveLength(2);
+	});
+});

@@ -54,3 +54,25 @@ describe('money', () => {
 		expect(formatAmount(123_456, 'jpy')).toBe('¥123,456');
 	});
 });
+
+describe('parseParams and keys that reach a prototype', () => {
+	it('refuses __proto__, prototype and constructor segments and leaves Object.prototype alone', () => {
+		for (const query of [
+			'metadata[__proto__][polluted]=yes',
+			'__proto__[polluted]=yes',
+			'a[constructor][prototype][polluted]=yes',
+			'a[b][c][d][e][f][g][h][i]=deep'
+		]) {
+			expect(() => parseParams(new URLSearchParams(query)), query).toThrow(
+				/Invalid parameter name/
+			);
+		}
+		expect(({} as Record<string, unknown>).polluted).toBeUndefined();
+	});
+
+	it('follows only own properties: toString[x] is a parameter, not a change to toString', () => {
+		const params = parseParams(new URLSearchParams('toString[x]=1'));
+		expect(params).toEqual({ toString: { x: '1' } });
+		expect((Object.prototype.toString as unknown as Record<string, unknown>).x).toBeUndefined();
+	});
+});

@@ -1,12 +1,20 @@
+// The app's own guard for keys a caller chose (relative: the fakes load without SvelteKit's aliases).
+import { isSafeKey } from '../../src/lib/input/fields';
 import { invalid } from './errors';
 
 /** A parsed Stripe form body or query: nested objects, arrays and string leaves. */
 export type Params = { [key: string]: Param };
 export type Param = string | Params | Param[];
 
+/** The deepest a parameter name goes (`line_items[0][price_data][product_data][metadata][k]`). */
+const MAX_PARAM_DEPTH = 8;
+
 /**
  * Parses `a[b][0][c]=v` pairs (the SDK's form encoding, and its query strings) into nested
- * objects; keys made only of digits become arrays.
+ * objects; keys made only of digits become arrays. A name that would write through a prototype
+ * (`metadata[__proto__][x]`, `constructor[prototype][x]`) or nests deeper than any of Stripe's
+ * parameters is refused as Stripe refuses a bad parameter name; nodes are followed through their
+ * own properties only.
  */
 export function parseParams(search: URLSearchParams): Params {
 	const root: Params = {};
@@ -14,10 +22,12 @@ export function parseParams(search: URLSearchParams): Params {
 		const match = /^([^[\]]+)((?:\[[^[\]]*\])*)$/.exec(rawKey);
 		if (!match) throw invalid(`Invalid parameter name: ${rawKey}`, rawKey);
 		const path = [match[1], ...[...match[2].matchAll(/\[([^[\]]*)\]/g)].map((m) => m[1])];
+		if (path.length > MAX_PARAM_DEPTH || !path.every(isSafeKey))
+			throw invalid(`Invalid parameter name: ${rawKey}`, rawKey);
 		let node: Params = root;
 		for (let i = 0; i < path.length - 1; i++) {
 			const key = path[i] === '' ? String(Object.keys(node).length) : path[i];
-			const existing = node[key];
+			const existing = Object.hasOwn(node, key) ? node[key] : undefined;
 			if (existing === undefined || typeof existing === 'string') node[key] = {};
 			node = node[key] as Params;
 		}
@@ -75,11 +85,16 @@ export class Reader {
 	}
 
 	has(key: string) {
-		return this.params[key] !== undefined;
+		return this.value(key) !== undefined;
+	}
+
+	/** A parameter's value: own properties only, so `constructor` is never an inherited one. */
+	private value(key: string): Param | undefined {
+		return Object.hasOwn(this.params, key) ? this.params[key] : undefined;
 	}
 
 	string(key: string, options: { required?: boolean; max?: number } = {}): string | undefined {
-		const value = this.params[key];
+		const value = this.value(key);
 		if (value === undefined || value === '') {
 			if (options.required) throw this.missing(key);
 			return undefined;
@@ -140,7 +155,7 @@ export class Reader {
 	}
 
 	object(key: string, options: { required?: boolean } = {}): Reader | undefined {
-		const value = this.params[key];
+		const value = this.value(key);
 		if (value === undefined || value === '') {
 			if (options.required) throw this.missing(key);
 			return undefined;
@@ -152,7 +167,7 @@ export class Reader {
 	}
 
 	array(key: string, options: { required?: boolean } = {}): Reader[] {
-		const value = this.params[key];
+		const value = this.value(key);
 		if (value === undefined || value === '') {
 			if (options.required) throw this.missing(key);
 			return [];
@@ -167,7 +182,7 @@ export class Reader {
 	}
 
 	strings(key: string): string[] {
-		const value = this.params[key];
+		const value = this.value(key);
 		if (value === undefined || value === '') return [];
 		const list = Array.isArray(value) ? value : [value];
 		return list.map((v, i) => {
@@ -181,7 +196,7 @@ export class Reader {
 	 * An empty value removes a key when updating.
 	 */
 	metadata(key = 'metadata', base: Record<string, string> = {}): Record<string, string> {
-		const value = this.params[key];
+		const value = this.value(key);
 		if (value === undefined) return { ...base };
 		if (value === '') return {};
 		if (typeof value === 'string' || Array.isArray(value))

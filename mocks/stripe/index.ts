@@ -9,7 +9,7 @@ import { signatureHeader, Webhooks, type DeliverOptions } from './webhooks';
 
 export { CHECKOUT_CARDS, TEST_CARDS, signatureHeader };
 export type { CheckoutView, Delivery, DeliverOptions, PayResult, TestCardName };
-export { formatAmount, isZeroDecimal, processingFee } from './money';
+export { formatAmount, isZeroDecimal, MAXIMUM_AMOUNT, processingFee } from './money';
 
 export interface StripeFakeOptions {
 	/** Where `stripe.json` is kept; null keeps everything in memory (tests). */

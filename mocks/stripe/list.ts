@@ -1,3 +1,4 @@
+import { isSafeKey } from '../../src/lib/input/fields';
 import { invalid, missingParam } from './errors';
 import type { Params } from './form';
 import { Reader } from './form';
@@ -113,7 +114,8 @@ function expandPath(
 			expandPath(item, rest, whole, store, extra);
 		return;
 	}
-	let value = node[field];
+	if (!isSafeKey(field)) throw notExpandable(whole);
+	let value = Object.hasOwn(node, field) ? node[field] : undefined;
 	if (typeof value === 'string') {
 		const found = store.find(value);
 		if (!found) throw notExpandable(whole);

@@ -78,22 +78,46 @@ const BY_PREFIX: [string, Collection, string][] = [
 	['evt_', 'events', 'event']
 ];
 
+/**
+ * A map keyed by ids, some of them chosen by callers (an id in an address, an idempotency key):
+ * with no prototype, `__proto__` or `constructor` is an ordinary missing key, never a way into
+ * `Object.prototype`.
+ */
+function dict<T>(entries: Record<string, T> = {}): Record<string, T> {
+	return Object.assign(Object.create(null) as Record<string, T>, entries);
+}
+
+const MAPS = [
+	'customers',
+	'checkoutSessions',
+	'lineItems',
+	'intentData',
+	'paymentIntents',
+	'charges',
+	'refunds',
+	'balanceTransactions',
+	'paidOutBy',
+	'payouts',
+	'events',
+	'idempotency'
+] as const;
+
 export function emptyState(): FakeState {
 	return {
 		version: 1,
-		customers: {},
-		checkoutSessions: {},
-		lineItems: {},
-		intentData: {},
-		paymentIntents: {},
-		charges: {},
-		refunds: {},
-		balanceTransactions: {},
-		paidOutBy: {},
-		payouts: {},
-		events: {},
+		customers: dict(),
+		checkoutSessions: dict(),
+		lineItems: dict(),
+		intentData: dict(),
+		paymentIntents: dict(),
+		charges: dict(),
+		refunds: dict(),
+		balanceTransactions: dict(),
+		paidOutBy: dict(),
+		payouts: dict(),
+		events: dict(),
 		deliveries: [],
-		idempotency: {}
+		idempotency: dict()
 	};
 }
 
@@ -122,7 +146,10 @@ export class Store {
 		try {
 			const read = JSON.parse(readFileSync(this.file, 'utf8')) as FakeState;
 			if (read.version !== 1) throw new Error(`unknown version ${String(read.version)}`);
-			return { ...emptyState(), ...read };
+			const state = { ...emptyState(), ...read };
+			const maps = state as unknown as Record<string, Record<string, unknown>>;
+			for (const map of MAPS) maps[map] = dict(maps[map] ?? {});
+			return state;
 		} catch (e) {
 			// Keep the unreadable file for a person to look at, and start afresh.
 			const aside = `${this.file}.unreadable-${Date.now()}`;

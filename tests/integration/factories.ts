@@ -15,6 +15,7 @@ import { samplePriceBook } from '$lib/estimating/sample';
 import { emptyRoom } from '$lib/measure/draft';
 import type { Mail } from '$lib/server/mail/templates';
 import type { Role } from '$lib/server/permissions';
+import type { RequestEvent } from '@sveltejs/kit';
 
 export const TEST_PASSWORD = 'test-password-1';
 export const TEST_ORIGIN = 'http://127.0.0.1:4173';
@@ -228,4 +229,37 @@ export async function makePaidJob(store: TestStore) {
 		})
 	);
 	return { ...made, payment: paid.payment, refund: refunded.refund };
+}
+
+/** A member of a store as the hooks put them in `locals`. */
+export interface Member {
+	user: Awaited<ReturnType<typeof makeUser>>;
+	role: Role;
+	store: TestStore;
+}
+
+/**
+ * A request event for a route handler or action, as SvelteKit makes it after the hooks: the
+ * member's user, session, store and role in `locals`. Tests hand it to the handler and to their
+ * mock of `getRequestEvent`.
+ */
+export function memberEvent(
+	who: Member,
+	path: string,
+	params: Record<string, string>,
+	init?: RequestInit
+): RequestEvent {
+	const url = new URL(`${TEST_ORIGIN}${path}`);
+	return {
+		url,
+		request: new Request(url, init),
+		params,
+		locals: {
+			user: who.user as App.Locals['user'],
+			session: { id: `session-${who.user.id}` } as App.Locals['session'],
+			store: { id: who.store.id, name: who.store.name, slug: 'test', logo: null },
+			role: who.role,
+			denied: null
+		}
+	} as unknown as RequestEvent;
 }

@@ -4,8 +4,15 @@ import { isActionFailure, isRedirect, type RequestEvent } from '@sveltejs/kit';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import * as measures from '$lib/server/db/queries/measures';
 import { emptyRoom, type MeasureDraft } from '$lib/measure/draft';
-import type { Role } from '$lib/server/permissions';
-import { addMember, makeJob, makeStore, makeUser, roomDraft, type TestStore } from './factories';
+import {
+	addMember,
+	makeJob,
+	makeStore,
+	memberEvent,
+	roomDraft,
+	type Member,
+	type TestStore
+} from './factories';
 
 let current: Partial<RequestEvent> | undefined;
 vi.mock('$app/server', () => ({ getRequestEvent: () => current }));
@@ -13,27 +20,8 @@ vi.mock('$app/server', () => ({ getRequestEvent: () => current }));
 const { GET, PUT } = await import('../../src/routes/api/v1/jobs/[id]/measure/+server');
 const { actions } = await import('../../src/routes/app/jobs/[id]/measure/+page.server');
 
-type Person = Awaited<ReturnType<typeof makeUser>>;
-interface Member {
-	user: Person;
-	role: Role;
-	store: TestStore;
-}
-
 function event(who: Member, jobId: string, path: string, init?: RequestInit) {
-	const url = new URL(`http://127.0.0.1:4173${path}`);
-	const e = {
-		url,
-		request: new Request(url, init),
-		params: { id: jobId },
-		locals: {
-			user: who.user as App.Locals['user'],
-			session: { id: `session-${who.user.id}` } as App.Locals['session'],
-			store: { id: who.store.id, name: who.store.name, slug: 'test', logo: null },
-			role: who.role,
-			denied: null
-		}
-	} as unknown as RequestEvent;
+	const e = memberEvent(who, path, { id: jobId }, init);
 	current = e;
 	return e;
 }

@@ -2,17 +2,17 @@ import * as priceBook from '$lib/server/db/queries/price-book';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { estimate } from '$lib/estimating';
+import { readFields } from '$lib/input';
 import {
-	floorFormSchema,
+	floorForm,
 	floorToForm,
-	prepFormSchema,
-	removalFormSchema,
-	supplyFormSchema,
+	prepForm,
+	removalForm,
+	supplyForm,
 	supplyToForm
 } from '$lib/schemas/price-book';
 import {
 	applyTradeSettings,
-	nestForm,
 	tradeSettingsFormSchema,
 	tradeSettingsToForm
 } from '$lib/schemas/store-settings';
@@ -36,6 +36,19 @@ const floorFields = {
 	mverLimit: '',
 	underlayment: 'no'
 };
+
+// Prices typed in US dollars unless a test says otherwise.
+const floorFormSchema = floorForm('USD');
+const prepFormSchema = prepForm('USD');
+const removalFormSchema = removalForm('USD');
+const supplyFormSchema = supplyForm('USD');
+
+/** A settings form's dotted names as the action reads them. */
+function nestForm(values: Record<string, string>) {
+	const r = readFields(Object.entries(values));
+	if (!r.ok) throw new Error(r.message);
+	return r.value;
+}
 
 function errorsOf(result: { success: boolean; error?: unknown }) {
 	expect(result.success).toBe(false);
@@ -97,7 +110,7 @@ describe('price-book forms', () => {
 		const removal = errorsOf(
 			removalFormSchema.safeParse({ existing: 'carpet', basis: 'sqft', price: '0.6', pay: '-1' })
 		);
-		expect(removal.pay).toEqual(['A price cannot be negative']);
+		expect(removal.pay).toEqual(['The installer pay cannot be negative']);
 		const cents = errorsOf(
 			prepFormSchema.safeParse({ kind: 'trim', basis: 'linft', price: '2.755', pay: '1' })
 		);
@@ -127,7 +140,7 @@ describe('price-book forms', () => {
 			priceCents: 3_600,
 			container: { volumeCuIn: 231 }
 		});
-		expect(supplyToForm('patch', 'Floor patch', patch.data!.data).patchVolume).toBe('1 gal');
+		expect(supplyToForm('patch', 'Floor patch', patch.data!.data, 'USD').patchVolume).toBe('1 gal');
 		const leveller = errorsOf(
 			supplyFormSchema.safeParse({ kind: 'leveller', name: 'SLU', basis: 'bag', price: '42' })
 		);
@@ -138,9 +151,51 @@ describe('price-book forms', () => {
 		expect(fasteners.basis?.[0]).toMatch(/per box or each/);
 	});
 
+	it('read one number rule: 1,500 is fifteen hundred, 0,5 is refused (it was 5 here, 0.5 in the calculators)', () => {
+		const grouped = floorFormSchema.safeParse({ ...floorFields, materialPrice: '1,250.00' });
+		expect(grouped.data?.data.material.priceCents).toBe(125_000);
+		const comma = errorsOf(floorFormSchema.safeParse({ ...floorFields, cartonSqFt: '0,5' }));
+		expect(comma.cartonSqFt?.[0]).toMatch(/use a point for decimals/);
+		const price = errorsOf(
+			prepFormSchema.safeParse({ kind: 'level', basis: 'sqft', price: '2,5', pay: '1' })
+		);
+		expect(price.price?.[0]).toMatch(/use a point for decimals/);
+		const count = errorsOf(
+			supplyFormSchema.safeParse({
+				kind: 'fastener',
+				name: 'Nails',
+				basis: 'box',
+				price: '24',
+				perBox: '1e3'
+			})
+		);
+		expect(count.perBox?.[0]).toMatch(/Cannot read "1e3"/);
+	});
+
+	it('take prices in a zero-decimal currency as whole units (JPY, Stripe, published)', () => {
+		const yen = prepForm('JPY').safeParse({
+			kind: 'level',
+			basis: 'sqft',
+			price: '¥1,200',
+			pay: '800'
+		});
+		expect(yen.data?.data).toMatchObject({ priceCents: 1200, payCents: 800 });
+		const decimals = errorsOf(
+			prepForm('JPY').safeParse({ kind: 'level', basis: 'sqft', price: '12.50', pay: '8' })
+		);
+		expect(decimals.price).toEqual(['JPY has no decimals: type a whole amount, e.g. 1250']);
+		expect(
+			errorsOf(prepForm('JPY').safeParse({ kind: 'level', basis: 'sqft', price: '', pay: '8' }))
+				.price
+		).toEqual(['Enter the customer price, e.g. 1250']);
+		const shown = floorToForm('Oak', { ...floorFormSchema.parse(floorFields).data }, 'JPY');
+		expect(shown.materialPrice).toBe('12990');
+		expect(floorForm('JPY').parse(shown).data.material.priceCents).toBe(12_990);
+	});
+
 	it('show a saved floor back as it was typed', () => {
 		const r = floorFormSchema.safeParse(floorFields);
-		const again = floorFormSchema.safeParse(floorToForm(r.data!.name, r.data!.data));
+		const again = floorFormSchema.safeParse(floorToForm(r.data!.name, r.data!.data, 'USD'));
 		expect(again.data).toEqual(r.data);
 	});
 });
@@ -150,7 +205,7 @@ describe('trade settings form', () => {
 		const store = await makeStore('Settings Floors');
 		const current = await tradeSettings.read(store.id);
 		const values = {
-			...tradeSettingsToForm(current.settings, current.quoteValidDays),
+			...tradeSettingsToForm(current.settings, current.quoteValidDays, current.currency),
 			'taxes.0.name': 'County tax',
 			'taxes.0.rate': '6.5',
 			'taxes.0.labour': 'on',
@@ -163,8 +218,9 @@ describe('trade settings form', () => {
 			'crew.carpet': '900'
 		};
 		const form = tradeSettingsFormSchema(
-			Object.keys(current.settings.underlayment.schedules)
-		).safeParse(nestForm(Object.entries(values)));
+			Object.keys(current.settings.underlayment.schedules),
+			current.currency
+		).safeParse(nestForm(values));
 		expect(form.success).toBe(true);
 		const applied = applyTradeSettings(current.settings, form.data!);
 		if (!applied.ok) throw new Error(JSON.stringify(applied.errors));
@@ -181,20 +237,18 @@ describe('trade settings form', () => {
 	});
 
 	it('refuses an empty rate and a deposit over 100 % by their fields', () => {
-		const form = tradeSettingsFormSchema(['apa_quarter_in']).safeParse(
-			nestForm(
-				Object.entries({
-					'taxes.0.name': 'Sales tax',
-					'taxes.0.rate': '',
-					taxRounding: 'half_up',
-					'deposit.percent': '120',
-					'deposit.minimum': '',
-					quoteValidDays: '30',
-					'units.system': 'imperial',
-					'units.defaultLengthUnit': 'in',
-					fasteningSchedule: 'nope'
-				})
-			)
+		const form = tradeSettingsFormSchema(['apa_quarter_in'], 'USD').safeParse(
+			nestForm({
+				'taxes.0.name': 'Sales tax',
+				'taxes.0.rate': '',
+				taxRounding: 'half_up',
+				'deposit.percent': '120',
+				'deposit.minimum': '',
+				quoteValidDays: '30',
+				'units.system': 'imperial',
+				'units.defaultLengthUnit': 'in',
+				fasteningSchedule: 'nope'
+			})
 		);
 		const errors = errorsOf(form);
 		expect(errors['taxes.0.rate']).toEqual(['Enter the rate, e.g. 6.5']);
@@ -203,6 +257,32 @@ describe('trade settings form', () => {
 		expect(errors.fasteningSchedule).toBeDefined();
 		expect(errors['waste.straight']).toBeDefined();
 		expect(errors['crew.laminate']).toBeDefined();
+	});
+});
+
+describe('trade settings form in a zero-decimal currency', () => {
+	it('reads the minimum deposit in whole yen and shows it back so (Stripe zero-decimal, published)', async () => {
+		const store = await makeStore('Yen Floors');
+		const current = await tradeSettings.read(store.id);
+		const schedules = Object.keys(current.settings.underlayment.schedules);
+		const values = {
+			...tradeSettingsToForm(current.settings, current.quoteValidDays, 'JPY'),
+			'deposit.minimum': '¥25,000'
+		};
+		const form = tradeSettingsFormSchema(schedules, 'JPY').safeParse(nestForm(values));
+		expect(form.success).toBe(true);
+		expect(form.data!.deposit.minimum).toBe(25_000);
+		const applied = applyTradeSettings(current.settings, form.data!);
+		if (!applied.ok) throw new Error(JSON.stringify(applied.errors));
+		expect(tradeSettingsToForm(applied.settings, 30, 'JPY')['deposit.minimum']).toBe('25000');
+		const cents = errorsOf(
+			tradeSettingsFormSchema(schedules, 'JPY').safeParse(
+				nestForm({ ...values, 'deposit.minimum': '250.50' })
+			)
+		);
+		expect(cents['deposit.minimum']).toEqual([
+			'JPY has no decimals: type a whole amount, e.g. 1250'
+		]);
 	});
 });
 
@@ -259,7 +339,7 @@ describe('price-book lines', () => {
 		expect(before.material.priceCents).toBe(329);
 
 		const parsed = floorFormSchema.safeParse({
-			...floorToForm(lvp.name, lvp.data as never),
+			...floorToForm(lvp.name, lvp.data as never, 'USD'),
 			materialPrice: '4.99'
 		});
 		await priceBook.update(store.id, lvp.id, { data: parsed.data!.data });

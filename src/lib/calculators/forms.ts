@@ -12,7 +12,6 @@ import {
 	formatArea,
 	formatLength,
 	JOIST_SIZES,
-	parseLength,
 	type Cutout,
 	type Shape,
 	type StoreSettings
@@ -26,7 +25,7 @@ import {
 	SUBFLOOR_LABELS
 } from '$lib/measure/labels';
 import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
-import { parseArea, parseNumber } from './read';
+import { readArea, readLength, readNumber, setPath } from '$lib/input';
 
 /** What was typed, by field name. */
 export type Values = Record<string, string>;
@@ -588,9 +587,8 @@ function initialOf(field: FieldSpec & { kind: 'select' }, s: CalculatorSettings)
 
 /** Rows shown for a group: what the values say (`voids.rows`), within its bounds. */
 export function rowCount(values: Values, rows: RowsSpec): number {
-	const typed = values[`${rows.name}.rows`];
-	const n = typed === undefined || typed === '' ? NaN : Number(typed);
-	const count = Number.isInteger(n) ? n : rows.initialRows;
+	const typed = readNumber(values[`${rows.name}.rows`] ?? '', { label: 'the rows', integer: true });
+	const count = typed.ok ? typed.value : rows.initialRows;
 	const least = rows.allowNone ? rows.min : Math.max(rows.min, 1);
 	return Math.min(rows.max, Math.max(least, count));
 }
@@ -736,19 +734,6 @@ function lower(label: string) {
 	return /^[A-Z][a-z]/.test(plain) ? plain.charAt(0).toLowerCase() + plain.slice(1) : plain;
 }
 
-function setPath(target: Record<string, unknown>, path: string, value: unknown) {
-	const keys = path.split('.');
-	let at: Record<string, unknown> = target;
-	keys.forEach((key, i) => {
-		if (i === keys.length - 1) {
-			at[key] = value;
-			return;
-		}
-		at[key] ??= /^\d+$/.test(keys[i + 1]) ? [] : {};
-		at = at[key] as Record<string, unknown>;
-	});
-}
-
 /** Arrays without the holes left by blank optional entries. */
 function compact(v: unknown): unknown {
 	if (Array.isArray(v)) return v.filter((x) => x !== undefined).map(compact);
@@ -801,17 +786,17 @@ function readField(
 		return text.trim();
 	}
 	if (field.kind === 'length') {
-		const r = parseLength(text, units[field.size]);
+		const r = readLength(text, units[field.size]);
 		if (!r.ok) {
 			ev.problems[key] = { message: r.message, missing: false };
 			return undefined;
 		}
 		ev.readAs[key] =
-			`${formatLength(r.inches)} · ${formatLength(r.inches, field.size === 'room' ? 'm' : 'mm', field.size === 'room' ? {} : { digits: 1 })}`;
-		return r.inches;
+			`${formatLength(r.value)} · ${formatLength(r.value, field.size === 'room' ? 'm' : 'mm', field.size === 'room' ? {} : { digits: 1 })}`;
+		return r.value;
 	}
 	if (field.kind === 'area') {
-		const r = parseArea(text, metric ? 'sqm' : 'sqft', units.room);
+		const r = readArea(text, metric ? 'sqm' : 'sqft', units.room);
 		if (!r.ok) {
 			ev.problems[key] = { message: r.message, missing: false };
 			return undefined;
@@ -819,7 +804,7 @@ function readField(
 		ev.readAs[key] = `${formatArea(r.value)} · ${formatArea(r.value, 'sqm')}`;
 		return r.value;
 	}
-	const r = parseNumber(text, {
+	const r = readNumber(text, {
 		label: `the ${lower(field.label)}`,
 		units: field.units,
 		min: field.min,
@@ -895,8 +880,8 @@ function readShape(
 	);
 	for (const key of lengthKeys) {
 		if (ev.problems[key] || !values[key].trim()) continue;
-		const r = parseLength(values[key], draftUnits(s).room);
-		if (r.ok) ev.readAs[key] = `${formatLength(r.inches)} · ${formatLength(r.inches, 'm')}`;
+		const r = readLength(values[key], draftUnits(s).room);
+		if (r.ok) ev.readAs[key] = `${formatLength(r.value)} · ${formatLength(r.value, 'm')}`;
 	}
 	return { shape: read.shape, cutouts: read.cutouts, kept: kept.map((k) => k.i) };
 }

@@ -2,6 +2,7 @@
  * Lengths and areas as people type them. The engine keeps every length in inches.
  * Conversion factors are exact by definition (international yard and pound, 1959).
  */
+import { ungroupThousands } from '../input/number';
 
 /** 1 in = 25.4 mm exactly. */
 export const MM_PER_IN = 25.4;
@@ -88,6 +89,10 @@ export function parseLength(text: string, defaultUnit: LengthUnit = 'in'): Parse
 		.replace(/[″”“]|''/g, '"')
 		.replace(/[½¼¾⅛⅜⅝⅞]/g, (c) => VULGAR[c]);
 	if (s.trim() === '') return { ok: false, message: 'Enter a length' };
+	// Thousands groups (`1,500 mm`) read as typed; any other comma is refused, never guessed.
+	const grouped = ungroupThousands(s);
+	if (!grouped.ok) return grouped;
+	s = grouped.value;
 	if (/^\s*-/.test(s))
 		return { ok: false, message: `Cannot read "${whole}": a length cannot be negative` };
 

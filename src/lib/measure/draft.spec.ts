@@ -67,6 +67,37 @@ describe('reading the typed measure', () => {
 		expect(job.rooms.map((r) => r.id)).toEqual(['r2']);
 	});
 
+	it('reads numbers by the one rule: 1,500 ft² is fifteen hundred, 0,5 % is refused', () => {
+		const draft = {
+			builtYear: '1,962',
+			rooms: [
+				room({
+					shape: { kind: 'rect', width: '1,200 mm', length: '10' },
+					repairs: {
+						holes: [],
+						seams: [],
+						dents: [],
+						fasteners: 'area',
+						fastenerArea: '1,500'
+					}
+				})
+			]
+		};
+		const read = toEngine(draft, defaultSettings);
+		expect(read.errors).toEqual([]);
+		expect(read.job.builtYear).toBe(1962);
+		// 1200 mm = 1200 / 25.4 in (exact)
+		expect(read.job.rooms[0].shape).toMatchObject({ widthIn: expect.closeTo(1200 / 25.4, 9) });
+		expect(read.job.rooms[0].repairs?.fasteners).toEqual({ areaSqFt: 1500 });
+		draft.rooms[0].repairs.fastenerArea = '0,5';
+		draft.rooms[0].shape = { kind: 'rect', width: '3,5', length: '10' };
+		const refused = toEngine(draft, defaultSettings).errors.map((e) => [e.path, e.message]);
+		expect(refused).toEqual([
+			['rooms.0.shape.width', expect.stringContaining('use a point for decimals')],
+			['rooms.0.repairs.fastenerArea', expect.stringContaining('use a point for decimals')]
+		]);
+	});
+
 	it('refuses a zero length and a second room of the same name', () => {
 		const draft = {
 			builtYear: '',

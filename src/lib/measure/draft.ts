@@ -1,7 +1,7 @@
 /**
  * The site measure as people type it: every length is the text typed ("12' 6 1/2\"", "3810 mm"),
- * kept as typed so nothing is lost, and read by the engine's `parseLength` when a quote is built
- * or a drawing is shown. Shared by the browser (live drawings and totals) and the server (stored
+ * kept as typed so nothing is lost, and read by `$lib/input` (the engine's `parseLength` for
+ * lengths) when a quote is built or a drawing is shown. Shared by the browser (live drawings and totals) and the server (stored
  * quotes), so both read the same text the same way.
  */
 import { z } from 'zod';
@@ -9,7 +9,6 @@ import {
 	EXISTING_FLOOR_KINDS,
 	JOIST_SIZES,
 	LAYOUTS,
-	parseLength,
 	SPECIES,
 	SUBFLOOR_KINDS,
 	type Cutout,
@@ -19,6 +18,7 @@ import {
 	type Shape,
 	type StoreSettings
 } from '$lib/estimating';
+import { readLength, readNumber } from '$lib/input';
 
 const text = (max = 40) => z.string().max(max).default('');
 
@@ -159,10 +159,10 @@ class Reader {
 			if (!optional) this.fail(path, `Enter the ${label}`);
 			return undefined;
 		}
-		const r = parseLength(value, this.units[unit]);
+		const r = readLength(value, this.units[unit]);
 		if (!r.ok) return this.fail(path, r.message);
-		if (r.inches < 0) return this.fail(path, `The ${label} cannot be negative`);
-		return r.inches;
+		if (r.value < 0) return this.fail(path, `The ${label} cannot be negative`);
+		return r.value;
 	}
 
 	/** A positive length: zero is refused too. */
@@ -172,18 +172,22 @@ class Reader {
 		return inches;
 	}
 
-	/** A plain number (%, g, h, ft²) in a range. */
-	number(value: string, path: string, label: string, min: number, max: number, optional = false) {
-		const t = value.trim().replace(/,/g, '.').replace(/\s*%$/, '');
-		if (!t) {
+	/** A plain number (%, g, h, ft²) in a range, by the one number rule of `$lib/input`. */
+	number(
+		value: string,
+		path: string,
+		label: string,
+		min: number,
+		max: number,
+		optional = false,
+		integer = false
+	) {
+		if (!value.trim()) {
 			if (!optional) this.fail(path, `Enter the ${label}`);
 			return undefined;
 		}
-		const n = Number(t);
-		if (!Number.isFinite(n)) return this.fail(path, `"${value}" is not a number`);
-		if (n < min || n > max)
-			return this.fail(path, `The ${label} must be between ${min} and ${max}`);
-		return n;
+		const r = readNumber(value, { label: `the ${label}`, units: ['%'], min, max, integer });
+		return r.ok ? r.value : this.fail(path, r.message);
 	}
 
 	fail(path: string, message: string): undefined {
@@ -256,7 +260,15 @@ export function toEngine(
 ): { job: JobMeasure; errors: DraftError[] } {
 	const reader = new Reader(draftUnits(settings));
 	const rooms: RoomMeasure[] = [];
-	const builtYear = reader.number(draft.builtYear, 'builtYear', 'year built', 1600, 2200, true);
+	const builtYear = reader.number(
+		draft.builtYear,
+		'builtYear',
+		'year built',
+		1600,
+		2200,
+		true,
+		true
+	);
 	const names = new Set<string>();
 
 	draft.rooms.forEach((room, i) => {
@@ -287,6 +299,7 @@ export function toEngine(
 			'number of transitions',
 			0,
 			50,
+			true,
 			true
 		);
 

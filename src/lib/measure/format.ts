@@ -1,11 +1,6 @@
 /** How the measure's numbers read on screen, in the store's unit system. */
-import {
-	formatArea,
-	formatLength,
-	parseLength,
-	type AreaUnit,
-	type StoreSettings
-} from '$lib/estimating';
+import { formatArea, formatLength, type AreaUnit, type StoreSettings } from '$lib/estimating';
+import { readLength } from '$lib/input';
 import { draftUnits } from './draft';
 
 type Units = Pick<StoreSettings, 'units'>;
@@ -37,8 +32,8 @@ export function lengthText(inches: number, settings: Units, size: 'room' | 'smal
  */
 export function readingOf(value: string, settings: Units, size: 'room' | 'small') {
 	if (!value.trim()) return undefined;
-	const r = parseLength(value, draftUnits(settings)[size]);
-	return r.ok ? lengthText(r.inches, settings, size) : undefined;
+	const r = readLength(value, draftUnits(settings)[size]);
+	return r.ok ? lengthText(r.value, settings, size) : undefined;
 }
 
 /** Money for display: the one formatter, which knows each currency's minor unit. */

@@ -4,6 +4,7 @@
  * operation either way. Operations are short strings so they travel as a button's value.
  */
 import { JOIST_SIZES, SPECIES } from '$lib/estimating';
+import { fieldPath, isIndex, own } from '$lib/input';
 import { emptyRoom, type MeasureDraft, type RoomDraft, type ShapeDraft } from './draft';
 
 /** The most of each list the draft schema accepts (keep in step with `measureDraftSchema`). */
@@ -77,10 +78,6 @@ export function freeName(draft: MeasureDraft, base: string): string {
 		const name = `${base} ${n}`;
 		if (!taken.has(name.toLowerCase())) return name;
 	}
-}
-
-function isIndex(s: string) {
-	return /^\d+$/.test(s);
 }
 
 /** The value at a dotted path, following only the draft's own keys. */
@@ -185,11 +182,13 @@ export function applyOp(draft: MeasureDraft, op: string, newId = newRoomId): OpR
 	if (verb === 'add') {
 		const list = valueAt(draft, arg);
 		const kind = arg.split('.').pop()!;
-		if (!Array.isArray(list) || !arg.startsWith('rooms.') || !NEW_ENTRY[kind]) return {};
-		if (list.length >= LIST_LIMITS[kind]) return { message: `At most ${LIST_LIMITS[kind]} here` };
-		list.push(NEW_ENTRY[kind]());
+		const make = own(NEW_ENTRY, kind);
+		const limit = own(LIST_LIMITS, kind) ?? 0;
+		if (!Array.isArray(list) || !arg.startsWith('rooms.') || !make) return {};
+		if (list.length >= limit) return { message: `At most ${limit} here` };
+		list.push(make());
 		const at = `${arg}.${list.length - 1}`;
-		const first = FIRST_FIELD[kind];
+		const first = own(FIRST_FIELD, kind);
 		return { focus: first ? `${at}.${first}` : at };
 	}
 	if (verb === 'remove') {
@@ -245,6 +244,8 @@ export function applyFields(draft: MeasureDraft, entries: Iterable<[string, unkn
 	for (const [key, value] of entries) {
 		if (typeof value !== 'string') continue;
 		if (key !== 'builtYear' && !key.startsWith('rooms.')) continue;
+		// A name no draft path can have (`rooms.0.__proto__.x`) is not a field of the measure.
+		if (!fieldPath(key).ok) continue;
 		values.set(key, [...(values.get(key) ?? []), value]);
 	}
 	for (const [key, vs] of values) {

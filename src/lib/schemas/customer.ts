@@ -32,7 +32,7 @@ export const customerListSchema = z.object({
 	q: optionalText(100),
 	sort: z.enum(CUSTOMER_SORTS).default('name'),
 	dir: z.enum(['asc', 'desc']).default('asc'),
-	page: z.coerce.number().int().min(1).default(1),
+	page: z.coerce.number().int().min(1).max(100_000).default(1),
 	pageSize: z.coerce.number().int().min(1).max(100).default(25)
 });
 

@@ -29,7 +29,7 @@ export const jobListSchema = z.object({
 	status: z.enum(JOB_STATUSES).optional(),
 	sort: z.enum(JOB_SORTS).default('number'),
 	dir: z.enum(['asc', 'desc']).default('desc'),
-	page: z.coerce.number().int().min(1).default(1),
+	page: z.coerce.number().int().min(1).max(100_000).default(1),
 	pageSize: z.coerce.number().int().min(1).max(100).default(25)
 });
 

@@ -6,7 +6,9 @@ export const measureSaveSchema = z.object({
 	baseVersion: z
 		.number({ error: 'Send the version the changes were made on (0 for a new measure)' })
 		.int()
-		.min(0),
+		.min(0)
+		// The version is a PostgreSQL integer.
+		.max(2_147_483_647),
 	draft: measureDraftSchema
 });
 

@@ -1,19 +1,18 @@
 /**
- * The price book's forms: fields as people type them (prices in dollars "12.50", lengths as text
- * "12 ft", "7 in") turned into the estimating engine's shapes (integer cents, inches), then checked
- * with the engine's own schemas, so what is saved is exactly what the engine prices by.
- * Browser-safe: shared by the pages, their actions and the JSON API.
+ * The price book's forms: fields as people type them (prices in the store's currency, "12.50" or
+ * "1250" yen; lengths as text "12 ft", "7 in"), read by `$lib/input` into the estimating engine's
+ * shapes (integers in the currency's smallest unit, inches), then checked with the engine's own
+ * schemas, so what is saved is exactly what the engine prices by. The forms depend on the
+ * currency, so each is a function of it (`sectionForm`). Browser-safe: shared by the pages, their
+ * actions and the JSON API.
  */
 import { z } from 'zod';
 import {
 	BASES,
-	CUIN_PER_CUFT,
 	CUIN_PER_US_GAL,
 	EXISTING_FLOOR_KINDS,
 	FLOOR_KINDS,
 	formatLength,
-	MM_PER_IN,
-	parseLength,
 	PREP,
 	PREP_KINDS,
 	ROLL_KINDS,
@@ -29,8 +28,21 @@ import {
 	type SupplyPrice
 } from '$lib/estimating';
 import { EXISTING_FLOOR_LABELS, PREP_LABELS, SUPPLY_LABELS } from '$lib/measure/labels';
+import {
+	moneyField,
+	moneyToInput,
+	optionalLengthField,
+	optionalMoneyField,
+	optionalField,
+	optionalNumberField,
+	optionalVolumeField,
+	readLength,
+	readNumber,
+	textField as fieldText,
+	tooLong,
+	type Read
+} from '$lib/input';
 import { floorProductSchema, priceBookSchema } from './estimate';
-import { centsToInput, parseMoney } from './money';
 
 export const PRICE_SECTIONS = ['floor', 'prep', 'removal', 'supply'] as const;
 export type PriceSectionName = (typeof PRICE_SECTIONS)[number];
@@ -107,71 +119,29 @@ export const SUPPLY_BASES: Record<SupplyKind, Basis[]> = {
 
 // ---------------------------------------------------------------- typed fields
 
-const fieldText = z
-	.string()
-	.optional()
-	.transform((v) => (v ?? '').trim());
-
-/** A required price in dollars, to integer cents; empty is a field error. */
-export const priceField = (what: string) =>
-	fieldText.transform((v, ctx) => {
-		const r = parseMoney(v);
-		if (!r.ok) {
-			ctx.addIssue({ code: 'custom', message: v ? r.message : `Enter ${what}, e.g. 12.50` });
-			return z.NEVER;
-		}
-		return r.cents;
-	});
+/** A required price in `currency`, to its smallest unit; empty is a field error. */
+export const priceField = (what: string, currency: string) => moneyField(currency, { label: what });
 
 /** A price that may be left empty (undefined). */
-export const optionalPriceField = fieldText.transform((v, ctx) => {
-	if (!v) return undefined;
-	const r = parseMoney(v);
-	if (!r.ok) {
-		ctx.addIssue({ code: 'custom', message: r.message });
-		return z.NEVER;
-	}
-	return r.cents;
-});
+export const optionalPriceField = (what: string, currency: string) =>
+	optionalMoneyField(currency, { label: what });
 
 /** A positive number (ft², ft³, %), or undefined when empty. */
 const optionalNumber = (what: string, max = 1_000_000) =>
-	fieldText.transform((v, ctx) => {
-		if (!v) return undefined;
-		const n = Number(v.replace(/,/g, ''));
-		if (!Number.isFinite(n) || !/^[\d.,\s]+$/.test(v)) {
-			ctx.addIssue({ code: 'custom', message: `Cannot read "${v}": type a number for ${what}` });
-			return z.NEVER;
-		}
-		if (n <= 0 || n > max) {
-			ctx.addIssue({ code: 'custom', message: `${what} must be above 0 and at most ${max}` });
-			return z.NEVER;
-		}
-		return n;
-	});
+	optionalNumberField({ label: what, above: 0, max });
 
 /** A length typed as text (`12 ft`, `7 in`, `3.66 m`, `144`: plain numbers are inches), to inches. */
-const optionalLength = (what: string) =>
-	fieldText.transform((v, ctx) => {
-		if (!v) return undefined;
-		const r = parseLength(v, 'in');
-		if (!r.ok) {
-			ctx.addIssue({ code: 'custom', message: r.message });
-			return z.NEVER;
-		}
-		if (!(r.inches > 0)) {
-			ctx.addIssue({ code: 'custom', message: `${what} must be more than 0` });
-			return z.NEVER;
-		}
-		return r.inches;
-	});
+const optionalLength = (what: string) => optionalLengthField('in', { label: what, positive: true });
 
-/** Tile edges typed as `12 x 24`, `12" × 24"`, `300 x 600 mm` (a trailing unit applies to both). */
-export function parseTileEdges(
-	text: string
-): { ok: true; edges: number[] } | { ok: false; message: string } {
+/**
+ * Tile edges typed as `12 x 24`, `12" × 24"`, `12, 24`, `300 x 600 mm` (a trailing unit applies to
+ * both). A comma with no space after it is a number's, by the one number rule.
+ */
+export function parseTileEdges(text: string): Read<number[]> {
+	const long = tooLong(text);
+	if (long) return long;
 	const parts = text
-		.split(/\s*(?:x|×|by|,)\s*/i)
+		.split(/\s*(?:x|×|by)\s*|,\s+/i)
 		.map((p) => p.trim())
 		.filter(Boolean);
 	if (parts.length < 1 || parts.length > 2) {
@@ -180,72 +150,20 @@ export function parseTileEdges(
 	const unit = /(mm|cm|m|in|")\s*$/i.exec(parts[parts.length - 1])?.[1];
 	const edges: number[] = [];
 	for (const p of parts) {
-		const typed = unit && /^[\d.\s/]+$/.test(p) ? `${p} ${unit === '"' ? 'in' : unit}` : p;
-		const r = parseLength(typed, 'in');
-		if (!r.ok) return { ok: false, message: r.message };
-		if (!(r.inches > 0)) return { ok: false, message: 'A tile edge must be more than 0' };
-		edges.push(r.inches);
+		const typed = unit && /^[\d.,\s/]+$/.test(p) ? `${p} ${unit === '"' ? 'in' : unit}` : p;
+		const r = readLength(typed, 'in', { label: 'a tile edge', positive: true });
+		if (!r.ok) return r;
+		edges.push(r.value);
 	}
-	return { ok: true, edges };
+	return { ok: true, value: edges };
 }
 
-const optionalTileEdges = fieldText.transform((v, ctx) => {
-	if (!v) return undefined;
-	const r = parseTileEdges(v);
-	if (!r.ok) {
-		ctx.addIssue({ code: 'custom', message: r.message });
-		return z.NEVER;
-	}
-	return r.edges;
-});
+const optionalTileEdges = optionalField(parseTileEdges);
 
 /** `L/720` or `720`: the span-to-deflection ratio a floor needs. */
-const optionalRatio = fieldText.transform((v, ctx) => {
-	if (!v) return undefined;
-	const m = /^(?:l\s*\/\s*)?(\d+(?:\.\d+)?)$/i.exec(v);
-	const n = m ? Number(m[1]) : NaN;
-	if (!(n >= 1 && n <= 10_000)) {
-		ctx.addIssue({ code: 'custom', message: `Cannot read "${v}": type it as L/360 or 360` });
-		return z.NEVER;
-	}
-	return n;
-});
-
-const US_QT_CUIN = CUIN_PER_US_GAL / 4;
-/** 1 L = 1000 cm³ and 1 in = 2.54 cm exactly, so 1 in³ = 16.387064 cm³. */
-const CUIN_PER_LITRE = 1000 / (MM_PER_IN / 10) ** 3;
-const VOLUME_UNITS: [RegExp, number][] = [
-	[/^(gal|gallons?)$/i, CUIN_PER_US_GAL],
-	[/^(qt|quarts?)$/i, US_QT_CUIN],
-	[/^(l|litres?|liters?)$/i, CUIN_PER_LITRE],
-	[/^(cu\s*in|in³|in3|cubic\s+inch(es)?)$/i, 1],
-	[/^(cu\s*ft|ft³|ft3|cubic\s+f(oo|ee)t)$/i, CUIN_PER_CUFT]
-];
-
-/** A container volume typed as `1 gal`, `2 qt`, `3.78 L`, `231 cu in`, to cubic inches (US units). */
-export function parseVolume(
-	text: string
-): { ok: true; cuIn: number } | { ok: false; message: string } {
-	const m = /^\s*(\d+(?:\.\d+)?|\.\d+)\s*(.*)$/.exec(text);
-	if (!m) return { ok: false, message: `Cannot read "${text.trim()}": type e.g. 1 gal or 3.78 L` };
-	const n = Number(m[1]);
-	const unitText = m[2].trim();
-	if (!unitText) return { ok: false, message: 'Add the unit: gal, qt, L, cu in or cu ft' };
-	const unit = VOLUME_UNITS.find(([re]) => re.test(unitText));
-	if (!unit)
-		return { ok: false, message: `Cannot read "${unitText}": use gal, qt, L, cu in or cu ft` };
-	if (!(n > 0)) return { ok: false, message: 'A volume must be more than 0' };
-	return { ok: true, cuIn: n * unit[1] };
-}
-
-const optionalVolume = fieldText.transform((v, ctx) => {
-	if (!v) return undefined;
-	const r = parseVolume(v);
-	if (!r.ok) {
-		ctx.addIssue({ code: 'custom', message: r.message });
-		return z.NEVER;
-	}
-	return r.cuIn;
+const optionalRatio = optionalField((v) => {
+	const r = readNumber(v.replace(/^l\s*\/\s*/i, ''), { label: 'the ratio', min: 1, max: 10_000 });
+	return r.ok ? r : { ok: false, message: `Cannot read "${v}": type it as L/360 or 360` };
 });
 
 const nameField = (message: string) =>
@@ -348,76 +266,77 @@ const FLOOR_FIELDS: Record<string, string> = {
 	needs: 'deflectionRatio'
 };
 
-export const floorFormSchema = z
-	.object({
-		name: nameField('Name the product, e.g. "Oak plank 7 in"'),
-		kind: enumField(FLOOR_KINDS as [FloorKind, ...FloorKind[]], 'Choose the kind of floor'),
-		fastening: z.enum(['', ...FASTENINGS]).default(''),
-		cartonSqFt: optionalNumber('Carton coverage', 1000),
-		rollWidth: optionalLength('Roll width'),
-		tileEdges: optionalTileEdges,
-		boardWidth: optionalLength('Board width'),
-		materialBasis: enumField(MATERIAL_BASES, 'Choose how the material is priced'),
-		materialPrice: priceField('the material price'),
-		materialCost: optionalPriceField,
-		labourPrice: priceField('the install price per ft²'),
-		payPrice: priceField('the installer pay per ft²'),
-		deflectionRatio: optionalRatio,
-		rhLimit: optionalNumber('The RH limit', 100),
-		mverLimit: optionalNumber('The MVER limit', 100),
-		underlayment: z.enum(['', 'yes', 'no']).default('')
-	})
-	.transform((f, ctx) => {
-		const issue = refuser(ctx);
-		const roll = isRollKind(f.kind);
-		if (roll && f.rollWidth === undefined) {
-			issue('rollWidth', 'Enter the roll width, e.g. 12 ft');
-		}
-		if (!roll && f.cartonSqFt === undefined) {
-			issue('cartonSqFt', 'Enter the ft² one carton covers (on the carton label)');
-		}
-		if (!materialBasesFor(f.kind).includes(f.materialBasis)) {
-			issue(
-				'materialBasis',
-				roll
-					? 'Roll goods are priced per yd² or per linear ft of roll'
-					: 'Carton goods are priced per carton or per ft² (whole cartons)'
+export const floorForm = (currency: string) =>
+	z
+		.object({
+			name: nameField('Name the product, e.g. "Oak plank 7 in"'),
+			kind: enumField(FLOOR_KINDS as [FloorKind, ...FloorKind[]], 'Choose the kind of floor'),
+			fastening: z.enum(['', ...FASTENINGS]).default(''),
+			cartonSqFt: optionalNumber('Carton coverage', 1000),
+			rollWidth: optionalLength('Roll width'),
+			tileEdges: optionalTileEdges,
+			boardWidth: optionalLength('Board width'),
+			materialBasis: enumField(MATERIAL_BASES, 'Choose how the material is priced'),
+			materialPrice: priceField('the material price', currency),
+			materialCost: optionalPriceField('the store cost', currency),
+			labourPrice: priceField('the install price per ft²', currency),
+			payPrice: priceField('the installer pay per ft²', currency),
+			deflectionRatio: optionalRatio,
+			rhLimit: optionalNumber('The RH limit', 100),
+			mverLimit: optionalNumber('The MVER limit', 100),
+			underlayment: z.enum(['', 'yes', 'no']).default('')
+		})
+		.transform((f, ctx) => {
+			const issue = refuser(ctx);
+			const roll = isRollKind(f.kind);
+			if (roll && f.rollWidth === undefined) {
+				issue('rollWidth', 'Enter the roll width, e.g. 12 ft');
+			}
+			if (!roll && f.cartonSqFt === undefined) {
+				issue('cartonSqFt', 'Enter the ft² one carton covers (on the carton label)');
+			}
+			if (!materialBasesFor(f.kind).includes(f.materialBasis)) {
+				issue(
+					'materialBasis',
+					roll
+						? 'Roll goods are priced per yd² or per linear ft of roll'
+						: 'Carton goods are priced per carton or per ft² (whole cartons)'
+				);
+			}
+			if (issue.count) return z.NEVER;
+			const needs = {
+				...(f.deflectionRatio !== undefined && { deflectionRatio: f.deflectionRatio }),
+				...(f.rhLimit !== undefined && { rhLimitPct: f.rhLimit }),
+				...(f.mverLimit !== undefined && { mverLimit: f.mverLimit }),
+				...(f.underlayment && { underlayment: f.underlayment === 'yes' })
+			};
+			const data: FloorData = {
+				kind: f.kind,
+				...(f.fastening && { fastening: f.fastening }),
+				...(roll ? { rollWidthIn: f.rollWidth } : { cartonSqFt: f.cartonSqFt }),
+				...(isTileKind(f.kind) && f.tileEdges && { tileEdgesIn: f.tileEdges }),
+				...(isWoodKind(f.kind) && f.boardWidth !== undefined && { boardWidthIn: f.boardWidth }),
+				material: {
+					basis: f.materialBasis,
+					priceCents: f.materialPrice,
+					...(f.materialCost !== undefined && { costCents: f.materialCost })
+				},
+				labourCentsPerSqFt: f.labourPrice,
+				payCentsPerSqFt: f.payPrice,
+				...(Object.keys(needs).length && { needs })
+			};
+			const checked = engineCheck(
+				floorDataSchema,
+				data,
+				ctx,
+				(p) => FLOOR_FIELDS[String(p[0])] ?? 'name'
 			);
-		}
-		if (issue.count) return z.NEVER;
-		const needs = {
-			...(f.deflectionRatio !== undefined && { deflectionRatio: f.deflectionRatio }),
-			...(f.rhLimit !== undefined && { rhLimitPct: f.rhLimit }),
-			...(f.mverLimit !== undefined && { mverLimit: f.mverLimit }),
-			...(f.underlayment && { underlayment: f.underlayment === 'yes' })
-		};
-		const data: FloorData = {
-			kind: f.kind,
-			...(f.fastening && { fastening: f.fastening }),
-			...(roll ? { rollWidthIn: f.rollWidth } : { cartonSqFt: f.cartonSqFt }),
-			...(isTileKind(f.kind) && f.tileEdges && { tileEdgesIn: f.tileEdges }),
-			...(isWoodKind(f.kind) && f.boardWidth !== undefined && { boardWidthIn: f.boardWidth }),
-			material: {
-				basis: f.materialBasis,
-				priceCents: f.materialPrice,
-				...(f.materialCost !== undefined && { costCents: f.materialCost })
-			},
-			labourCentsPerSqFt: f.labourPrice,
-			payCentsPerSqFt: f.payPrice,
-			...(Object.keys(needs).length && { needs })
-		};
-		const checked = engineCheck(
-			floorDataSchema,
-			data,
-			ctx,
-			(p) => FLOOR_FIELDS[String(p[0])] ?? 'name'
-		);
-		if (checked === z.NEVER) return z.NEVER;
-		return { section: 'floor' as const, code: '', name: f.name, data: checked as FloorData };
-	});
+			if (checked === z.NEVER) return z.NEVER;
+			return { section: 'floor' as const, code: '', name: f.name, data: checked as FloorData };
+		});
 
 /** A floor line as its form shows it (prices in dollars, lengths as text). */
-export function floorToForm(name: string, d: FloorData): Record<string, string> {
+export function floorToForm(name: string, d: FloorData, currency: string): Record<string, string> {
 	return {
 		name,
 		kind: d.kind,
@@ -427,10 +346,10 @@ export function floorToForm(name: string, d: FloorData): Record<string, string> 
 		tileEdges: d.tileEdgesIn?.map((e) => formatLength(e, 'in')).join(' x ') ?? '',
 		boardWidth: d.boardWidthIn !== undefined ? formatLength(d.boardWidthIn, 'in') : '',
 		materialBasis: d.material.basis,
-		materialPrice: centsToInput(d.material.priceCents),
-		materialCost: centsToInput(d.material.costCents),
-		labourPrice: centsToInput(d.labourCentsPerSqFt),
-		payPrice: centsToInput(d.payCentsPerSqFt),
+		materialPrice: moneyToInput(d.material.priceCents, currency),
+		materialCost: moneyToInput(d.material.costCents, currency),
+		labourPrice: moneyToInput(d.labourCentsPerSqFt, currency),
+		payPrice: moneyToInput(d.payCentsPerSqFt, currency),
 		deflectionRatio: d.needs?.deflectionRatio ? `L/${d.needs.deflectionRatio}` : '',
 		rhLimit: d.needs?.rhLimitPct !== undefined ? String(d.needs.rhLimitPct) : '',
 		mverLimit: d.needs?.mverLimit !== undefined ? String(d.needs.mverLimit) : '',
@@ -440,46 +359,52 @@ export function floorToForm(name: string, d: FloorData): Record<string, string> 
 
 // ---------------------------------------------------------------- prep services
 
-export const prepFormSchema = z
-	.object({
-		kind: enumField(PREP_KINDS as [PrepKind, ...PrepKind[]], 'Choose the prep service'),
-		name: optionalName,
-		basis: enumField(BASES as [Basis, ...Basis[]], 'Choose what the price is per'),
-		price: priceField('the customer price'),
-		pay: priceField('the installer pay'),
-		cost: optionalPriceField
-	})
-	.transform((f, ctx) => {
-		const name = f.name || PREP_LABELS[f.kind];
-		const data: PrepData = {
-			basis: f.basis,
-			priceCents: f.price,
-			payCents: f.pay,
-			...(f.cost !== undefined && { costCents: f.cost })
-		};
-		const fields: Record<string, string> = {
-			priceCents: 'price',
-			payCents: 'pay',
-			costCents: 'cost'
-		};
-		const checked = engineCheck(
-			prepItemSchema,
-			{ ...data, kind: f.kind, name },
-			ctx,
-			(p) => fields[String(p[0])] ?? String(p[0])
-		);
-		if (checked === z.NEVER) return z.NEVER;
-		return { section: 'prep' as const, code: f.kind, name, data };
-	});
+export const prepForm = (currency: string) =>
+	z
+		.object({
+			kind: enumField(PREP_KINDS as [PrepKind, ...PrepKind[]], 'Choose the prep service'),
+			name: optionalName,
+			basis: enumField(BASES as [Basis, ...Basis[]], 'Choose what the price is per'),
+			price: priceField('the customer price', currency),
+			pay: priceField('the installer pay', currency),
+			cost: optionalPriceField('the store cost', currency)
+		})
+		.transform((f, ctx) => {
+			const name = f.name || PREP_LABELS[f.kind];
+			const data: PrepData = {
+				basis: f.basis,
+				priceCents: f.price,
+				payCents: f.pay,
+				...(f.cost !== undefined && { costCents: f.cost })
+			};
+			const fields: Record<string, string> = {
+				priceCents: 'price',
+				payCents: 'pay',
+				costCents: 'cost'
+			};
+			const checked = engineCheck(
+				prepItemSchema,
+				{ ...data, kind: f.kind, name },
+				ctx,
+				(p) => fields[String(p[0])] ?? String(p[0])
+			);
+			if (checked === z.NEVER) return z.NEVER;
+			return { section: 'prep' as const, code: f.kind, name, data };
+		});
 
-export function prepToForm(code: string, name: string, d: PrepData): Record<string, string> {
+export function prepToForm(
+	code: string,
+	name: string,
+	d: PrepData,
+	currency: string
+): Record<string, string> {
 	return {
 		kind: code,
 		name: name === PREP_LABELS[code as PrepKind] ? '' : name,
 		basis: d.basis,
-		price: centsToInput(d.priceCents),
-		pay: centsToInput(d.payCents),
-		cost: centsToInput(d.costCents)
+		price: moneyToInput(d.priceCents, currency),
+		pay: moneyToInput(d.payCents, currency),
+		cost: moneyToInput(d.costCents, currency)
 	};
 }
 
@@ -488,134 +413,143 @@ export const prepUnit = (kind: PrepKind) => PREP[kind].unit;
 
 // ---------------------------------------------------------------- removal
 
-export const removalFormSchema = z
-	.object({
-		existing: enumField(
-			EXISTING_FLOOR_KINDS as [ExistingFloorKind, ...ExistingFloorKind[]],
-			'Choose the existing floor'
-		),
-		name: optionalName,
-		basis: enumField(['sqft', 'room'] as const, 'Choose per ft² or per room'),
-		price: priceField('the customer price'),
-		pay: priceField('the installer pay')
-	})
-	.transform((f, ctx) => {
-		const name = f.name || removalName(f.existing);
-		const data: RemovalData = { basis: f.basis, priceCents: f.price, payCents: f.pay };
-		const fields: Record<string, string> = { priceCents: 'price', payCents: 'pay' };
-		const checked = engineCheck(
-			removalItemSchema,
-			{ ...data, existing: f.existing },
-			ctx,
-			(p) => fields[String(p[0])] ?? String(p[0])
-		);
-		if (checked === z.NEVER) return z.NEVER;
-		return { section: 'removal' as const, code: f.existing, name, data };
-	});
+export const removalForm = (currency: string) =>
+	z
+		.object({
+			existing: enumField(
+				EXISTING_FLOOR_KINDS as [ExistingFloorKind, ...ExistingFloorKind[]],
+				'Choose the existing floor'
+			),
+			name: optionalName,
+			basis: enumField(['sqft', 'room'] as const, 'Choose per ft² or per room'),
+			price: priceField('the customer price', currency),
+			pay: priceField('the installer pay', currency)
+		})
+		.transform((f, ctx) => {
+			const name = f.name || removalName(f.existing);
+			const data: RemovalData = { basis: f.basis, priceCents: f.price, payCents: f.pay };
+			const fields: Record<string, string> = { priceCents: 'price', payCents: 'pay' };
+			const checked = engineCheck(
+				removalItemSchema,
+				{ ...data, existing: f.existing },
+				ctx,
+				(p) => fields[String(p[0])] ?? String(p[0])
+			);
+			if (checked === z.NEVER) return z.NEVER;
+			return { section: 'removal' as const, code: f.existing, name, data };
+		});
 
 export const removalName = (existing: ExistingFloorKind) =>
 	`Tear out ${EXISTING_FLOOR_LABELS[existing].toLowerCase()}`;
 
-export function removalToForm(code: string, name: string, d: RemovalData): Record<string, string> {
+export function removalToForm(
+	code: string,
+	name: string,
+	d: RemovalData,
+	currency: string
+): Record<string, string> {
 	return {
 		existing: code,
 		name: name === removalName(code as ExistingFloorKind) ? '' : name,
 		basis: d.basis,
-		price: centsToInput(d.priceCents),
-		pay: centsToInput(d.payCents)
+		price: moneyToInput(d.priceCents, currency),
+		pay: moneyToInput(d.payCents, currency)
 	};
 }
 
 // ---------------------------------------------------------------- supplies
 
-export const supplyFormSchema = z
-	.object({
-		kind: enumField(SUPPLY_KINDS as [SupplyKind, ...SupplyKind[]], 'Choose the supply'),
-		name: nameField('Name the product, e.g. "Plywood underlayment 1/4 in, 4 × 8 ft"'),
-		basis: enumField(BASES as [Basis, ...Basis[]], 'Choose what the price is per'),
-		price: priceField('the price'),
-		cost: optionalPriceField,
-		perBox: fieldText.transform((v, ctx) => {
-			if (!v) return undefined;
-			const n = Number(v.replace(/,/g, ''));
-			if (!Number.isInteger(n) || n < 1) {
-				ctx.addIssue({ code: 'custom', message: 'Type a whole number of fasteners, e.g. 1000' });
-				return z.NEVER;
+export const supplyForm = (currency: string) =>
+	z
+		.object({
+			kind: enumField(SUPPLY_KINDS as [SupplyKind, ...SupplyKind[]], 'Choose the supply'),
+			name: nameField('Name the product, e.g. "Plywood underlayment 1/4 in, 4 × 8 ft"'),
+			basis: enumField(BASES as [Basis, ...Basis[]], 'Choose what the price is per'),
+			price: priceField('the price', currency),
+			cost: optionalPriceField('the store cost', currency),
+			perBox: optionalNumberField({
+				label: 'the fasteners in a box',
+				min: 1,
+				max: 1_000_000,
+				integer: true
+			}),
+			patchBy: z.enum(['volume', 'coverage']).default('volume'),
+			patchVolume: optionalVolumeField,
+			patchCoverage: optionalNumber('The coverage', 10_000),
+			patchDepth: optionalLength('The depth'),
+			bagYield: optionalNumber('The bag yield', 100)
+		})
+		.transform((f, ctx) => {
+			const issue = refuser(ctx);
+			if (!SUPPLY_BASES[f.kind].includes(f.basis)) {
+				issue(
+					'basis',
+					`${SUPPLY_LABELS[f.kind]} is counted ${SUPPLY_BASES[f.kind].map((b) => BASIS_LABELS[b]).join(' or ')}`
+				);
 			}
-			return n;
-		}),
-		patchBy: z.enum(['volume', 'coverage']).default('volume'),
-		patchVolume: optionalVolume,
-		patchCoverage: optionalNumber('The coverage', 10_000),
-		patchDepth: optionalLength('The depth'),
-		bagYield: optionalNumber('The bag yield', 100)
-	})
-	.transform((f, ctx) => {
-		const issue = refuser(ctx);
-		if (!SUPPLY_BASES[f.kind].includes(f.basis)) {
-			issue(
-				'basis',
-				`${SUPPLY_LABELS[f.kind]} is counted ${SUPPLY_BASES[f.kind].map((b) => BASIS_LABELS[b]).join(' or ')}`
+			if (f.kind === 'fastener' && f.basis === 'box' && f.perBox === undefined) {
+				issue('perBox', 'Enter how many fasteners come in a box');
+			}
+			let container: SupplyData['container'];
+			if (f.kind === 'patch') {
+				if (f.patchBy === 'volume') {
+					if (f.patchVolume === undefined) {
+						issue('patchVolume', 'Enter what one container holds, e.g. 1 gal');
+					} else container = { volumeCuIn: f.patchVolume };
+				} else {
+					if (f.patchCoverage === undefined) {
+						issue('patchCoverage', 'Enter the ft² one container covers');
+					}
+					if (f.patchDepth === undefined) {
+						issue('patchDepth', 'Enter the depth that coverage is at, e.g. 1/8 in');
+					}
+					if (f.patchCoverage !== undefined && f.patchDepth !== undefined) {
+						container = { coverageSqFt: f.patchCoverage, atDepthIn: f.patchDepth };
+					}
+				}
+			}
+			if (f.kind === 'leveller' && f.bagYield === undefined) {
+				issue('bagYield', 'Enter the bag yield in ft³ (on the data sheet)');
+			}
+			if (issue.count) return z.NEVER;
+			const data: SupplyData = {
+				basis: f.basis,
+				priceCents: f.price,
+				...(f.cost !== undefined && { costCents: f.cost }),
+				...(f.kind === 'fastener' && f.perBox !== undefined && { perBox: f.perBox }),
+				...(container && { container }),
+				...(f.kind === 'leveller' && { bagYieldCuFt: f.bagYield })
+			};
+			const fields: Record<string, string> = {
+				priceCents: 'price',
+				costCents: 'cost',
+				perBox: 'perBox',
+				container: 'patchVolume',
+				bagYieldCuFt: 'bagYield'
+			};
+			const checked = engineCheck(
+				supplyItemSchema,
+				{ ...data, kind: f.kind, name: f.name },
+				ctx,
+				(p) => fields[String(p[0])] ?? String(p[0])
 			);
-		}
-		if (f.kind === 'fastener' && f.basis === 'box' && f.perBox === undefined) {
-			issue('perBox', 'Enter how many fasteners come in a box');
-		}
-		let container: SupplyData['container'];
-		if (f.kind === 'patch') {
-			if (f.patchBy === 'volume') {
-				if (f.patchVolume === undefined) {
-					issue('patchVolume', 'Enter what one container holds, e.g. 1 gal');
-				} else container = { volumeCuIn: f.patchVolume };
-			} else {
-				if (f.patchCoverage === undefined) {
-					issue('patchCoverage', 'Enter the ft² one container covers');
-				}
-				if (f.patchDepth === undefined) {
-					issue('patchDepth', 'Enter the depth that coverage is at, e.g. 1/8 in');
-				}
-				if (f.patchCoverage !== undefined && f.patchDepth !== undefined) {
-					container = { coverageSqFt: f.patchCoverage, atDepthIn: f.patchDepth };
-				}
-			}
-		}
-		if (f.kind === 'leveller' && f.bagYield === undefined) {
-			issue('bagYield', 'Enter the bag yield in ft³ (on the data sheet)');
-		}
-		if (issue.count) return z.NEVER;
-		const data: SupplyData = {
-			basis: f.basis,
-			priceCents: f.price,
-			...(f.cost !== undefined && { costCents: f.cost }),
-			...(f.kind === 'fastener' && f.perBox !== undefined && { perBox: f.perBox }),
-			...(container && { container }),
-			...(f.kind === 'leveller' && { bagYieldCuFt: f.bagYield })
-		};
-		const fields: Record<string, string> = {
-			priceCents: 'price',
-			costCents: 'cost',
-			perBox: 'perBox',
-			container: 'patchVolume',
-			bagYieldCuFt: 'bagYield'
-		};
-		const checked = engineCheck(
-			supplyItemSchema,
-			{ ...data, kind: f.kind, name: f.name },
-			ctx,
-			(p) => fields[String(p[0])] ?? String(p[0])
-		);
-		if (checked === z.NEVER) return z.NEVER;
-		return { section: 'supply' as const, code: f.kind, name: f.name, data };
-	});
+			if (checked === z.NEVER) return z.NEVER;
+			return { section: 'supply' as const, code: f.kind, name: f.name, data };
+		});
 
-export function supplyToForm(code: string, name: string, d: SupplyData): Record<string, string> {
+export function supplyToForm(
+	code: string,
+	name: string,
+	d: SupplyData,
+	currency: string
+): Record<string, string> {
 	const c = d.container;
 	return {
 		kind: code,
 		name,
 		basis: d.basis,
-		price: centsToInput(d.priceCents),
-		cost: centsToInput(d.costCents),
+		price: moneyToInput(d.priceCents, currency),
+		cost: moneyToInput(d.costCents, currency),
 		perBox: d.perBox !== undefined ? String(d.perBox) : '',
 		patchBy: c && 'coverageSqFt' in c ? 'coverage' : 'volume',
 		patchVolume: c && 'volumeCuIn' in c ? volumeText(c.volumeCuIn) : '',
@@ -633,13 +567,19 @@ export function volumeText(cuIn: number): string {
 	return `${Math.round(cuIn * 100) / 100} cu in`;
 }
 
-/** The form schema of a section. */
-export const SECTION_FORMS = {
-	floor: floorFormSchema,
-	prep: prepFormSchema,
-	removal: removalFormSchema,
-	supply: supplyFormSchema
-} as const;
+/** The form schema of a section, for prices typed in `currency`. */
+export function sectionForm(section: PriceSectionName, currency: string) {
+	switch (section) {
+		case 'floor':
+			return floorForm(currency);
+		case 'prep':
+			return prepForm(currency);
+		case 'removal':
+			return removalForm(currency);
+		case 'supply':
+			return supplyForm(currency);
+	}
+}
 
 export const isSection = (s: string): s is PriceSectionName =>
 	(PRICE_SECTIONS as readonly string[]).includes(s);

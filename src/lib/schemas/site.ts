@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { readNumber } from '$lib/input';
 import { requiredText } from './fields';
 
 const text = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters`);
@@ -7,16 +8,16 @@ const text = (max: number) => z.string().trim().max(max, `Keep it under ${max} c
 const builtYear = z.union([z.string(), z.number(), z.null()]).transform((v, ctx) => {
 	const s = v === null ? '' : String(v).trim();
 	if (!s) return null;
-	const n = Number(s);
 	const next = new Date().getFullYear() + 1;
-	if (!Number.isInteger(n) || n < 1600 || n > next) {
+	const n = readNumber(s, { label: 'the year', min: 1600, max: next, integer: true });
+	if (!n.ok) {
 		ctx.addIssue({
 			code: 'custom',
 			message: `Type the year the house was built, from 1600 to ${next}, or leave it empty`
 		});
 		return z.NEVER;
 	}
-	return n;
+	return n.value;
 });
 
 const fields = {

@@ -1,9 +1,10 @@
 /**
  * The store's trade settings form: taxes, deposit, quote validity, units, waste by layout, the
  * underlayment fastening schedule and crew output, typed as people type them (rates "6.5",
- * dollars "250.00") and laid over the store's whole settings document, which is then checked with
- * the engine's `settingsSchema`. Every other default of the engine is kept as it is.
- * Browser-safe.
+ * amounts "250.00", or "25000" in yen) and read by `$lib/input`, laid over the store's whole
+ * settings document, which is then checked with the engine's `settingsSchema`. Every other
+ * default of the engine is kept as it is. The form posts dotted names (`taxes.0.rate`), read with
+ * `readFields`. Browser-safe.
  */
 import { z } from 'zod';
 import {
@@ -14,8 +15,16 @@ import {
 	type LineGroup,
 	type StoreSettings
 } from '$lib/estimating';
+import {
+	bpsToInput,
+	moneyField,
+	moneyToInput,
+	numberField,
+	readPercentBps,
+	textField as text,
+	percentBpsField
+} from '$lib/input';
 import { settingsSchema } from './estimate';
-import { bpsToInput, centsToInput, parseMoney, parsePercentBps } from './money';
 
 export const LINE_GROUP_LABELS: Record<LineGroup, string> = {
 	material: 'Materials',
@@ -39,61 +48,8 @@ export const LENGTH_UNIT_LABELS: Record<StoreSettings['units']['defaultLengthUni
 	m: 'metres'
 };
 
-/** Turns dotted form names (`taxes.0.rate`, `waste.straight`) into nested objects and arrays. */
-export function nestForm(entries: Iterable<[string, FormDataEntryValue]>): Record<string, unknown> {
-	const root: Record<string, unknown> = {};
-	for (const [key, value] of entries) {
-		if (typeof value !== 'string') continue;
-		const parts = key.split('.');
-		let node: Record<string, unknown> = root;
-		parts.forEach((part, i) => {
-			if (i === parts.length - 1) {
-				node[part] = value;
-				return;
-			}
-			const nextIsIndex = /^\d+$/.test(parts[i + 1]);
-			node[part] ??= nextIsIndex ? [] : {};
-			node = node[part] as Record<string, unknown>;
-		});
-	}
-	return root;
-}
-
-const text = z
-	.string()
-	.optional()
-	.transform((v) => (v ?? '').trim());
-
-const number = (what: string, { min = 0, max = 1_000_000, whole = false } = {}) =>
-	text.transform((v, ctx) => {
-		if (!v) {
-			ctx.addIssue({ code: 'custom', message: `Enter ${what}` });
-			return z.NEVER;
-		}
-		const n = Number(v.replace(/,/g, ''));
-		if (!Number.isFinite(n) || (whole && !Number.isInteger(n))) {
-			ctx.addIssue({
-				code: 'custom',
-				message: `Cannot read "${v}": type ${whole ? 'a whole number' : 'a number'}`
-			});
-			return z.NEVER;
-		}
-		if (n < min || n > max) {
-			ctx.addIssue({ code: 'custom', message: `Type a number from ${min} to ${max}` });
-			return z.NEVER;
-		}
-		return n;
-	});
-
-const percentBps = (what: string) =>
-	text.transform((v, ctx) => {
-		const r = parsePercentBps(v);
-		if (!r.ok) {
-			ctx.addIssue({ code: 'custom', message: v ? r.message : `Enter ${what}, e.g. 6.5` });
-			return z.NEVER;
-		}
-		return r.bps;
-	});
+const number = (what: string, options: { min?: number; max?: number; whole?: boolean } = {}) =>
+	numberField({ label: what, min: options.min, max: options.max, integer: options.whole });
 
 const checkbox = z
 	.string()
@@ -117,17 +73,13 @@ const taxRow = z
 			ctx.addIssue({ code: 'custom', path: ['name'], message: 'Name this tax, e.g. Sales tax' });
 			bad = true;
 		}
-		const rate = parsePercentBps(row.rate);
+		const rate = readPercentBps(row.rate, 'the rate');
 		if (!rate.ok) {
-			ctx.addIssue({
-				code: 'custom',
-				path: ['rate'],
-				message: row.rate ? rate.message : 'Enter the rate, e.g. 6.5'
-			});
+			ctx.addIssue({ code: 'custom', path: ['rate'], message: rate.message });
 			bad = true;
 		}
 		if (bad || !rate.ok) return z.NEVER;
-		return { name: row.name, rateBps: rate.bps, groups };
+		return { name: row.name, rateBps: rate.value, groups };
 	});
 
 const byLayout = z.object(
@@ -142,8 +94,11 @@ const byFloor = z.object(
 	) as Record<FloorKind, ReturnType<typeof number>>
 );
 
-/** The trade settings form; `schedules` are the fastening schedules the store's settings hold. */
-export function tradeSettingsFormSchema(schedules: string[]) {
+/**
+ * The trade settings form; `schedules` are the fastening schedules the store's settings hold,
+ * `currency` the store's (amounts are typed with its decimals).
+ */
+export function tradeSettingsFormSchema(schedules: string[], currency: string) {
 	return z.object({
 		taxes: z
 			.array(taxRow)
@@ -155,18 +110,8 @@ export function tradeSettingsFormSchema(schedules: string[]) {
 		}),
 		deposit: z
 			.object({
-				percent: percentBps('the deposit percentage'),
-				minimum: text.transform((v, ctx) => {
-					const r = parseMoney(v);
-					if (!r.ok) {
-						ctx.addIssue({
-							code: 'custom',
-							message: v ? r.message : 'Enter the minimum deposit (0.00 for none)'
-						});
-						return z.NEVER;
-					}
-					return r.cents;
-				})
+				percent: percentBpsField('the deposit percentage'),
+				minimum: moneyField(currency, { label: 'the minimum deposit' })
 			})
 			.prefault({}),
 		quoteValidDays: number('how many days a quote stays open', { min: 1, max: 365, whole: true }),
@@ -233,11 +178,11 @@ export function applyTradeSettings(
 }
 
 /** The form's fields for the saved settings (dotted names, as the form posts them). */
-export function tradeSettingsToForm(s: StoreSettings, quoteValidDays: number) {
+export function tradeSettingsToForm(s: StoreSettings, quoteValidDays: number, currency: string) {
 	const values: Record<string, string> = {
 		taxRounding: s.taxRounding,
 		'deposit.percent': bpsToInput(s.deposit.percentBps),
-		'deposit.minimum': centsToInput(s.deposit.minimumCents),
+		'deposit.minimum': moneyToInput(s.deposit.minimumCents, currency),
 		quoteValidDays: String(quoteValidDays),
 		'units.system': s.units.system,
 		'units.defaultLengthUnit': s.units.defaultLengthUnit,
@@ -257,7 +202,7 @@ export function tradeSettingsToForm(s: StoreSettings, quoteValidDays: number) {
 export function taxRowCount(values: Record<string, string>): number {
 	let n = 0;
 	for (const [key, value] of Object.entries(values)) {
-		const m = /^taxes\.(\d+)\./.exec(key);
+		const m = /^taxes\.(\d{1,3})\./.exec(key);
 		if (m && value.trim()) n = Math.max(n, Number(m[1]) + 1);
 	}
 	return Math.min(n + 1, 10);

@@ -57,12 +57,12 @@ export const testSessionSchema = z.object({
 	account: stripeAccountId.optional()
 });
 
-/** The tester's form on /dev/stripe: an amount as typed (`1250.00`, or `12000` in yen). */
+/**
+ * The tester's form on /dev/stripe: an amount as typed (`1250.00`, or `12000` in yen), read by
+ * `readMoney` in the currency chosen.
+ */
 export const testPaymentFormSchema = z.object({
-	amount: z
-		.string({ error: 'Enter an amount' })
-		.trim()
-		.regex(/^\d{1,8}(\.\d{1,2})?$/, 'Enter an amount like 1250.00'),
+	amount: z.string({ error: 'Enter an amount' }).trim().max(30, 'Enter an amount like 1250.00'),
 	currency: z.enum(['usd', 'cad', 'eur', 'gbp', 'jpy'], { error: 'Choose a currency' }),
 	name: z.string().trim().min(1, 'Say what the payment is for').max(250)
 });

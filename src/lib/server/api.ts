@@ -1,5 +1,6 @@
 import { isHttpError, json, type RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { readJsonText } from '$lib/input';
 
 /** An API refusal carrying field issues, thrown by `readJson` and turned into 400 by `endpoint`. */
 class BadRequest extends Error {
@@ -42,9 +43,15 @@ export async function readJson<S extends z.ZodType>(
 	if (!request.headers.get('content-type')?.includes('application/json')) {
 		throw new BadRequest('Send the body as JSON (Content-Type: application/json)', [], 415);
 	}
-	const body = await request.json().catch(() => undefined);
-	if (body === undefined) throw new BadRequest('The body is not valid JSON');
-	const result = schema.safeParse(body);
+	const text = await request.text().catch(() => undefined);
+	if (text === undefined) throw new BadRequest('The body could not be read');
+	// Keys that would reach a prototype (`__proto__`, `constructor`) are refused at any depth.
+	const body = readJsonText(text);
+	if (!body.ok) {
+		const issues = body.path ? [{ path: body.path, message: body.message }] : [];
+		throw new BadRequest(body.message, issues);
+	}
+	const result = schema.safeParse(body.value);
 	if (!result.success) throw new BadRequest('Some fields are not valid', issuesOf(result.error));
 	return result.data;
 }

@@ -1,3 +1,5 @@
+import { own } from '$lib/input';
+
 /** Our words for better-auth's error codes, and which form field each belongs to. */
 const MESSAGES: Record<string, { message: string; field?: string }> = {
 	USER_ALREADY_EXISTS: {
@@ -65,14 +67,13 @@ export function authFailure(e: unknown): AuthFailure {
 	if (!isAuthError(e)) throw e;
 	const code = e.body?.code ?? '';
 	const status = typeof e.statusCode === 'number' ? e.statusCode : 400;
-	const known = MESSAGES[code];
+	const known = own(MESSAGES, code);
 	if (known) return { ...known, status: status >= 500 ? 400 : status };
 	if (code === 'VALIDATION_ERROR') {
 		// "[body.email] Invalid email address": the field is named in brackets.
 		const field = /\[body\.(\w+)\]/.exec(e.body?.message ?? '')?.[1];
-		if (field && MESSAGES[`INVALID_${field.toUpperCase()}`]) {
-			return { ...MESSAGES[`INVALID_${field.toUpperCase()}`], status: 400 };
-		}
+		const fieldMessage = field ? own(MESSAGES, `INVALID_${field.toUpperCase()}`) : undefined;
+		if (fieldMessage) return { ...fieldMessage, status: 400 };
 		return { message: 'Some fields are not valid. Check them and try again.', field, status: 400 };
 	}
 	if (status === 429) {

@@ -1,5 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { formFields, readFields } from '$lib/input';
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -13,12 +14,13 @@ export interface FormFailure {
 
 const SECRET_FIELDS = /password|confirm|token/i;
 
-/** The typed values of a form, to show again after a refusal; secrets are dropped. */
+/**
+ * The typed values of a form, to show again after a refusal; secrets are dropped, and so are
+ * names no form of ours has (`__proto__`, see `fieldPath`).
+ */
 export function typedValues(form: FormData): Record<string, string> {
-	const values: Record<string, string> = {};
-	for (const [key, value] of form) {
-		if (typeof value === 'string' && !SECRET_FIELDS.test(key)) values[key] = value;
-	}
+	const values = formFields(form);
+	for (const key of Object.keys(values)) if (SECRET_FIELDS.test(key)) delete values[key];
 	return values;
 }
 
@@ -33,8 +35,10 @@ export function fieldErrors(error: z.ZodError): FieldErrors {
 }
 
 /**
- * Parses a form with a zod schema. On failure the action returns `fail(400, ...)` with the typed
- * values and the field errors, so nothing the user typed is lost.
+ * Parses a form with a zod schema. Fields named by path (`deposit.minimum`) are read into nested
+ * objects by `readFields`, which refuses names that would reach a prototype. On failure the
+ * action returns `fail(400, ...)` with the typed values and the field errors (or a message for
+ * the whole form), so nothing the user typed is lost.
  */
 export async function parseForm<S extends z.ZodType>(
 	request: Request,
@@ -44,7 +48,9 @@ export async function parseForm<S extends z.ZodType>(
 	| { ok: false; failure: ReturnType<typeof refuse> }
 > {
 	const form = await request.formData();
-	const result = schema.safeParse(Object.fromEntries(form));
+	const fields = readFields(form);
+	if (!fields.ok) return { ok: false, failure: refuse(form, {}, fields.message) };
+	const result = schema.safeParse(fields.value);
 	if (result.success) return { ok: true, data: result.data, form };
 	return { ok: false, failure: refuse(form, fieldErrors(result.error)) };
 }

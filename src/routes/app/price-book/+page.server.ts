@@ -4,6 +4,7 @@ import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 import { currencyOf } from './lines.server';
+import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const { store } = requireRole('owner', 'manager');
@@ -17,7 +18,7 @@ export const actions: Actions = {
 	/** Deactivates or reactivates a line: an inactive line is kept but not used in new quotes. */
 	toggle: async ({ request }) => {
 		const { store } = requireRole('owner', 'manager');
-		const parsed = lineId.safeParse(Object.fromEntries(await request.formData()));
+		const parsed = lineId.safeParse(formFields(await request.formData()));
 		if (!parsed.success) return fail(400, { message: 'Choose a line' });
 		const current = await priceBook.read(store.id, parsed.data.id);
 		if (!current) error(404, 'Not found');

@@ -1,11 +1,12 @@
 import * as priceBook from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { fieldErrors, refuse } from '$lib/server/forms';
+import { formFields } from '$lib/input';
 import {
 	floorToForm,
 	prepToForm,
 	removalToForm,
-	SECTION_FORMS,
+	sectionForm,
 	supplyToForm,
 	type FloorData,
 	type PrepData,
@@ -15,17 +16,17 @@ import {
 } from '$lib/schemas/price-book';
 import { error, redirect } from '@sveltejs/kit';
 
-/** A line's fields as its form shows them. */
-export function formValues(item: priceBook.PriceItem): Record<string, string> {
+/** A line's fields as its form shows them (prices in the store's `currency`). */
+export function formValues(item: priceBook.PriceItem, currency: string): Record<string, string> {
 	switch (item.section) {
 		case 'floor':
-			return floorToForm(item.name, item.data as unknown as FloorData);
+			return floorToForm(item.name, item.data as unknown as FloorData, currency);
 		case 'prep':
-			return prepToForm(item.code, item.name, item.data as unknown as PrepData);
+			return prepToForm(item.code, item.name, item.data as unknown as PrepData, currency);
 		case 'removal':
-			return removalToForm(item.code, item.name, item.data as unknown as RemovalData);
+			return removalToForm(item.code, item.name, item.data as unknown as RemovalData, currency);
 		case 'supply':
-			return supplyToForm(item.code, item.name, item.data as unknown as SupplyData);
+			return supplyToForm(item.code, item.name, item.data as unknown as SupplyData, currency);
 	}
 }
 
@@ -47,10 +48,10 @@ export async function saveLine(
 	existing?: priceBook.PriceItem
 ) {
 	const form = await request.formData();
-	const entries = Object.fromEntries(form);
+	const entries = formFields(form);
 	// The kind of an existing line is its key: it is not changed by an edit.
 	if (existing && section !== 'floor') entries[FIELD_OF_KIND[section]] = existing.code;
-	const parsed = SECTION_FORMS[section].safeParse(entries);
+	const parsed = sectionForm(section, await currencyOf(storeId)).safeParse(entries);
 	if (!parsed.success) return refuse(form, fieldErrors(parsed.error));
 	const input = parsed.data;
 	try {

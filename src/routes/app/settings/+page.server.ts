@@ -8,10 +8,10 @@ import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
 import { storeProfileSchema } from '$lib/schemas/store';
 import {
 	applyTradeSettings,
-	nestForm,
 	tradeSettingsFormSchema,
 	tradeSettingsToForm
 } from '$lib/schemas/store-settings';
+import { currencySymbol, readFields } from '$lib/input';
 import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -27,7 +27,8 @@ export const load: PageServerLoad = async () => {
 		stripeAccount,
 		profile: { ...profile, name: store.name, timeZone: store.timeZone },
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
-		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays),
+		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays, trade.currency),
+		currencySymbol: currencySymbol(trade.currency),
 		schedules
 	};
 };
@@ -84,8 +85,13 @@ export const actions: Actions = {
 		const { store } = requireRole('owner');
 		const form = await request.formData();
 		const current = await tradeSettings.read(store.id);
-		const schema = tradeSettingsFormSchema(Object.keys(current.settings.underlayment.schedules));
-		const parsed = schema.safeParse(nestForm(form));
+		const fields = readFields(form);
+		if (!fields.ok) return refuseTrade(form, { _form: [fields.message] });
+		const schema = tradeSettingsFormSchema(
+			Object.keys(current.settings.underlayment.schedules),
+			current.currency
+		);
+		const parsed = schema.safeParse(fields.value);
 		if (!parsed.success) return refuseTrade(form, fieldErrors(parsed.error));
 		const applied = applyTradeSettings(current.settings, parsed.data);
 		if (!applied.ok) return refuseTrade(form, applied.errors);

@@ -2,7 +2,8 @@ import { parseForm, refuse } from '$lib/server/forms';
 import { config } from '$lib/server/config';
 import { stripe } from '$lib/server/stripe';
 import { testPaymentFormSchema } from '$lib/schemas/test-payments';
-import { formatAmount, isZeroDecimal } from '$mocks/stripe';
+import { readMoney } from '$lib/input';
+import { formatAmount, MAXIMUM_AMOUNT } from '$mocks/stripe';
 import { fail, redirect } from '@sveltejs/kit';
 import { requireStripeFake } from './fake.server';
 import type { Actions, PageServerLoad } from './$types';
@@ -65,9 +66,14 @@ export const actions: Actions = {
 		const parsed = await parseForm(request, testPaymentFormSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { currency, name } = parsed.data;
-		const amount = isZeroDecimal(currency)
-			? Number(parsed.data.amount.split('.')[0])
-			: Math.round(Number(parsed.data.amount) * 100);
+		// Typed in the currency's main unit, with its own decimals (none for yen).
+		const read = readMoney(parsed.data.amount, currency.toUpperCase(), {
+			label: 'the amount',
+			min: 1,
+			max: MAXIMUM_AMOUNT
+		});
+		if (!read.ok) return refuse(parsed.form, { amount: [read.message] });
+		const amount = read.value;
 		let url: string | null;
 		try {
 			const session = await stripe.checkout.sessions.create({

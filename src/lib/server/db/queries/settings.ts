@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import { isSafeKey } from '../../../input/fields';
 import { defaultSettings, type StoreSettings } from '../../../estimating';
 import { settingsSchema } from '../../../schemas/estimate';
 import { storeSettings } from '../schema';
@@ -19,7 +20,9 @@ export function mergeSettings<T>(defaults: T, saved: unknown): T {
 	if (!isPlain(defaults) || !isPlain(saved)) return (saved === undefined ? defaults : saved) as T;
 	const out: Plain = { ...defaults };
 	for (const [key, value] of Object.entries(saved)) {
-		out[key] = key in defaults ? mergeSettings((defaults as Plain)[key], value) : value;
+		// A stored `__proto__` key (own, from JSON) must not become this object's prototype.
+		if (!isSafeKey(key)) continue;
+		out[key] = Object.hasOwn(defaults, key) ? mergeSettings(defaults[key], value) : value;
 	}
 	return out as T;
 }

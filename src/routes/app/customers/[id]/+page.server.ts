@@ -10,6 +10,7 @@ import { jobCreateSchema } from '$lib/schemas/job';
 import { siteSchema } from '$lib/schemas/site';
 import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
+import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, user, role } = requirePermission({ customer: ['read'] });
@@ -54,7 +55,7 @@ export const actions: Actions = {
 	startJob: async ({ request, params }) => {
 		const { store, user } = requirePermission({ job: ['create'] });
 		const form = await request.formData();
-		const parsed = jobCreateSchema.omit({ customerId: true }).safeParse(Object.fromEntries(form));
+		const parsed = jobCreateSchema.omit({ customerId: true }).safeParse(formFields(form));
 		const where = readSiteChoice(form);
 		// Its own keys, so the customer form beside it keeps what it shows.
 		const refuseJob = (errors: Record<string, string[]>) =>
@@ -77,7 +78,7 @@ export const actions: Actions = {
 	addSite: async ({ request, params }) => {
 		const { store } = requirePermission({ customer: ['update'] });
 		const form = await request.formData();
-		const parsed = siteSchema.safeParse(Object.fromEntries(form));
+		const parsed = siteSchema.safeParse(formFields(form));
 		if (!parsed.success) {
 			return fail(400, {
 				site: { id: 'new', values: typedValues(form), errors: fieldErrors(parsed.error) }
@@ -93,7 +94,7 @@ export const actions: Actions = {
 		const siteId = String(form.get('siteId') ?? '');
 		const current = siteId ? await sites.read(store.id, siteId) : undefined;
 		if (!current || current.customerId !== params.id) error(404, 'Not found');
-		const parsed = siteSchema.safeParse(Object.fromEntries(form));
+		const parsed = siteSchema.safeParse(formFields(form));
 		if (!parsed.success) {
 			return fail(400, {
 				site: { id: siteId, values: typedValues(form), errors: fieldErrors(parsed.error) }

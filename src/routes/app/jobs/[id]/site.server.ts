@@ -5,6 +5,7 @@ import { requirePermission } from '$lib/server/guards';
 import { can, type Role } from '$lib/server/permissions';
 import { jobSiteSchema } from '$lib/schemas/site';
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
+import { formFields } from '$lib/input';
 
 /** The job's site and the customer's sites to choose from. */
 export async function loadJobSite(
@@ -24,7 +25,7 @@ export async function siteAction({ request, params }: RequestEvent<{ id: string 
 	const { store, user, role } = requirePermission({ job: ['update'] });
 	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
 	if (!job) error(404, 'Not found');
-	const parsed = jobSiteSchema.safeParse(Object.fromEntries(await request.formData()));
+	const parsed = jobSiteSchema.safeParse(formFields(await request.formData()));
 	if (!parsed.success) return fail(400, { siteError: 'Choose a site' });
 	const result = await sites.setJobSite(store.id, job.id, parsed.data.siteId);
 	if (result !== 'saved') return fail(400, { siteError: 'Choose one of this customer’s sites.' });

@@ -7,6 +7,7 @@ import { placeJob, readSiteChoice, siteFits } from '$lib/server/job-sites';
 import { jobCreateSchema } from '$lib/schemas/job';
 import { redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
+import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const { store } = requirePermission({ job: ['create'] });
@@ -30,7 +31,7 @@ export const actions: Actions = {
 	default: async ({ request }) => {
 		const { store, user } = requirePermission({ job: ['create'] });
 		const form = await request.formData();
-		const parsed = jobCreateSchema.safeParse(Object.fromEntries(form));
+		const parsed = jobCreateSchema.safeParse(formFields(form));
 		const where = readSiteChoice(form);
 		if (!parsed.success || !where.ok) {
 			return refuse(form, {

@@ -9,10 +9,11 @@ export const load: PageServerLoad = async ({ params }) => {
 	const item = await priceBook.read(store.id, params.id);
 	if (!item) error(404, 'Not found');
 	const supplies = await priceBook.list(store.id, 'supply');
+	const currency = await currencyOf(store.id);
 	return {
 		item,
-		values: formValues(item),
-		currency: await currencyOf(store.id),
+		values: formValues(item, currency),
+		currency,
 		supplies: supplies.map((s) => ({ kind: s.code, name: s.name, active: s.active }))
 	};
 };

@@ -4,6 +4,7 @@ import * as priceBook from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
 import { requirePermission } from '$lib/server/guards';
+import { readJsonText, readNumber } from '$lib/input';
 import { emptyMeasure, measureDraftSchema, type MeasureDraft } from '$lib/measure/draft';
 import { sameDraft } from '$lib/measure/local';
 import { mergeMeasures, type Side } from '$lib/measure/merge';
@@ -43,12 +44,21 @@ export const load: PageServerLoad = async ({ params, url }) => {
 
 /** The draft the form was drawn from, sent back with it (a copy: zod shares default lists). */
 function formDraft(form: FormData, field: string): MeasureDraft | undefined {
-	try {
-		const parsed = measureDraftSchema.safeParse(JSON.parse(String(form.get(field) ?? '')));
-		return parsed.success ? structuredClone(parsed.data) : undefined;
-	} catch {
-		return undefined;
-	}
+	const json = readJsonText(String(form.get(field) ?? ''));
+	if (!json.ok) return undefined;
+	const parsed = measureDraftSchema.safeParse(json.value);
+	return parsed.success ? structuredClone(parsed.data) : undefined;
+}
+
+/** A version number the form carries (`baseVersion`), or undefined when it is not one. */
+function versionOf(form: FormData, field: string): number | undefined {
+	const r = readNumber(String(form.get(field) ?? ''), {
+		label: 'the version',
+		integer: true,
+		// The version is a PostgreSQL integer.
+		max: 2_147_483_647
+	});
+	return r.ok ? r.value : undefined;
 }
 
 /** Someone saved first: nothing is written, and the page shows both (`baseVersion`: mine's). */
@@ -82,9 +92,9 @@ export const actions: Actions = {
 	save: async ({ request, params, url }) => {
 		const { store, user, role } = requirePermission({ job: ['update'] });
 		const form = await request.formData();
-		const baseVersion = Number(form.get('baseVersion'));
+		const baseVersion = versionOf(form, 'baseVersion');
 		const drawn = formDraft(form, '_draft');
-		if (!drawn || !Number.isInteger(baseVersion) || baseVersion < 0) {
+		if (!drawn || baseVersion === undefined) {
 			return fail(400, { message: 'The form was not sent whole: reload the page and try again.' });
 		}
 		const draft: MeasureDraft = structuredClone(drawn);
@@ -127,9 +137,9 @@ export const actions: Actions = {
 		const { store, user, role } = requirePermission({ job: ['update'] });
 		const form = await request.formData();
 		const mine = formDraft(form, '_mine');
-		const theirVersion = Number(form.get('baseVersion'));
-		const mineVersion = Number(form.get('mineVersion'));
-		if (!mine || !Number.isInteger(theirVersion)) {
+		const theirVersion = versionOf(form, 'baseVersion');
+		const mineVersion = versionOf(form, 'mineVersion') ?? 0;
+		if (!mine || theirVersion === undefined) {
 			return fail(400, { message: 'The form was not sent whole: reload the page and try again.' });
 		}
 		const current = await measures.read(store.id, params.id);

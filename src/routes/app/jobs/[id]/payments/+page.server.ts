@@ -4,35 +4,37 @@ import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { refundCard } from '$lib/server/payments';
-import { priceField } from '$lib/schemas/price-book';
+import { formFields, moneyField } from '$lib/input';
 import { formatMoney } from '$lib/format';
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
-/** Dollars typed, to integer cents above zero. */
-const amountField = (what: string) =>
-	priceField(what).refine((cents) => cents > 0, `Enter ${what}`);
+/** An amount typed in the job's currency, to its smallest unit, above zero. */
+const amountField = (what: string, currency: string) =>
+	moneyField(currency, { label: what }).refine((minor) => minor > 0, `Enter ${what}`);
 
-const recordSchema = z
-	.object({
-		purpose: z.enum(['deposit', 'balance'], { error: 'Choose what the payment is for' }),
-		method: z.enum(['cash', 'cheque', 'card_terminal', 'bank_transfer'], {
-			error: 'Choose how it was paid'
-		}),
-		amount: amountField('the amount received'),
-		reference: z.string().trim().max(120, 'Keep it under 120 characters').default('')
-	})
-	.refine((v) => v.method === 'cash' || v.reference, {
-		path: ['reference'],
-		message: 'Write down the cheque number, slip or transfer reference'
+const recordSchema = (currency: string) =>
+	z
+		.object({
+			purpose: z.enum(['deposit', 'balance'], { error: 'Choose what the payment is for' }),
+			method: z.enum(['cash', 'cheque', 'card_terminal', 'bank_transfer'], {
+				error: 'Choose how it was paid'
+			}),
+			amount: amountField('the amount received', currency),
+			reference: z.string().trim().max(120, 'Keep it under 120 characters').default('')
+		})
+		.refine((v) => v.method === 'cash' || v.reference, {
+			path: ['reference'],
+			message: 'Write down the cheque number, slip or transfer reference'
+		});
+const refundSchema = (currency: string) =>
+	z.object({
+		paymentId: z.string().min(1),
+		amount: amountField('the amount to give back', currency),
+		reason: z.enum(['cancellation', 'overcharge', 'other'], { error: 'Choose a reason' }),
+		note: z.string().trim().max(500, 'Keep the note under 500 characters').default('')
 	});
-const refundSchema = z.object({
-	paymentId: z.string().min(1),
-	amount: amountField('the amount to give back'),
-	reason: z.enum(['cancellation', 'overcharge', 'other'], { error: 'Choose a reason' }),
-	note: z.string().trim().max(500, 'Keep the note under 500 characters').default('')
-});
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, user, role } = requirePermission({ payment: ['read'] });
@@ -51,7 +53,8 @@ export const load: PageServerLoad = async ({ params }) => {
 export const actions: Actions = {
 	record: async ({ request, params }) => {
 		const { store, user } = requirePermission({ payment: ['record'] });
-		const parsed = await parseForm(request, recordSchema);
+		const { currency } = await payments.moneyFor(store.id, params.id);
+		const parsed = await parseForm(request, recordSchema(currency));
 		if (!parsed.ok) return parsed.failure;
 		const { form } = parsed;
 		const { amount, ...input } = parsed.data;
@@ -72,13 +75,16 @@ export const actions: Actions = {
 		}
 		return { recorded: true };
 	},
-	refund: async ({ request }) => {
+	refund: async ({ request, params }) => {
 		const { store, user } = requirePermission({ payment: ['refund'] });
-		const fields = Object.fromEntries(await request.formData()) as Record<string, string>;
-		const parsed = refundSchema.safeParse(fields);
+		const fields = formFields(await request.formData());
 		// Each payment has its own refund form: the answer says which one it is for.
 		const refundFor = fields.paymentId ?? '';
 		const values = { amount: fields.amount ?? '', note: fields.note ?? '' };
+		// The amount is typed in the payment's own currency.
+		const money = await payments.moneyFor(store.id, params.id);
+		const currency = money.payments.find((p) => p.id === refundFor)?.currency ?? money.currency;
+		const parsed = refundSchema(currency).safeParse(fields);
 		if (!parsed.success) return fail(400, { refundFor, values, errors: fieldErrors(parsed.error) });
 		const input = {
 			amountCents: parsed.data.amount,

@@ -14,6 +14,7 @@ import { email } from '$lib/schemas/fields';
 import { error, fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
+import { QUOTE_VERSION, readNumber } from '$lib/input';
 
 const sendSchema = z.object({ quoteId: z.string().min(1), to: email });
 
@@ -28,7 +29,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		tradeSettings.read(store.id)
 	]);
 	const asked = url.searchParams.get('v');
-	const wanted = asked ? Number(asked) : versions[0]?.version;
+	const read = asked ? readNumber(asked, QUOTE_VERSION) : undefined;
+	const wanted = read ? (read.ok ? read.value : undefined) : versions[0]?.version;
 	const current = wanted ? await quotes.readVersion(store.id, job.id, wanted) : undefined;
 	if (asked && !current) error(404, 'Not found');
 	const previous =

@@ -3,6 +3,7 @@ import * as quotes from '$lib/server/db/queries/quotes';
 import { requirePermission } from '$lib/server/guards';
 import { pdfOf, pdfResponse } from '$lib/server/quote-service';
 import { jobLabel } from '$lib/jobs/status';
+import { QUOTE_VERSION, readNumber } from '$lib/input';
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 
@@ -10,11 +11,9 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ params }) => {
 	const { store, user, role } = requirePermission({ quote: ['read'] });
 	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
-	const version = Number(params.version);
+	const version = readNumber(params.version, QUOTE_VERSION);
 	const quote =
-		job && Number.isInteger(version)
-			? await quotes.readVersion(store.id, job.id, version)
-			: undefined;
+		job && version.ok ? await quotes.readVersion(store.id, job.id, version.value) : undefined;
 	if (!job || !quote) error(404, 'Not found');
 	const bytes = await pdfOf(store, quote);
 	return pdfResponse(bytes, `${jobLabel(job.number)}-quote-v${quote.version}.pdf`);
