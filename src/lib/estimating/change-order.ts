@@ -4,7 +4,7 @@
  * sold, so sold + delta always equals what a fresh quote of the found work would say. Less
  * found than sold gives a credit (a negative line).
  */
-import type { EstimateResult } from './index';
+import type { EstimateResult } from './types';
 import {
 	PriceIndex,
 	priceQty,

@@ -206,8 +206,20 @@ export class PriceIndex {
 		for (const s of book.supplies) this.supplies.set(s.kind, s);
 	}
 
-	/** The price of an item, or a message saying what is missing. */
+	private readonly resolved = new Map<string, Resolved | string>();
+
+	/** The price of an item, or a message saying what is missing (looked up once per item). */
 	resolve(ref: ItemRef): Resolved | string {
+		const key = refKey(ref);
+		let r = this.resolved.get(key);
+		if (r === undefined) {
+			r = this.lookup(ref);
+			this.resolved.set(key, r);
+		}
+		return r;
+	}
+
+	private lookup(ref: ItemRef): Resolved | string {
 		switch (ref.type) {
 			case 'floor': {
 				const f = this.floors.get(ref.productId);
@@ -281,11 +293,13 @@ export interface Priced {
 export function priceQty(
 	item: { ref: ItemRef; roomId?: string; qty: number; description?: string; findingIds?: string[] },
 	price: Resolved,
-	settings: StoreSettings
+	settings: StoreSettings,
+	/** The quantity to price, when not the item's own. */
+	itemQty = item.qty
 ): Priced {
 	const key = refKey(item.ref);
 	const id = `${item.roomId ?? 'job'}:${key}`;
-	const qty = qtyUnits(item.qty) / QTY_SCALE;
+	const qty = qtyUnits(itemQty) / QTY_SCALE;
 	const description = item.description ?? price.name;
 	const line: PriceLine = {
 		id,

@@ -2,7 +2,7 @@
  * Invented sample data (no real products or brands): a price book and jobs of any size, for
  * specs, the benchmark and the app's demo previews.
  */
-import type { JobMeasure, RoomMeasure } from './index';
+import type { JobMeasure, RoomMeasure } from './types';
 import type { FloorProduct, PriceBook } from './pricing';
 
 export const samplePriceBook: PriceBook = {

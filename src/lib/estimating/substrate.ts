@@ -311,7 +311,8 @@ export interface FlatnessReading {
  * rule, unscaled). A gap exactly at the tolerance passes.
  */
 export function flatnessCheck(reading: FlatnessReading, rules: readonly FlatnessRule[]): Check {
-	const sorted = [...rules].sort((a, b) => a.overIn - b.overIn);
+	const inOrder = rules.every((r, i) => i === 0 || rules[i - 1].overIn <= r.overIn);
+	const sorted = inOrder ? rules : [...rules].sort((a, b) => a.overIn - b.overIn);
 	const rule = sorted.find((r) => atLeast(r.overIn, reading.spanIn)) ?? sorted[sorted.length - 1];
 	const pass = atMost(reading.gapIn, rule.gapIn);
 	const high = reading.kind === 'high';
