@@ -6,7 +6,8 @@
  * price.
  */
 import { CAUTION_KINDS, CAUTIONS, type CautionKind } from './cautions';
-import { roomOutline, roomShape, type RoomShape } from './geometry';
+import { cornersOf, roomOutline, roomShape, type RoomShape } from './geometry';
+import { countWithin, LIMITS, LimitError, placed } from './limits';
 import {
 	margin,
 	PriceIndex,
@@ -77,6 +78,73 @@ function emptyRoom(room: RoomMeasure): RoomResult {
 	};
 }
 
+/**
+ * Refuses a job beyond the engine's `LIMITS` before any room is worked out: too many rooms,
+ * corners, price-book lines or settings rows. Each room's own lists are checked by its steps.
+ */
+function checkJob(input: EstimateInput): void {
+	const { job, settings: s } = input;
+	countWithin(job.rooms.length, 'job.rooms', 'rooms', LIMITS.rooms);
+	let corners = 0;
+	for (const room of job.rooms) {
+		corners += cornersOf(room.shape);
+		for (const c of room.cutouts ?? []) corners += cornersOf(c.shape);
+	}
+	countWithin(corners, 'job.rooms', 'corners in the job', LIMITS.jobCorners);
+	const rows: [string, readonly unknown[]][] = [
+		['settings.taxes', s.taxes],
+		['settings.underlayment.requiredFor', s.underlayment.requiredFor],
+		['settings.sheathing.boardMinIn', s.sheathing.boardMinIn],
+		...Object.entries(s.sheathing.floorMinIn).map(([k, v]): [string, readonly unknown[]] => [
+			`settings.sheathing.floorMinIn.${k}`,
+			v ?? []
+		]),
+		...Object.entries(s.flatness.rules).map(([k, v]): [string, readonly unknown[]] => [
+			`settings.flatness.rules.${k}`,
+			v
+		]),
+		...input.priceBook.floors.map((f, i): [string, readonly unknown[]] => [
+			`priceBook.floors.${i}.needs.flatness`,
+			f.needs?.flatness ?? []
+		])
+	];
+	for (const [path, list] of rows) countWithin(list.length, path, 'rows', LIMITS.settingsRows);
+}
+
+/** A refused estimate: the errors, and nothing priced. */
+function refused(errors: EstimateError[]): EstimateResult {
+	const nothing = { material: 0, labour: 0, prep: 0, removal: 0 };
+	return {
+		ok: false,
+		errors,
+		rooms: [],
+		findings: [],
+		lines: [],
+		pay: [],
+		totals: {
+			byGroup: nothing,
+			subtotalCents: 0,
+			taxes: [],
+			taxCents: 0,
+			totalCents: 0,
+			depositCents: 0,
+			balanceCents: 0
+		},
+		installerPayCents: 0,
+		margin: margin(0, 0, 0, true),
+		schedule: { steps: [], workHours: 0, cureHours: 0, days: 0 },
+		cautions: cautionNotes([{ kind: 'planning_aid' }]),
+		warnings: []
+	};
+}
+
+/** An error entry for a refusal, marked with the limit it passed. */
+function limitError(e: LimitError, roomId?: string): EstimateError {
+	const error: EstimateError = { path: e.path, message: e.message, limit: e.limit };
+	if (roomId !== undefined) error.roomId = roomId;
+	return error;
+}
+
 /** The room's shape and floor, or the error that stops it before any step runs. */
 function readyRoom(
 	room: RoomMeasure,
@@ -87,9 +155,14 @@ function readyRoom(
 ): { shape: RoomShape; product: FloorProduct } | EstimateError {
 	const path = `job.rooms.${i}`;
 	const label = room.name || `Room ${i + 1}`;
-	const shape = roomShape(room.shape, room.cutouts, {
-		closureToleranceIn: input.settings.geometry.closureToleranceIn
-	});
+	const shape = placed(
+		() =>
+			roomShape(room.shape, room.cutouts, {
+				closureToleranceIn: input.settings.geometry.closureToleranceIn
+			}),
+		(field) =>
+			field === 'closureToleranceIn' ? 'settings.geometry.closureToleranceIn' : `${path}.${field}`
+	);
 	if (!shape.ok)
 		return {
 			path: `${path}.${shape.field}`,
@@ -196,37 +269,44 @@ function cautionNotes(events: readonly CautionEvent[]): CautionNote[] {
 	}));
 }
 
+/** The rooms once each is through its steps, with what they add to the job. */
+interface JobSoFar {
+	errors: EstimateError[];
+	rooms: RoomResult[];
+	findings: Finding[];
+	priced: Priced[];
+	hours: HoursEntry[];
+	cautions: CautionEvent[];
+	order: JobOrder;
+	/** Roll drops laid out in every room, both ways. */
+	drops: number;
+}
+
 /**
- * Estimates a whole job. Never throws for bad measures or missing prices: they come back in
- * `errors` with the path of the field at fault.
+ * Every room through its steps, in order. A room that cannot be priced, or is beyond the
+ * engine's limits, is an error; the others still price.
  */
-export function estimate(input: EstimateInput): EstimateResult {
+function roomsStep(input: EstimateInput, index: PriceIndex): JobSoFar {
 	const { job, settings: s, priceBook } = input;
-	const index = new PriceIndex(priceBook);
 	const names = new Map<string, string>();
 	for (const r of job.rooms) if (!names.has(r.id)) names.set(r.id, r.name);
 	const roomName = (id: string) => names.get(id);
-
-	const errors: EstimateError[] = [];
-	const rooms: RoomResult[] = [];
-	const findings: Finding[] = [];
-	const priced: Priced[] = [];
-	const hours: HoursEntry[] = [];
-	const cautions: CautionEvent[] = [{ kind: 'planning_aid' }];
-	const order: JobOrder = {
-		cartonSqFt: new Map(),
-		rollCutIn: new Map(),
-		panelSqFt: 0,
-		voids: [],
-		levelAreas: []
+	const so: JobSoFar = {
+		errors: [],
+		rooms: [],
+		findings: [],
+		priced: [],
+		hours: [],
+		cautions: [{ kind: 'planning_aid' }],
+		order: { cartonSqFt: new Map(), rollCutIn: new Map(), panelSqFt: 0, voids: [], levelAreas: [] },
+		drops: 0
 	};
-
 	const seen = new Set<string>();
 	job.rooms.forEach((room, i) => {
 		const result = emptyRoom(room);
-		rooms.push(result);
+		so.rooms.push(result);
 		if (seen.has(room.id)) {
-			errors.push({
+			so.errors.push({
 				path: `job.rooms.${i}.id`,
 				roomId: room.id,
 				message: `Room id "${room.id}" is used twice`
@@ -234,72 +314,123 @@ export function estimate(input: EstimateInput): EstimateResult {
 			return;
 		}
 		seen.add(room.id);
-		const ready = readyRoom(room, i, input, index, result);
-		if (!('shape' in ready)) {
-			errors.push(ready);
+		let out: RoomOutcome;
+		try {
+			const ready = readyRoom(room, i, input, index, result);
+			if (!('shape' in ready)) {
+				so.errors.push(ready);
+				return;
+			}
+			const k = priceBook.floors.indexOf(ready.product);
+			const ctx = roomContext(room, i, ready.shape, ready.product, k, s, job.builtYear);
+			out = roomSteps(ctx, index, result, roomName);
+		} catch (e) {
+			if (!(e instanceof LimitError)) throw e;
+			so.rooms[i] = emptyRoom(room);
+			so.errors.push(limitError(e, room.id));
 			return;
 		}
-		const ctx = roomContext(
-			room,
-			i,
-			ready.shape,
-			ready.product,
-			priceBook.floors.indexOf(ready.product),
-			s,
-			job.builtYear
-		);
-		const out = roomSteps(ctx, index, result, roomName);
-		append(errors, out.errors);
-		append(findings, out.findings);
-		append(hours, out.hours);
-		append(cautions, out.cautions);
-		if (out.priced) priced.push(out.priced);
-		if (out.order) {
-			const o = out.order;
+		const roll = out.result.floor?.roll;
+		if (roll) so.drops += roll.drops.length + roll.other.drops.length;
+		append(so.errors, out.errors);
+		append(so.findings, out.findings);
+		append(so.hours, out.hours);
+		append(so.cautions, out.cautions);
+		if (out.priced) so.priced.push(out.priced);
+		const o = out.order;
+		if (o) {
+			const { cartonSqFt, rollCutIn } = so.order;
 			if (o.cartonSqFt !== undefined)
-				order.cartonSqFt.set(o.productId, (order.cartonSqFt.get(o.productId) ?? 0) + o.cartonSqFt);
+				cartonSqFt.set(o.productId, (cartonSqFt.get(o.productId) ?? 0) + o.cartonSqFt);
 			if (o.rollCutIn !== undefined)
-				order.rollCutIn.set(o.productId, (order.rollCutIn.get(o.productId) ?? 0) + o.rollCutIn);
-			order.panelSqFt += o.panelSqFt;
-			append(order.voids, o.voids);
-			append(order.levelAreas, o.levelAreas);
+				rollCutIn.set(o.productId, (rollCutIn.get(o.productId) ?? 0) + o.rollCutIn);
+			so.order.panelSqFt += o.panelSqFt;
+			append(so.order.voids, o.voids);
+			append(so.order.levelAreas, o.levelAreas);
 		}
 	});
+	return so;
+}
 
-	const materials = materialItems(order, index, s);
-	const jobPriced = priceItems(materials.items, index, s, roomName);
-	priced.push(jobPriced);
-	append(errors, jobPriced.errors);
-	append(cautions, materials.cautions);
-
-	const lines: PriceLine[] = [];
-	const pay: PayLine[] = [];
-	let costCents = 0;
-	let costComplete = true;
-	for (const p of priced) {
-		append(lines, p.lines);
-		append(pay, p.pay);
-		costCents += p.costCents;
-		costComplete &&= p.costComplete;
+/**
+ * The job's materials rounded up once, its totals, margin, schedule and cautions. Work adding up
+ * past a limit (roll drops, hours, a line's amount) refuses the whole job.
+ */
+function jobStep(so: JobSoFar, input: EstimateInput, index: PriceIndex): EstimateResult {
+	const s = input.settings;
+	const { errors, priced, cautions } = so;
+	try {
+		if (so.drops > LIMITS.jobDrops)
+			throw new LimitError(
+				'job.rooms',
+				LIMITS.jobDrops,
+				`The rooms' roll goods come to ${so.drops} drops; the engine lays out up to ${LIMITS.jobDrops} a job`
+			);
+		const materials = materialItems(so.order, index, s);
+		const jobPriced = priceItems(materials.items, index, s, () => undefined);
+		priced.push(jobPriced);
+		append(errors, jobPriced.errors);
+		append(cautions, materials.cautions);
+		const lines: PriceLine[] = [];
+		const pay: PayLine[] = [];
+		let costCents = 0;
+		let costComplete = true;
+		for (const p of priced) {
+			append(lines, p.lines);
+			append(pay, p.pay);
+			costCents += p.costCents;
+			costComplete &&= p.costComplete;
+		}
+		const sum = totals(lines, s);
+		const installerPayCents = pay.reduce((t, p) => t + p.amountCents, 0);
+		const schedule = placed(
+			() => scheduleStep(hoursByKey(so.hours), s),
+			(field) => (field.startsWith('steps') ? 'job.rooms' : `settings.schedule.${field}`)
+		);
+		const warnings: { roomId?: string; message: string }[] = [];
+		for (const r of so.rooms)
+			for (const message of r.warnings) warnings.push({ roomId: r.id, message });
+		return {
+			ok: errors.length === 0,
+			errors,
+			rooms: so.rooms,
+			findings: so.findings,
+			lines,
+			pay,
+			totals: sum,
+			installerPayCents,
+			margin: margin(sum.subtotalCents, installerPayCents, costCents, costComplete),
+			schedule,
+			cautions: cautionNotes(cautions),
+			warnings
+		};
+	} catch (e) {
+		if (!(e instanceof LimitError)) throw e;
+		errors.push(limitError(e));
+		return refused(errors);
 	}
-	const sum = totals(lines, s);
-	const installerPayCents = pay.reduce((t, p) => t + p.amountCents, 0);
-	const warnings: { roomId?: string; message: string }[] = [];
-	for (const r of rooms) for (const message of r.warnings) warnings.push({ roomId: r.id, message });
-	return {
-		ok: errors.length === 0,
-		errors,
-		rooms,
-		findings,
-		lines,
-		pay,
-		totals: sum,
-		installerPayCents,
-		margin: margin(sum.subtotalCents, installerPayCents, costCents, costComplete),
-		schedule: scheduleStep(hoursByKey(hours), s),
-		cautions: cautionNotes(cautions),
-		warnings
-	};
+}
+
+/**
+ * Estimates a whole job: every room through its steps (`roomsStep`), then the job's materials,
+ * totals and schedule (`jobStep`). Never throws for bad measures or missing prices: they come
+ * back in `errors` with the path of the field at fault. Work beyond the engine's `LIMITS` is
+ * refused the same way, its error marked with the `limit` passed: a room beyond them is left out
+ * (the others still price); a job beyond them gets nothing priced.
+ */
+export function estimate(input: EstimateInput): EstimateResult {
+	let index: PriceIndex;
+	try {
+		checkJob(input);
+		index = placed(
+			() => new PriceIndex(input.priceBook),
+			(field) => `priceBook.${field}`
+		);
+	} catch (e) {
+		if (e instanceof LimitError) return refused([limitError(e)]);
+		throw e;
+	}
+	return jobStep(roomsStep(input, index), input, index);
 }
 
 /** What the customer sees: prices and totals, never installer pay or margins. */

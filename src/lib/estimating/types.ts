@@ -126,6 +126,11 @@ export interface EstimateError {
 	path: string;
 	roomId?: string;
 	message: string;
+	/**
+	 * Set when the engine refused work beyond one of its `LIMITS` (the bound that was passed):
+	 * the request itself is at fault, not the measure, so an API answers 400.
+	 */
+	limit?: number;
 }
 
 /** A check's result tied to its room and the lines it caused. */

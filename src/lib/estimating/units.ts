@@ -2,6 +2,7 @@
  * Lengths and areas as people type them. The engine keeps every length in inches.
  * Conversion factors are exact by definition (international yard and pound, 1959).
  */
+import { LIMITS, LimitError, within } from './limits';
 
 /** 1 in = 25.4 mm exactly. */
 export const MM_PER_IN = 25.4;
@@ -83,6 +84,11 @@ function cannot(part: string, whole: string, why: string): ParseLengthResult {
  */
 export function parseLength(text: string, defaultUnit: LengthUnit = 'in'): ParseLengthResult {
 	const whole = text;
+	if (text.length > LIMITS.lengthText)
+		return {
+			ok: false,
+			message: `A length is at most ${LIMITS.lengthText} characters; this one is ${text.length}`
+		};
 	let s = text
 		.replace(/[′’‘`]/g, "'")
 		.replace(/[″”“]|''/g, '"')
@@ -155,8 +161,26 @@ export function fromInches(inches: number, unit: LengthUnit): number {
 	return inches / IN_PER_UNIT[unit];
 }
 
-function gcd(a: number, b: number): number {
-	return b === 0 ? a : gcd(b, a % b);
+/**
+ * Greatest common divisor of two whole numbers up to 2^53 (Euclid, by division). Refuses
+ * anything else (`1e308`, a fraction, NaN) rather than looping: whole numbers up to 2^53 take
+ * at most 78 divisions (consecutive Fibonacci numbers are the worst case).
+ */
+export function gcd(a: number, b: number): number {
+	if (!Number.isSafeInteger(a) || !Number.isSafeInteger(b))
+		throw new LimitError(
+			Number.isSafeInteger(a) ? 'b' : 'a',
+			Number.MAX_SAFE_INTEGER,
+			`gcd takes whole numbers up to ${Number.MAX_SAFE_INTEGER}; it was given ${a} and ${b}`
+		);
+	a = Math.abs(a);
+	b = Math.abs(b);
+	for (let i = 0; b !== 0 && i < 100; i++) {
+		const r = a % b;
+		a = b;
+		b = r;
+	}
+	return a;
 }
 
 /** A fraction of an inch in lowest terms, e.g. 8/16 → `1/2`. */
@@ -180,6 +204,7 @@ export function formatLength(
 	format: LengthFormat = 'ft-in',
 	options: { denominator?: number; digits?: number } = {}
 ): string {
+	within(inches, 'inches', 'A length', LIMITS.formatIn, 'in', -LIMITS.formatIn);
 	const sign = inches < 0 ? '-' : '';
 	const abs = Math.abs(inches);
 	if (format === 'mm') return `${sign}${trimFixed(abs * MM_PER_IN, options.digits ?? 0)} mm`;

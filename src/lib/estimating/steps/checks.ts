@@ -5,6 +5,7 @@
  */
 import { cautionTexts } from '../cautions';
 import type { RoomShape } from '../geometry';
+import { countWithin, LIMITS } from '../limits';
 import type { FloorProduct } from '../pricing';
 import type { Measures } from '../prep';
 import type { FloorKind, StoreSettings } from '../settings';
@@ -123,6 +124,27 @@ export function checksStep(ctx: RoomContext): Checks {
 	}
 
 	const readings = room.readings ?? {};
+	const at = `${ctx.path}.readings`;
+	countWithin(readings.flatness?.length ?? 0, `${at}.flatness`, 'readings', LIMITS.listItems);
+	countWithin(readings.rhPct?.length ?? 0, `${at}.rhPct`, 'readings', LIMITS.listItems);
+	countWithin(
+		readings.calciumChloride?.length ?? 0,
+		`${at}.calciumChloride`,
+		'tests',
+		LIMITS.listItems
+	);
+	countWithin(
+		readings.woodMc?.subfloorPct.length ?? 0,
+		`${at}.woodMc.subfloorPct`,
+		'readings',
+		LIMITS.listItems
+	);
+	countWithin(
+		readings.woodMc?.flooringPct.length ?? 0,
+		`${at}.woodMc.flooringPct`,
+		'readings',
+		LIMITS.listItems
+	);
 	const rules =
 		product.needs?.flatness ??
 		flatnessRules(kind, wood ? 'wood' : 'concrete', s.flatness, product.tileEdgesIn);

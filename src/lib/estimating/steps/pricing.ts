@@ -5,6 +5,7 @@
  * A price that is missing, or priced per a unit the item cannot be counted in, is an error with
  * the path of the field to fix; the other lines still price.
  */
+import { LimitError } from '../limits';
 import { ceilUnits } from '../math';
 import { PREP } from '../prep';
 import { priceQty, type PayLine, type PriceIndex, type PriceLine } from '../pricing';
@@ -99,7 +100,13 @@ function priceOne(
 		qty = m;
 	}
 	if (!(qty > 0)) return undefined;
-	const priced = priceQty(item, price, s, qty);
+	let priced: ReturnType<typeof priceQty>;
+	try {
+		priced = priceQty(item, price, s, qty);
+	} catch (e) {
+		if (e instanceof LimitError) throw new LimitError(item.path, e.limit, e.message);
+		throw e;
+	}
 	out.lines.push(priced.line);
 	if (priced.pay) out.pay.push(priced.pay);
 	if (priced.costCents !== undefined) out.costCents += priced.costCents;

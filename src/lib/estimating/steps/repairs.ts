@@ -2,6 +2,7 @@
  * The repairs step: what was measured wrong with the old subfloor (fasteners left behind, holes,
  * open seams, dents) becomes prep, the pieces that close each hole, and the voids to fill.
  */
+import { countWithin, LIMITS } from '../limits';
 import { holeRepair, type HoleRepair, type Void } from '../takeoff';
 import type { CautionEvent, NeedEvent, RoomContext } from './room';
 
@@ -23,6 +24,8 @@ export function repairsStep(ctx: RoomContext): Repairs {
 	const kind = product.kind;
 	const area = shape.areaSqFt;
 	const rep = room.repairs ?? {};
+	for (const list of ['holes', 'seams', 'dents'] as const)
+		countWithin(rep[list]?.length ?? 0, `${ctx.path}.repairs.${list}`, list, LIMITS.listItems);
 	const needs: NeedEvent[] = [];
 	const cautions: CautionEvent[] = [];
 

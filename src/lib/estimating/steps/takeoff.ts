@@ -4,6 +4,7 @@
  * work to price. Rounding to whole cartons, rolls, panels and bags happens once for the job in
  * the pricing step; a room's own figures here are for its page.
  */
+import { placed } from '../limits';
 import { ceilUnits } from '../math';
 import type { PriceIndex } from '../pricing';
 import { ROLL_KINDS } from '../settings';
@@ -58,14 +59,24 @@ export function floorTakeoff(ctx: RoomContext): FloorTakeoff {
 					message: `${product.name}: roll width is missing`
 				}
 			};
-		const roll = rollTakeoff({
-			polygon: shape.polygon,
-			isRect: shape.isRect,
-			rollWidthIn: product.rollWidthIn,
-			trimPerEndIn: s.roll.trimPerEndIn,
-			orderIncrementIn: s.roll.orderIncrementIn,
-			direction: room.floor?.rollDirection
-		});
+		const rollWidthIn = product.rollWidthIn;
+		const roll = placed(
+			() =>
+				rollTakeoff({
+					polygon: shape.polygon,
+					isRect: shape.isRect,
+					rollWidthIn,
+					trimPerEndIn: s.roll.trimPerEndIn,
+					orderIncrementIn: s.roll.orderIncrementIn,
+					direction: room.floor?.rollDirection
+				}),
+			(field) =>
+				field === 'rollWidthIn'
+					? `${productPath}.rollWidthIn`
+					: field === 'polygon'
+						? `${path}.shape`
+						: `settings.roll.${field}`
+		);
 		floor = { productId: product.id, kind, roll };
 		order = { productId: product.id, rollCutIn: roll.cutLengthIn };
 	} else {
