@@ -25,7 +25,7 @@ import {
 	SPECIES_LABELS,
 	SUBFLOOR_LABELS
 } from '$lib/measure/labels';
-import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
+import { calculators, type CalculatorName, type CalculatorResult } from './registry';
 import { parseArea, parseNumber } from './read';
 
 /** What was typed, by field name. */

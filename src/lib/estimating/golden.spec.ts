@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { demoMeasure } from '../../../scripts/demo-measures';
 import { calculatorExamples } from '$lib/calculators/examples';
 import { toEngine } from '$lib/measure/draft';
-import { calculators, type CalculatorName } from '$lib/schemas/estimate';
+import { calculators, type CalculatorName } from '$lib/calculators/registry';
 import { changeOrder, soldQuantities } from './change-order';
 import { estimate, forCustomer, forInstaller } from './estimate';
 import type { EstimateInput } from './index';

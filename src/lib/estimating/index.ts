@@ -18,5 +18,6 @@ export * from './schedule';
 export * from './settings';
 export * from './prep';
 export * from './cautions';
+export * from './limits';
 export * from './change-order';
 export { estimate, forCustomer, forInstaller } from './estimate';

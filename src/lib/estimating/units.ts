@@ -2,7 +2,7 @@
  * Lengths and areas as people type them. The engine keeps every length in inches.
  * Conversion factors are exact by definition (international yard and pound, 1959).
  */
-import { LIMITS, LimitError, within } from './limits';
+import { figure, LIMITS, LimitError } from './limits';
 
 /** 1 in = 25.4 mm exactly. */
 export const MM_PER_IN = 25.4;
@@ -197,14 +197,17 @@ function trimFixed(n: number, digits: number): string {
 
 /**
  * Formats inches: `ft-in` (`12' 6 1/2"`, to 1/`denominator` in), `in` (`150 1/4"`), `mm`, `cm`
- * or `m` (to `digits` decimals, trailing zeros dropped).
+ * or `m` (to `digits` decimals, trailing zeros dropped). Past `LIMITS.formatIn`, or not a
+ * number, the plain figure (`1e+308 in`).
  */
 export function formatLength(
 	inches: number,
 	format: LengthFormat = 'ft-in',
 	options: { denominator?: number; digits?: number } = {}
 ): string {
-	within(inches, 'inches', 'A length', LIMITS.formatIn, 'in', -LIMITS.formatIn);
+	// Past about 158 miles (or not a number) a length is no longer one anybody measures: it is
+	// written as the plain number, never worked into feet and fractions.
+	if (!(Math.abs(inches) <= LIMITS.formatIn)) return `${figure(inches)} in`;
 	const sign = inches < 0 ? '-' : '';
 	const abs = Math.abs(inches);
 	if (format === 'mm') return `${sign}${trimFixed(abs * MM_PER_IN, options.digits ?? 0)} mm`;

@@ -9,6 +9,7 @@ import {
 	EXISTING_FLOOR_KINDS,
 	JOIST_SIZES,
 	LAYOUTS,
+	LIMITS,
 	parseLength,
 	SPECIES,
 	SUBFLOOR_KINDS,
@@ -162,6 +163,8 @@ class Reader {
 		const r = parseLength(value, this.units[unit]);
 		if (!r.ok) return this.fail(path, r.message);
 		if (r.inches < 0) return this.fail(path, `The ${label} cannot be negative`);
+		if (r.inches > LIMITS.lengthIn)
+			return this.fail(path, `The ${label} can be at most 500 ft (${LIMITS.lengthIn} in)`);
 		return r.inches;
 	}
 
