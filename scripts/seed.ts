@@ -13,7 +13,7 @@ import * as sites from '../src/lib/server/db/queries/sites';
 import * as tradeSettings from '../src/lib/server/db/queries/settings';
 import { saveProfile } from '../src/lib/server/db/queries/stores';
 import { defaultSettings } from '../src/lib/estimating';
-import { samplePriceBook } from '../src/lib/estimating/sample';
+import { demoFloors, samplePriceBook } from '../src/lib/estimating/sample';
 import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
 import * as measures from '../src/lib/server/db/queries/measures';
 import * as payments from '../src/lib/server/db/queries/payments';
@@ -124,35 +124,6 @@ const JOBS: { customer: number; title: string; path: JobStatus[]; installer?: nu
 
 const noMail = async () => ({ id: 'seed' });
 
-/** Floors beyond the engine's sample book, so every kind of floor can be sold in the demo. */
-const MORE_FLOORS = [
-	{
-		name: 'Walnut-look laminate 8 mm',
-		kind: 'laminate',
-		cartonSqFt: 19.8,
-		material: { basis: 'carton', priceCents: 5_350, costCents: 3_100 },
-		labourCentsPerSqFt: 175,
-		payCentsPerSqFt: 115
-	},
-	{
-		name: 'Honed slate 16 × 16 in',
-		kind: 'stone_tile',
-		cartonSqFt: 10.7,
-		tileEdgesIn: [16, 16],
-		material: { basis: 'carton', priceCents: 8_900, costCents: 5_400 },
-		labourCentsPerSqFt: 800,
-		payCentsPerSqFt: 520
-	},
-	{
-		name: 'Berber carpet 15 ft',
-		kind: 'carpet',
-		rollWidthIn: 180,
-		material: { basis: 'roll_sqyd', priceCents: 2_450, costCents: 1_350 },
-		labourCentsPerSqFt: 90,
-		payCentsPerSqFt: 60
-	}
-];
-
 /** The demo store's trade settings and price book (invented products, sensible trade prices). */
 export async function seedPriceBook(storeId: string) {
 	await tradeSettings.save(storeId, {
@@ -166,10 +137,7 @@ export async function seedPriceBook(storeId: string) {
 	});
 	const { floors, prep, removal, supplies } = samplePriceBook;
 	const floorIds = new Map<string, string>();
-	for (const { id: _id, name, ...data } of [
-		...floors,
-		...MORE_FLOORS.map((f) => ({ id: '', ...f }))
-	]) {
+	for (const { id: _id, name, ...data } of [...floors, ...demoFloors]) {
 		const row = await priceBook.create(storeId, { section: 'floor', code: '', name, data });
 		floorIds.set(name, row.id);
 	}

@@ -5,7 +5,7 @@ import Ajv2020 from 'ajv/dist/2020.js';
 import { calculatorExamples } from '../../src/lib/calculators/examples';
 import { estimate, type StoreSettings } from '../../src/lib/estimating';
 import { sampleJob, samplePriceBook } from '../../src/lib/estimating/sample';
-import { calculators, type CalculatorName } from '../../src/lib/schemas/estimate';
+import { calculators, type CalculatorName } from '../../src/lib/calculators/registry';
 import { pool } from '../../src/lib/server/db';
 import { priceBookFor } from '../../src/lib/server/db/queries/price-book';
 import { read as readSettings } from '../../src/lib/server/db/queries/settings';

@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { defaultSettings, estimate } from '$lib/estimating';
 import { sampleJob, samplePriceBook } from '$lib/estimating/sample';
-import { calculators } from '$lib/schemas/estimate';
+import { calculators } from '$lib/calculators/registry';
 import { priceBookFor } from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { previewEstimate, runCalculator } from '$lib/server/estimates';

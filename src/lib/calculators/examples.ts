@@ -2,7 +2,7 @@
  * One valid body for each calculator, in the API's units (inches, ft², %): the OpenAPI
  * document shows them with the engine's answer, and the API tests send them.
  */
-import type { CalculatorName } from '$lib/schemas/estimate';
+import type { CalculatorName } from './registry';
 
 export const calculatorExamples: Record<CalculatorName, Record<string, unknown>> = {
 	cartons: { areaSqFt: 120, coverageSqFt: 20.5, layout: 'straight' },

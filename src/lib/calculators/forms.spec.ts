@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { defaultSettings, type StoreSettings } from '$lib/estimating';
-import { calculators, type CalculatorName } from '$lib/schemas/estimate';
+import { calculators, type CalculatorName } from './registry';
 import { calculatorExamples } from './examples';
 import {
 	addRow,

@@ -24,7 +24,7 @@ import {
 	SPECIES_LABELS,
 	SUBFLOOR_LABELS
 } from '$lib/measure/labels';
-import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
+import { calculators, type CalculatorName, type CalculatorResult } from './registry';
 import { readArea, readLength, readNumber, setPath } from '$lib/input';
 
 /** What was typed, by field name. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { CAUTIONS, defaultSettings } from '$lib/estimating';
-import { calculators } from '$lib/schemas/estimate';
+import { calculators } from './registry';
 import { calculatorExamples } from './examples';
 import { CALCULATOR_ORDER } from './forms';
 import { CONFIRM_WITH_PROFESSIONAL, STRUCTURAL, summarize } from './summary';

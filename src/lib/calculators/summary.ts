@@ -14,7 +14,7 @@ import {
 	type RollTakeoff,
 	type UnderlaymentTakeoff
 } from '$lib/estimating';
-import type { CalculatorName, CalculatorResult } from '$lib/schemas/estimate';
+import type { CalculatorName, CalculatorResult } from './registry';
 
 export interface Figure {
 	label: string;

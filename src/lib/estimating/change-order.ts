@@ -4,7 +4,8 @@
  * sold, so sold + delta always equals what a fresh quote of the found work would say. Less
  * found than sold gives a credit (a negative line).
  */
-import type { EstimateResult } from './index';
+import { countWithin, LIMITS } from './limits';
+import type { EstimateResult } from './types';
 import {
 	PriceIndex,
 	priceQty,
@@ -63,6 +64,8 @@ export function changeOrder(input: {
 	priceBook: PriceBook;
 	settings: StoreSettings;
 }): ChangeOrder {
+	countWithin(input.sold.length, 'sold', 'items sold', LIMITS.changeOrderItems);
+	countWithin(input.found.length, 'found', 'items found', LIMITS.changeOrderItems);
 	const index = new PriceIndex(input.priceBook);
 	const rows = new Map<string, { roomId?: string; ref: ItemRef; sold: number; found: number }>();
 	const take = (items: readonly QuantityItem[], side: 'sold' | 'found') => {

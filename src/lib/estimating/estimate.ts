@@ -1,9 +1,35 @@
 /**
- * The whole job: geometry, takeoff, checks, prep, prices, pay, margin and duration.
- * Bad input becomes an error entry naming the room and field; the other rooms still price.
+ * The whole job as a pipeline of named pure steps, room by room: the room's shape, then
+ * takeoff (floor, tear-out), repairs, checks, the cover over the subfloor (underlayment, trim,
+ * transitions) and pricing; then the job's materials rounded up once, the schedule and the
+ * cautions. Bad input becomes an error entry naming the room and field; the other rooms still
+ * price.
  */
-import { CAUTION_KINDS, CAUTIONS, cautionTexts, type CautionKind } from './cautions';
-import { roomOutline, roomShape, type RoomShape } from './geometry';
+import { CAUTION_KINDS, CAUTIONS, type CautionKind } from './cautions';
+import { cornersOf, roomOutline, roomShape, type RoomShape } from './geometry';
+import { countWithin, LIMITS, LimitError, placed } from './limits';
+import {
+	margin,
+	PriceIndex,
+	totals,
+	type FloorProduct,
+	type PayLine,
+	type PriceLine
+} from './pricing';
+import { checksStep } from './steps/checks';
+import { materialItems, prepItems, priceItems, type JobOrder, type Priced } from './steps/pricing';
+import { repairsStep } from './steps/repairs';
+import {
+	mergeNeeds,
+	roomContext,
+	type CautionEvent,
+	type HoursEntry,
+	type NeedEvent,
+	type RoomContext,
+	type WorkItem
+} from './steps/room';
+import { hoursByKey, scheduleStep } from './steps/schedule';
+import { coverTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
 import type {
 	CautionNote,
 	EstimateError,
@@ -12,725 +38,399 @@ import type {
 	Finding,
 	RoomMeasure,
 	RoomResult
-} from './index';
-import { ceilUnits } from './math';
-import { PREP, type Measures, type PrepKind } from './prep';
-import {
-	margin,
-	PriceIndex,
-	priceQty,
-	totals,
-	type FloorProduct,
-	type ItemRef,
-	type PayLine,
-	type PriceLine
-} from './pricing';
-import { schedule, type WorkStep } from './schedule';
-import { ROLL_KINDS, type FloorKind, type StoreSettings } from './settings';
-import {
-	flatnessCheck,
-	flatnessRules,
-	joistCheck,
-	mverChecks,
-	rhChecks,
-	sheathingChecks,
-	woodMoistureChecks,
-	type Check
-} from './substrate';
-import {
-	cartonTakeoff,
-	holeRepair,
-	levellerTakeoff,
-	patchTakeoff,
-	rollTakeoff,
-	underlaymentTakeoff,
-	type Void
-} from './takeoff';
+} from './types';
 
-/** A prep item a room needs, with its quantity in every measure it can be priced by. */
-interface PrepNeed {
-	kind: PrepKind;
-	measures: Measures;
+/** Appends without spreading a list of any length into a call. */
+function append<T>(to: T[], items: readonly T[]): void {
+	for (const x of items) to.push(x);
+}
+
+/** What one room brings to the job. */
+interface RoomOutcome {
+	result: RoomResult;
+	errors: EstimateError[];
 	findings: Finding[];
+	priced?: Priced;
+	hours: HoursEntry[];
+	cautions: CautionEvent[];
+	order?: {
+		productId: string;
+		cartonSqFt?: number;
+		rollCutIn?: number;
+		panelSqFt: number;
+		voids: JobOrder['voids'];
+		levelAreas: JobOrder['levelAreas'];
+	};
 }
 
-const ADDITIVE = new Set<PrepKind>(['level', 'grind', 'moisture_test']);
-
-const ASBESTOS_FLOORS = new Set(['sheet_vinyl', 'vinyl_tile', 'ceramic_tile', 'hardwood_glued']);
-
-/** Work steps in install order; a step's cure holds the next. */
-const STEPS: { key: string; label: string; kinds: string[] }[] = [
-	{ key: 'removal', label: 'Tear out existing floors', kinds: ['removal'] },
-	{ key: 'fasteners', label: 'Pull fasteners, sweep, vacuum', kinds: ['fastener_removal'] },
-	{ key: 'structure', label: 'Structure', kinds: ['structural_consult', 'joist_sister'] },
-	{ key: 'holes', label: 'Close subfloor holes', kinds: ['hole_repair'] },
-	{ key: 'overlay', label: 'Subfloor overlay', kinds: ['subfloor_overlay'] },
-	{ key: 'underlayment', label: 'Underlayment panels', kinds: ['underlayment'] },
-	{ key: 'grind', label: 'Grind high spots', kinds: ['grind'] },
-	{ key: 'patch', label: 'Patch seams and dents', kinds: ['seam_patch', 'dent_patch'] },
-	{ key: 'level', label: 'Level low spots', kinds: ['level'] },
-	{
-		key: 'moisture',
-		label: 'Moisture',
-		kinds: ['moisture_test', 'moisture_retest', 'moisture_barrier']
-	},
-	{ key: 'install', label: 'Install floors', kinds: ['install'] },
-	{ key: 'finish', label: 'Trim and transitions', kinds: ['trim', 'transition'] }
-];
-
-const isWood = (kind: string) => kind !== 'concrete';
-
-function ratioFor(kind: FloorKind, product: FloorProduct, s: StoreSettings): number {
-	return product.needs?.deflectionRatio ?? s.joists.ratio[kind] ?? s.joists.defaultRatio;
-}
-
-/** Joists under a room: its extent across them ÷ spacing, plus one. */
-function joistCount(room: RoomShape, runs: 'x' | 'y' | undefined, spacingIn: number): number {
-	const { widthIn, lengthIn } = room.bbox;
-	const along = runs ?? (widthIn <= lengthIn ? 'x' : 'y');
-	const across = along === 'x' ? lengthIn : widthIn;
-	return Math.floor(across / spacingIn) + 1;
+function emptyRoom(room: RoomMeasure): RoomResult {
+	return {
+		id: room.id,
+		name: room.name,
+		ok: false,
+		areaSqFt: 0,
+		perimeterIn: 0,
+		wallPerimeterIn: 0,
+		holes: [],
+		prep: [],
+		findingIds: [],
+		warnings: []
+	};
 }
 
 /**
- * Estimates a whole job. Never throws for bad measures or missing prices: they come back in
- * `errors` with the path of the field at fault.
+ * Refuses a job beyond the engine's `LIMITS` before any room is worked out: too many rooms,
+ * corners, price-book lines or settings rows. Each room's own lists are checked by its steps.
  */
-export function estimate(input: EstimateInput): EstimateResult {
-	const { job, settings: s, priceBook } = input;
-	const index = new PriceIndex(priceBook);
-	const errors: EstimateError[] = [];
-	const warnings: { roomId?: string; message: string }[] = [];
-	const findings: Finding[] = [];
-	const rooms: RoomResult[] = [];
-	const lines: PriceLine[] = [];
-	const pay: PayLine[] = [];
-	const cautions = new Map<CautionKind, { roomIds: Set<string>; lineIds: Set<string> }>();
-	let costCents = 0;
-	let costComplete = true;
-	const hours = new Map<string, number>();
-	const addHours = (key: string, h: number) => hours.set(key, (hours.get(key) ?? 0) + h);
+function checkJob(input: EstimateInput): void {
+	const { job, settings: s } = input;
+	countWithin(job.rooms.length, 'job.rooms', 'rooms', LIMITS.rooms);
+	let corners = 0;
+	for (const room of job.rooms) {
+		corners += cornersOf(room.shape);
+		for (const c of room.cutouts ?? []) corners += cornersOf(c.shape);
+	}
+	countWithin(corners, 'job.rooms', 'corners in the job', LIMITS.jobCorners);
+	const rows: [string, readonly unknown[]][] = [
+		['settings.taxes', s.taxes],
+		['settings.underlayment.requiredFor', s.underlayment.requiredFor],
+		['settings.sheathing.boardMinIn', s.sheathing.boardMinIn],
+		...Object.entries(s.sheathing.floorMinIn).map(([k, v]): [string, readonly unknown[]] => [
+			`settings.sheathing.floorMinIn.${k}`,
+			v ?? []
+		]),
+		...Object.entries(s.flatness.rules).map(([k, v]): [string, readonly unknown[]] => [
+			`settings.flatness.rules.${k}`,
+			v
+		]),
+		...input.priceBook.floors.map((f, i): [string, readonly unknown[]] => [
+			`priceBook.floors.${i}.needs.flatness`,
+			f.needs?.flatness ?? []
+		])
+	];
+	for (const [path, list] of rows) countWithin(list.length, path, 'rows', LIMITS.settingsRows);
+}
 
-	const caution = (kind: CautionKind, roomId?: string, lineId?: string) => {
-		let note = cautions.get(kind);
+/** A refused estimate: the errors, and nothing priced. */
+function refused(errors: EstimateError[]): EstimateResult {
+	const nothing = { material: 0, labour: 0, prep: 0, removal: 0 };
+	return {
+		ok: false,
+		errors,
+		rooms: [],
+		findings: [],
+		lines: [],
+		pay: [],
+		totals: {
+			byGroup: nothing,
+			subtotalCents: 0,
+			taxes: [],
+			taxCents: 0,
+			totalCents: 0,
+			depositCents: 0,
+			balanceCents: 0
+		},
+		installerPayCents: 0,
+		margin: margin(0, 0, 0, true),
+		schedule: { steps: [], workHours: 0, cureHours: 0, days: 0 },
+		cautions: cautionNotes([{ kind: 'planning_aid' }]),
+		warnings: []
+	};
+}
+
+/** An error entry for a refusal, marked with the limit it passed. */
+function limitError(e: LimitError, roomId?: string): EstimateError {
+	const error: EstimateError = { path: e.path, message: e.message, limit: e.limit };
+	if (roomId !== undefined) error.roomId = roomId;
+	return error;
+}
+
+/** The room's shape and floor, or the error that stops it before any step runs. */
+function readyRoom(
+	room: RoomMeasure,
+	i: number,
+	input: EstimateInput,
+	index: PriceIndex,
+	result: RoomResult
+): { shape: RoomShape; product: FloorProduct } | EstimateError {
+	const path = `job.rooms.${i}`;
+	const label = room.name || `Room ${i + 1}`;
+	const shape = placed(
+		() =>
+			roomShape(room.shape, room.cutouts, {
+				closureToleranceIn: input.settings.geometry.closureToleranceIn
+			}),
+		(field) =>
+			field === 'closureToleranceIn' ? 'settings.geometry.closureToleranceIn' : `${path}.${field}`
+	);
+	if (!shape.ok)
+		return {
+			path: `${path}.${shape.field}`,
+			roomId: room.id,
+			message: `${label}: ${shape.message}`
+		};
+	result.areaSqFt = shape.areaSqFt;
+	result.perimeterIn = shape.perimeterIn;
+	result.wallPerimeterIn = shape.wallPerimeterIn;
+	result.outline = roomOutline(shape);
+	append(result.warnings, shape.warnings);
+	if (!room.floor)
+		return { path: `${path}.floor`, roomId: room.id, message: `${label}: choose a floor` };
+	const product = index.floors.get(room.floor.productId);
+	if (!product)
+		return {
+			path: `${path}.floor.productId`,
+			roomId: room.id,
+			message: `${label}: floor "${room.floor.productId}" is not in the price book`
+		};
+	return { shape, product };
+}
+
+/** One room through its steps: takeoff, repairs, checks, cover, supplies and pricing. */
+function roomSteps(
+	ctx: RoomContext,
+	index: PriceIndex,
+	result: RoomResult,
+	roomName: (roomId: string) => string | undefined
+): RoomOutcome {
+	const floor = floorTakeoff(ctx);
+	if (!floor.ok) return { result, errors: [floor.error], findings: [], hours: [], cautions: [] };
+	result.floor = floor.floor;
+	const repairs = repairsStep(ctx);
+	result.holes = repairs.holes;
+	const checks = checksStep(ctx);
+	for (const f of checks.findings) result.findingIds.push(f.id);
+	append(result.warnings, checks.warnings);
+	const cover = coverTakeoff(ctx, repairs.holes);
+	if (cover.underlayment) result.underlayment = cover.underlayment;
+	const supplies = supplyTakeoff(repairs.voids, checks.levelAreas, index, ctx);
+	if (supplies.patch) result.patch = supplies.patch;
+	if (supplies.leveller) result.leveller = supplies.leveller;
+
+	const events: NeedEvent[] = [];
+	append(events, repairs.needs);
+	append(events, checks.needs);
+	append(events, cover.needs);
+	const needs = mergeNeeds(events);
+	const prep = prepItems(needs, ctx);
+	result.prep = prep.prep;
+	const items: WorkItem[] = [];
+	append(items, floor.requests);
+	append(items, prep.requests);
+	const priced = priceItems(items, index, ctx.settings, roomName);
+	result.ok = priced.errors.length === 0;
+	// Tie each finding to the prep lines it called for.
+	needs.forEach((need, k) => {
+		const line = priced.itemLines[floor.requests.length + k];
+		if (line) for (const f of need.findings) f.lineIds.push(line.id);
+	});
+	const hours: HoursEntry[] = [];
+	append(hours, floor.hours);
+	append(hours, prep.hours);
+	const cautions: CautionEvent[] = [];
+	append(cautions, repairs.cautions);
+	append(cautions, checks.cautions);
+	append(cautions, priced.cautions);
+	return {
+		result,
+		errors: priced.errors,
+		findings: checks.findings,
+		priced,
+		hours,
+		cautions,
+		order: {
+			productId: floor.order.productId,
+			cartonSqFt: floor.order.cartonSqFt,
+			rollCutIn: floor.order.rollCutIn,
+			panelSqFt: cover.panelSqFt,
+			voids: repairs.voids,
+			levelAreas: checks.levelAreas
+		}
+	};
+}
+
+/** Each caution once, in a fixed order, with the rooms and lines that raised it. */
+function cautionNotes(events: readonly CautionEvent[]): CautionNote[] {
+	const seen = new Map<CautionKind, { roomIds: Set<string>; lineIds: Set<string> }>();
+	for (const e of events) {
+		let note = seen.get(e.kind);
 		if (!note) {
 			note = { roomIds: new Set(), lineIds: new Set() };
-			cautions.set(kind, note);
+			seen.set(e.kind, note);
 		}
-		if (roomId) note.roomIds.add(roomId);
-		if (lineId) note.lineIds.add(lineId);
+		if (e.roomId) note.roomIds.add(e.roomId);
+		if (e.lineId) note.lineIds.add(e.lineId);
+	}
+	return CAUTION_KINDS.filter((k) => seen.has(k)).map((kind) => ({
+		kind,
+		text: CAUTIONS[kind],
+		roomIds: [...seen.get(kind)!.roomIds],
+		lineIds: [...seen.get(kind)!.lineIds]
+	}));
+}
+
+/** The rooms once each is through its steps, with what they add to the job. */
+interface JobSoFar {
+	errors: EstimateError[];
+	rooms: RoomResult[];
+	findings: Finding[];
+	priced: Priced[];
+	hours: HoursEntry[];
+	cautions: CautionEvent[];
+	order: JobOrder;
+	/** Roll drops laid out in every room, both ways. */
+	drops: number;
+}
+
+/**
+ * Every room through its steps, in order. A room that cannot be priced, or is beyond the
+ * engine's limits, is an error; the others still price.
+ */
+function roomsStep(input: EstimateInput, index: PriceIndex): JobSoFar {
+	const { job, settings: s, priceBook } = input;
+	const names = new Map<string, string>();
+	for (const r of job.rooms) if (!names.has(r.id)) names.set(r.id, r.name);
+	const roomName = (id: string) => names.get(id);
+	const so: JobSoFar = {
+		errors: [],
+		rooms: [],
+		findings: [],
+		priced: [],
+		hours: [],
+		cautions: [{ kind: 'planning_aid' }],
+		order: { cartonSqFt: new Map(), rollCutIn: new Map(), panelSqFt: 0, voids: [], levelAreas: [] },
+		drops: 0
 	};
-	caution('planning_aid');
-
-	const add = (
-		item: {
-			ref: ItemRef;
-			roomId?: string;
-			qty: number;
-			description?: string;
-			findingIds?: string[];
-		},
-		path: string,
-		measures?: Measures
-	): PriceLine | undefined => {
-		const price = index.resolve(item.ref);
-		if (typeof price === 'string') {
-			const room = item.roomId ? job.rooms.find((r) => r.id === item.roomId) : undefined;
-			errors.push({
-				path,
-				roomId: item.roomId,
-				message: room ? `${price} (needed in ${room.name})` : price
-			});
-			return undefined;
-		}
-		let qty = item.qty;
-		if (measures) {
-			const m = measures[price.basis];
-			if (m === undefined) {
-				errors.push({
-					path,
-					roomId: item.roomId,
-					message: `"${price.name}" is priced per ${price.basis}, which does not fit ${item.ref.type === 'prep' ? item.ref.kind : 'this item'}`
-				});
-				return undefined;
-			}
-			qty = m;
-		}
-		if (!(qty > 0)) return undefined;
-		item.qty = qty;
-		const priced = priceQty(item, price, s);
-		lines.push(priced.line);
-		if (priced.pay) pay.push(priced.pay);
-		if (priced.costCents !== undefined) costCents += priced.costCents;
-		else if (priced.line.group === 'material') costComplete = false;
-		return priced.line;
-	};
-
-	// Job-level order quantities, summed over rooms and rounded up once.
-	const cartonNeed = new Map<string, number>();
-	const rollNeed = new Map<string, number>();
-	let panelSqFt = 0;
-	const patchVoids: Void[] = [];
-	const levelAreas: { areaSqFt: number; depthIn: number }[] = [];
-
 	const seen = new Set<string>();
 	job.rooms.forEach((room, i) => {
-		const path = `job.rooms.${i}`;
-		const result: RoomResult = {
-			id: room.id,
-			name: room.name,
-			ok: false,
-			areaSqFt: 0,
-			perimeterIn: 0,
-			wallPerimeterIn: 0,
-			holes: [],
-			prep: [],
-			findingIds: [],
-			warnings: []
-		};
-		rooms.push(result);
+		const result = emptyRoom(room);
+		so.rooms.push(result);
 		if (seen.has(room.id)) {
-			errors.push({
-				path: `${path}.id`,
+			so.errors.push({
+				path: `job.rooms.${i}.id`,
 				roomId: room.id,
 				message: `Room id "${room.id}" is used twice`
 			});
 			return;
 		}
 		seen.add(room.id);
-		const label = room.name || `Room ${i + 1}`;
-		const shape = roomShape(room.shape, room.cutouts, {
-			closureToleranceIn: s.geometry.closureToleranceIn
-		});
-		if (!shape.ok) {
-			errors.push({
-				path: `${path}.${shape.field}`,
-				roomId: room.id,
-				message: `${label}: ${shape.message}`
-			});
+		let out: RoomOutcome;
+		try {
+			const ready = readyRoom(room, i, input, index, result);
+			if (!('shape' in ready)) {
+				so.errors.push(ready);
+				return;
+			}
+			const k = priceBook.floors.indexOf(ready.product);
+			const ctx = roomContext(room, i, ready.shape, ready.product, k, s, job.builtYear);
+			out = roomSteps(ctx, index, result, roomName);
+		} catch (e) {
+			if (!(e instanceof LimitError)) throw e;
+			so.rooms[i] = emptyRoom(room);
+			so.errors.push(limitError(e, room.id));
 			return;
 		}
-		result.areaSqFt = shape.areaSqFt;
-		result.perimeterIn = shape.perimeterIn;
-		result.wallPerimeterIn = shape.wallPerimeterIn;
-		result.outline = roomOutline(shape);
-		result.warnings.push(...shape.warnings);
-		if (!room.floor) {
-			errors.push({ path: `${path}.floor`, roomId: room.id, message: `${label}: choose a floor` });
-			return;
+		const roll = out.result.floor?.roll;
+		if (roll) so.drops += roll.drops.length + roll.other.drops.length;
+		append(so.errors, out.errors);
+		append(so.findings, out.findings);
+		append(so.hours, out.hours);
+		append(so.cautions, out.cautions);
+		if (out.priced) so.priced.push(out.priced);
+		const o = out.order;
+		if (o) {
+			const { cartonSqFt, rollCutIn } = so.order;
+			if (o.cartonSqFt !== undefined)
+				cartonSqFt.set(o.productId, (cartonSqFt.get(o.productId) ?? 0) + o.cartonSqFt);
+			if (o.rollCutIn !== undefined)
+				rollCutIn.set(o.productId, (rollCutIn.get(o.productId) ?? 0) + o.rollCutIn);
+			so.order.panelSqFt += o.panelSqFt;
+			append(so.order.voids, o.voids);
+			append(so.order.levelAreas, o.levelAreas);
 		}
-		const product = index.floors.get(room.floor.productId);
-		if (!product) {
-			errors.push({
-				path: `${path}.floor.productId`,
-				roomId: room.id,
-				message: `${label}: floor "${room.floor.productId}" is not in the price book`
-			});
-			return;
-		}
-		const roomOk = priceRoom(room, i, shape, product, result);
-		result.ok = roomOk;
 	});
+	return so;
+}
 
-	function priceRoom(
-		room: RoomMeasure,
-		i: number,
-		shape: RoomShape,
-		product: FloorProduct,
-		result: RoomResult
-	): boolean {
-		const path = `job.rooms.${i}`;
-		const kind = product.kind;
-		const area = shape.areaSqFt;
-		const errorsBefore = errors.length;
-		const productPath = `priceBook.floors.${priceBook.floors.indexOf(product)}`;
-
-		// Floor takeoff
-		if (ROLL_KINDS.includes(kind)) {
-			if (!(product.rollWidthIn && product.rollWidthIn > 0)) {
-				errors.push({
-					path: `${productPath}.rollWidthIn`,
-					roomId: room.id,
-					message: `${product.name}: roll width is missing`
-				});
-				return false;
-			}
-			const roll = rollTakeoff({
-				polygon: shape.polygon,
-				isRect: shape.isRect,
-				rollWidthIn: product.rollWidthIn,
-				trimPerEndIn: s.roll.trimPerEndIn,
-				orderIncrementIn: s.roll.orderIncrementIn,
-				direction: room.floor?.rollDirection
-			});
-			result.floor = { productId: product.id, kind, roll };
-			rollNeed.set(product.id, (rollNeed.get(product.id) ?? 0) + roll.cutLengthIn);
-		} else {
-			if (!(product.cartonSqFt && product.cartonSqFt > 0)) {
-				errors.push({
-					path: `${productPath}.cartonSqFt`,
-					roomId: room.id,
-					message: `${product.name}: carton coverage is missing`
-				});
-				return false;
-			}
-			const cartons = cartonTakeoff({
-				areaSqFt: area,
-				wastePct: s.wastePct[room.floor!.layout],
-				coverageSqFt: product.cartonSqFt
-			});
-			result.floor = { productId: product.id, kind, cartons };
-			cartonNeed.set(product.id, (cartonNeed.get(product.id) ?? 0) + cartons.neededSqFt);
-		}
-
-		// Install labour
-		add(
-			{
-				ref: { type: 'install', productId: product.id },
-				roomId: room.id,
-				qty: area,
-				description: `Install ${product.name} — ${room.name}`
-			},
-			`${productPath}.labourCentsPerSqFt`
-		);
-		addHours(`install`, (area / s.schedule.crewSqFtPerDay[kind]) * s.schedule.workdayHours);
-
-		// Tear-out
-		const oldHouse = job.builtYear === undefined || job.builtYear < s.asbestosBuiltBefore;
-		(room.remove ?? []).forEach((existing, k) => {
-			const line = add(
-				{
-					ref: { type: 'removal', existing },
-					roomId: room.id,
-					qty: 1,
-					description: `Remove ${existing.replace(/_/g, ' ')} — ${room.name}`
-				},
-				`${path}.remove.${k}`,
-				{ sqft: area, room: 1 }
+/**
+ * The job's materials rounded up once, its totals, margin, schedule and cautions. Work adding up
+ * past a limit (roll drops, hours, a line's amount) refuses the whole job.
+ */
+function jobStep(so: JobSoFar, input: EstimateInput, index: PriceIndex): EstimateResult {
+	const s = input.settings;
+	const { errors, priced, cautions } = so;
+	try {
+		if (so.drops > LIMITS.jobDrops)
+			throw new LimitError(
+				'job.rooms',
+				LIMITS.jobDrops,
+				`The rooms' roll goods come to ${so.drops} drops; the engine lays out up to ${LIMITS.jobDrops} a job`
 			);
-			addHours('removal', area / s.schedule.removalSqFtPerHour);
-			caution('dust_tools', room.id, line?.id);
-			if (ASBESTOS_FLOORS.has(existing) && oldHouse) caution('asbestos', room.id, line?.id);
-		});
-
-		const needs: PrepNeed[] = [];
-		// Readings add up (each low spot, each missing test); whole-room fixes count once.
-		const need = (kind: PrepKind, measures: Measures, from: Finding[] = []) => {
-			const had = needs.find((x) => x.kind === kind);
-			if (!had) needs.push({ kind, measures, findings: [...from] });
-			else {
-				const additive = ADDITIVE.has(kind);
-				for (const [b, v] of Object.entries(measures) as [keyof Measures, number][])
-					had.measures[b] =
-						additive && b !== 'room'
-							? (had.measures[b] ?? 0) + v
-							: Math.max(had.measures[b] ?? 0, v);
-				for (const f of from) if (!had.findings.includes(f)) had.findings.push(f);
-			}
+		const materials = materialItems(so.order, index, s);
+		const jobPriced = priceItems(materials.items, index, s, () => undefined);
+		priced.push(jobPriced);
+		append(errors, jobPriced.errors);
+		append(cautions, materials.cautions);
+		const lines: PriceLine[] = [];
+		const pay: PayLine[] = [];
+		let costCents = 0;
+		let costComplete = true;
+		for (const p of priced) {
+			append(lines, p.lines);
+			append(pay, p.pay);
+			costCents += p.costCents;
+			costComplete &&= p.costComplete;
+		}
+		const sum = totals(lines, s);
+		const installerPayCents = pay.reduce((t, p) => t + p.amountCents, 0);
+		const schedule = placed(
+			() => scheduleStep(hoursByKey(so.hours), s),
+			(field) => (field.startsWith('steps') ? 'job.rooms' : `settings.schedule.${field}`)
+		);
+		const warnings: { roomId?: string; message: string }[] = [];
+		for (const r of so.rooms)
+			for (const message of r.warnings) warnings.push({ roomId: r.id, message });
+		return {
+			ok: errors.length === 0,
+			errors,
+			rooms: so.rooms,
+			findings: so.findings,
+			lines,
+			pay,
+			totals: sum,
+			installerPayCents,
+			margin: margin(sum.subtotalCents, installerPayCents, costCents, costComplete),
+			schedule,
+			cautions: cautionNotes(cautions),
+			warnings
 		};
-		const addFinding = (c: Check, n: number): Finding => {
-			const f: Finding = {
-				id: `${room.id}:${c.check}:${n}`,
-				roomId: room.id,
-				check: c.check,
-				pass: c.pass,
-				measured: c.measured,
-				limit: c.limit,
-				unit: c.unit,
-				message: c.message,
-				rule: c.rule,
-				source: c.source,
-				suggestedPrep: c.suggestedPrep,
-				cautions: c.cautions,
-				cautionTexts: cautionTexts(c.cautions),
-				lineIds: []
-			};
-			findings.push(f);
-			result.findingIds.push(f.id);
-			for (const k of c.cautions) caution(k, room.id);
-			return f;
-		};
-
-		const sub = room.subfloor;
-		const wood = isWood(sub.kind);
-		const spacing = room.joists?.spacingIn ?? s.repairs.defaultJoistSpacingIn;
-		const newUnderlayment =
-			wood &&
-			(room.underlayment ??
-				product.needs?.underlayment ??
-				s.underlayment.requiredFor.includes(kind));
-		const rep = room.repairs ?? {};
-
-		// Fasteners left behind
-		if (rep.fasteners) {
-			const a = rep.fasteners === true ? area : Math.min(area, rep.fasteners.areaSqFt);
-			need('fastener_removal', { sqft: a, room: 1 });
-		}
-
-		// Holes
-		// Backing gives nailed wood something to nail into; glued or floating wood gets blocking.
-		const woodFloor = kind === 'hardwood' || kind === 'engineered_wood';
-		const nailed =
-			(product.fastening ?? (kind === 'hardwood' ? 'nailed' : 'floating')) === 'nailed';
-		const method = woodFloor && !nailed ? 'blocking' : s.repairs.holeMethod[kind];
-		let holes = 0;
-		for (const h of rep.holes ?? []) {
-			const r = holeRepair({
-				widthIn: h.widthIn,
-				lengthIn: h.lengthIn,
-				method,
-				newUnderlayment,
-				ignoreUnderIn: s.repairs.ignoreHoleUnderIn,
-				subfloorThicknessIn: sub.thicknessIn ?? s.repairs.defaultSubfloorIn,
-				joistSpacingIn: spacing,
-				joistThicknessIn: s.repairs.joistThicknessIn,
-				backingLapIn: s.repairs.backingLapIn,
-				roughCutAllowanceIn: s.repairs.roughCutAllowanceIn
-			});
-			result.holes.push(r);
-			if (!r.ignored) holes++;
-		}
-		if (holes > 0) {
-			need('hole_repair', { each: holes, room: 1 });
-			caution('dust_tools', room.id);
-		}
-
-		// Seams and dents → patch
-		const seams = rep.seams ?? [];
-		const dents = rep.dents ?? [];
-		if (seams.length > 0)
-			need('seam_patch', {
-				linft: seams.reduce((t, v) => t + v.lengthIn, 0) / 12,
-				each: seams.length,
-				room: 1
-			});
-		if (dents.length > 0)
-			need('dent_patch', {
-				each: dents.length,
-				sqft: dents.reduce((t, v) => t + v.lengthIn * v.widthIn, 0) / 144,
-				room: 1
-			});
-		const roomVoids = [...seams, ...dents];
-
-		// Joists
-		let n = 0;
-		if (room.joists && wood) {
-			const ratio = ratioFor(kind, product, s);
-			const jm = room.joists;
-			const j = joistCheck(
-				{ size: jm.size, species: jm.species, spacingIn: jm.spacingIn, spanIn: jm.spanIn, ratio },
-				s.joists
-			);
-			for (const c of j.checks) {
-				const f = addFinding(c, n++);
-				for (const p of c.suggestedPrep)
-					need(
-						p.kind,
-						p.kind === 'joist_sister'
-							? { each: joistCount(shape, room.joists.runs, spacing), room: 1 }
-							: { room: 1, each: 1 },
-						[f]
-					);
-			}
-		} else if (wood && (kind === 'ceramic_tile' || kind === 'stone_tile')) {
-			result.warnings.push(
-				'Joists were not measured: the deflection check for tile or stone was not run'
-			);
-		}
-
-		// Sheathing
-		if (wood && sub.thicknessIn !== undefined) {
-			for (const c of sheathingChecks(
-				{
-					kind: sub.kind as 'plywood' | 'osb' | 'board',
-					thicknessIn: sub.thicknessIn,
-					spanRating: sub.spanRating,
-					joistSpacingIn: spacing,
-					floorKind: kind
-				},
-				s.sheathing
-			)) {
-				const f = addFinding(c, n++);
-				for (const p of c.suggestedPrep) need(p.kind, { sqft: area, room: 1 }, [f]);
-			}
-		}
-
-		// Flatness
-		const roomLevel: { areaSqFt: number; depthIn: number }[] = [];
-		const readings = room.readings ?? {};
-		const rules =
-			product.needs?.flatness ??
-			flatnessRules(kind, wood ? 'wood' : 'concrete', s.flatness, product.tileEdgesIn);
-		if (rules && rules.length > 0) {
-			for (const r of readings.flatness ?? []) {
-				const c = flatnessCheck(r, rules);
-				const f = addFinding(c, n++);
-				if (c.pass) continue;
-				if (r.kind === 'high') need('grind', { each: 1, room: 1 }, [f]);
-				else {
-					const a = Math.min(area, r.areaSqFt ?? s.repairs.lowSpotAreaSqFt);
-					const depth = r.gapIn * s.repairs.lowSpotDepthFactor;
-					need('level', { sqft: a, sqft_per_eighth_in: a * (depth / 0.125), each: 1, room: 1 }, [
-						f
-					]);
-					roomLevel.push({ areaSqFt: a, depthIn: depth });
-				}
-			}
-		}
-
-		// Moisture
-		if (!wood) {
-			const rh = readings.rhPct ?? [];
-			const cc = readings.calciumChloride ?? [];
-			if (rh.length > 0)
-				for (const c of rhChecks(
-					{
-						readingsPct: rh,
-						areaSqFt: area,
-						limitPct: product.needs?.rhLimitPct ?? s.moisture.rhLimitPct
-					},
-					s.moisture
-				)) {
-					const f = addFinding(c, n++);
-					for (const p of c.suggestedPrep)
-						need(
-							p.kind,
-							p.kind === 'moisture_test' ? { each: c.limit - c.measured } : { sqft: area, room: 1 },
-							[f]
-						);
-				}
-			if (cc.length > 0)
-				for (const c of mverChecks(
-					{ tests: cc, areaSqFt: area, limit: product.needs?.mverLimit ?? s.moisture.mverLimit },
-					s.moisture
-				)) {
-					const f = addFinding(c, n++);
-					for (const p of c.suggestedPrep)
-						need(
-							p.kind,
-							p.kind === 'moisture_test' ? { each: c.limit - c.measured } : { sqft: area, room: 1 },
-							[f]
-						);
-				}
-			if (rh.length === 0 && cc.length === 0 && kind !== 'carpet')
-				result.warnings.push('No moisture readings for a concrete subfloor');
-		} else if (readings.woodMc) {
-			for (const c of woodMoistureChecks(
-				{
-					subfloorPct: readings.woodMc.subfloorPct,
-					flooringPct: readings.woodMc.flooringPct,
-					boardWidthIn: product.boardWidthIn
-				},
-				s.moisture
-			)) {
-				const f = addFinding(c, n++);
-				for (const p of c.suggestedPrep) need(p.kind, { each: 1, room: 1 }, [f]);
-			}
-		}
-
-		// Underlayment (after holes: resilient hole repairs call for it)
-		const underlay =
-			newUnderlayment || result.holes.some((h) => !h.ignored && h.needsUnderlayment && wood);
-		if (underlay) {
-			const u = underlaymentTakeoff({
-				areaSqFt: area,
-				wastePct: s.underlayment.wastePct,
-				panel: { widthIn: s.underlayment.panelWidthIn, lengthIn: s.underlayment.panelLengthIn },
-				schedule: s.underlayment.schedules[s.underlayment.schedule]
-			});
-			result.underlayment = u;
-			panelSqFt += area;
-			need('underlayment', { sqft: area, panel: u.panels, room: 1 });
-		}
-
-		if (room.trim) need('trim', { linft: ceilUnits(shape.perimeterIn / 12), room: 1 });
-		if (room.transitions && room.transitions > 0) need('transition', { each: room.transitions });
-
-		// Supplies measured in this room
-		if (roomVoids.length > 0) {
-			patchVoids.push(...roomVoids);
-			const c = index.supplies.get('patch')?.container;
-			if (c)
-				result.patch = patchTakeoff({
-					voids: roomVoids,
-					wastePct: s.repairs.patchWastePct,
-					container: c
-				});
-		}
-		if (roomLevel.length > 0) {
-			levelAreas.push(...roomLevel);
-			const y = index.supplies.get('leveller')?.bagYieldCuFt;
-			if (y)
-				result.leveller = levellerTakeoff({
-					areas: roomLevel,
-					bagYieldCuFt: y,
-					wastePct: s.repairs.levellerWastePct
-				});
-		}
-
-		// Price the prep
-		for (const p of needs) {
-			const perUnit = s.schedule.prepHoursPerUnit[p.kind] ?? 0;
-			const h = perUnit * (p.measures[PREP[p.kind].unit] ?? 0);
-			p.measures.hour = h;
-			result.prep.push({ kind: p.kind, qty: p.measures });
-			const line = add(
-				{
-					ref: { type: 'prep', kind: p.kind },
-					roomId: room.id,
-					qty: 0,
-					description: `${PREP[p.kind].label} — ${room.name}`,
-					findingIds: p.findings.map((f) => f.id)
-				},
-				`priceBook.prep`,
-				p.measures
-			);
-			addHours(p.kind, h);
-			if (line) for (const f of p.findings) f.lineIds.push(line.id);
-		}
-		return errors.length === errorsBefore;
+	} catch (e) {
+		if (!(e instanceof LimitError)) throw e;
+		errors.push(limitError(e));
+		return refused(errors);
 	}
+}
 
-	// Job-level materials, rounded up once per product or supply.
-	for (const [productId, sqFt] of cartonNeed) {
-		const p = index.floors.get(productId)!;
-		const cartons = ceilUnits(sqFt / p.cartonSqFt!);
-		add(
-			{ ref: { type: 'floor', productId }, qty: 0, description: `${p.name} — ${cartons} cartons` },
-			`priceBook.floors`,
-			{
-				carton: cartons,
-				sqft: cartons * p.cartonSqFt!
-			}
+/**
+ * Estimates a whole job: every room through its steps (`roomsStep`), then the job's materials,
+ * totals and schedule (`jobStep`). Never throws for bad measures or missing prices: they come
+ * back in `errors` with the path of the field at fault. Work beyond the engine's `LIMITS` is
+ * refused the same way, its error marked with the `limit` passed: a room beyond them is left out
+ * (the others still price); a job beyond them gets nothing priced.
+ */
+export function estimate(input: EstimateInput): EstimateResult {
+	let index: PriceIndex;
+	try {
+		checkJob(input);
+		index = placed(
+			() => new PriceIndex(input.priceBook),
+			(field) => `priceBook.${field}`
 		);
+	} catch (e) {
+		if (e instanceof LimitError) return refused([limitError(e)]);
+		throw e;
 	}
-	for (const [productId, cutIn] of rollNeed) {
-		const p = index.floors.get(productId)!;
-		const lengthIn = ceilUnits(cutIn / s.roll.orderIncrementIn) * s.roll.orderIncrementIn;
-		add(
-			{
-				ref: { type: 'floor', productId },
-				qty: 0,
-				description: `${p.name} — ${lengthIn / 12} lin ft of ${p.rollWidthIn! / 12} ft roll`
-			},
-			`priceBook.floors`,
-			{
-				roll_linft: lengthIn / 12,
-				roll_sqyd: (lengthIn * p.rollWidthIn!) / 1296
-			}
-		);
-	}
-	if (panelSqFt > 0) {
-		const u = underlaymentTakeoff({
-			areaSqFt: panelSqFt,
-			wastePct: s.underlayment.wastePct,
-			panel: { widthIn: s.underlayment.panelWidthIn, lengthIn: s.underlayment.panelLengthIn },
-			schedule: s.underlayment.schedules[s.underlayment.schedule],
-			perBox: index.supplies.get('fastener')?.perBox
-		});
-		add(
-			{
-				ref: { type: 'supply', kind: 'underlayment_panel' },
-				qty: 0,
-				description: `Underlayment panels — ${u.panels}`
-			},
-			'priceBook.supplies',
-			{ panel: u.panels, each: u.panels }
-		);
-		add(
-			{
-				ref: { type: 'supply', kind: 'fastener' },
-				qty: 0,
-				description: `Underlayment fasteners — ${u.fasteners} (${u.schedule.name})`
-			},
-			'priceBook.supplies',
-			{ each: u.fasteners, box: u.boxes }
-		);
-		caution('dust_tools');
-	}
-	if (patchVoids.length > 0) {
-		const supply = index.supplies.get('patch');
-		if (supply?.container) {
-			const t = patchTakeoff({
-				voids: patchVoids,
-				wastePct: s.repairs.patchWastePct,
-				container: supply.container
-			});
-			add(
-				{
-					ref: { type: 'supply', kind: 'patch' },
-					qty: 0,
-					description: `${supply.name} — ${t.containers}`
-				},
-				'priceBook.supplies',
-				{ container: t.containers, each: t.containers }
-			);
-		} else
-			errors.push({
-				path: 'priceBook.supplies',
-				message: supply
-					? `${supply.name}: container size is missing`
-					: 'No price for supply "patch"'
-			});
-	}
-	if (levelAreas.length > 0) {
-		const supply = index.supplies.get('leveller');
-		if (supply?.bagYieldCuFt) {
-			const t = levellerTakeoff({
-				areas: levelAreas,
-				bagYieldCuFt: supply.bagYieldCuFt,
-				wastePct: s.repairs.levellerWastePct
-			});
-			add(
-				{
-					ref: { type: 'supply', kind: 'leveller' },
-					qty: 0,
-					description: `${supply.name} — ${t.bags} bags`
-				},
-				'priceBook.supplies',
-				{ bag: t.bags, each: t.bags }
-			);
-		} else
-			errors.push({
-				path: 'priceBook.supplies',
-				message: supply ? `${supply.name}: bag yield is missing` : 'No price for supply "leveller"'
-			});
-	}
-
-	const sum = totals(lines, s);
-	const installerPayCents = pay.reduce((t, p) => t + p.amountCents, 0);
-	const steps: WorkStep[] = [];
-	for (const st of STEPS) {
-		const h = st.kinds.reduce((t, k) => t + (hours.get(k) ?? 0), 0);
-		if (h <= 0) continue;
-		const cure = Math.max(
-			0,
-			...st.kinds.filter((k) => (hours.get(k) ?? 0) > 0).map((k) => s.schedule.cureHours[k] ?? 0)
-		);
-		steps.push({ key: st.key, label: st.label, hours: h, cureHours: cure || undefined });
-	}
-	return {
-		ok: errors.length === 0,
-		errors,
-		rooms,
-		findings,
-		lines,
-		pay,
-		totals: sum,
-		installerPayCents,
-		margin: margin(sum.subtotalCents, installerPayCents, costCents, costComplete),
-		schedule: schedule(steps, s.schedule),
-		cautions: CAUTION_KINDS.filter((k) => cautions.has(k)).map((kind): CautionNote => ({
-			kind,
-			text: CAUTIONS[kind],
-			roomIds: [...cautions.get(kind)!.roomIds],
-			lineIds: [...cautions.get(kind)!.lineIds]
-		})),
-		warnings: [
-			...warnings,
-			...rooms.flatMap((r) => r.warnings.map((message) => ({ roomId: r.id, message })))
-		]
-	};
+	return jobStep(roomsStep(input, index), input, index);
 }
 
 /** What the customer sees: prices and totals, never installer pay or margins. */

@@ -5,6 +5,7 @@
  */
 import polygonClipping from 'polygon-clipping';
 import type { Polygon, Ring } from 'polygon-clipping';
+import { countWithin, LIMITS, LimitError, within } from './limits';
 import { formatLength, SQIN_PER_SQFT } from './units';
 
 export type Point = [number, number];
@@ -219,6 +220,67 @@ function positive(v: number): boolean {
 	return Number.isFinite(v) && v > 0;
 }
 
+/** Refuses a length beyond `LIMITS.lengthIn` (500 ft). */
+function length(v: number, path: string): void {
+	within(v, path, 'A length', LIMITS.lengthIn, 'in');
+}
+
+/** Refuses a corner further than `LIMITS.coordinateIn` from the origin. */
+function coordinate(v: number | undefined, path: string): void {
+	if (v !== undefined)
+		within(v, path, 'A corner', LIMITS.coordinateIn, 'in from the origin', -LIMITS.coordinateIn);
+}
+
+/** Corners a shape is drawn with, counted before anything is computed from it. */
+export function cornersOf(shape: Shape): number {
+	if (shape.kind === 'rect') return 4;
+	if (shape.kind === 'rects') return 4 * shape.rects.length;
+	return shape.kind === 'sides' ? shape.sides.length : shape.points.length;
+}
+
+/** Refuses a shape with more corners, rectangles, or longer sides than the engine takes. */
+function checkShape(shape: Shape, field: string): void {
+	if (shape.kind === 'rect') {
+		length(shape.widthIn, `${field}.widthIn`);
+		length(shape.lengthIn, `${field}.lengthIn`);
+		coordinate(shape.xIn, `${field}.xIn`);
+		coordinate(shape.yIn, `${field}.yIn`);
+	} else if (shape.kind === 'rects') {
+		countWithin(shape.rects.length, `${field}.rects`, 'rectangles', LIMITS.rects);
+		shape.rects.forEach((r, i) => {
+			length(r.widthIn, `${field}.rects.${i}.widthIn`);
+			length(r.lengthIn, `${field}.rects.${i}.lengthIn`);
+			coordinate(r.xIn, `${field}.rects.${i}.xIn`);
+			coordinate(r.yIn, `${field}.rects.${i}.yIn`);
+		});
+	} else if (shape.kind === 'sides') {
+		countWithin(shape.sides.length, `${field}.sides`, 'sides', LIMITS.outlineCorners);
+		shape.sides.forEach((side, i) => length(side.lengthIn, `${field}.sides.${i}.lengthIn`));
+		coordinate(shape.xIn, `${field}.xIn`);
+		coordinate(shape.yIn, `${field}.yIn`);
+	} else {
+		countWithin(shape.points.length, `${field}.points`, 'corners', LIMITS.outlineCorners);
+		shape.points.forEach((p, i) => {
+			coordinate(p[0], `${field}.points.${i}.0`);
+			coordinate(p[1], `${field}.points.${i}.1`);
+		});
+	}
+}
+
+/** Refuses a floor wider or longer than `LIMITS.roomSideIn`, or with too many corners. */
+function checkExtent(polygon: Polygon, b: BBox, field: string): void {
+	const side = Math.max(b.widthIn, b.lengthIn);
+	if (side > LIMITS.roomSideIn)
+		throw new LimitError(
+			field,
+			LIMITS.roomSideIn,
+			`The room is ${formatLength(side)} across; the engine takes rooms up to ${formatLength(LIMITS.roomSideIn)} a side`
+		);
+	let corners = 0;
+	for (const ring of polygon) corners += ring.length;
+	countWithin(corners, field, 'corners in the room with its cut-outs', LIMITS.roomCorners);
+}
+
 type Simple = { ok: true; polygon: Polygon; simple: boolean } | ShapeError;
 
 /** Turns a shape into one polygon (outer ring counter-clockwise), or says why it cannot. */
@@ -247,7 +309,8 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 			polys.push([rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)]);
 		}
 		if (polys.length === 1) return { ok: true, simple: true, polygon: polys[0] };
-		const union = polygonClipping.union(polys[0], ...polys.slice(1));
+		// One multipolygon of every rectangle (they may overlap): no list spread into the call.
+		const union = polygonClipping.union(polys);
 		if (union.length !== 1)
 			return {
 				ok: false,
@@ -367,7 +430,8 @@ function polygonPerimeter(poly: Polygon): number {
 /**
  * The floor of a room: its shape less its cut-outs, with area (in², ft²), perimeters and
  * outline. Invalid input (self-crossing, open, zero area, disconnected) comes back as
- * `{ ok: false, field, message }`.
+ * `{ ok: false, field, message }`; a shape beyond the engine's `LIMITS` (a side over 500 ft,
+ * over 200 corners, 50 cut-outs) throws a `LimitError` naming the field, before any work.
  */
 export function roomShape(
 	shape: Shape,
@@ -375,6 +439,15 @@ export function roomShape(
 	options: { closureToleranceIn?: number } = {}
 ): RoomShapeResult {
 	const tol = options.closureToleranceIn ?? 0.25;
+	within(tol, 'closureToleranceIn', 'The closure tolerance', LIMITS.depthIn, 'in');
+	checkShape(shape, 'shape');
+	countWithin(cutouts.length, 'cutouts', 'cut-outs', LIMITS.cutouts);
+	let cutCorners = 0;
+	cutouts.forEach((c, i) => {
+		checkShape(c.shape, `cutouts.${i}.shape`);
+		cutCorners += cornersOf(c.shape);
+	});
+	countWithin(cutCorners, 'cutouts', 'corners of cut-outs', LIMITS.cutoutCorners);
 	const base = shapePolygon(shape, 'shape', tol);
 	if (!base.ok) return base;
 	const wallPerimeterIn = polygonPerimeter(base.polygon);
@@ -394,7 +467,7 @@ export function roomShape(
 			// Cut-outs clear of the walls and of each other are holes as they are.
 			polygon = [...polygon, ...cuts.map((c) => [...c[0]].reverse())];
 		} else {
-			const result = polygonClipping.difference(openToClosed(polygon), ...cuts.map(openToClosed));
+			const result = polygonClipping.difference(openToClosed(polygon), cuts.map(openToClosed));
 			if (result.length === 0)
 				return { ok: false, field: 'cutouts', message: 'The cut-outs cover the whole room' };
 			if (result.length > 1)
@@ -411,6 +484,8 @@ export function roomShape(
 				);
 		}
 	}
+	const bbox = bboxOf(polygon);
+	checkExtent(polygon, bbox, 'shape');
 	const areaSqIn = polygonArea(polygon);
 	if (!(areaSqIn > EPS)) return { ok: false, field: 'shape', message: 'The room has no area' };
 	return {
@@ -420,7 +495,7 @@ export function roomShape(
 		perimeterIn: cutouts.length > 0 ? polygonPerimeter(polygon) : wallPerimeterIn,
 		wallPerimeterIn,
 		polygon,
-		bbox: bboxOf(polygon),
+		bbox,
 		isRect: shape.kind === 'rect' && cutouts.length === 0,
 		warnings
 	};

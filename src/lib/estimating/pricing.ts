@@ -7,6 +7,7 @@
  * rounding (half-up by default). The deposit is round-half-up(total × percent), at least the
  * minimum, never above the total. Installer pay per line uses the same rule as prices.
  */
+import { countWithin, figure, LIMITS, LimitError } from './limits';
 import { ceilUnits } from './math';
 import type { Basis, PrepKind } from './prep';
 import type {
@@ -171,6 +172,27 @@ export function divRound(n: number, d: number, mode: Rounding = 'half_up'): numb
 	return sign * out || 0;
 }
 
+/**
+ * round(a × b ÷ d) by `mode`, exact for whole numbers however large the product: past 2^53 a
+ * float product loses cents, so it is worked out in BigInt.
+ */
+export function mulDivRound(a: number, b: number, d: number, mode: Rounding = 'half_up'): number {
+	const n = a * b;
+	if (Number.isSafeInteger(n) || !Number.isInteger(a) || !Number.isInteger(b))
+		return divRound(n, d, mode);
+	const big = BigInt(a) * BigInt(b);
+	const sign = big < 0n ? -1n : 1n;
+	const abs = big * sign;
+	const D = BigInt(d);
+	const q = abs / D;
+	const r = abs % D;
+	let out = q;
+	if (mode === 'half_up') out = 2n * r >= D ? q + 1n : q;
+	else if (mode === 'half_even') out = 2n * r > D || (2n * r === D && q % 2n === 1n) ? q + 1n : q;
+	else if (mode === 'up') out = r > 0n ? q + 1n : q;
+	return Number(sign * out);
+}
+
 const QTY_SCALE = 10_000;
 
 /** A quantity kept to 1/10,000 of its unit, as an integer count of ten-thousandths. */
@@ -180,7 +202,7 @@ export function qtyUnits(qty: number): number {
 
 /** round-half-up(qty × unitCents), with qty kept to 1/10,000 of its unit. */
 export function extend(qty: number, unitCents: number): number {
-	return divRound(qtyUnits(qty) * unitCents, QTY_SCALE);
+	return mulDivRound(qtyUnits(qty), unitCents, QTY_SCALE);
 }
 
 export interface Resolved {
@@ -200,14 +222,28 @@ export class PriceIndex {
 	readonly supplies = new Map<SupplyKind, SupplyPrice>();
 
 	constructor(readonly book: PriceBook) {
+		for (const section of ['floors', 'prep', 'removal', 'supplies'] as const)
+			countWithin(book[section].length, section, 'price-book lines', LIMITS.priceBookLines);
 		for (const f of book.floors) this.floors.set(f.id, f);
 		for (const p of book.prep) this.prep.set(p.kind, p);
 		for (const r of book.removal) this.removal.set(r.existing, r);
 		for (const s of book.supplies) this.supplies.set(s.kind, s);
 	}
 
-	/** The price of an item, or a message saying what is missing. */
+	private readonly resolved = new Map<string, Resolved | string>();
+
+	/** The price of an item, or a message saying what is missing (looked up once per item). */
 	resolve(ref: ItemRef): Resolved | string {
+		const key = refKey(ref);
+		let r = this.resolved.get(key);
+		if (r === undefined) {
+			r = this.lookup(ref);
+			this.resolved.set(key, r);
+		}
+		return r;
+	}
+
+	private lookup(ref: ItemRef): Resolved | string {
 		switch (ref.type) {
 			case 'floor': {
 				const f = this.floors.get(ref.productId);
@@ -281,11 +317,19 @@ export interface Priced {
 export function priceQty(
 	item: { ref: ItemRef; roomId?: string; qty: number; description?: string; findingIds?: string[] },
 	price: Resolved,
-	settings: StoreSettings
+	settings: StoreSettings,
+	/** The quantity to price, when not the item's own. */
+	itemQty = item.qty
 ): Priced {
 	const key = refKey(item.ref);
 	const id = `${item.roomId ?? 'job'}:${key}`;
-	const qty = qtyUnits(item.qty) / QTY_SCALE;
+	if (!(Math.abs(itemQty) <= LIMITS.lineQty))
+		throw new LimitError(
+			'qty',
+			LIMITS.lineQty,
+			`${item.description ?? price.name} comes to ${figure(itemQty)} ${price.basis}; the engine prices up to ${figure(LIMITS.lineQty)} a line`
+		);
+	const qty = qtyUnits(itemQty) / QTY_SCALE;
 	const description = item.description ?? price.name;
 	const line: PriceLine = {
 		id,
@@ -314,6 +358,17 @@ export function priceQty(
 				}
 			: undefined;
 	const costCents = price.costCents === undefined ? undefined : extend(qty, price.costCents);
+	const most = Math.max(
+		Math.abs(line.amountCents),
+		Math.abs(pay?.amountCents ?? 0),
+		Math.abs(costCents ?? 0)
+	);
+	if (!(most <= LIMITS.lineCents))
+		throw new LimitError(
+			'qty',
+			LIMITS.lineCents,
+			`${description} comes to ${figure(most / 100)} (in whole units of the currency); the engine prices up to ${figure(LIMITS.lineCents / 100)} a line`
+		);
 	return { line, pay, costCents };
 }
 
@@ -339,13 +394,14 @@ export function taxes(
 	byGroup: Record<LineGroup, number>,
 	settings: Pick<StoreSettings, 'taxes' | 'taxRounding'>
 ): TaxLine[] {
+	countWithin(settings.taxes.length, 'taxes', 'taxes', LIMITS.settingsRows);
 	return settings.taxes.map((t) => {
 		const taxableCents = t.groups.reduce((s, g) => s + byGroup[g], 0);
 		return {
 			name: t.name,
 			rateBps: t.rateBps,
 			taxableCents,
-			taxCents: divRound(taxableCents * t.rateBps, 10_000, settings.taxRounding)
+			taxCents: mulDivRound(taxableCents, t.rateBps, 10_000, settings.taxRounding)
 		};
 	});
 }
@@ -353,7 +409,7 @@ export function taxes(
 /** Deposit: round-half-up(total × percent), at least the minimum, never above the total. */
 export function depositCents(totalCents: number, deposit: StoreSettings['deposit']): number {
 	if (totalCents <= 0) return 0;
-	const pct = divRound(totalCents * deposit.percentBps, 10_000);
+	const pct = mulDivRound(totalCents, deposit.percentBps, 10_000);
 	return Math.min(totalCents, Math.max(deposit.minimumCents, pct));
 }
 
@@ -403,7 +459,7 @@ export function margin(
 		installerPayCents,
 		costCents,
 		marginCents,
-		marginBps: revenueCents > 0 ? divRound(marginCents * 10_000, revenueCents) : 0,
+		marginBps: revenueCents > 0 ? mulDivRound(marginCents, 10_000, revenueCents) : 0,
 		costComplete
 	};
 }

@@ -2,8 +2,8 @@
  * Invented sample data (no real products or brands): a price book and jobs of any size, for
  * specs, the benchmark and the app's demo previews.
  */
-import type { JobMeasure, RoomMeasure } from './index';
-import type { PriceBook } from './pricing';
+import type { JobMeasure, RoomMeasure } from './types';
+import type { FloorProduct, PriceBook } from './pricing';
 
 export const samplePriceBook: PriceBook = {
 	currency: 'USD',
@@ -118,6 +118,38 @@ export const samplePriceBook: PriceBook = {
 		}
 	]
 };
+
+/** Floors beyond the sample book, so every kind of floor can be sold in the demo. */
+export const demoFloors: FloorProduct[] = [
+	{
+		id: 'laminate-8',
+		name: 'Walnut-look laminate 8 mm',
+		kind: 'laminate',
+		cartonSqFt: 19.8,
+		material: { basis: 'carton', priceCents: 5_350, costCents: 3_100 },
+		labourCentsPerSqFt: 175,
+		payCentsPerSqFt: 115
+	},
+	{
+		id: 'slate-16',
+		name: 'Honed slate 16 × 16 in',
+		kind: 'stone_tile',
+		cartonSqFt: 10.7,
+		tileEdgesIn: [16, 16],
+		material: { basis: 'carton', priceCents: 8_900, costCents: 5_400 },
+		labourCentsPerSqFt: 800,
+		payCentsPerSqFt: 520
+	},
+	{
+		id: 'berber-15',
+		name: 'Berber carpet 15 ft',
+		kind: 'carpet',
+		rollWidthIn: 180,
+		material: { basis: 'roll_sqyd', priceCents: 2_450, costCents: 1_350 },
+		labourCentsPerSqFt: 90,
+		payCentsPerSqFt: 60
+	}
+];
 
 /** Room `i` of a mixed sample job: shapes, floors and repairs cycle so every path runs. */
 export function sampleRoom(i: number): RoomMeasure {

@@ -2,6 +2,7 @@
  * Install duration: work steps in order, each holding the next while it cures. One crew;
  * work runs inside the working day, cures run on the clock (overnight counts).
  */
+import { countWithin, figure, LIMITS, LimitError, within } from './limits';
 
 export interface WorkStep {
 	key: string;
@@ -40,6 +41,23 @@ export function schedule(
 ): Schedule {
 	const H = settings.workdayHours;
 	const start0 = settings.dayStartHour;
+	within(H, 'workdayHours', 'The working day', 24, 'h', 1);
+	within(start0, 'dayStartHour', 'The start of the day', 23, 'h', 0);
+	countWithin(steps.length, 'steps', 'work steps', LIMITS.settingsRows);
+	let total = 0;
+	steps.forEach((step, i) => {
+		within(step.hours, `steps.${i}.hours`, `${step.label}: the work`, LIMITS.workHours, 'h', 0);
+		within(step.cureHours ?? 0, `steps.${i}.cureHours`, 'A cure', LIMITS.cureHours, 'h', 0);
+		total += step.hours;
+	});
+	if (!(total <= LIMITS.workHours))
+		throw new LimitError(
+			'steps',
+			LIMITS.workHours,
+			`The work comes to ${figure(total)} h; the engine plans up to ${figure(LIMITS.workHours)} h`
+		);
+	// Each pass of the loop below ends a working day or a step: at most this many passes.
+	let passes = Math.ceil(total / H) + 2 * steps.length + 1;
 	// Working time as (day, hours into the working day).
 	let day = 0;
 	let into = 0;
@@ -56,7 +74,7 @@ export function schedule(
 		}
 		const start = point(day, into);
 		let left = step.hours;
-		while (left > 1e-9) {
+		while (left > 1e-9 && passes-- > 0) {
 			if (into >= H) {
 				day += 1;
 				into = 0;

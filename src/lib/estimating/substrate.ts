@@ -4,6 +4,7 @@
  * never an engineer's stamp.
  */
 import type { CautionKind } from './cautions';
+import { countWithin, LIMITS } from './limits';
 import { ceilUnits, floorUnits } from './math';
 import type { PrepKind } from './prep';
 import type { FlatnessRule, FloorKind, JoistSize, Species, StoreSettings } from './settings';
@@ -48,6 +49,14 @@ const atMost = (v: number, limit: number) => v <= limit + AT_LIMIT * Math.max(1,
 const atLeast = (v: number, limit: number) => v >= limit - AT_LIMIT * Math.max(1, Math.abs(limit));
 
 const STRUCTURE: CautionKind[] = ['planning_aid', 'structure'];
+
+/** The highest of readings, at most `LIMITS.listItems` of them (no list spread into a call). */
+function highest(xs: readonly number[], path: string): number {
+	countWithin(xs.length, path, 'readings', LIMITS.listItems);
+	let max = -Infinity;
+	for (const x of xs) if (x > max) max = x;
+	return max;
+}
 
 // ---------------------------------------------------------------- joists
 
@@ -208,6 +217,7 @@ export function sheathingChecks(
 ): Check[] {
 	const checks: Check[] = [];
 	const spacing = input.joistSpacingIn;
+	countWithin(settings.boardMinIn.length, 'boardMinIn', 'rows', LIMITS.settingsRows);
 	const overlay = (need: number): SuggestedPrep[] => [
 		{
 			kind: 'subfloor_overlay',
@@ -252,6 +262,7 @@ export function sheathingChecks(
 		});
 	}
 	const floorRows = input.floorKind ? settings.floorMinIn[input.floorKind] : undefined;
+	if (floorRows) countWithin(floorRows.length, 'floorMinIn', 'rows', LIMITS.settingsRows);
 	if (floorRows && input.kind !== 'board') {
 		const row = floorRows.find((r) => spacing <= r.maxSpacingIn);
 		const need = row ? (input.kind === 'osb' ? row.osbIn : row.plywoodIn) : Infinity;
@@ -311,7 +322,9 @@ export interface FlatnessReading {
  * rule, unscaled). A gap exactly at the tolerance passes.
  */
 export function flatnessCheck(reading: FlatnessReading, rules: readonly FlatnessRule[]): Check {
-	const sorted = [...rules].sort((a, b) => a.overIn - b.overIn);
+	countWithin(rules.length, 'rules', 'flatness rules', LIMITS.settingsRows);
+	const inOrder = rules.every((r, i) => i === 0 || rules[i - 1].overIn <= r.overIn);
+	const sorted = inOrder ? rules : [...rules].sort((a, b) => a.overIn - b.overIn);
 	const rule = sorted.find((r) => atLeast(r.overIn, reading.spanIn)) ?? sorted[sorted.length - 1];
 	const pass = atMost(reading.gapIn, rule.gapIn);
 	const high = reading.kind === 'high';
@@ -377,7 +390,7 @@ export function rhChecks(
 	input: { readingsPct: readonly number[]; areaSqFt: number; limitPct: number },
 	settings: StoreSettings['moisture']
 ): Check[] {
-	const worst = Math.max(...input.readingsPct);
+	const worst = highest(input.readingsPct, 'readingsPct');
 	const pass = atMost(worst, input.limitPct);
 	return [
 		{
@@ -425,7 +438,8 @@ export function mverChecks(
 	input: { tests: readonly CalciumChlorideTest[]; areaSqFt: number; limit: number },
 	settings: StoreSettings['moisture']
 ): Check[] {
-	const worst = Math.max(...input.tests.map(mver));
+	countWithin(input.tests.length, 'tests', 'tests', LIMITS.listItems);
+	const worst = highest(input.tests.map(mver), 'tests');
 	const pass = atMost(worst, input.limit);
 	return [
 		{
@@ -469,8 +483,9 @@ export function woodMoistureChecks(
 		}
 	];
 	const checks: Check[] = [];
+	countWithin(input.flooringPct.length, 'flooringPct', 'readings', LIMITS.listItems);
 	if (input.subfloorPct.length > 0) {
-		const worst = Math.max(...input.subfloorPct);
+		const worst = highest(input.subfloorPct, 'subfloorPct');
 		const pass = atMost(worst, settings.woodSubfloorMaxPct);
 		checks.push({
 			check: 'wood_subfloor_mc',

@@ -3,6 +3,7 @@
  * fasteners, patch, leveller, and the pieces that close a subfloor hole.
  */
 import type { Polygon } from 'polygon-clipping';
+import { countWithin, LIMITS, LimitError, within } from './limits';
 import { ceilTo, ceilUnits, floorUnits } from './math';
 import type { FasteningSchedule, HoleMethod } from './settings';
 import { CUIN_PER_US_GAL, SQIN_PER_SQFT, SQIN_PER_SQYD } from './units';
@@ -196,6 +197,14 @@ function layout(
 	}
 	ys.sort((a, b) => a - b);
 	const strips = ceilUnits((maxY - minY) / rollWidthIn);
+	// At most 500 (a 500 ft room in 1 ft rolls) whatever the caller measured.
+	const maxStrips = LIMITS.roomSideIn / LIMITS.rollWidthMinIn;
+	if (!(strips <= maxStrips))
+		throw new LimitError(
+			'polygon',
+			LIMITS.roomSideIn,
+			`The room needs ${strips} drops across; the engine takes rooms up to ${LIMITS.roomSideIn / 12} ft a side`
+		);
 	const drops: Drop[] = [];
 	let seams = 0;
 	let seamLengthIn = 0;
@@ -242,6 +251,26 @@ export function rollTakeoff(input: {
 	orderIncrementIn: number;
 	direction?: RollDirection;
 }): RollTakeoff {
+	within(
+		input.rollWidthIn,
+		'rollWidthIn',
+		'The roll width',
+		LIMITS.rollWidthMaxIn,
+		'in',
+		LIMITS.rollWidthMinIn
+	);
+	within(input.trimPerEndIn, 'trimPerEndIn', 'The trim per cut end', LIMITS.depthIn, 'in', 0);
+	within(
+		input.orderIncrementIn,
+		'orderIncrementIn',
+		'The order increment',
+		LIMITS.lengthIn,
+		'in',
+		1
+	);
+	let corners = 0;
+	for (const ring of input.polygon) corners += ring.length;
+	countWithin(corners, 'polygon', 'corners', LIMITS.roomCorners);
 	const args = [input.rollWidthIn, input.trimPerEndIn, input.orderIncrementIn] as const;
 	const x = layout(input.polygon, !!input.isRect, 'x', ...args);
 	const y = layout(input.polygon, !!input.isRect, 'y', ...args);
@@ -365,6 +394,7 @@ export function patchTakeoff(input: {
 	wastePct: number;
 	container: PatchContainer;
 }): PatchTakeoff {
+	countWithin(input.voids.length, 'voids', 'seams and dents', LIMITS.rooms * 2 * LIMITS.listItems);
 	const volumeCuIn = input.voids.reduce((t, v) => t + v.lengthIn * v.widthIn * v.depthIn, 0);
 	const containerCuIn = containerVolume(input.container);
 	return {
@@ -394,6 +424,7 @@ export function levellerTakeoff(input: {
 	bagYieldCuFt: number;
 	wastePct: number;
 }): LevellerTakeoff {
+	countWithin(input.areas.length, 'areas', 'areas to level', LIMITS.rooms * LIMITS.listItems);
 	const volumeCuFt = input.areas.reduce((t, a) => t + (a.areaSqFt * a.depthIn) / 12, 0);
 	const single = input.areas.length === 1 ? input.areas[0] : undefined;
 	return {

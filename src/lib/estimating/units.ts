@@ -3,6 +3,7 @@
  * Conversion factors are exact by definition (international yard and pound, 1959).
  */
 import { ungroupThousands } from '../input/number';
+import { figure, LIMITS, LimitError } from './limits';
 
 /** 1 in = 25.4 mm exactly. */
 export const MM_PER_IN = 25.4;
@@ -84,6 +85,11 @@ function cannot(part: string, whole: string, why: string): ParseLengthResult {
  */
 export function parseLength(text: string, defaultUnit: LengthUnit = 'in'): ParseLengthResult {
 	const whole = text;
+	if (text.length > LIMITS.lengthText)
+		return {
+			ok: false,
+			message: `A length is at most ${LIMITS.lengthText} characters; this one is ${text.length}`
+		};
 	let s = text
 		.replace(/[′’‘`]/g, "'")
 		.replace(/[″”“]|''/g, '"')
@@ -160,8 +166,26 @@ export function fromInches(inches: number, unit: LengthUnit): number {
 	return inches / IN_PER_UNIT[unit];
 }
 
-function gcd(a: number, b: number): number {
-	return b === 0 ? a : gcd(b, a % b);
+/**
+ * Greatest common divisor of two whole numbers up to 2^53 (Euclid, by division). Refuses
+ * anything else (`1e308`, a fraction, NaN) rather than looping: whole numbers up to 2^53 take
+ * at most 78 divisions (consecutive Fibonacci numbers are the worst case).
+ */
+export function gcd(a: number, b: number): number {
+	if (!Number.isSafeInteger(a) || !Number.isSafeInteger(b))
+		throw new LimitError(
+			Number.isSafeInteger(a) ? 'b' : 'a',
+			Number.MAX_SAFE_INTEGER,
+			`gcd takes whole numbers up to ${Number.MAX_SAFE_INTEGER}; it was given ${a} and ${b}`
+		);
+	a = Math.abs(a);
+	b = Math.abs(b);
+	for (let i = 0; b !== 0 && i < 100; i++) {
+		const r = a % b;
+		a = b;
+		b = r;
+	}
+	return a;
 }
 
 /** A fraction of an inch in lowest terms, e.g. 8/16 → `1/2`. */
@@ -178,13 +202,17 @@ function trimFixed(n: number, digits: number): string {
 
 /**
  * Formats inches: `ft-in` (`12' 6 1/2"`, to 1/`denominator` in), `in` (`150 1/4"`), `mm`, `cm`
- * or `m` (to `digits` decimals, trailing zeros dropped).
+ * or `m` (to `digits` decimals, trailing zeros dropped). Past `LIMITS.formatIn`, or not a
+ * number, the plain figure (`1e+308 in`).
  */
 export function formatLength(
 	inches: number,
 	format: LengthFormat = 'ft-in',
 	options: { denominator?: number; digits?: number } = {}
 ): string {
+	// Past about 158 miles (or not a number) a length is no longer one anybody measures: it is
+	// written as the plain number, never worked into feet and fractions.
+	if (!(Math.abs(inches) <= LIMITS.formatIn)) return `${figure(inches)} in`;
 	const sign = inches < 0 ? '-' : '';
 	const abs = Math.abs(inches);
 	if (format === 'mm') return `${sign}${trimFixed(abs * MM_PER_IN, options.digits ?? 0)} mm`;

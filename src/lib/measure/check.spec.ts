@@ -62,6 +62,26 @@ describe('messages by field', () => {
 		expect(outline.errors[0].path).toMatch(/^shape/);
 	});
 
+	it('says by the shape when a room is more than 500 ft across (the engine’s limit)', () => {
+		const wide = room('w', 'Barn', {
+			shape: {
+				kind: 'rects',
+				rects: [
+					{ x: '0', y: '0', width: "400'", length: "10'" },
+					{ x: "400'", y: '0', width: "400'", length: "10'" }
+				]
+			}
+		});
+		const outline = roomOutlineOf(wide, defaultSettings);
+		expect(outline.shape).toBeUndefined();
+		expect(outline.errors).toEqual([
+			{
+				path: 'shape',
+				message: `The room is 800' 0" across; the engine takes rooms up to 500' 0" a side`
+			}
+		]);
+	});
+
 	it('keeps messages for no field apart: by room, or for the whole measure', () => {
 		const m = collectMessages(
 			{ builtYear: '', rooms: [room('a', 'A')] },

@@ -4,6 +4,7 @@
  * what the engine refused (no floor chosen, a price missing).
  */
 import {
+	LimitError,
 	roomShape,
 	type EstimateError,
 	type JobMeasure,
@@ -62,11 +63,25 @@ export function roomOutlineOf(
 ) {
 	const read = readRoomShape(room, settings);
 	if (!read.shape) return { errors: read.errors };
-	const shape = roomShape(read.shape, read.cutouts, {
-		closureToleranceIn: settings.geometry.closureToleranceIn
-	});
+	let shape;
+	try {
+		shape = roomShape(read.shape, read.cutouts, {
+			closureToleranceIn: settings.geometry.closureToleranceIn
+		});
+	} catch (e) {
+		// Beyond the engine's limits (a room over 500 ft across): said by the field at fault.
+		if (!(e instanceof LimitError)) throw e;
+		return { errors: [...read.errors, { path: draftFieldOf(e.path), message: e.message }] };
+	}
 	if (!shape.ok) return { errors: [...read.errors, { path: shape.field, message: shape.message }] };
 	return { shape, errors: read.errors };
+}
+
+/** A field of the engine's room shape (`cutouts.0.shape.widthIn`) as the draft's (`cutouts.0.width`). */
+function draftFieldOf(path: string): string {
+	return path
+		.replace(/^cutouts\.(\d+)\.shape\./, 'cutouts.$1.')
+		.replace(/(width|length|x|y)In$/, '$1');
 }
 
 /**

@@ -108,6 +108,19 @@ describe('reading the typed measure', () => {
 		expect(paths).toContainEqual(['rooms.1.name', 'Another room is called "Kitchen"']);
 	});
 
+	it('refuses a length past 500 ft, the longest the engine takes', () => {
+		const draft = {
+			builtYear: '',
+			rooms: [room({ shape: { kind: 'rect', width: '500\' 1"', length: '8333333333 ft' } })]
+		};
+		const read = toEngine(draft, defaultSettings);
+		expect(read.errors.map((e) => [e.path, e.message])).toEqual([
+			['rooms.0.shape.width', 'The width can be at most 500 ft (6000 in)'],
+			['rooms.0.shape.length', 'The length can be at most 500 ft (6000 in)']
+		]);
+		expect(read.job.rooms).toEqual([]);
+	});
+
 	it('reads an L-shaped room as two rectangles, and sides with turns', () => {
 		const draft = {
 			builtYear: '',

@@ -9,6 +9,7 @@ import {
 	EXISTING_FLOOR_KINDS,
 	JOIST_SIZES,
 	LAYOUTS,
+	LIMITS,
 	SPECIES,
 	SUBFLOOR_KINDS,
 	type Cutout,
@@ -162,6 +163,8 @@ class Reader {
 		const r = readLength(value, this.units[unit]);
 		if (!r.ok) return this.fail(path, r.message);
 		if (r.value < 0) return this.fail(path, `The ${label} cannot be negative`);
+		if (r.value > LIMITS.lengthIn)
+			return this.fail(path, `The ${label} can be at most 500 ft (${LIMITS.lengthIn} in)`);
 		return r.value;
 	}
 

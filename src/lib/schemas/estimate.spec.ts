@@ -3,40 +3,8 @@ import { z } from 'zod';
 import { estimate } from '$lib/estimating';
 import { samplePriceBook, sampleJob } from '$lib/estimating/sample';
 import { defaultSettings } from '$lib/estimating/settings';
-import { calculators, estimateInputSchema, roomSchema, shapeSchema } from './estimate';
-
-const examples: { [K in keyof typeof calculators]: unknown } = {
-	units: { text: `12' 6 1/2"` },
-	area: {
-		shape: { kind: 'rect', widthIn: 144, lengthIn: 120 },
-		cutouts: [
-			{ name: 'Island', shape: { kind: 'rect', xIn: 40, yIn: 40, widthIn: 48, lengthIn: 30 } }
-		]
-	},
-	cartons: { areaSqFt: 120, coverageSqFt: 20.5, layout: 'straight' },
-	roll: { shape: { kind: 'rect', widthIn: 144, lengthIn: 120 }, rollWidthIn: 144 },
-	underlayment: { areaSqFt: 300, perBox: 1000 },
-	patch: {
-		voids: [{ lengthIn: 96, widthIn: 0.25, depthIn: 0.125 }],
-		container: { volumeCuIn: 231 }
-	},
-	leveller: { areaSqFt: 100, depthIn: 0.25, bagYieldCuFt: 0.45 },
-	joists: {
-		size: '2x10',
-		species: 'spruce_pine_fir',
-		spacingIn: 16,
-		spanIn: 168,
-		floorKind: 'stone_tile'
-	},
-	sheathing: { kind: 'board', thicknessIn: 0.625, joistSpacingIn: 24 },
-	flatness: {
-		floorKind: 'ceramic_tile',
-		subfloor: 'wood',
-		tileEdgesIn: [12, 24],
-		readings: [{ spanIn: 120, gapIn: 0.125 }]
-	},
-	moisture: { areaSqFt: 1500, rhPct: [72, 74, 76] }
-};
+import { LIMITS } from '$lib/estimating/limits';
+import { estimateInputSchema, roomSchema, shapeSchema } from './estimate';
 
 describe('estimate input schema', () => {
 	it('accepts a whole sample job with the default settings and sample price book', () => {
@@ -65,39 +33,69 @@ describe('estimate input schema', () => {
 	});
 });
 
-describe('calculators', () => {
-	it.each(Object.keys(calculators) as (keyof typeof calculators)[])(
-		'%s parses its example and answers with the rule, source and cautions',
-		(name) => {
-			const c = calculators[name];
-			expect(c.title.length).toBeGreaterThan(0);
-			expect(c.summary.length).toBeGreaterThan(0);
-			const input = c.input.parse(examples[name]);
-			// eslint-disable-next-line @typescript-eslint/no-explicit-any
-			const r = c.run(input as any);
-			expect(r.ok).toBe(true);
-			expect(typeof r.rule).toBe('string');
-			expect(typeof r.source).toBe('string');
-			expect(Array.isArray(r.cautions)).toBe(true);
-			expect(() => z.toJSONSchema(c.input)).not.toThrow();
-		}
-	);
-
-	it('gives the same numbers as the engine', () => {
-		expect(calculators.units.run({ text: `12' 6 1/2"` })).toMatchObject({
-			inches: 150.5,
-			mm: '3823 mm'
+describe('bounds on every number and list (the engine’s LIMITS)', () => {
+	const input = () =>
+		structuredClone({
+			job: sampleJob(6),
+			settings: defaultSettings,
+			priceBook: samplePriceBook
 		});
-		expect(
-			calculators.cartons.run(calculators.cartons.input.parse(examples.cartons))
-		).toMatchObject({ cartons: 7 });
-		const stone = calculators.joists.run(calculators.joists.input.parse(examples.joists));
-		expect(stone).toMatchObject({ pass: false });
-		expect(stone.cautions.join(' ')).toContain('licensed professional');
-		const moisture = calculators.moisture.run(calculators.moisture.input.parse(examples.moisture));
-		// 76 % > 75 % and 3 of 4 tests for 1500 ft²: ASTM F2170 (secondary)
-		expect(moisture).toMatchObject({ pass: false });
-		const bad = calculators.units.run({ text: '1/0' });
-		expect(bad).toMatchObject({ ok: false });
+	const issues = (x: unknown) =>
+		estimateInputSchema.safeParse(x).error?.issues.map((i) => [i.path.join('.'), i.message]) ?? [];
+
+	it('accepts the defaults, the sample price book and a job at every limit', () => {
+		const x = input();
+		x.job.rooms[0].shape = { kind: 'rect', widthIn: LIMITS.lengthIn, lengthIn: LIMITS.lengthIn };
+		x.job.rooms[4].readings = { rhPct: Array.from({ length: LIMITS.listItems }, () => 70) };
+		expect(issues(x)).toEqual([]);
+	});
+
+	it('refuses a room 10^11 in long, a roll 0.00001 in wide, 200,000 readings, with their paths', () => {
+		const x = input();
+		x.job.rooms[0].shape = { kind: 'rect', widthIn: 144, lengthIn: 1e11 };
+		x.priceBook.floors[3].rollWidthIn = 0.00001;
+		x.job.rooms[4].readings = { rhPct: Array.from({ length: 200_000 }, () => 70) };
+		expect(issues(x)).toEqual([
+			['job.rooms.0.shape.lengthIn', 'Length along y: at most 6,000 in'],
+			['job.rooms.4.readings.rhPct', 'At most 500 readings'],
+			['priceBook.floors.3.rollWidthIn', 'Roll width: at least 12 in']
+		]);
+	});
+
+	it('refuses too many rooms, corners, cut-outs, holes, and a schedule of 10^17 hours', () => {
+		const many = input();
+		many.job.rooms = Array.from({ length: LIMITS.rooms + 1 }, () => many.job.rooms[0]);
+		// the list's own bound comes first: its 201 rooms are not read one by one
+		expect(issues(many)).toEqual([['job.rooms', 'At most 200 rooms']]);
+		const x = input();
+		x.job.rooms[1] = {
+			...x.job.rooms[1],
+			shape: { kind: 'points', points: Array.from({ length: 201 }, (_, i) => [i, i % 2]) },
+			cutouts: Array.from({ length: 51 }, () => ({
+				name: 'Post',
+				shape: { kind: 'rect', widthIn: 1, lengthIn: 1 }
+			})),
+			repairs: { holes: Array.from({ length: 501 }, () => ({ widthIn: 1, lengthIn: 1 })) }
+		};
+		x.settings = structuredClone(defaultSettings);
+		x.settings.schedule.workdayHours = 1e17;
+		x.settings.schedule.crewSqFtPerDay.carpet = 0.00001;
+		expect(issues(x)).toEqual([
+			['job.rooms.1.shape.points', 'At most 200 corners'],
+			['job.rooms.1.cutouts', 'At most 50 cut-outs'],
+			['job.rooms.1.repairs.holes', 'At most 500 holes'],
+			['settings.schedule.workdayHours', 'Working day: at most 24 h'],
+			['settings.schedule.crewSqFtPerDay.carpet', 'Crew output: at least 1 ft² a day']
+		]);
+	});
+
+	it('refuses prices past $1,000,000 a unit and a price book of more than 1,000 lines', () => {
+		const x = input();
+		x.priceBook.floors[0].material.priceCents = 1e12;
+		x.priceBook.prep = Array.from({ length: 1_001 }, () => x.priceBook.prep[0]);
+		expect(issues(x)).toEqual([
+			['priceBook.floors.0.material.priceCents', 'Price per unit: at most 100,000,000 cents'],
+			['priceBook.prep', 'At most 1,000 lines']
+		]);
 	});
 });

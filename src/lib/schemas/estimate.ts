@@ -1,53 +1,69 @@
 /**
- * zod 4 schemas for the estimating engine's inputs, shared by client and server, and the
- * `calculators` map from which `POST /api/v1/calc/<name>` and the Calculators page are built.
- * Lengths are inches; money is integer cents. Browser-safe: imports only zod and the engine.
+ * zod 4 schemas for the estimating engine's inputs, shared by client and server: a room's shape,
+ * the measure, the store's settings and its price book. Lengths are inches; money is integer
+ * cents. Every number and list has the engine's own bound (`LIMITS`, `$lib/estimating/limits`),
+ * so a body beyond them is refused here with its field, before the engine runs. Browser-safe:
+ * imports only zod and the engine. The calculators' inputs are built from these pieces
+ * (`$lib/calculators/registry`).
  */
 import { z } from 'zod';
 import {
 	BASES,
-	cartonTakeoff,
-	CAUTIONS,
-	cautionTexts,
-	defaultSettings,
 	EXISTING_FLOOR_KINDS,
-	fastenersPerPanel,
-	flatnessCheck,
-	flatnessRules,
 	FLOOR_KINDS,
-	formatArea,
-	formatLength,
 	JOIST_SIZES,
-	joistCheck,
 	LAYOUTS,
-	levellerTakeoff,
-	mverChecks,
-	parseLength,
-	patchTakeoff,
+	LIMITS,
 	PREP_KINDS,
-	rhChecks,
-	rollTakeoff,
-	roomOutline,
-	roomShape,
-	sheathingChecks,
 	SPECIES,
 	SUBFLOOR_KINDS,
 	SUPPLY_KINDS,
-	underlaymentTakeoff,
-	woodMoistureChecks,
-	type EstimateInput,
-	type StoreSettings
+	type EstimateInput
 } from '$lib/estimating';
 
-const inches = (what: string) => z.number().finite().nonnegative().describe(`${what}, in`);
-const positiveIn = (what: string) => z.number().finite().positive().describe(`${what}, in`);
-const cents = (what: string) => z.number().int().describe(`${what}, integer cents`);
-const pct = (what: string) => z.number().finite().min(0).max(100).describe(`${what}, %`);
+const grouped = (n: number) => n.toLocaleString('en-US');
 
-const floorKindT = z
+/** A number from `min` to `max` (finite), with messages naming both. */
+export const bounded = (what: string, min: number, max: number, unit = '') => {
+	const u = unit ? ` ${unit}` : '';
+	return z
+		.number()
+		.finite()
+		.min(min, `${what}: at least ${grouped(min)}${u}`)
+		.max(max, `${what}: at most ${grouped(max)}${u}`);
+};
+/** A length in inches, 0 up to `max` (500 ft unless said). */
+export const inches = (what: string, max: number = LIMITS.lengthIn) =>
+	bounded(what, 0, max, 'in').describe(`${what}, in`);
+/** A length in inches above 0, up to `max` (500 ft unless said). */
+export const positiveIn = (what: string, max: number = LIMITS.lengthIn) =>
+	bounded(what, 0, max, 'in').positive(`${what}: more than 0 in`).describe(`${what}, in`);
+/** Integer cents from 0 to $1,000,000 a unit. */
+const cents = (what: string) =>
+	bounded(what, 0, LIMITS.unitCents, 'cents').int().describe(`${what}, integer cents`);
+/** A percentage, 0–100. */
+export const pct = (what: string) => bounded(what, 0, LIMITS.pct, '%').describe(`${what}, %`);
+/** An area above 0 ft², up to a 500 × 500 ft room. */
+export const areaSqFt = (what: string) =>
+	bounded(what, 0, LIMITS.areaSqFt, 'ft²')
+		.positive(`${what}: more than 0 ft²`)
+		.describe(`${what}, ft²`);
+/** A list of at most `max` items. */
+export const list = <T extends z.ZodType>(item: T, what: string, max: number) =>
+	z.array(item).max(max, `At most ${grouped(max)} ${what}`);
+/** A short text (a name, a source, a key). */
+const text = (max = 200) => z.string().max(max, `At most ${max} characters`);
+/** A corner's coordinate, within 1,000 ft of the drawing's origin. */
+const coordinate = (what: string) =>
+	bounded(what, -LIMITS.coordinateIn, LIMITS.coordinateIn, 'in').describe(`${what}, in`);
+/** A number up to `max`, above 0. */
+const positive = (what: string, max: number, unit = '') =>
+	bounded(what, 0, max, unit).positive(`${what}: more than 0${unit ? ` ${unit}` : ''}`);
+
+export const floorKindT = z
 	.enum(FLOOR_KINDS as [string, ...string[]])
 	.describe('Kind of floor') as unknown as z.ZodType<(typeof FLOOR_KINDS)[number]>;
-const layout = z.enum(LAYOUTS as [string, ...string[]]) as unknown as z.ZodType<
+export const layout = z.enum(LAYOUTS as [string, ...string[]]) as unknown as z.ZodType<
 	(typeof LAYOUTS)[number]
 >;
 const existingKind = z.enum(EXISTING_FLOOR_KINDS as [string, ...string[]]) as unknown as z.ZodType<
@@ -56,10 +72,10 @@ const existingKind = z.enum(EXISTING_FLOOR_KINDS as [string, ...string[]]) as un
 const subfloorKind = z.enum(SUBFLOOR_KINDS as [string, ...string[]]) as unknown as z.ZodType<
 	(typeof SUBFLOOR_KINDS)[number]
 >;
-const species = z.enum(SPECIES as [string, ...string[]]) as unknown as z.ZodType<
+export const species = z.enum(SPECIES as [string, ...string[]]) as unknown as z.ZodType<
 	(typeof SPECIES)[number]
 >;
-const joistSize = z.enum(JOIST_SIZES as [string, ...string[]]) as unknown as z.ZodType<
+export const joistSize = z.enum(JOIST_SIZES as [string, ...string[]]) as unknown as z.ZodType<
 	(typeof JOIST_SIZES)[number]
 >;
 const prepKind = z.enum(PREP_KINDS as [string, ...string[]]) as unknown as z.ZodType<
@@ -72,11 +88,21 @@ const supplyKind = z.enum(SUPPLY_KINDS as [string, ...string[]]) as unknown as z
 	(typeof SUPPLY_KINDS)[number]
 >;
 
+/** Joist spacing on centre, 4–96 in. */
+export const spacingIn = (what: string) =>
+	bounded(what, LIMITS.spacingMinIn, LIMITS.spacingMaxIn, 'in').describe(`${what}, in`);
+/** A small length (depth, gap, thickness, tolerance), 0–12 in. */
+export const smallIn = (what: string) => inches(what, LIMITS.depthIn);
+/** Readings of one kind in a room. */
+export const readings = <T extends z.ZodType>(item: T) => list(item, 'readings', LIMITS.listItems);
+
 // ---------------------------------------------------------------- shapes
 
-const point = z.tuple([z.number().finite(), z.number().finite()]).describe('Corner [x, y], in');
+const point = z
+	.tuple([coordinate('Corner x'), coordinate('Corner y')])
+	.describe('Corner [x, y], in');
 const turn = z
-	.union([z.enum(['left', 'right']), z.number().finite().min(-180).max(180)])
+	.union([z.enum(['left', 'right']), bounded('Turn', -180, 180, '°')])
 	.describe('Turn after the side: left/right (90°) or degrees, positive to the left');
 
 export const shapeSchema = z
@@ -85,87 +111,103 @@ export const shapeSchema = z
 			kind: z.literal('rect'),
 			widthIn: positiveIn('Width along x'),
 			lengthIn: positiveIn('Length along y'),
-			xIn: z.number().finite().optional().describe('Corner x, in'),
-			yIn: z.number().finite().optional().describe('Corner y, in')
+			xIn: coordinate('Corner x').optional(),
+			yIn: coordinate('Corner y').optional()
 		}),
 		z.object({
 			kind: z.literal('rects'),
-			rects: z
-				.array(
-					z.object({
-						xIn: z.number().finite().describe('Corner x, in'),
-						yIn: z.number().finite().describe('Corner y, in'),
-						widthIn: positiveIn('Width along x'),
-						lengthIn: positiveIn('Length along y')
-					})
-				)
+			rects: list(
+				z.object({
+					xIn: coordinate('Corner x'),
+					yIn: coordinate('Corner y'),
+					widthIn: positiveIn('Width along x'),
+					lengthIn: positiveIn('Length along y')
+				}),
+				'rectangles',
+				LIMITS.rects
+			)
 				.min(1)
 				.describe('Rectangles that together make the room (L, T, U, closets, bays)')
 		}),
 		z.object({
 			kind: z.literal('sides'),
-			sides: z
-				.array(z.object({ lengthIn: positiveIn('Side length'), turn }))
+			sides: list(
+				z.object({ lengthIn: positiveIn('Side length'), turn }),
+				'sides',
+				LIMITS.outlineCorners
+			)
 				.min(3)
 				.describe('Sides walked from the start, first heading along +x'),
-			xIn: z.number().finite().optional(),
-			yIn: z.number().finite().optional()
+			xIn: coordinate('Start x').optional(),
+			yIn: coordinate('Start y').optional()
 		}),
 		z.object({
 			kind: z.literal('points'),
-			points: z.array(point).min(3).describe('Corners in order')
+			points: list(point, 'corners', LIMITS.outlineCorners).min(3).describe('Corners in order')
 		})
 	])
-	.describe('A room or cut-out outline, in inches');
+	.describe('A room or cut-out outline, in inches (at most 500 ft a side, 200 corners)');
 
 export const cutoutSchema = z.object({
 	name: z.string().min(1).max(80).describe('What is there: island, cabinets, hearth'),
 	shape: shapeSchema
 });
+export const cutoutsSchema = list(cutoutSchema, 'cut-outs', LIMITS.cutouts);
 
-const voidSchema = z.object({
+export const voidSchema = z.object({
 	lengthIn: positiveIn('Length'),
 	widthIn: positiveIn('Width (widest point)'),
-	depthIn: positiveIn('Depth')
+	depthIn: positiveIn('Depth', LIMITS.depthIn)
 });
 
 // ---------------------------------------------------------------- settings and price book
 
+const rows = <T extends z.ZodType>(item: T) => list(item, 'rows', LIMITS.settingsRows);
 const rule = z.object({
-	gapIn: positiveIn('Gap allowed'),
+	gapIn: positiveIn('Gap allowed', LIMITS.depthIn),
 	overIn: positiveIn('Under a straightedge of'),
-	source: z.string()
+	source: text()
 });
 const testRule = z.object({
-	first: z.number().int().positive(),
-	firstSqFt: z.number().positive(),
-	perSqFt: z.number().positive()
+	first: bounded('Tests for the first area', 1, 100).int(),
+	firstSqFt: positive('First area', LIMITS.areaSqFt, 'ft²'),
+	perSqFt: bounded('One more test per', 100, LIMITS.areaSqFt, 'ft²')
 });
 const fastening = z.object({
-	name: z.string(),
-	edgeSpacingIn: positiveIn('Edge spacing'),
-	fieldSpacingIn: positiveIn('Field spacing'),
-	edgeDistanceIn: inches('Distance from the panel edge'),
-	source: z.string()
+	name: text(),
+	edgeSpacingIn: positiveIn('Edge spacing', 24),
+	fieldSpacingIn: positiveIn('Field spacing', 24),
+	edgeDistanceIn: inches('Distance from the panel edge', 6),
+	source: text()
 });
-const bySize = z.object({
-	'2x6': z.number(),
-	'2x8': z.number(),
-	'2x10': z.number(),
-	'2x12': z.number()
-});
+const bySize = (what: string, max: number) =>
+	z.object({
+		'2x6': positive(what, max),
+		'2x8': positive(what, max),
+		'2x10': positive(what, max),
+		'2x12': positive(what, max)
+	});
 const byFloor = <T extends z.ZodType>(t: T) =>
 	z.object(
 		Object.fromEntries(FLOOR_KINDS.map((k) => [k, t])) as Record<(typeof FLOOR_KINDS)[number], T>
 	);
 const lumber = z.object({
-	label: z.string(),
-	ePsi: z.number().positive(),
-	fbPsi: bySize,
+	label: text(),
+	ePsi: positive('E', 100_000_000, 'psi'),
+	fbPsi: bySize('Fb', 100_000),
 	sizeFactor: z.boolean(),
-	source: z.string()
+	source: text()
 });
 const taxGroup = z.enum(['material', 'labour', 'prep', 'removal']);
+/** A store's own rows keyed by name (fastening schedules, span ratings, hours by prep). */
+const keyed = <T extends z.ZodType>(value: T) =>
+	z
+		.record(z.string().max(64), value)
+		.refine(
+			(r) => Object.keys(r).length <= LIMITS.settingsRows,
+			`At most ${LIMITS.settingsRows} rows`
+		);
+const ratio = (what: string) => bounded(what, 1, 10_000);
 
 export const settingsSchema = z
 	.object({
@@ -178,180 +220,203 @@ export const settingsSchema = z
 			diagonal: pct('Waste'),
 			herringbone: pct('Waste')
 		}),
-		geometry: z.object({ closureToleranceIn: inches('Closure tolerance') }),
+		geometry: z.object({ closureToleranceIn: smallIn('Closure tolerance') }),
 		roll: z.object({
-			trimPerEndIn: inches('Trim per cut end'),
-			orderIncrementIn: positiveIn('Order increment')
+			trimPerEndIn: smallIn('Trim per cut end'),
+			orderIncrementIn: bounded('Order increment', 1, 1_200, 'in')
 		}),
 		underlayment: z.object({
-			panelWidthIn: positiveIn('Panel width'),
-			panelLengthIn: positiveIn('Panel length'),
+			panelWidthIn: bounded('Panel width', 12, 120, 'in'),
+			panelLengthIn: bounded('Panel length', 12, 240, 'in'),
 			wastePct: pct('Waste'),
-			schedule: z.string(),
-			schedules: z.record(z.string(), fastening),
-			requiredFor: z.array(floorKindT)
+			schedule: text(64),
+			schedules: keyed(fastening),
+			requiredFor: rows(floorKindT)
 		}),
 		repairs: z.object({
-			ignoreHoleUnderIn: inches('Ignore holes smaller than'),
-			roughCutAllowanceIn: inches('Rough-cut allowance'),
-			joistThicknessIn: positiveIn('Joist thickness'),
-			defaultJoistSpacingIn: positiveIn('Joist spacing when not measured'),
-			defaultSubfloorIn: positiveIn('Subfloor thickness when not measured'),
-			backingLapIn: inches('Backing lap'),
+			ignoreHoleUnderIn: smallIn('Ignore holes smaller than'),
+			roughCutAllowanceIn: smallIn('Rough-cut allowance'),
+			joistThicknessIn: positiveIn('Joist thickness', LIMITS.depthIn),
+			defaultJoistSpacingIn: spacingIn('Joist spacing when not measured'),
+			defaultSubfloorIn: positiveIn('Subfloor thickness when not measured', LIMITS.depthIn),
+			backingLapIn: smallIn('Backing lap'),
 			holeMethod: byFloor(z.enum(['blocking', 'backing', 'blocking_underlayment'])),
 			patchWastePct: pct('Waste'),
 			levellerWastePct: pct('Waste'),
-			lowSpotDepthFactor: z.number().min(0).max(1),
-			lowSpotAreaSqFt: z.number().nonnegative()
+			lowSpotDepthFactor: bounded('Depth factor', 0, 1),
+			lowSpotAreaSqFt: bounded('Area per low spot', 0, LIMITS.areaSqFt, 'ft²')
 		}),
 		joists: z.object({
-			livePsf: z.number().positive(),
-			deadPsf: z.number().nonnegative(),
-			cd: z.number().positive(),
-			cr: z.number().positive(),
-			cf: bySize,
-			depthIn: bySize,
-			widthIn: z.number().positive(),
+			livePsf: positive('Live load', 1_000, 'psf'),
+			deadPsf: bounded('Dead load', 0, 1_000, 'psf'),
+			cd: positive('CD', 5),
+			cr: positive('Cr', 5),
+			cf: bySize('CF', 5),
+			depthIn: bySize('Depth', 48),
+			widthIn: positive('Width', LIMITS.depthIn, 'in'),
 			lumber: z.object({
 				douglas_fir_larch: lumber,
 				hem_fir: lumber,
 				spruce_pine_fir: lumber,
 				southern_pine: lumber
 			}),
-			ratio: z.partialRecord(floorKindT, z.number().positive()),
-			defaultRatio: z.number().positive(),
+			ratio: z.partialRecord(floorKindT, ratio('L/Δ')),
+			defaultRatio: ratio('L/Δ'),
 			spanRounding: z.enum(['down', 'nearest'])
 		}),
 		sheathing: z.object({
-			boardMinIn: z.array(
-				z.object({ maxSpacingIn: z.number().positive(), minIn: z.number().positive() })
+			boardMinIn: rows(
+				z.object({
+					maxSpacingIn: spacingIn('Joist spacing up to'),
+					minIn: positiveIn('Thickness', LIMITS.depthIn)
+				})
 			),
-			spanRatingFloorIn: z.record(z.string(), z.number().positive()),
+			spanRatingFloorIn: keyed(spacingIn('Joist spacing up to')),
 			floorMinIn: z.partialRecord(
 				floorKindT,
-				z.array(
+				rows(
 					z.object({
-						maxSpacingIn: z.number().positive(),
-						plywoodIn: z.number().positive(),
-						osbIn: z.number().positive()
+						maxSpacingIn: spacingIn('Joist spacing up to'),
+						plywoodIn: positiveIn('Plywood', LIMITS.depthIn),
+						osbIn: positiveIn('OSB', LIMITS.depthIn)
 					})
 				)
 			)
 		}),
 		flatness: z.object({
 			rules: z.object({
-				tile: z.array(rule),
-				large_tile: z.array(rule),
-				resilient_concrete: z.array(rule),
-				resilient_wood: z.array(rule),
-				wood: z.array(rule)
+				tile: rows(rule),
+				large_tile: rows(rule),
+				resilient_concrete: rows(rule),
+				resilient_wood: rows(rule),
+				wood: rows(rule)
 			}),
-			largeTileEdgeIn: positiveIn('Large-format edge')
+			largeTileEdgeIn: positiveIn('Large-format edge', LIMITS.rollWidthMaxIn)
 		}),
 		moisture: z.object({
 			rhLimitPct: pct('RH limit'),
-			mverLimit: z.number().positive(),
+			mverLimit: positive('MVER limit', 100, 'lb/1000 ft²/24 h'),
 			rhTests: testRule,
 			mverTests: testRule,
 			woodSubfloorMaxPct: pct('Subfloor MC limit'),
 			woodDiffStripPct: pct('Strip MC difference'),
 			woodDiffWidePct: pct('Wide plank MC difference'),
-			wideFromIn: positiveIn('Wide plank from')
+			wideFromIn: positiveIn('Wide plank from', 24)
 		}),
 		schedule: z.object({
-			workdayHours: z.number().positive().max(24),
-			dayStartHour: z.number().min(0).max(23),
-			crewSqFtPerDay: byFloor(z.number().positive()),
-			removalSqFtPerHour: z.number().positive(),
-			prepHoursPerUnit: z.record(z.string(), z.number().nonnegative()),
-			cureHours: z.record(z.string(), z.number().nonnegative())
+			workdayHours: bounded('Working day', 1, 24, 'h'),
+			dayStartHour: bounded('Start of the day', 0, 23, 'h'),
+			crewSqFtPerDay: byFloor(bounded('Crew output', 1, 100_000, 'ft² a day')),
+			removalSqFtPerHour: bounded('Tear-out', 1, 100_000, 'ft² an hour'),
+			prepHoursPerUnit: keyed(bounded('Hours per unit', 0, 1_000, 'h')),
+			cureHours: keyed(bounded('Cure', 0, LIMITS.cureHours, 'h'))
 		}),
-		taxes: z.array(
+		taxes: rows(
 			z.object({
-				name: z.string(),
-				rateBps: z
-					.number()
+				name: text(60),
+				rateBps: bounded('Rate', 0, 10_000, 'bps')
 					.int()
-					.min(0)
-					.max(10_000)
 					.describe('Rate in basis points (825 = 8.25 %)'),
-				groups: z.array(taxGroup).describe('Line groups this tax applies to')
+				groups: list(taxGroup, 'groups', 4).describe('Line groups this tax applies to')
 			})
 		),
 		taxRounding: z.enum(['half_up', 'half_even', 'up', 'down']),
 		deposit: z.object({
-			percentBps: z.number().int().min(0).max(10_000),
-			minimumCents: cents('Minimum deposit').nonnegative()
+			percentBps: bounded('Deposit', 0, 10_000, 'bps').int(),
+			minimumCents: bounded('Minimum deposit', 0, LIMITS.lineCents, 'cents')
+				.int()
+				.describe('Minimum deposit, integer cents')
 		}),
-		asbestosBuiltBefore: z.number().int()
+		asbestosBuiltBefore: bounded('Year', 1600, 2200).int()
 	})
 	.describe("The store's settings: every trade default the engine uses");
 
-const container = z.union([
-	z.object({ volumeCuIn: z.number().positive().describe('Container volume, in³') }),
-	z.object({ coverageSqFt: z.number().positive(), atDepthIn: positiveIn('Coverage depth') })
+export const containerSchema = z.union([
+	z.object({
+		volumeCuIn: positive('Container volume', 1_000_000, 'in³').describe('Container volume, in³')
+	}),
+	z.object({
+		coverageSqFt: positive('Coverage', 100_000, 'ft²'),
+		atDepthIn: positiveIn('Coverage depth', LIMITS.depthIn)
+	})
 ]);
+/** Bag yield of self-levelling underlayment, ft³ (data sheet). */
+export const bagYieldCuFt = positive('Bag yield', 100, 'ft³').describe(
+	'Bag yield, ft³ (data sheet)'
+);
+/** Tile edges, in. */
+export const tileEdgesIn = list(
+	positiveIn('Tile edge', LIMITS.rollWidthMaxIn),
+	'edges',
+	4
+).describe('Tile edges, in');
 
 export const floorProductSchema = z.object({
-	id: z.string().min(1),
-	name: z.string().min(1).describe('Store name, e.g. "Oak plank 7 in"'),
+	id: z.string().min(1).max(64),
+	name: z.string().min(1).max(120).describe('Store name, e.g. "Oak plank 7 in"'),
 	kind: floorKindT,
 	fastening: z.enum(['nailed', 'glued', 'floating']).optional(),
-	cartonSqFt: z.number().positive().optional().describe('ft² per carton (carton goods)'),
-	rollWidthIn: positiveIn('Roll width (roll goods)').optional(),
-	tileEdgesIn: z.array(z.number().positive()).optional().describe('Tile edges, in'),
-	boardWidthIn: positiveIn('Board width').optional(),
+	cartonSqFt: bounded('Carton coverage', 0.1, 1_000, 'ft²')
+		.optional()
+		.describe('ft² per carton (carton goods)'),
+	rollWidthIn: bounded('Roll width', LIMITS.rollWidthMinIn, LIMITS.rollWidthMaxIn, 'in')
+		.optional()
+		.describe('Roll width (roll goods), in: 1–20 ft'),
+	tileEdgesIn: tileEdgesIn.optional(),
+	boardWidthIn: positiveIn('Board width', 24).optional(),
 	material: z.object({
 		basis: z.enum(['carton', 'sqft', 'roll_sqyd', 'roll_linft']),
-		priceCents: cents('Price per unit').nonnegative(),
-		costCents: cents('Store cost per unit').nonnegative().optional()
+		priceCents: cents('Price per unit'),
+		costCents: cents('Store cost per unit').optional()
 	}),
-	labourCentsPerSqFt: cents('Install price per ft²').nonnegative(),
-	payCentsPerSqFt: cents('Installer pay per ft²').nonnegative(),
+	labourCentsPerSqFt: cents('Install price per ft²'),
+	payCentsPerSqFt: cents('Installer pay per ft²'),
 	needs: z
 		.object({
-			deflectionRatio: z.number().positive().optional(),
+			deflectionRatio: ratio('L/Δ').optional(),
 			rhLimitPct: pct('RH limit').optional(),
-			mverLimit: z.number().positive().optional(),
-			flatness: z.array(rule).optional(),
+			mverLimit: positive('MVER limit', 100, 'lb/1000 ft²/24 h').optional(),
+			flatness: rows(rule).optional(),
 			underlayment: z.boolean().optional()
 		})
 		.optional()
 		.describe("What this floor needs, overriding the store's defaults (maker's instructions)")
 });
 
+const lines = <T extends z.ZodType>(item: T) => list(item, 'lines', LIMITS.priceBookLines);
+
 export const priceBookSchema = z
 	.object({
 		currency: z.string().length(3),
-		floors: z.array(floorProductSchema),
-		prep: z.array(
+		floors: lines(floorProductSchema),
+		prep: lines(
 			z.object({
 				kind: prepKind,
-				name: z.string().optional(),
+				name: text(120).optional(),
 				basis,
-				priceCents: cents('Customer price per unit').nonnegative(),
-				payCents: cents('Installer pay per unit').nonnegative(),
-				costCents: cents('Store cost per unit').nonnegative().optional()
+				priceCents: cents('Customer price per unit'),
+				payCents: cents('Installer pay per unit'),
+				costCents: cents('Store cost per unit').optional()
 			})
 		),
-		removal: z.array(
+		removal: lines(
 			z.object({
 				existing: existingKind,
 				basis: z.enum(['sqft', 'room']),
-				priceCents: cents('Customer price per unit').nonnegative(),
-				payCents: cents('Installer pay per unit').nonnegative()
+				priceCents: cents('Customer price per unit'),
+				payCents: cents('Installer pay per unit')
 			})
 		),
-		supplies: z.array(
+		supplies: lines(
 			z.object({
 				kind: supplyKind,
-				name: z.string(),
+				name: text(120),
 				basis,
-				priceCents: cents('Price per unit').nonnegative(),
-				costCents: cents('Store cost per unit').nonnegative().optional(),
-				perBox: z.number().int().positive().optional(),
-				container: container.optional(),
-				bagYieldCuFt: z.number().positive().optional().describe('Bag yield, ft³ (data sheet)')
+				priceCents: cents('Price per unit'),
+				costCents: cents('Store cost per unit').optional(),
+				perBox: bounded('Per box', 1, 1_000_000).int().optional(),
+				container: containerSchema.optional(),
+				bagYieldCuFt: bagYieldCuFt.optional()
 			})
 		)
 	})
@@ -359,79 +424,86 @@ export const priceBookSchema = z
 
 // ---------------------------------------------------------------- the measure
 
-const flatnessReading = z.object({
+export const flatnessReadingSchema = z.object({
 	spanIn: positiveIn('Straightedge length'),
-	gapIn: inches('Largest gap under it'),
+	gapIn: smallIn('Largest gap under it'),
 	kind: z.enum(['low', 'high']).optional(),
-	areaSqFt: z.number().positive().optional().describe('Area to level, ft²')
+	areaSqFt: areaSqFt('Area to level').optional()
 });
-const calciumChloride = z.object({
-	gainGrams: z.number().nonnegative().describe('Dish weight gain, g'),
-	areaSqFt: z.number().positive().describe('Area under the dome, ft²'),
-	hours: z.number().positive().describe('Exposure, h')
+export const calciumChlorideSchema = z.object({
+	gainGrams: bounded('Dish weight gain', 0, 1_000, 'g').describe('Dish weight gain, g'),
+	areaSqFt: positive('Area under the dome', 100, 'ft²').describe('Area under the dome, ft²'),
+	hours: positive('Exposure', 1_000, 'h').describe('Exposure, h')
 });
+const repairs = <T extends z.ZodType>(item: T, what: string) => list(item, what, LIMITS.listItems);
 
 export const roomSchema = z.object({
 	id: z.string().min(1).max(64),
 	name: z.string().min(1).max(80),
 	shape: shapeSchema,
-	cutouts: z.array(cutoutSchema).optional(),
+	cutouts: cutoutsSchema.optional(),
 	floor: z
 		.object({
-			productId: z.string().min(1),
+			productId: z.string().min(1).max(64),
 			layout,
 			rollDirection: z.enum(['x', 'y']).optional()
 		})
 		.optional()
 		.describe('The new floor (required to price the room)'),
-	remove: z.array(existingKind).optional().describe('Existing floors to tear out, top first'),
+	remove: list(existingKind, 'floors to tear out', EXISTING_FLOOR_KINDS.length)
+		.optional()
+		.describe('Existing floors to tear out, top first'),
 	subfloor: z.object({
 		kind: subfloorKind,
-		thicknessIn: positiveIn('Subfloor thickness').optional(),
-		spanRating: z.string().optional().describe('Panel span rating, e.g. 32/16')
+		thicknessIn: positiveIn('Subfloor thickness', LIMITS.depthIn).optional(),
+		spanRating: text(12).optional().describe('Panel span rating, e.g. 32/16')
 	}),
 	underlayment: z.boolean().optional(),
 	trim: z.boolean().optional(),
-	transitions: z.number().int().nonnegative().optional(),
+	transitions: bounded('Transitions', 0, 100).int().optional(),
 	repairs: z
 		.object({
-			holes: z
-				.array(
-					z.object({
-						widthIn: positiveIn('Across the joists'),
-						lengthIn: positiveIn('Along the joists')
-					})
-				)
-				.optional(),
-			seams: z.array(voidSchema).optional(),
-			dents: z.array(voidSchema).optional(),
-			fasteners: z.union([z.boolean(), z.object({ areaSqFt: z.number().positive() })]).optional()
+			holes: repairs(
+				z.object({
+					widthIn: positiveIn('Across the joists'),
+					lengthIn: positiveIn('Along the joists')
+				}),
+				'holes'
+			).optional(),
+			seams: repairs(voidSchema, 'seams').optional(),
+			dents: repairs(voidSchema, 'dents').optional(),
+			fasteners: z
+				.union([z.boolean(), z.object({ areaSqFt: areaSqFt('Area with fasteners') })])
+				.optional()
 		})
 		.optional(),
 	joists: z
 		.object({
 			size: joistSize,
 			species,
-			spacingIn: positiveIn('On-centre spacing'),
+			spacingIn: spacingIn('On-centre spacing'),
 			spanIn: positiveIn('Span'),
 			runs: z.enum(['x', 'y']).optional()
 		})
 		.optional(),
 	readings: z
 		.object({
-			flatness: z.array(flatnessReading).optional(),
-			rhPct: z.array(pct('In-situ RH')).optional(),
-			calciumChloride: z.array(calciumChloride).optional(),
+			flatness: readings(flatnessReadingSchema).optional(),
+			rhPct: readings(pct('In-situ RH')).optional(),
+			calciumChloride: readings(calciumChlorideSchema).optional(),
 			woodMc: z
-				.object({ subfloorPct: z.array(pct('MC')), flooringPct: z.array(pct('MC')) })
+				.object({ subfloorPct: readings(pct('MC')), flooringPct: readings(pct('MC')) })
 				.optional()
 		})
 		.optional()
 });
 
 export const jobSchema = z.object({
-	builtYear: z.number().int().min(1600).max(2200).optional().describe('Year the house was built'),
-	rooms: z.array(roomSchema).min(1).max(200)
+	builtYear: bounded('Year built', 1600, 2200)
+		.int()
+		.optional()
+		.describe('Year the house was built'),
+	rooms: list(roomSchema, 'rooms', LIMITS.rooms).min(1)
 });
 
 /** `POST /api/v1/estimates/preview`: the whole job with its settings and price book. */
@@ -444,351 +516,3 @@ export const estimateInputSchema = z.object({
 // Compile-time guard: what the schema accepts is what the engine takes.
 const _fits: (x: z.infer<typeof estimateInputSchema>) => EstimateInput = (x) => x;
 void _fits;
-
-// ---------------------------------------------------------------- calculators
-
-/** A calculator's answer: its numbers with the rule, its source and the cautions to show. */
-export interface CalculatorResult {
-	ok: boolean;
-	rule: string;
-	source: string;
-	cautions: string[];
-	[key: string]: unknown;
-}
-
-interface Calculator<S extends z.ZodType> {
-	title: string;
-	summary: string;
-	input: S;
-	run: (input: z.infer<S>, settings?: StoreSettings) => CalculatorResult;
-}
-
-const calc = <S extends z.ZodType>(c: Calculator<S>) => c;
-const planning = [CAUTIONS.planning_aid];
-
-export const calculators = {
-	units: calc({
-		title: 'Lengths',
-		summary: 'Reads a length as typed (ft-in, fractions, mm, m) and writes it back in every unit.',
-		input: z.object({
-			text: z.string().max(80).describe('A length as typed, e.g. 12\' 6 1/2"'),
-			defaultUnit: z.enum(['in', 'ft', 'mm', 'cm', 'm']).optional()
-		}),
-		run: ({ text, defaultUnit }, s = defaultSettings) => {
-			const r = parseLength(text, defaultUnit ?? s.units.defaultLengthUnit);
-			const base = {
-				rule: '1 in = 25.4 mm exactly; 1 ft = 0.3048 m',
-				source: 'international yard (1959), exact',
-				cautions: []
-			};
-			if (!r.ok) return { ok: false, message: r.message, ...base };
-			return {
-				ok: true,
-				inches: r.inches,
-				ftIn: formatLength(r.inches),
-				mm: formatLength(r.inches, 'mm'),
-				m: formatLength(r.inches, 'm'),
-				...base
-			};
-		}
-	}),
-	area: calc({
-		title: 'Room area',
-		summary:
-			'Area and perimeter of a room from rectangles or sides, less its cut-outs, with a drawable outline.',
-		input: z.object({ shape: shapeSchema, cutouts: z.array(cutoutSchema).optional() }),
-		run: ({ shape, cutouts }, s = defaultSettings) => {
-			const r = roomShape(shape, cutouts, { closureToleranceIn: s.geometry.closureToleranceIn });
-			const base = {
-				rule: 'area of the outline less cut-outs (polygon union and difference)',
-				source: 'geometry',
-				cautions: []
-			};
-			if (!r.ok) return { ok: false, field: r.field, message: r.message, ...base };
-			return {
-				ok: true,
-				areaSqFt: r.areaSqFt,
-				areaText: {
-					sqft: formatArea(r.areaSqFt),
-					sqyd: formatArea(r.areaSqFt, 'sqyd'),
-					sqm: formatArea(r.areaSqFt, 'sqm')
-				},
-				perimeterIn: r.perimeterIn,
-				wallPerimeterIn: r.wallPerimeterIn,
-				outline: roomOutline(r),
-				warnings: r.warnings,
-				...base
-			};
-		}
-	}),
-	cartons: calc({
-		title: 'Cartons',
-		summary:
-			'Cartons of plank, laminate, wood or tile for an area, with the store waste for the layout.',
-		input: z.object({
-			areaSqFt: z.number().positive().describe('Floor area, ft²'),
-			coverageSqFt: z.number().positive().describe('ft² per carton'),
-			layout: layout.optional(),
-			wastePct: pct('Waste (overrides the layout)').optional()
-		}),
-		run: (i, s = defaultSettings) => ({
-			ok: true,
-			...cartonTakeoff({
-				areaSqFt: i.areaSqFt,
-				coverageSqFt: i.coverageSqFt,
-				wastePct: i.wastePct ?? s.wastePct[i.layout ?? 'straight']
-			}),
-			cautions: [CAUTIONS.maker_instructions]
-		})
-	}),
-	roll: calc({
-		title: 'Roll goods',
-		summary: 'Drops, seams, linear feet and square yards of carpet or sheet vinyl for a room.',
-		input: z.object({
-			shape: shapeSchema,
-			rollWidthIn: positiveIn('Roll width'),
-			trimPerEndIn: inches('Trim per cut end').optional(),
-			direction: z.enum(['x', 'y']).optional()
-		}),
-		run: (i, s = defaultSettings) => {
-			const r = roomShape(i.shape);
-			if (!r.ok)
-				return {
-					ok: false,
-					field: r.field,
-					message: r.message,
-					rule: '',
-					source: '',
-					cautions: []
-				};
-			return {
-				ok: true,
-				...rollTakeoff({
-					polygon: r.polygon,
-					isRect: r.isRect,
-					rollWidthIn: i.rollWidthIn,
-					trimPerEndIn: i.trimPerEndIn ?? s.roll.trimPerEndIn,
-					orderIncrementIn: s.roll.orderIncrementIn,
-					direction: i.direction
-				}),
-				cautions: [CAUTIONS.maker_instructions]
-			};
-		}
-	}),
-	underlayment: calc({
-		title: 'Underlayment panels',
-		summary: 'Panels for an area and the fasteners each takes by the fastening schedule.',
-		input: z.object({
-			areaSqFt: z.number().positive(),
-			schedule: z.string().optional().describe('A schedule key in the store settings'),
-			perBox: z.number().int().positive().optional()
-		}),
-		run: (i, s = defaultSettings) => {
-			const schedule = s.underlayment.schedules[i.schedule ?? s.underlayment.schedule];
-			if (!schedule)
-				return {
-					ok: false,
-					message: `No fastening schedule "${i.schedule}"`,
-					rule: '',
-					source: '',
-					cautions: []
-				};
-			const panel = {
-				widthIn: s.underlayment.panelWidthIn,
-				lengthIn: s.underlayment.panelLengthIn
-			};
-			return {
-				ok: true,
-				...underlaymentTakeoff({
-					areaSqFt: i.areaSqFt,
-					wastePct: s.underlayment.wastePct,
-					panel,
-					schedule,
-					perBox: i.perBox
-				}),
-				count: fastenersPerPanel(panel, schedule),
-				cautions: [CAUTIONS.maker_instructions, CAUTIONS.dust_tools]
-			};
-		}
-	}),
-	patch: calc({
-		title: 'Patch compound',
-		summary: 'Patch for open seams and dents, in whole containers.',
-		input: z.object({
-			voids: z.array(voidSchema).min(1),
-			container,
-			wastePct: pct('Waste').optional()
-		}),
-		run: (i, s = defaultSettings) => ({
-			ok: true,
-			...patchTakeoff({
-				voids: i.voids,
-				container: i.container,
-				wastePct: i.wastePct ?? s.repairs.patchWastePct
-			}),
-			cureHours: s.schedule.cureHours.seam_patch,
-			cautions: [CAUTIONS.maker_instructions]
-		})
-	}),
-	leveller: calc({
-		title: 'Self-levelling underlayment',
-		summary: 'Bags of leveller for an area at an average depth, from the bag yield.',
-		input: z.object({
-			areaSqFt: z.number().positive(),
-			depthIn: positiveIn('Average depth'),
-			bagYieldCuFt: z.number().positive().describe('Bag yield, ft³ (data sheet)'),
-			wastePct: pct('Waste').optional()
-		}),
-		run: (i, s = defaultSettings) => ({
-			ok: true,
-			...levellerTakeoff({
-				areas: [{ areaSqFt: i.areaSqFt, depthIn: i.depthIn }],
-				bagYieldCuFt: i.bagYieldCuFt,
-				wastePct: i.wastePct ?? s.repairs.levellerWastePct
-			}),
-			cautions: [CAUTIONS.maker_instructions]
-		})
-	}),
-	joists: calc({
-		title: 'Joist deflection and span',
-		summary: 'L/Δ and bending of floor joists against the floor, and the longest span that passes.',
-		input: z.object({
-			size: joistSize,
-			species,
-			spacingIn: positiveIn('On-centre spacing'),
-			spanIn: positiveIn('Span'),
-			floorKind: floorKindT.optional(),
-			ratio: z.number().positive().optional().describe('Required L/Δ (overrides the floor)'),
-			livePsf: z.number().positive().optional(),
-			deadPsf: z.number().nonnegative().optional()
-		}),
-		run: (i, s = defaultSettings) => {
-			const ratio =
-				i.ratio ?? (i.floorKind && s.joists.ratio[i.floorKind]) ?? s.joists.defaultRatio;
-			const r = joistCheck({ ...i, ratio }, s.joists);
-			return {
-				ok: true,
-				pass: r.checks.every((c) => c.pass),
-				...r,
-				rule: r.checks.map((c) => c.rule).join('; '),
-				source: r.checks[0].source,
-				cautions: cautionTexts(['planning_aid', 'structure'])
-			};
-		}
-	}),
-	sheathing: calc({
-		title: 'Sheathing',
-		summary: 'Subfloor thickness and span rating against the joist spacing and the floor.',
-		input: z.object({
-			kind: z.enum(['plywood', 'osb', 'board']),
-			thicknessIn: positiveIn('Thickness'),
-			spanRating: z.string().optional(),
-			joistSpacingIn: positiveIn('Joist spacing'),
-			floorKind: floorKindT.optional()
-		}),
-		run: (i, s = defaultSettings) => {
-			const checks = sheathingChecks(i, s.sheathing);
-			return {
-				ok: true,
-				pass: checks.every((c) => c.pass),
-				checks,
-				rule: checks.map((c) => c.rule).join('; '),
-				source: checks.map((c) => c.source).join('; '),
-				cautions: cautionTexts(['planning_aid', 'structure'])
-			};
-		}
-	}),
-	flatness: calc({
-		title: 'Flatness',
-		summary:
-			'Straightedge readings against the floor’s flatness tolerance (large-format tile included).',
-		input: z.object({
-			floorKind: floorKindT,
-			subfloor: z.enum(['wood', 'concrete']),
-			tileEdgesIn: z.array(z.number().positive()).optional(),
-			readings: z.array(flatnessReading).min(1)
-		}),
-		run: (i, s = defaultSettings) => {
-			const rules = flatnessRules(
-				i.floorKind as (typeof FLOOR_KINDS)[number],
-				i.subfloor,
-				s.flatness,
-				i.tileEdgesIn
-			);
-			if (!rules)
-				return {
-					ok: true,
-					pass: true,
-					checks: [],
-					rule: 'no flatness rule for this floor',
-					source: '',
-					cautions: planning
-				};
-			const checks = i.readings.map((r) => flatnessCheck(r, rules));
-			return {
-				ok: true,
-				pass: checks.every((c) => c.pass),
-				checks,
-				rule: rules
-					.map((r) => `${formatLength(r.gapIn, 'in')} in ${formatLength(r.overIn)}`)
-					.join(' and '),
-				source: [...new Set(rules.map((r) => r.source))].join('; '),
-				cautions: [CAUTIONS.maker_instructions]
-			};
-		}
-	}),
-	moisture: calc({
-		title: 'Moisture',
-		summary:
-			'Concrete RH and calcium-chloride MVER with the tests the area needs, and wood MC by board width.',
-		input: z.object({
-			areaSqFt: z.number().positive(),
-			rhPct: z.array(pct('In-situ RH')).optional(),
-			rhLimitPct: pct('RH limit').optional(),
-			calciumChloride: z.array(calciumChloride).optional(),
-			mverLimit: z.number().positive().optional(),
-			woodMc: z
-				.object({
-					subfloorPct: z.array(pct('MC')),
-					flooringPct: z.array(pct('MC')),
-					boardWidthIn: positiveIn('Board width').optional()
-				})
-				.optional()
-		}),
-		run: (i, s = defaultSettings) => {
-			const checks = [
-				...(i.rhPct?.length
-					? rhChecks(
-							{
-								readingsPct: i.rhPct,
-								areaSqFt: i.areaSqFt,
-								limitPct: i.rhLimitPct ?? s.moisture.rhLimitPct
-							},
-							s.moisture
-						)
-					: []),
-				...(i.calciumChloride?.length
-					? mverChecks(
-							{
-								tests: i.calciumChloride,
-								areaSqFt: i.areaSqFt,
-								limit: i.mverLimit ?? s.moisture.mverLimit
-							},
-							s.moisture
-						)
-					: []),
-				...(i.woodMc ? woodMoistureChecks(i.woodMc, s.moisture) : [])
-			];
-			return {
-				ok: true,
-				pass: checks.every((c) => c.pass),
-				checks,
-				rule: checks.map((c) => c.rule).join('; '),
-				source: [...new Set(checks.map((c) => c.source))].join('; '),
-				cautions: cautionTexts(['planning_aid', 'moisture'])
-			};
-		}
-	})
-};
-
-export type CalculatorName = keyof typeof calculators;

@@ -1,6 +1,12 @@
+import { error } from '@sveltejs/kit';
+import {
+	calculators,
+	isRefusal,
+	type CalculatorName,
+	type CalculatorResult
+} from '$lib/calculators/registry';
 import { estimate, forInstaller, type EstimateResult, type StoreSettings } from '$lib/estimating';
 import type { EstimatePreviewInput } from '$lib/schemas/preview';
-import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
 import { priceBookFor } from './db/queries/price-book';
 import { read as readSettings } from './db/queries/settings';
 import { can, type Role } from './permissions';
@@ -9,9 +15,14 @@ import { can, type Role } from './permissions';
 export type InstallerPreview = ReturnType<typeof forInstaller> &
 	Pick<EstimateResult, 'ok' | 'errors' | 'warnings'>;
 
+/** Work beyond the engine's limits is the request's fault: 400 with each field at fault. */
+function refuse(issues: { path: string; message: string }[]): never {
+	error(400, { message: 'This is more work than the engine takes on', issues });
+}
+
 /**
  * Runs a calculator (input already checked with its schema) with the store's saved settings,
- * so the store's own waste, loads and limits apply.
+ * so the store's own waste, loads and limits apply. Work beyond the engine's limits is a 400.
  */
 export async function runCalculator(
 	storeId: string,
@@ -20,13 +31,16 @@ export async function runCalculator(
 ): Promise<CalculatorResult> {
 	const { settings } = await readSettings(storeId);
 	const run = calculators[name].run as (i: unknown, s: StoreSettings) => CalculatorResult;
-	return run(input, settings);
+	const result = run(input, settings);
+	if (isRefusal(result)) refuse([{ path: result.field, message: result.message }]);
+	return result;
 }
 
 /**
  * The whole estimate of a job, with the store's settings and price book where the body leaves
  * them out. Roles that may read the price book get the whole result; an installer gets the
- * installer view (quantities, prep, pay and schedule), never store prices or margins.
+ * installer view (quantities, prep, pay and schedule), never store prices or margins. A job
+ * beyond the engine's limits is a 400 naming each field at fault.
  */
 export async function previewEstimate(
 	storeId: string,
@@ -37,6 +51,8 @@ export async function previewEstimate(
 	const settings = body.settings ?? stored!.settings;
 	const priceBook = body.priceBook ?? (await priceBookFor(storeId, stored!.currency));
 	const result = estimate({ job: body.job, settings, priceBook });
+	const beyond = result.errors.filter((e) => e.limit !== undefined);
+	if (beyond.length > 0) refuse(beyond.map(({ path, message }) => ({ path, message })));
 	if (can(role, { priceBook: ['read'] })) return result;
 	return {
 		ok: result.ok,

@@ -3,7 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { calculatorExamples } from '$lib/calculators/examples';
 import { defaultSettings, estimate, forInstaller } from '$lib/estimating';
 import { sampleJob, samplePriceBook } from '$lib/estimating/sample';
-import { calculators, estimateInputSchema, type CalculatorName } from '$lib/schemas/estimate';
+import { calculators, type CalculatorName } from '$lib/calculators/registry';
+import { estimateInputSchema } from '$lib/schemas/estimate';
 import { estimatePreviewSchema } from '$lib/schemas/preview';
 import { calculatorInputId, openApiDocument } from './openapi';
 

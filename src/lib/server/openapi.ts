@@ -11,14 +11,12 @@ import { defaultSettings, type StoreSettings } from '$lib/estimating';
 import { sampleJob, samplePriceBook } from '$lib/estimating/sample';
 import { JOB_STATUSES } from '$lib/jobs/status';
 import { customerListSchema, customerPatchSchema, customerSchema } from '$lib/schemas/customer';
+import { calculators, type CalculatorName, type CalculatorResult } from '$lib/calculators/registry';
 import {
-	calculators,
 	estimateInputSchema,
 	jobSchema,
 	priceBookSchema,
-	settingsSchema,
-	type CalculatorName,
-	type CalculatorResult
+	settingsSchema
 } from '$lib/schemas/estimate';
 import { optionalEmail, phone } from '$lib/schemas/fields';
 import { jobCreateSchema, jobListSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';

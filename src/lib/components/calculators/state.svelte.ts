@@ -1,4 +1,4 @@
-import type { CalculatorName } from '$lib/schemas/estimate';
+import type { CalculatorName } from '$lib/calculators/registry';
 import type { Evaluation, Values } from '$lib/calculators/forms';
 
 /** What the form action sends back: what was typed, kept, and whether it was a real submit. */

@@ -1,5 +1,5 @@
 import { isCalculatorName } from '$lib/calculators/forms';
-import { calculators } from '$lib/schemas/estimate';
+import { calculators } from '$lib/calculators/registry';
 import { endpoint, readJson } from '$lib/server/api';
 import { runCalculator } from '$lib/server/estimates';
 import { requireMember } from '$lib/server/guards';

@@ -1,0 +1,196 @@
+/**
+ * The checks step: the room's joists, sheathing, flatness and moisture against what its floor
+ * needs. Each check becomes a finding; a failed one asks for the prep that fixes it. Planning
+ * aids, never an engineer's stamp.
+ */
+import { cautionTexts } from '../cautions';
+import type { RoomShape } from '../geometry';
+import { countWithin, LIMITS } from '../limits';
+import type { FloorProduct } from '../pricing';
+import type { Measures } from '../prep';
+import type { FloorKind, StoreSettings } from '../settings';
+import {
+	flatnessCheck,
+	flatnessRules,
+	joistCheck,
+	mverChecks,
+	rhChecks,
+	sheathingChecks,
+	woodMoistureChecks,
+	type Check,
+	type SuggestedPrep
+} from '../substrate';
+import type { Finding } from '../types';
+import type { CautionEvent, NeedEvent, RoomContext } from './room';
+
+export interface Checks {
+	findings: Finding[];
+	needs: NeedEvent[];
+	/** Low spots to level: area and average depth. */
+	levelAreas: { areaSqFt: number; depthIn: number }[];
+	warnings: string[];
+	cautions: CautionEvent[];
+}
+
+function ratioFor(kind: FloorKind, product: FloorProduct, s: StoreSettings): number {
+	return product.needs?.deflectionRatio ?? s.joists.ratio[kind] ?? s.joists.defaultRatio;
+}
+
+/** Joists under a room: its extent across them ÷ spacing, plus one. */
+export function joistCount(
+	room: RoomShape,
+	runs: 'x' | 'y' | undefined,
+	spacingIn: number
+): number {
+	const { widthIn, lengthIn } = room.bbox;
+	const along = runs ?? (widthIn <= lengthIn ? 'x' : 'y');
+	const across = along === 'x' ? lengthIn : widthIn;
+	return Math.floor(across / spacingIn) + 1;
+}
+
+/** Every check the room's measure allows, in a fixed order: joists, sheathing, flatness, moisture. */
+export function checksStep(ctx: RoomContext): Checks {
+	const { room, product, settings: s, shape, wood } = ctx;
+	const kind = product.kind;
+	const area = shape.areaSqFt;
+	const out: Checks = { findings: [], needs: [], levelAreas: [], warnings: [], cautions: [] };
+	const need = (kind: NeedEvent['kind'], measures: Measures, f: Finding) =>
+		out.needs.push({ kind, measures, findings: [f] });
+	let n = 0;
+	const addFinding = (c: Check): Finding => {
+		const f: Finding = {
+			id: `${room.id}:${c.check}:${n++}`,
+			roomId: room.id,
+			check: c.check,
+			pass: c.pass,
+			measured: c.measured,
+			limit: c.limit,
+			unit: c.unit,
+			message: c.message,
+			rule: c.rule,
+			source: c.source,
+			suggestedPrep: c.suggestedPrep,
+			cautions: c.cautions,
+			cautionTexts: cautionTexts(c.cautions),
+			lineIds: []
+		};
+		out.findings.push(f);
+		for (const k of c.cautions) out.cautions.push({ kind: k, roomId: room.id });
+		return f;
+	};
+	/** Each suggested prep of a check, measured by `measure`. */
+	const fix = (c: Check, measure: (p: SuggestedPrep) => Measures) => {
+		const f = addFinding(c);
+		for (const p of c.suggestedPrep) need(p.kind, measure(p), f);
+	};
+
+	if (room.joists && wood) {
+		const jm = room.joists;
+		const j = joistCheck(
+			{
+				size: jm.size,
+				species: jm.species,
+				spacingIn: jm.spacingIn,
+				spanIn: jm.spanIn,
+				ratio: ratioFor(kind, product, s)
+			},
+			s.joists
+		);
+		for (const c of j.checks)
+			fix(c, (p) =>
+				p.kind === 'joist_sister'
+					? { each: joistCount(shape, jm.runs, ctx.spacingIn), room: 1 }
+					: { room: 1, each: 1 }
+			);
+	} else if (wood && (kind === 'ceramic_tile' || kind === 'stone_tile')) {
+		out.warnings.push(
+			'Joists were not measured: the deflection check for tile or stone was not run'
+		);
+	}
+
+	const sub = room.subfloor;
+	if (wood && sub.thicknessIn !== undefined) {
+		const checks = sheathingChecks(
+			{
+				kind: sub.kind as 'plywood' | 'osb' | 'board',
+				thicknessIn: sub.thicknessIn,
+				spanRating: sub.spanRating,
+				joistSpacingIn: ctx.spacingIn,
+				floorKind: kind
+			},
+			s.sheathing
+		);
+		for (const c of checks) fix(c, () => ({ sqft: area, room: 1 }));
+	}
+
+	const readings = room.readings ?? {};
+	const at = `${ctx.path}.readings`;
+	countWithin(readings.flatness?.length ?? 0, `${at}.flatness`, 'readings', LIMITS.listItems);
+	countWithin(readings.rhPct?.length ?? 0, `${at}.rhPct`, 'readings', LIMITS.listItems);
+	countWithin(
+		readings.calciumChloride?.length ?? 0,
+		`${at}.calciumChloride`,
+		'tests',
+		LIMITS.listItems
+	);
+	countWithin(
+		readings.woodMc?.subfloorPct.length ?? 0,
+		`${at}.woodMc.subfloorPct`,
+		'readings',
+		LIMITS.listItems
+	);
+	countWithin(
+		readings.woodMc?.flooringPct.length ?? 0,
+		`${at}.woodMc.flooringPct`,
+		'readings',
+		LIMITS.listItems
+	);
+	const rules =
+		product.needs?.flatness ??
+		flatnessRules(kind, wood ? 'wood' : 'concrete', s.flatness, product.tileEdgesIn);
+	if (rules && rules.length > 0) {
+		for (const r of readings.flatness ?? []) {
+			const c = flatnessCheck(r, rules);
+			const f = addFinding(c);
+			if (c.pass) continue;
+			if (r.kind === 'high') need('grind', { each: 1, room: 1 }, f);
+			else {
+				const a = Math.min(area, r.areaSqFt ?? s.repairs.lowSpotAreaSqFt);
+				const depth = r.gapIn * s.repairs.lowSpotDepthFactor;
+				need('level', { sqft: a, sqft_per_eighth_in: a * (depth / 0.125), each: 1, room: 1 }, f);
+				out.levelAreas.push({ areaSqFt: a, depthIn: depth });
+			}
+		}
+	}
+
+	if (!wood) {
+		const rh = readings.rhPct ?? [];
+		const cc = readings.calciumChloride ?? [];
+		// A missing test is counted per test; a barrier covers the room.
+		const concrete = (c: Check) => (p: SuggestedPrep) =>
+			p.kind === 'moisture_test' ? { each: c.limit - c.measured } : { sqft: area, room: 1 };
+		if (rh.length > 0) {
+			const limitPct = product.needs?.rhLimitPct ?? s.moisture.rhLimitPct;
+			for (const c of rhChecks({ readingsPct: rh, areaSqFt: area, limitPct }, s.moisture))
+				fix(c, concrete(c));
+		}
+		if (cc.length > 0) {
+			const limit = product.needs?.mverLimit ?? s.moisture.mverLimit;
+			for (const c of mverChecks({ tests: cc, areaSqFt: area, limit }, s.moisture))
+				fix(c, concrete(c));
+		}
+		if (rh.length === 0 && cc.length === 0 && kind !== 'carpet')
+			out.warnings.push('No moisture readings for a concrete subfloor');
+	} else if (readings.woodMc) {
+		const checks = woodMoistureChecks(
+			{
+				subfloorPct: readings.woodMc.subfloorPct,
+				flooringPct: readings.woodMc.flooringPct,
+				boardWidthIn: product.boardWidthIn
+			},
+			s.moisture
+		);
+		for (const c of checks) fix(c, () => ({ each: 1, room: 1 }));
+	}
+	return out;
+}
