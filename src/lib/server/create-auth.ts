@@ -25,6 +25,59 @@ export interface AuthDeps {
  * it without a request.
  */
 export function createAuth(deps: AuthDeps) {
+	const stores = organization({
+		ac,
+		roles,
+		creatorRole: 'owner',
+		allowUserToCreateOrganization: true,
+		invitationExpiresIn: 60 * 60 * 24 * INVITATION_DAYS,
+		membershipLimit: 200,
+		schema: {
+			organization: {
+				additionalFields: {
+					// The owner's choices about who sees what (store settings, "Who sees what").
+					// Kept on the store's own row so each request reads them with the membership;
+					// written only by the settings action, never through the auth API.
+					salesSeeCosts: {
+						type: 'boolean',
+						required: true,
+						defaultValue: false,
+						input: false
+					},
+					salesJobs: {
+						type: 'string',
+						required: true,
+						defaultValue: 'all',
+						input: false
+					}
+				}
+			},
+			member: {
+				additionalFields: {
+					// The plugin's default role is `member`, which is none of ours; the least
+					// privileged of ours is the default.
+					role: {
+						type: 'string',
+						required: true,
+						sortable: true,
+						defaultValue: 'installer'
+					}
+				}
+			}
+		},
+		sendInvitationEmail: async ({ id, email, role, organization, inviter, invitation }) => {
+			await deps.sendMail(
+				invitationMail({
+					to: email,
+					storeName: organization.name,
+					inviterName: inviter.user.name,
+					roleLabel: isRole(role) ? ROLE_LABELS[role] : role,
+					url: `${deps.baseURL}/invite/${id}`,
+					expiresAt: new Date(invitation.expiresAt)
+				})
+			);
+		}
+	});
 	return betterAuth({
 		appName: 'Flushline',
 		baseURL: deps.baseURL,
@@ -53,43 +106,7 @@ export function createAuth(deps: AuthDeps) {
 			window: 60,
 			max: 120
 		},
-		plugins: [
-			organization({
-				ac,
-				roles,
-				creatorRole: 'owner',
-				allowUserToCreateOrganization: true,
-				invitationExpiresIn: 60 * 60 * 24 * INVITATION_DAYS,
-				membershipLimit: 200,
-				schema: {
-					member: {
-						additionalFields: {
-							// The plugin's default role is `member`, which is none of ours; the least
-							// privileged of ours is the default.
-							role: {
-								type: 'string',
-								required: true,
-								sortable: true,
-								defaultValue: 'installer'
-							}
-						}
-					}
-				},
-				sendInvitationEmail: async ({ id, email, role, organization, inviter, invitation }) => {
-					await deps.sendMail(
-						invitationMail({
-							to: email,
-							storeName: organization.name,
-							inviterName: inviter.user.name,
-							roleLabel: isRole(role) ? ROLE_LABELS[role] : role,
-							url: `${deps.baseURL}/invite/${id}`,
-							expiresAt: new Date(invitation.expiresAt)
-						})
-					);
-				}
-			}),
-			...(deps.plugins ?? [])
-		]
+		plugins: [stores, ...(deps.plugins ?? [])]
 	});
 }
 

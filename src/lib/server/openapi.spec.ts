@@ -149,8 +149,14 @@ describe('the OpenAPI document', () => {
 				...forInstaller(result)
 			})
 		);
+		const { pay: _p, installerPayCents: _i, margin: _m, ...sell } = result;
 		expect(validator('EstimateResult')(result)).toBe(true);
+		expect(validator('SellEstimate')(sell)).toBe(true);
 		expect(validator('InstallerEstimate')(installer)).toBe(true);
+		// Each answer fits one shape only: sell prices never carry pay or margin.
+		expect(validator('SellEstimate')(result)).toBe(false);
+		expect(validator('EstimateResult')(sell)).toBe(false);
+		expect(validator('SellEstimate')({ ...sell, margin: result.margin })).toBe(false);
 		// An answer with prices is never an installer view.
 		expect(validator('InstallerEstimate')({ ...installer, lines: result.lines })).toBe(false);
 		expect(validator('EstimateResult')(installer)).toBe(false);

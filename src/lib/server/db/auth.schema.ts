@@ -81,6 +81,8 @@ export const organization = pgTable("organization", {
   logo: text("logo"),
   createdAt: timestamp("created_at").notNull(),
   metadata: text("metadata"),
+  salesSeeCosts: boolean("sales_see_costs").default(false).notNull(),
+  salesJobs: text("sales_jobs").default("all").notNull(),
 });
 
 export const member = pgTable(

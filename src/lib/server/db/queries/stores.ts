@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, isNotNull, type SQL } from 'drizzle-orm';
-import { isRole, type Role } from '../../permissions';
+import { isRole, SALES_JOB_SCOPES, type Role, type StoreAccess } from '../../permissions';
 import { db } from '../index';
 import { invitation, member, organization, session, storeProfile, user } from '../schema';
 import { inStore } from '../tenant';
@@ -8,6 +8,8 @@ export interface Membership {
 	memberId: string;
 	role: Role;
 	store: { id: string; name: string; slug: string; logo: string | null };
+	/** The owner's choices about who sees what. */
+	access: StoreAccess;
 }
 
 const membershipColumns = {
@@ -16,7 +18,9 @@ const membershipColumns = {
 	id: organization.id,
 	name: organization.name,
 	slug: organization.slug,
-	logo: organization.logo
+	logo: organization.logo,
+	salesSeeCosts: organization.salesSeeCosts,
+	salesJobs: organization.salesJobs
 };
 
 function toMembership(row: {
@@ -26,12 +30,18 @@ function toMembership(row: {
 	name: string;
 	slug: string;
 	logo: string | null;
+	salesSeeCosts: boolean;
+	salesJobs: string;
 }): Membership | null {
 	if (!isRole(row.role)) return null;
+	const salesJobs = SALES_JOB_SCOPES.find((s) => s === row.salesJobs);
+	// The database refuses any other value (organization_sales_jobs_check): never guess one.
+	if (!salesJobs) throw new Error(`Store ${row.id} has an unknown sales job scope`);
 	return {
 		memberId: row.memberId,
 		role: row.role,
-		store: { id: row.id, name: row.name, slug: row.slug, logo: row.logo }
+		store: { id: row.id, name: row.name, slug: row.slug, logo: row.logo },
+		access: { salesSeeCosts: row.salesSeeCosts, salesJobs }
 	};
 }
 

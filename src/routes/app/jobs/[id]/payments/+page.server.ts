@@ -1,7 +1,9 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
+import { seesCardFees, visibleMoney } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob, requireObjects } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
 import { refundCard } from '$lib/server/payments';
 import { priceField } from '$lib/schemas/price-book';
@@ -35,22 +37,24 @@ const refundSchema = z.object({
 });
 
 export const load: PageServerLoad = async ({ params }) => {
-	const { store, user, role } = requirePermission({ payment: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, grants, scope } = requirePermission({ payment: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	const money = await payments.moneyFor(store.id, job.id);
 	return {
 		job,
-		money,
-		canRecord: can(role, { payment: ['record'] }),
-		canRefund: can(role, { payment: ['refund'] }),
-		showFees: can(role, { report: ['read'] })
+		money: visibleMoney(grants, money),
+		canRecord: can(grants, { payment: ['record'] }),
+		canRefund: can(grants, { payment: ['refund'] }),
+		showFees: seesCardFees(grants)
 	};
 };
 
 export const actions: Actions = {
 	record: async ({ request, params }) => {
-		const { store, user } = requirePermission({ payment: ['record'] });
+		const member = requirePermission({ payment: ['record'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const parsed = await parseForm(request, recordSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { form } = parsed;
@@ -73,13 +77,15 @@ export const actions: Actions = {
 		return { recorded: true };
 	},
 	refund: async ({ request }) => {
-		const { store, user } = requirePermission({ payment: ['refund'] });
+		const member = requirePermission({ payment: ['refund'] });
+		const { store, user } = member;
 		const fields = Object.fromEntries(await request.formData()) as Record<string, string>;
 		const parsed = refundSchema.safeParse(fields);
 		// Each payment has its own refund form: the answer says which one it is for.
 		const refundFor = fields.paymentId ?? '';
 		const values = { amount: fields.amount ?? '', note: fields.note ?? '' };
 		if (!parsed.success) return fail(400, { refundFor, values, errors: fieldErrors(parsed.error) });
+		await requireObjects(member, 'payment', [parsed.data.paymentId]);
 		const input = {
 			amountCents: parsed.data.amount,
 			reason: parsed.data.reason,

@@ -1,0 +1,3 @@
+-- Which jobs a store's salespeople work on: every job, or only those they sell. The settings
+-- action validates it; the database refuses anything else, so a bad value can never widen access.
+ALTER TABLE "organization" ADD CONSTRAINT "organization_sales_jobs_check" CHECK ("sales_jobs" IN ('all', 'own'));
