@@ -106,6 +106,12 @@ export function createAuth(deps: AuthDeps) {
 			window: 60,
 			max: 120
 		},
+		// The organization plugin's endpoints check membership, not Flushline's permissions (any
+		// member could list the store's members and their e-mail addresses), and nothing in the
+		// browser needs them: the app calls them on the server (auth.api), behind its own guards.
+		disabledPaths: Object.values(stores.endpoints)
+			.map((e) => e.path)
+			.filter(Boolean),
 		plugins: [stores, ...(deps.plugins ?? [])]
 	});
 }
