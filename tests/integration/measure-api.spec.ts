@@ -4,7 +4,7 @@ import { isActionFailure, isRedirect, type RequestEvent } from '@sveltejs/kit';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import * as measures from '$lib/server/db/queries/measures';
 import { emptyRoom, type MeasureDraft } from '$lib/measure/draft';
-import type { Role } from '$lib/server/permissions';
+import { grantsOf, type Role } from '$lib/server/permissions';
 import { addMember, makeJob, makeStore, makeUser, roomDraft, type TestStore } from './factories';
 
 let current: Partial<RequestEvent> | undefined;
@@ -31,6 +31,7 @@ function event(who: Member, jobId: string, path: string, init?: RequestInit) {
 			session: { id: `session-${who.user.id}` } as App.Locals['session'],
 			store: { id: who.store.id, name: who.store.name, slug: 'test', logo: null },
 			role: who.role,
+			grants: grantsOf(who.role),
 			denied: null
 		}
 	} as unknown as RequestEvent;
