@@ -1,5 +1,5 @@
 import type { auth } from '$lib/server/auth';
-import type { Role } from '$lib/server/permissions';
+import type { Grants, Role } from '$lib/server/permissions';
 
 type AuthSession = NonNullable<Awaited<ReturnType<typeof auth.api.getSession>>>;
 
@@ -28,6 +28,8 @@ declare global {
 			} | null;
 			/** The user's role in the active store. */
 			role: Role | null;
+			/** What the role may do in the active store, with the owner's choices; never sent out. */
+			grants: Grants | null;
 			/** Set by hooks when a page is refused, so the section layout renders the 403 page. */
 			denied: { status: 403; message: string } | null;
 		}

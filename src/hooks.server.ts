@@ -9,6 +9,7 @@ import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
 import { handleRequestId } from '$lib/server/hooks/request-id';
 import { log, safePath } from '$lib/server/log';
+import { can, grantsOf } from '$lib/server/permissions';
 import {
 	error,
 	json,
@@ -46,6 +47,7 @@ const handleAuth: Handle = async ({ event, resolve }) => {
 	event.locals.session = null;
 	event.locals.store = null;
 	event.locals.role = null;
+	event.locals.grants = null;
 	event.locals.denied = null;
 	if (!event.url.pathname.startsWith('/api/auth/')) {
 		const found = await auth.api.getSession({ headers: event.request.headers });
@@ -79,34 +81,35 @@ const handleStore: Handle = async ({ event, resolve }) => {
 	if (membership) {
 		event.locals.store = membership.store;
 		event.locals.role = membership.role;
+		event.locals.grants = grantsOf(membership.role, membership.access);
 	}
 	return resolve(event);
 };
 
 /**
- * The first wall: /app, /field and /api/v1 need a member of the active store, and role-only
- * sections refuse other roles. Pages redirect to sign-in; the API answers JSON 401/403.
+ * The first wall: /app, /field and /api/v1 need a member of the active store, and each section
+ * refuses members without its permission. Pages redirect to sign-in; the API answers JSON 401/403.
  * Loads, actions and endpoints check again with the guards in $lib/server/guards.
  */
 const handleGuard: Handle = async ({ event, resolve }) => {
 	const { pathname, search } = event.url;
 	if (!needsMember(pathname)) return resolve(event);
-	const { user, role } = event.locals;
+	const { user, role, grants } = event.locals;
 	const api = pathname.startsWith('/api/');
 
 	if (!user) {
 		if (api) return json({ message: 'Sign in first' }, { status: 401 });
 		redirect(303, `/sign-in?redirectTo=${encodeURIComponent(pathname + search)}`);
 	}
-	if (!role) {
+	if (!role || !grants) {
 		if (api) return json({ message: 'Choose a store first' }, { status: 403 });
 		redirect(303, '/stores');
 	}
 	if (api) return resolve(event);
 
-	// An installer opening the staff desk's front page is sent to their own.
-	if (role === 'installer' && pathname === '/app') redirect(303, homeFor(role));
-	const message = refusal(pathname, role);
+	// A member without the desk (an installer) opening its front page is sent to their own.
+	if (pathname === '/app' && !can(grants, { job: ['read'] })) redirect(303, homeFor(role));
+	const message = refusal(pathname, grants);
 	if (message) {
 		// A full page renders the 403 inside our layout (the section layout's guard throws it);
 		// form posts and client-side data requests are refused here and now.

@@ -77,7 +77,17 @@ test('a duplicate invitation is refused by the field; an expired one shows a cle
 		email
 	]);
 	await db.end();
+	// Only the invitee, signed in with the address it went to, sees more than the store's name.
 	await page.goto(link);
+	await expect(page.getByText('this invitation was sent to another address')).toBeVisible();
+	await expect(page.getByText('This invitation has expired')).toHaveCount(0);
+	await page.getByRole('button', { name: 'Sign out' }).click();
+	await page.goto(link);
+	await page.getByRole('link', { name: 'Create a login' }).click();
+	await page.getByLabel('Your name').fill('Arlo Tamsworth');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill('late-invite-77');
+	await page.getByRole('button', { name: 'Create login' }).click();
 	await expect(page.getByText('This invitation has expired')).toBeVisible();
 	await expect(page.getByRole('button', { name: 'Accept and join' })).toHaveCount(0);
 });

@@ -142,7 +142,10 @@ test("the preview prices a job with the store's own settings and price book", as
 	const response = await sales.post('/api/v1/estimates/preview', { headers: json, data: { job } });
 	expect(response.status()).toBe(200);
 	const result = await response.json();
-	expect(result).toEqual(JSON.parse(JSON.stringify(estimate({ job, settings, priceBook }))));
+	// A salesperson gets the estimate at sell prices: no installer pay, pay total or margin.
+	const whole = estimate({ job, settings, priceBook });
+	const { pay: _p, installerPayCents: _i, margin: _m, ...sell } = whole;
+	expect(result).toEqual(JSON.parse(JSON.stringify(sell)));
 	expect(result.ok).toBe(true);
 	// The demo store's own tax, not the engine's default of none.
 	expect(result.totals.taxes.map((t: { name: string }) => t.name)).toEqual([
@@ -157,7 +160,7 @@ test("the preview prices a job with the store's own settings and price book", as
 	expect(field.status()).toBe(200);
 	const view = await field.json();
 	expect(view.work.length).toBe(result.lines.length);
-	expect(view.installerPayCents).toBe(result.installerPayCents);
+	expect(view.installerPayCents).toBe(whole.installerPayCents);
 	expect(JSON.stringify(view)).not.toMatch(/priceCents|costCents|margin|subtotal/i);
 
 	const bad = await sales.post('/api/v1/estimates/preview', {

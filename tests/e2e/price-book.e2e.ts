@@ -94,12 +94,24 @@ test('a line is deactivated and reactivated from the list', async ({ page }) => 
 	await expect(row).toContainText('In use');
 });
 
-test('the demo salesperson is refused the price book, its pages and its API', async ({ page }) => {
+test('the demo salesperson reads the price book at sell prices and cannot change it', async ({
+	page,
+	baseURL
+}) => {
 	await signIn(page, demoEmail('sales'));
-	const refused = await page.goto('/app/price-book');
-	expect(refused?.status()).toBe(403);
-	await expect(page.getByText('The price book is open to Owner, Manager only')).toBeVisible();
+	await page.goto('/app/price-book');
+	await expect(page.getByRole('heading', { name: 'Price book' })).toBeVisible();
+	await expect(page.getByRole('columnheader', { name: 'Material' })).toBeVisible();
+	await expect(page.getByRole('columnheader', { name: /Installer pay/ })).toHaveCount(0);
+	await expect(page.getByRole('link', { name: 'Add a floor product' })).toHaveCount(0);
+	await expect(page.getByRole('button', { name: /Deactivate/ })).toHaveCount(0);
 	expect((await page.goto('/app/price-book/new/floor'))?.status()).toBe(403);
 	const api = await page.request.get('/api/v1/price-items');
-	expect(api.status()).toBe(403);
+	expect(api.status()).toBe(200);
+	expect(JSON.stringify(await api.json())).not.toMatch(/costCents|payCents/);
+	const write = await page.request.post('/api/v1/price-items', {
+		headers: { origin: baseURL!, 'content-type': 'application/json' },
+		data: { section: 'supply', code: 'fastener', name: 'Screws', data: {} }
+	});
+	expect(write.status()).toBe(403);
 });

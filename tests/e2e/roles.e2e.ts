@@ -13,7 +13,7 @@ const expected = {
 		'Store settings'
 	],
 	manager: ['Desk', 'Jobs', 'Customers', 'Price book', 'Payments', 'Calculators'],
-	sales: ['Desk', 'Jobs', 'Customers', 'Calculators']
+	sales: ['Desk', 'Jobs', 'Customers', 'Price book', 'Calculators']
 } as const;
 
 for (const [role, links] of Object.entries(expected)) {

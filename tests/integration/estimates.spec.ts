@@ -7,9 +7,18 @@ import { calculators } from '$lib/calculators/registry';
 import { priceBookFor } from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { previewEstimate, runCalculator } from '$lib/server/estimates';
+import { grantsOf } from '$lib/server/permissions';
 import { makePriceBook, makeStore } from './factories';
 
 const cartons = calculators.cartons.input.parse({ areaSqFt: 120, coverageSqFt: 20.5 });
+
+/** A sample job of some rooms whose floors are the store's own price-book lines. */
+async function pricedJob(storeId: string, rooms: number) {
+	const { floors } = await makePriceBook(storeId);
+	const job = sampleJob(rooms);
+	for (const room of job.rooms) if (room.floor) room.floor.productId = floors[room.floor.productId];
+	return job;
+}
 
 describe('runCalculator', () => {
 	it("uses the engine's defaults for a store that saved none, and the store's own once saved", async () => {
@@ -36,11 +45,8 @@ describe('runCalculator', () => {
 describe('previewEstimate', () => {
 	it("prices a job with the store's settings and price book when the body leaves them out", async () => {
 		const store = await makeStore('Preview Floors');
-		const { floors } = await makePriceBook(store.id);
-		const job = sampleJob(4);
-		for (const room of job.rooms)
-			if (room.floor) room.floor.productId = floors[room.floor.productId];
-		const result = await previewEstimate(store.id, 'sales', { job });
+		const job = await pricedJob(store.id, 4);
+		const result = await previewEstimate(store.id, grantsOf('manager'), { job });
 		const { settings, currency } = await tradeSettings.read(store.id);
 		expect(result).toEqual(
 			estimate({ job, settings, priceBook: await priceBookFor(store.id, currency) })
@@ -53,16 +59,13 @@ describe('previewEstimate', () => {
 	it('uses the settings and price book sent in the body as they are', async () => {
 		const store = await makeStore('Sent Floors');
 		const input = { job: sampleJob(2), settings: defaultSettings, priceBook: samplePriceBook };
-		expect(await previewEstimate(store.id, 'owner', input)).toEqual(estimate(input));
+		expect(await previewEstimate(store.id, grantsOf('owner'), input)).toEqual(estimate(input));
 	});
 
 	it('gives an installer the installer view: no prices, totals or margins', async () => {
 		const store = await makeStore('Installer Floors');
-		const { floors } = await makePriceBook(store.id);
-		const job = sampleJob(3);
-		for (const room of job.rooms)
-			if (room.floor) room.floor.productId = floors[room.floor.productId];
-		const view = await previewEstimate(store.id, 'installer', { job });
+		const job = await pricedJob(store.id, 3);
+		const view = await previewEstimate(store.id, grantsOf('installer'), { job });
 		expect(Object.keys(view).sort()).toEqual(
 			[
 				'cautions',
@@ -80,5 +83,21 @@ describe('previewEstimate', () => {
 		const text = JSON.stringify(view);
 		expect(text).not.toMatch(/priceCents|costCents|margin|subtotal/i);
 		expect('installerPayCents' in view && view.installerPayCents).toBeGreaterThan(0);
+	});
+
+	it('gives a salesperson sell prices without pay or margin, unless the store shows them costs', async () => {
+		const store = await makeStore('Counter Floors');
+		const job = await pricedJob(store.id, 4);
+		const { settings, currency } = await tradeSettings.read(store.id);
+		const whole = estimate({ job, settings, priceBook: await priceBookFor(store.id, currency) });
+		expect(whole.installerPayCents).toBeGreaterThan(0);
+
+		const sell = await previewEstimate(store.id, grantsOf('sales'), { job });
+		const { pay: _p, installerPayCents: _i, margin: _m, ...expected } = whole;
+		expect(sell).toEqual(expected);
+		expect(JSON.stringify(sell)).not.toMatch(/installerPay|margin|costCents|"pay"/);
+
+		const seeing = grantsOf('sales', { salesSeeCosts: true, salesJobs: 'all' });
+		expect(await previewEstimate(store.id, seeing, { job })).toEqual(whole);
 	});
 });

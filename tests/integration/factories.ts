@@ -14,7 +14,7 @@ import { defaultSettings } from '$lib/estimating';
 import { samplePriceBook } from '$lib/estimating/sample';
 import { emptyRoom } from '$lib/measure/draft';
 import type { Mail } from '$lib/server/mail/templates';
-import type { Role } from '$lib/server/permissions';
+import { grantsOf, type Role } from '$lib/server/permissions';
 import type { RequestEvent } from '@sveltejs/kit';
 
 export const TEST_PASSWORD = 'test-password-1';
@@ -257,8 +257,9 @@ export function memberEvent(
 		locals: {
 			user: who.user as App.Locals['user'],
 			session: { id: `session-${who.user.id}` } as App.Locals['session'],
-			store: { id: who.store.id, name: who.store.name, slug: 'test', logo: null },
+			store: { id: who.store.id, name: who.store.name, slug: 'test', logo: null, timeZone: 'UTC' },
 			role: who.role,
+			grants: grantsOf(who.role),
 			denied: null
 		}
 	} as unknown as RequestEvent;

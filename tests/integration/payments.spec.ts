@@ -20,6 +20,8 @@ import path from 'node:path';
 import type Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeQuotedJob, makeStore, unique, type TestStore } from './factories';
+import { jobScope } from '$lib/server/object-access';
+import { grantsOf } from '$lib/server/permissions';
 
 const outbox = mkdtempSync(path.join(tmpdir(), 'payments-outbox-'));
 let t: ReturnType<typeof stripeFakeForTests>;
@@ -31,7 +33,7 @@ afterAll(async () => {
 	await t.close();
 });
 
-const owner = (store: TestStore) => ({ userId: store.owner.id, role: 'owner' as const });
+const owner = (store: TestStore) => jobScope(grantsOf('owner'), store.owner.id);
 
 /** A store with its own Stripe account and an accepted quote, ready for the deposit. */
 async function acceptedJob(name = 'Card Floors') {

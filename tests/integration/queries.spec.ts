@@ -3,6 +3,8 @@ import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { addMember, makeCustomer, makeJob, makeStore, type TestStore } from './factories';
+import { jobScope } from '$lib/server/object-access';
+import { grantsOf } from '$lib/server/permissions';
 
 const page = { q: null, sort: 'name', dir: 'asc', page: 1, pageSize: 100 } as const;
 const jobPage = { q: null, sort: 'number', dir: 'desc', page: 1, pageSize: 100 } as const;
@@ -59,7 +61,7 @@ describe('customers across stores', () => {
 
 describe('jobs across stores', () => {
 	it("lists, reads, changes, moves, assigns and deletes none of another store's jobs", async () => {
-		const staff = { userId: a.owner.id, role: 'owner' as const };
+		const staff = jobScope(grantsOf('owner'), a.owner.id);
 		const { rows } = await jobs.list(a.id, jobPage, staff);
 		expect(rows.some((r) => r.id === bJob.id)).toBe(false);
 		expect(await jobs.read(a.id, bJob.id, staff)).toBeUndefined();
@@ -71,7 +73,7 @@ describe('jobs across stores', () => {
 		expect(await jobs.assign(a.id, bJob.id, null, a.owner.id)).toBe('not_found');
 		expect(await jobs.remove(a.id, bJob.id)).toBe('not_found');
 		expect(await jobs.events(a.id, bJob.id)).toEqual([]);
-		expect((await jobs.read(b.id, bJob.id, { userId: b.owner.id, role: 'owner' }))?.status).toBe(
+		expect((await jobs.read(b.id, bJob.id, jobScope(grantsOf('owner'), b.owner.id)))?.status).toBe(
 			'draft'
 		);
 	});
@@ -110,7 +112,7 @@ describe('installers', () => {
 		const his = await makeJob(store.id, store.owner.id);
 		expect(await jobs.assign(store.id, hers.id, rosa.id, store.owner.id)).toBe('assigned');
 		expect(await jobs.assign(store.id, his.id, dev.id, store.owner.id)).toBe('assigned');
-		const asRosa = { userId: rosa.id, role: 'installer' as const };
+		const asRosa = jobScope(grantsOf('installer'), rosa.id);
 		const { rows } = await jobs.list(store.id, jobPage, asRosa);
 		expect(rows.map((r) => r.id)).toEqual([hers.id]);
 		expect(await jobs.read(store.id, his.id, asRosa)).toBeUndefined();

@@ -6,8 +6,10 @@ import * as jobs from '$lib/server/db/queries/jobs';
 import { estimate } from '$lib/estimating';
 import { describe, expect, it } from 'vitest';
 import { makeJob, makeQuotedJob, makeStore, makePriceBook, roomDraft } from './factories';
+import { jobScope } from '$lib/server/object-access';
+import { grantsOf } from '$lib/server/permissions';
 
-const staff = (userId: string) => ({ userId, role: 'owner' as const });
+const staff = (userId: string) => jobScope(grantsOf('owner'), userId);
 
 async function asOwner<T>(sqlText: string, params: unknown[]) {
 	// The schema owner is subject to forced row security too; the trigger is what refuses here.

@@ -207,3 +207,14 @@ export function taxRowCount(values: Record<string, string>): number {
 	}
 	return Math.min(n + 1, 10);
 }
+
+/**
+ * "Who sees what": whether salespeople see costs, installer pay and margins (never card fees),
+ * and whether they see every job or only the jobs they sell. An unticked box is not sent.
+ */
+export const storeAccessFormSchema = z.object({
+	salesSeeCosts: checkbox,
+	salesJobs: z.enum(['all', 'own'], { error: 'Choose which jobs salespeople see' })
+});
+
+export type StoreAccessForm = z.output<typeof storeAccessFormSchema>;

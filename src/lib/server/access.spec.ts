@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { homeFor, navFor, needsMember, refusal } from './access';
+import { grantsOf } from './permissions';
 
 describe('sections by role', () => {
 	it('keeps store settings and the team to the owner', () => {
@@ -14,7 +15,14 @@ describe('sections by role', () => {
 		expect(refusal('/app/customers', 'installer')).toMatch(/your role in this store is Installer/);
 		expect(refusal('/field', 'sales')).toMatch(/Installer only/);
 		expect(refusal('/field/jobs/x', 'installer')).toBeNull();
-		expect(refusal('/app/price-book', 'sales')).toMatch(/Owner, Manager only/);
+		expect(refusal('/app/price-book', 'sales')).toBeNull();
+		expect(refusal('/app/price-book', 'installer')).toMatch(
+			/price book is open to Owner, Manager, Sales/
+		);
+		expect(refusal('/app/payments', 'sales')).toMatch(/Payments is open to Owner, Manager only/);
+		// A section inside another must pass both: installers use calculators, but not the desk's.
+		expect(refusal('/app/calculators', 'installer')).toMatch(/store desk/);
+		expect(refusal('/field/calculators', 'installer')).toBeNull();
 	});
 
 	it('does not take a prefix for a section (/application is not /app)', () => {
@@ -41,7 +49,7 @@ describe('sections by role', () => {
 			'/app/payments',
 			'/app/calculators'
 		]);
-		expect(hrefs('sales')).toEqual([...desk, '/app/calculators']);
+		expect(hrefs('sales')).toEqual([...desk, '/app/price-book', '/app/calculators']);
 		expect(hrefs('installer')).toEqual(['/field', '/field/calculators']);
 	});
 
@@ -49,5 +57,11 @@ describe('sections by role', () => {
 		expect(homeFor('installer')).toBe('/field');
 		expect(homeFor('sales')).toBe('/app');
 		expect(homeFor(null)).toBe('/stores');
+	});
+
+	it("reads the member's grants, not only the role", () => {
+		const seeing = grantsOf('sales', { salesSeeCosts: true, salesJobs: 'own' });
+		expect(navFor(seeing)).toEqual(navFor('sales'));
+		expect(refusal('/app/settings', seeing)).toMatch(/your role in this store is Sales/);
 	});
 });

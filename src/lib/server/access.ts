@@ -1,23 +1,35 @@
-import { ROLE_LABELS, type Role } from './permissions';
+import {
+	can,
+	rolesThatCan,
+	ROLE_LABELS,
+	type Grants,
+	type Permission,
+	type Role
+} from './permissions';
 
-/** A part of the site that only some roles of the active store may open. */
+/**
+ * A part of the site open to the members holding one permission. Sections are the hooks' first
+ * wall and the navigation's source; every load, action and endpoint still checks its own
+ * permission with the guards.
+ */
 interface Section {
 	prefix: string;
-	roles: readonly Role[];
+	permission: Permission;
 	/** What the section is, for the refusal message. */
 	name: string;
 }
 
-const STAFF: Role[] = ['owner', 'manager', 'sales'];
-
-/** Most specific first; the first match decides. */
+/** A path must be open in every section it is under, outermost first. */
 const SECTIONS: Section[] = [
-	{ prefix: '/app/settings', roles: ['owner'], name: 'Store settings' },
-	{ prefix: '/app/team', roles: ['owner'], name: 'The team' },
-	{ prefix: '/app/price-book', roles: ['owner', 'manager'], name: 'The price book' },
-	{ prefix: '/app/payments', roles: ['owner', 'manager'], name: 'Payments' },
-	{ prefix: '/app', roles: STAFF, name: 'The store desk' },
-	{ prefix: '/field', roles: ['installer'], name: 'The installer screens' }
+	{ prefix: '/app', permission: { job: ['read'] }, name: 'The store desk' },
+	{ prefix: '/app/customers', permission: { customer: ['read'] }, name: 'Customers' },
+	{ prefix: '/app/price-book', permission: { priceBook: ['read'] }, name: 'The price book' },
+	{ prefix: '/app/payments', permission: { payment: ['reconcile'] }, name: 'Payments' },
+	{ prefix: '/app/calculators', permission: { calculator: ['use'] }, name: 'The calculators' },
+	{ prefix: '/app/team', permission: { member: ['update'] }, name: 'The team' },
+	{ prefix: '/app/settings', permission: { store: ['update'] }, name: 'Store settings' },
+	{ prefix: '/field', permission: { assignedJob: ['read'] }, name: 'The installer screens' },
+	{ prefix: '/field/calculators', permission: { calculator: ['use'] }, name: 'The calculators' }
 ];
 
 function under(pathname: string, prefix: string) {
@@ -29,22 +41,32 @@ export function needsMember(pathname: string): boolean {
 	return under(pathname, '/app') || under(pathname, '/field') || under(pathname, '/api/v1');
 }
 
-export function sectionFor(pathname: string): Section | undefined {
-	return SECTIONS.find((s) => under(pathname, s.prefix));
+/** The sections a path is under, outermost first. */
+export function sectionsFor(pathname: string): Section[] {
+	return SECTIONS.filter((s) => under(pathname, s.prefix));
 }
 
-/** Why a role may not open a section, in words for the 403 page; null when it may. */
-export function refusal(pathname: string, role: Role): string | null {
-	const section = sectionFor(pathname);
-	if (!section || section.roles.includes(role)) return null;
-	const allowed = section.roles.map((r) => ROLE_LABELS[r]).join(', ');
+/**
+ * Why a member may not open a path, in words for the 403 page (the most specific section that
+ * refuses); null when every section the path is under lets them in.
+ */
+export function refusal(pathname: string, who: Role | Grants): string | null {
+	const section = sectionsFor(pathname)
+		.reverse()
+		.find((s) => !can(who, s.permission));
+	if (!section) return null;
+	const role = typeof who === 'string' ? who : who.role;
+	const allowed = rolesThatCan(section.permission)
+		.map((r) => ROLE_LABELS[r])
+		.join(', ');
 	return `${section.name} is open to ${allowed} only; your role in this store is ${ROLE_LABELS[role]}.`;
 }
 
-/** Where each role lands after signing in or switching store. */
+/** Where a member lands after signing in or switching store: the desk, or their own jobs. */
 export function homeFor(role: Role | null): string {
 	if (!role) return '/stores';
-	return role === 'installer' ? '/field' : '/app';
+	if (can(role, { job: ['read'] })) return '/app';
+	return can(role, { assignedJob: ['read'] }) ? '/field' : '/stores';
 }
 
 export type NavIcon =
@@ -64,7 +86,7 @@ export interface NavItem {
 	icon: NavIcon;
 }
 
-/** Every navigation entry; each role sees the ones its sections allow. */
+/** Every navigation entry; each member sees the ones their permissions open. */
 const NAV: NavItem[] = [
 	{ href: '/app', label: 'Desk', icon: 'desk' },
 	{ href: '/app/jobs', label: 'Jobs', icon: 'jobs' },
@@ -78,7 +100,7 @@ const NAV: NavItem[] = [
 	{ href: '/field/calculators', label: 'Calculators', icon: 'calculators' }
 ];
 
-/** The navigation a role sees, from the same rules the guards apply. */
-export function navFor(role: Role): NavItem[] {
-	return NAV.filter((item) => refusal(item.href, role) === null);
+/** The navigation a member sees, from the same permissions the guards check. */
+export function navFor(who: Role | Grants): NavItem[] {
+	return NAV.filter((item) => refusal(item.href, who) === null);
 }

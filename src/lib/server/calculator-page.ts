@@ -8,14 +8,14 @@ import {
 } from '$lib/calculators/forms';
 import { read } from './db/queries/settings';
 import { typedValues } from './forms';
-import { requireMember } from './guards';
+import { requirePermission } from './guards';
 
 /**
  * The Calculators page's load, shared by the staff desk and the installer screens: the store's
  * settings (its overrides apply in the browser), without the money settings.
  */
 export async function calculatorLoad() {
-	const { store } = requireMember();
+	const { store } = requirePermission({ calculator: ['use'] });
 	const { settings } = await read(store.id);
 	return { settings: calculatorSettings(settings) };
 }
@@ -26,7 +26,7 @@ export async function calculatorLoad() {
  */
 export const calculatorActions = {
 	default: async ({ request }: { request: Request }) => {
-		const { store } = requireMember();
+		const { store } = requirePermission({ calculator: ['use'] });
 		const form = await request.formData();
 		const calculator = form.get('calculator');
 		if (!isCalculatorName(calculator)) return fail(400, { message: 'Choose a calculator first' });

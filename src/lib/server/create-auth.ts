@@ -81,6 +81,62 @@ function limitHooks(limits: AuthLimits) {
  * it without a request.
  */
 export function createAuth(deps: AuthDeps) {
+	const stores = organization({
+		ac,
+		roles,
+		creatorRole: 'owner',
+		allowUserToCreateOrganization: true,
+		invitationExpiresIn: 60 * 60 * 24 * INVITATION_DAYS,
+		membershipLimit: 200,
+		schema: {
+			organization: {
+				additionalFields: {
+					// The store's IANA time zone: every date on its pages, e-mails and PDFs.
+					timeZone: { type: 'string', required: false, defaultValue: 'UTC', input: true },
+					// The owner's choices about who sees what (store settings, "Who sees what").
+					// Kept on the store's own row so each request reads them with the membership;
+					// written only by the settings action, never through the auth API.
+					salesSeeCosts: {
+						type: 'boolean',
+						required: true,
+						defaultValue: false,
+						input: false
+					},
+					salesJobs: {
+						type: 'string',
+						required: true,
+						defaultValue: 'all',
+						input: false
+					}
+				}
+			},
+			member: {
+				additionalFields: {
+					// The plugin's default role is `member`, which is none of ours; the least
+					// privileged of ours is the default.
+					role: {
+						type: 'string',
+						required: true,
+						sortable: true,
+						defaultValue: 'installer'
+					}
+				}
+			}
+		},
+		sendInvitationEmail: async ({ id, email, role, organization, inviter, invitation }) => {
+			await deps.sendMail(
+				invitationMail({
+					to: email,
+					storeName: organization.name,
+					inviterName: inviter.user.name,
+					roleLabel: isRole(role) ? ROLE_LABELS[role] : role,
+					url: `${deps.baseURL}/invite/${id}`,
+					expiresAt: new Date(invitation.expiresAt),
+					timeZone: timeZoneOr((organization as { timeZone?: unknown }).timeZone)
+				})
+			);
+		}
+	});
 	return betterAuth({
 		appName: 'Flushline',
 		baseURL: deps.baseURL,
@@ -113,50 +169,13 @@ export function createAuth(deps: AuthDeps) {
 			// The client's address only as the deployment's proxy gave it, never a header it chose.
 			ipAddress: { ipAddressHeaders: [CLIENT_ADDRESS_HEADER] }
 		},
-		plugins: [
-			organization({
-				ac,
-				roles,
-				creatorRole: 'owner',
-				allowUserToCreateOrganization: true,
-				invitationExpiresIn: 60 * 60 * 24 * INVITATION_DAYS,
-				membershipLimit: 200,
-				schema: {
-					organization: {
-						additionalFields: {
-							// The store's IANA time zone: every date on its pages, e-mails and PDFs.
-							timeZone: { type: 'string', required: false, defaultValue: 'UTC', input: true }
-						}
-					},
-					member: {
-						additionalFields: {
-							// The plugin's default role is `member`, which is none of ours; the least
-							// privileged of ours is the default.
-							role: {
-								type: 'string',
-								required: true,
-								sortable: true,
-								defaultValue: 'installer'
-							}
-						}
-					}
-				},
-				sendInvitationEmail: async ({ id, email, role, organization, inviter, invitation }) => {
-					await deps.sendMail(
-						invitationMail({
-							to: email,
-							storeName: organization.name,
-							inviterName: inviter.user.name,
-							roleLabel: isRole(role) ? ROLE_LABELS[role] : role,
-							url: `${deps.baseURL}/invite/${id}`,
-							expiresAt: new Date(invitation.expiresAt),
-							timeZone: timeZoneOr((organization as { timeZone?: unknown }).timeZone)
-						})
-					);
-				}
-			}),
-			...(deps.plugins ?? [])
-		]
+		// The organization plugin's endpoints check membership, not Flushline's permissions (any
+		// member could list the store's members and their e-mail addresses), and nothing in the
+		// browser needs them: the app calls them on the server (auth.api), behind its own guards.
+		disabledPaths: Object.values(stores.endpoints)
+			.map((e) => e.path)
+			.filter(Boolean),
+		plugins: [stores, ...(deps.plugins ?? [])]
 	});
 }
 

@@ -2,6 +2,7 @@ import { error } from '@sveltejs/kit';
 import { config } from './config';
 import { verifyLink } from './customer-link';
 import * as jobs from './db/queries/jobs';
+import { WHOLE_STORE } from './db/queries/access';
 import { readStore } from './db/queries/stores';
 
 /**
@@ -21,7 +22,7 @@ export async function resolveLink(token: string) {
 	}
 	const [store, job] = await Promise.all([
 		readStore(link.storeId),
-		jobs.read(link.storeId, link.jobId, { userId: '', role: 'owner' })
+		jobs.read(link.storeId, link.jobId, WHOLE_STORE)
 	]);
 	if (!store || !job)
 		error(

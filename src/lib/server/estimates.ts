@@ -9,7 +9,8 @@ import { estimate, forInstaller, type EstimateResult, type StoreSettings } from 
 import type { EstimatePreviewInput } from '$lib/schemas/preview';
 import { priceBookFor } from './db/queries/price-book';
 import { read as readSettings } from './db/queries/settings';
-import { can, type Role } from './permissions';
+import { sellEstimate, seesCosts, type SellEstimate } from './figures';
+import { can, type Grants } from './permissions';
 
 /** What an installer gets from a preview: the engine's installer view, with the errors. */
 export type InstallerPreview = ReturnType<typeof forInstaller> &
@@ -38,22 +39,23 @@ export async function runCalculator(
 
 /**
  * The whole estimate of a job, with the store's settings and price book where the body leaves
- * them out. Roles that may read the price book get the whole result; an installer gets the
- * installer view (quantities, prep, pay and schedule), never store prices or margins. A job
- * beyond the engine's limits is a 400 naming each field at fault.
+ * them out, as the member may see it (./figures): everything with `cost: read`; sell prices
+ * without pay or margin for the other price-book readers (salespeople); the installer view
+ * (quantities, prep, their pay and schedule) for the rest, never store prices or margins.
  */
 export async function previewEstimate(
 	storeId: string,
-	role: Role,
+	grants: Grants,
 	body: EstimatePreviewInput
-): Promise<EstimateResult | InstallerPreview> {
+): Promise<EstimateResult | SellEstimate | InstallerPreview> {
 	const stored = body.settings && body.priceBook ? undefined : await readSettings(storeId);
 	const settings = body.settings ?? stored!.settings;
 	const priceBook = body.priceBook ?? (await priceBookFor(storeId, stored!.currency));
 	const result = estimate({ job: body.job, settings, priceBook });
 	const beyond = result.errors.filter((e) => e.limit !== undefined);
 	if (beyond.length > 0) refuse(beyond.map(({ path, message }) => ({ path, message })));
-	if (can(role, { priceBook: ['read'] })) return result;
+	if (seesCosts(grants)) return result;
+	if (can(grants, { priceBook: ['read'] })) return sellEstimate(result);
 	return {
 		ok: result.ok,
 		errors: result.errors,

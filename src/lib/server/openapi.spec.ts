@@ -32,7 +32,8 @@ function refs(node: unknown, out: string[] = []): string[] {
 	return out;
 }
 
-describe('the OpenAPI document', () => {
+// ajv compiles a validator per calculator: past vitest's 5 s on a busy two-core machine.
+describe('the OpenAPI document', { timeout: 60_000 }, () => {
 	it('is OpenAPI 3.1 JSON, and every reference in it resolves', () => {
 		expect(JSON.parse(JSON.stringify(doc))).toEqual(doc);
 		expect(doc.openapi).toBe('3.1.0');
@@ -150,8 +151,14 @@ describe('the OpenAPI document', () => {
 				...forInstaller(result)
 			})
 		);
+		const { pay: _p, installerPayCents: _i, margin: _m, ...sell } = result;
 		expect(validator('EstimateResult')(result)).toBe(true);
+		expect(validator('SellEstimate')(sell)).toBe(true);
 		expect(validator('InstallerEstimate')(installer)).toBe(true);
+		// Each answer fits one shape only: sell prices never carry pay or margin.
+		expect(validator('SellEstimate')(result)).toBe(false);
+		expect(validator('EstimateResult')(sell)).toBe(false);
+		expect(validator('SellEstimate')({ ...sell, margin: result.margin })).toBe(false);
 		// An answer with prices is never an installer view.
 		expect(validator('InstallerEstimate')({ ...installer, lines: result.lines })).toBe(false);
 		expect(validator('EstimateResult')(installer)).toBe(false);

@@ -105,6 +105,28 @@ const object = (properties: Record<string, unknown>, required = Object.keys(prop
 	required
 });
 const list = (items: unknown) => ({ type: 'array', items });
+
+/** The engine's whole result, as the preview sends it to those who see costs. */
+const estimateProperties = {
+	ok: { type: 'boolean' },
+	errors: list(object({ path: text, roomId: text, message: text }, ['path', 'message'])),
+	rooms: list({ type: 'object' }),
+	findings: list({ type: 'object' }),
+	lines: { ...list({ type: 'object' }), description: 'Customer prices, integer cents' },
+	pay: { ...list({ type: 'object' }), description: 'Installer pay, integer cents' },
+	totals: { type: 'object' },
+	installerPayCents: integer,
+	margin: { type: 'object' },
+	schedule: { type: 'object' },
+	cautions: list(object({ kind: text, text, roomIds: list(text), lineIds: list(text) })),
+	warnings: list(object({ roomId: text, message: text }, ['message']))
+};
+const {
+	pay: _pay,
+	installerPayCents: _payTotal,
+	margin: _margin,
+	...sellProperties
+} = estimateProperties;
 const page = (row: string) =>
 	object({ rows: list(ref(row)), total: integer, page: integer, pageSize: integer });
 
@@ -213,22 +235,21 @@ function responseSchemas(): Record<string, Json> {
 				"A calculator's answer: its own figures (see each calculator's example) with the rule, its source and the cautions"
 		},
 		EstimateResult: {
-			...object({
-				ok: { type: 'boolean' },
-				errors: list(object({ path: text, roomId: text, message: text }, ['path', 'message'])),
-				rooms: list({ type: 'object' }),
-				findings: list({ type: 'object' }),
-				lines: { ...list({ type: 'object' }), description: 'Customer prices, integer cents' },
-				pay: { ...list({ type: 'object' }), description: 'Installer pay, integer cents' },
-				totals: { type: 'object' },
-				installerPayCents: integer,
-				margin: { type: 'object' },
-				schedule: { type: 'object' },
-				cautions: list(object({ kind: text, text, roomIds: list(text), lineIds: list(text) })),
-				warnings: list(object({ roomId: text, message: text }, ['message']))
-			}),
+			...object(estimateProperties),
 			description:
-				'The whole estimate (staff): takeoff by room, findings tied to lines, prices, pay, margin, schedule and cautions'
+				'The whole estimate (who sees costs): takeoff by room, findings tied to lines, prices, pay, margin, schedule and cautions'
+		},
+		SellEstimate: {
+			...object(sellProperties),
+			not: {
+				anyOf: [
+					{ required: ['pay'] },
+					{ required: ['installerPayCents'] },
+					{ required: ['margin'] }
+				]
+			},
+			description:
+				'The estimate at sell prices (salespeople, unless the store shows them costs): no installer pay, pay total or margin'
 		},
 		InstallerEstimate: {
 			...object({
@@ -468,14 +489,14 @@ export function openApiDocument(): Json {
 					tags: ['Estimates'],
 					summary: 'The whole estimate of a job, saved nowhere',
 					description:
-						"Settings and price book left out of the body are the store's own. Owners, managers and sales get the whole result; installers get the installer view (quantities, prep, their pay, schedule), never store prices or margins.",
+						"Settings and price book left out of the body are the store's own. Owners and managers get the whole result; salespeople get it at sell prices, without installer pay or margin, unless the store shows them costs; installers get the installer view (quantities, prep, their pay, schedule), never store prices or margins.",
 					requestBody: {
 						required: true,
 						...json(ref('EstimatePreviewInput'), { example: previewExample })
 					},
 					responses: {
 						'200': response('The estimate', {
-							oneOf: [ref('EstimateResult'), ref('InstallerEstimate')]
+							oneOf: [ref('EstimateResult'), ref('SellEstimate'), ref('InstallerEstimate')]
 						}),
 						...errors,
 						...unsupported

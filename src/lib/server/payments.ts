@@ -6,6 +6,7 @@ import { jobLabel } from '../jobs/status';
 import { config } from './config';
 import * as customers from './db/queries/customers';
 import * as jobs from './db/queries/jobs';
+import { WHOLE_STORE } from './db/queries/access';
 import {
 	afterSuccess,
 	lockForRefund,
@@ -548,7 +549,7 @@ async function announce(storeId: string, paid: Payment) {
 		const [store, profile, job, money] = await Promise.all([
 			readStore(storeId),
 			readProfile(storeId),
-			jobs.read(storeId, paid.jobId, { userId: '', role: 'owner' }),
+			jobs.read(storeId, paid.jobId, WHOLE_STORE),
 			inStore(storeId, (tx) => moneyIn(tx, storeId, paid.jobId))
 		]);
 		if (!store || !job) return;

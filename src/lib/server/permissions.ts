@@ -2,22 +2,33 @@ import { createAccessControl } from 'better-auth/plugins/access';
 import { defaultStatements } from 'better-auth/plugins/organization/access';
 
 /**
- * What can be done in a store. The first four keys are the organization plugin's own (it checks
- * them on its endpoints); the rest are Flushline's.
+ * What can be done in a store: the one vocabulary every guard, section, navigation entry and
+ * page-data rule reads. The first keys are the organization plugin's own (it checks them on its
+ * endpoints); the rest are Flushline's. A new feature adds its statement here, grants it to the
+ * roles below, and guards its loads, actions and endpoints with `requirePermission`.
  */
 export const statement = {
 	...defaultStatements,
 	store: ['read', 'update'],
 	customer: ['create', 'read', 'update', 'delete'],
+	/** Every job of the store (a store may narrow salespeople to their own: see object-access). */
 	job: ['create', 'read', 'update', 'delete', 'assign', 'schedule'],
-	/** An installer reads only the jobs assigned to them; checked in the job queries. */
+	/** Only the jobs assigned to the member. */
 	assignedJob: ['read', 'report'],
+	/** The price book's lines and their sell prices. */
 	priceBook: ['read', 'update'],
+	/** What the store pays: material costs, installer pay rates and totals, and margins. */
+	cost: ['read'],
+	/** What the card processor kept on each payment. */
+	cardFee: ['read'],
 	quote: ['create', 'read', 'send'],
 	payment: ['read', 'record', 'refund', 'reconcile'],
 	changeOrder: ['review', 'approve'],
 	report: ['read'],
-	installerPay: ['read']
+	/** An installer's own pay on the jobs assigned to them. */
+	installerPay: ['read'],
+	/** The trade calculators (no prices in them). */
+	calculator: ['use']
 } as const;
 
 export const ac = createAccessControl(statement);
@@ -27,11 +38,25 @@ const manager = ac.newRole({
 	customer: ['create', 'read', 'update', 'delete'],
 	job: ['create', 'read', 'update', 'delete', 'assign', 'schedule'],
 	priceBook: ['read', 'update'],
+	cost: ['read'],
+	cardFee: ['read'],
 	quote: ['create', 'read', 'send'],
 	payment: ['read', 'record', 'refund', 'reconcile'],
 	changeOrder: ['review', 'approve'],
 	report: ['read'],
 	installerPay: ['read'],
+	calculator: ['use'],
+	ac: ['read']
+});
+
+const sales = ac.newRole({
+	store: ['read'],
+	customer: ['create', 'read', 'update'],
+	job: ['create', 'read', 'update'],
+	priceBook: ['read'],
+	quote: ['create', 'read', 'send'],
+	payment: ['read'],
+	calculator: ['use'],
 	ac: ['read']
 });
 
@@ -45,22 +70,15 @@ export const roles = {
 		store: ['read', 'update'],
 		ac: ['create', 'read', 'update', 'delete']
 	}),
-	/** Price book, schedule, change orders, payments, installer statements, reports. */
+	/** Price book, schedule, change orders, payments and card fees, costs and margins, reports. */
 	manager,
-	/** Customers, site measures, quotes and deposits. */
-	sales: ac.newRole({
-		store: ['read'],
-		customer: ['create', 'read', 'update'],
-		job: ['create', 'read', 'update'],
-		priceBook: ['read'],
-		quote: ['create', 'read', 'send'],
-		payment: ['read'],
-		ac: ['read']
-	}),
-	/** Only the jobs assigned to them; installer pay, never store prices or margins. */
+	/** Customers, site measures, quotes and deposits, at sell prices; never card fees. */
+	sales,
+	/** Only the jobs assigned to them; their own pay, never store prices, costs or margins. */
 	installer: ac.newRole({
 		assignedJob: ['read', 'report'],
 		installerPay: ['read'],
+		calculator: ['use'],
 		ac: ['read']
 	})
 };
@@ -76,13 +94,61 @@ export const ROLE_LABELS: Record<Role, string> = {
 };
 
 export function isRole(value: unknown): value is Role {
-	return typeof value === 'string' && value in roles;
+	return typeof value === 'string' && Object.hasOwn(roles, value);
 }
+
+/** Which jobs a store lets its salespeople work on. */
+export const SALES_JOB_SCOPES = ['all', 'own'] as const;
+export type SalesJobScope = (typeof SALES_JOB_SCOPES)[number];
+
+/** What an owner chose for their store about who sees what (store settings, "Who sees what"). */
+export interface StoreAccess {
+	/** Salespeople also see costs, installer pay and margins (never card fees). */
+	salesSeeCosts: boolean;
+	/** `own`: salespeople see and work only the jobs they sell. */
+	salesJobs: SalesJobScope;
+}
+
+/** A new store's choices: salespeople at sell prices, on every job. */
+export const DEFAULT_STORE_ACCESS: StoreAccess = Object.freeze({
+	salesSeeCosts: false,
+	salesJobs: 'all'
+});
 
 type Statement = typeof statement;
 export type Permission = { [K in keyof Statement]?: Statement[K][number][] };
 
-/** Whether a role grants every action listed. */
-export function can(role: Role, permission: Permission): boolean {
-	return roles[role].authorize(permission as never).success;
+type AcRole = (typeof roles)[Role];
+
+/**
+ * The permissions one member holds in one store: their role's statements, widened by what the
+ * store's owner turned on. Built on the server (hooks) and never sent to the browser.
+ */
+export interface Grants {
+	readonly role: Role;
+	readonly access: StoreAccess;
+	readonly statements: AcRole;
+}
+
+/** A salesperson in a store that shows them costs: the sales role plus `cost: read`. */
+const salesSeeingCosts = ac.newRole({ ...sales.statements, cost: ['read'] });
+
+/** The grants of a role in a store with these choices. */
+export function grantsOf(role: Role, access: StoreAccess = DEFAULT_STORE_ACCESS): Grants {
+	const statements = role === 'sales' && access.salesSeeCosts ? salesSeeingCosts : roles[role];
+	return Object.freeze({ role, access, statements });
+}
+
+/**
+ * Whether every action listed is granted. A bare role is asked with the store defaults (for
+ * sections and their messages); a member is asked with their grants.
+ */
+export function can(who: Role | Grants, permission: Permission): boolean {
+	const grants = typeof who === 'string' ? grantsOf(who) : who;
+	return grants.statements.authorize(permission as never).success;
+}
+
+/** The roles whose (default) grants include the permission, in the order of `ROLES`. */
+export function rolesThatCan(permission: Permission): Role[] {
+	return ROLES.filter((r) => can(r, permission));
 }

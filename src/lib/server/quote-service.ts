@@ -2,6 +2,7 @@ import { config } from './config';
 import { signLink } from './customer-link';
 import * as customers from './db/queries/customers';
 import * as jobs from './db/queries/jobs';
+import { WHOLE_STORE } from './db/queries/access';
 import * as quotes from './db/queries/quotes';
 import * as tradeSettings from './db/queries/settings';
 import * as sites from './db/queries/sites';
@@ -32,7 +33,7 @@ type Store = { id: string; name: string; timeZone: string };
 /** E-mails a sent quote to the customer, from the store, with a fresh link. */
 export async function mailQuote(store: Store, quote: quotes.Quote, to: string) {
 	const [job, profile] = await Promise.all([
-		jobs.read(store.id, quote.jobId, { userId: '', role: 'owner' }),
+		jobs.read(store.id, quote.jobId, WHOLE_STORE),
 		readProfile(store.id)
 	]);
 	if (!job) throw new Error('quote without its job');
@@ -56,7 +57,7 @@ export async function mailQuote(store: Store, quote: quotes.Quote, to: string) {
 /** The quote's PDF with the store's details (and logo, when it has one). */
 export async function pdfOf(store: Store, quote: quotes.Quote) {
 	const [job, profile, trade] = await Promise.all([
-		jobs.read(store.id, quote.jobId, { userId: '', role: 'owner' }),
+		jobs.read(store.id, quote.jobId, WHOLE_STORE),
 		readProfile(store.id),
 		tradeSettings.read(store.id)
 	]);

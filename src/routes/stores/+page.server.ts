@@ -22,7 +22,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 	]);
 	return {
 		activeStoreId: locals.store?.id ?? null,
-		memberships: memberships.map((m) => ({ ...m, roleLabel: ROLE_LABELS[m.role] })),
+		memberships: memberships.map((m) => ({ store: m.store, roleLabel: ROLE_LABELS[m.role] })),
 		invitations: invitations.map((i) => ({
 			...i,
 			roleLabel: isRole(i.role) ? ROLE_LABELS[i.role] : (i.role ?? '')

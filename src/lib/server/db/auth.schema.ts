@@ -82,6 +82,8 @@ export const organization = pgTable("organization", {
   createdAt: timestamp("created_at").notNull(),
   metadata: text("metadata"),
   timeZone: text("time_zone").default("UTC"),
+  salesSeeCosts: boolean("sales_see_costs").default(false).notNull(),
+  salesJobs: text("sales_jobs").default("all").notNull(),
 });
 
 export const member = pgTable(

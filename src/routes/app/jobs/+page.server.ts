@@ -4,14 +4,14 @@ import { jobListSchema } from '$lib/schemas/job';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
-	const { store, user, role } = requirePermission({ job: ['read'] });
+	const { store, user, scope } = requirePermission({ job: ['read'] });
 	const parsed = jobListSchema.safeParse(Object.fromEntries(url.searchParams));
 	const query = parsed.success ? parsed.data : jobListSchema.parse({});
 	const mine = url.searchParams.get('mine') === '1';
 	const { rows, total } = await list(
 		store.id,
 		{ ...query, salespersonId: mine ? user.id : undefined },
-		{ userId: user.id, role }
+		scope
 	);
 	return { rows, total, query, mine };
 };

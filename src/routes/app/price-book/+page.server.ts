@@ -1,5 +1,7 @@
 import * as priceBook from '$lib/server/db/queries/price-book';
-import { requireRole } from '$lib/server/guards';
+import { seesCosts, visiblePriceItem } from '$lib/server/figures';
+import { requirePermission } from '$lib/server/guards';
+import { can } from '$lib/server/permissions';
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
@@ -7,9 +9,15 @@ import { currencyOf } from './lines.server';
 import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ url }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store, grants } = requirePermission({ priceBook: ['read'] });
 	const [items, currency] = await Promise.all([priceBook.list(store.id), currencyOf(store.id)]);
-	return { items, currency, added: url.searchParams.get('added') };
+	return {
+		items: items.map((i) => visiblePriceItem(grants, i)),
+		currency,
+		added: url.searchParams.get('added'),
+		canEdit: can(grants, { priceBook: ['update'] }),
+		canSeeCosts: seesCosts(grants)
+	};
 };
 
 const lineId = z.object({ id: z.string().trim().min(1).max(64) });
@@ -17,7 +25,7 @@ const lineId = z.object({ id: z.string().trim().min(1).max(64) });
 export const actions: Actions = {
 	/** Deactivates or reactivates a line: an inactive line is kept but not used in new quotes. */
 	toggle: async ({ request }) => {
-		const { store } = requireRole('owner', 'manager');
+		const { store } = requirePermission({ priceBook: ['update'] });
 		const parsed = lineId.safeParse(formFields(await request.formData()));
 		if (!parsed.success) return fail(400, { message: 'Choose a line' });
 		const current = await priceBook.read(store.id, parsed.data.id);

@@ -3,20 +3,22 @@ import { authFailure } from '$lib/server/auth-errors';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { readProfile, saveProfile, saveTimeZone } from '$lib/server/db/queries/stores';
 import { fieldErrors, parseForm, refuse, typedValues } from '$lib/server/forms';
-import { requireRole } from '$lib/server/guards';
+import { requirePermission } from '$lib/server/guards';
 import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
 import { storeProfileSchema } from '$lib/schemas/store';
+import { saveStoreAccess } from '$lib/server/db/queries/access';
 import {
 	applyTradeSettings,
+	storeAccessFormSchema,
 	tradeSettingsFormSchema,
 	tradeSettingsToForm
 } from '$lib/schemas/store-settings';
-import { currencySymbol, readFields } from '$lib/input';
+import { currencySymbol, formFields, readFields } from '$lib/input';
 import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	const { store } = requireRole('owner');
+	const { store, grants } = requirePermission({ store: ['update'] });
 	const [profile, trade] = await Promise.all([readProfile(store.id), tradeSettings.read(store.id)]);
 	const schedules = Object.entries(trade.settings.underlayment.schedules).map(([key, s]) => ({
 		key,
@@ -29,6 +31,7 @@ export const load: PageServerLoad = async () => {
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
 		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays, trade.currency),
 		currencySymbol: currencySymbol(trade.currency),
+		access: grants.access,
 		schedules
 	};
 };
@@ -41,7 +44,7 @@ function refuseTrade(form: FormData, errors: Record<string, string[]>) {
 export const actions: Actions = {
 	/** The store's own Stripe account, where its card payments, refunds and payouts live. */
 	stripe: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ store: ['update'] });
 		const form = await request.formData();
 		const account = String(form.get('account') ?? '').trim();
 		if (account && !/^acct_[A-Za-z0-9]{6,}$/.test(account)) {
@@ -62,7 +65,7 @@ export const actions: Actions = {
 		return { stripeSaved: true };
 	},
 	profile: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ store: ['update'] });
 		const parsed = await parseForm(request, storeProfileSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { name, timeZone, ...profile } = parsed.data;
@@ -82,7 +85,7 @@ export const actions: Actions = {
 	},
 	/** Taxes, deposit, quote validity, units, waste, fastening schedule, crew output; the rest is kept. */
 	trade: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ store: ['update'] });
 		const form = await request.formData();
 		const current = await tradeSettings.read(store.id);
 		const fields = readFields(form);
@@ -102,8 +105,16 @@ export const actions: Actions = {
 		});
 		return { tradeSaved: true };
 	},
+	/** Who sees what: salespeople and costs, salespeople and other people's jobs. */
+	access: async ({ request }) => {
+		const { store } = requirePermission({ store: ['update'] });
+		const parsed = storeAccessFormSchema.safeParse(formFields(await request.formData()));
+		if (!parsed.success) return fail(400, { accessErrors: fieldErrors(parsed.error) });
+		await saveStoreAccess(store.id, parsed.data);
+		return { accessSaved: true };
+	},
 	logo: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ store: ['update'] });
 		const file = (await request.formData()).get('logo');
 		if (!(file instanceof File) || file.size === 0) {
 			return fail(400, { logoError: 'Choose a PNG or JPEG file' });
@@ -116,7 +127,7 @@ export const actions: Actions = {
 		return { logoSaved: true };
 	},
 	removeLogo: async () => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ store: ['update'] });
 		await removeLogo(store.id);
 		return { logoRemoved: true };
 	}

@@ -2,14 +2,14 @@ import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
 import { listInvitations, listMembers } from '$lib/server/db/queries/stores';
 import { parseForm, refuse } from '$lib/server/forms';
-import { requireRole } from '$lib/server/guards';
+import { requirePermission } from '$lib/server/guards';
 import { isRole, ROLE_LABELS, ROLES } from '$lib/server/permissions';
 import { inviteSchema, memberRoleSchema } from '$lib/schemas/store';
 import { error, fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	const { store, user } = requireRole('owner');
+	const { store, user } = requirePermission({ member: ['update'] });
 	const [members, invitations] = await Promise.all([
 		listMembers(store.id),
 		listInvitations(store.id)
@@ -38,7 +38,7 @@ async function ownMember(storeId: string, memberId: string) {
 
 export const actions: Actions = {
 	invite: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ invitation: ['create'] });
 		const parsed = await parseForm(request, inviteSchema);
 		if (!parsed.ok) return parsed.failure;
 		try {
@@ -53,7 +53,7 @@ export const actions: Actions = {
 		return { invited: parsed.data.email };
 	},
 	cancel: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ invitation: ['cancel'] });
 		const id = String((await request.formData()).get('invitationId') ?? '');
 		const open = await listInvitations(store.id);
 		if (!open.some((i) => i.id === id)) error(404, 'Not found');
@@ -61,7 +61,7 @@ export const actions: Actions = {
 		return { cancelled: true };
 	},
 	role: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ member: ['update'] });
 		const parsed = await parseForm(request, memberRoleSchema);
 		if (!parsed.ok) return fail(400, { memberError: 'Choose a role' });
 		await ownMember(store.id, parsed.data.memberId);
@@ -76,7 +76,7 @@ export const actions: Actions = {
 		return { roleSaved: true };
 	},
 	remove: async ({ request }) => {
-		const { store } = requireRole('owner');
+		const { store } = requirePermission({ member: ['delete'] });
 		const memberId = String((await request.formData()).get('memberId') ?? '');
 		await ownMember(store.id, memberId);
 		try {

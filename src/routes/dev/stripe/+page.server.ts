@@ -54,8 +54,8 @@ export const load: PageServerLoad = async ({ url }) => {
 };
 
 const eventOf = async (request: Request) => {
-	const id = String((await request.formData()).get('event') ?? '');
 	const fake = requireStripeFake();
+	const id = String((await request.formData()).get('event') ?? '');
 	if (!fake.events().some((e) => e.id === id)) return { fake, id: null };
 	return { fake, id };
 };

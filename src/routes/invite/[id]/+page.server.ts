@@ -16,23 +16,34 @@ function stateOf(invite: { status: string; expiresAt: Date }): InvitationState {
 	return 'cancelled';
 }
 
+/**
+ * Anyone with the link sees which store it is for, and nothing more: who invited, the role, the
+ * address it went to and its state are shown only to the invitee, signed in with that address.
+ */
 export const load: PageServerLoad = async ({ params, locals }) => {
 	const invite = await readInvitation(params.id);
 	if (!invite) error(404, 'This invitation does not exist. Check the link in your e-mail.');
+	const signedInAs = locals.user?.email ?? null;
+	if (signedInAs?.toLowerCase() !== invite.email.toLowerCase()) {
+		return {
+			invite: { id: invite.id, storeName: invite.storeName },
+			signedInAs,
+			isRecipient: false as const
+		};
+	}
 	return {
 		invite: {
 			id: invite.id,
 			storeName: invite.storeName,
 			inviterName: invite.inviterName,
 			roleLabel: isRole(invite.role) ? ROLE_LABELS[invite.role] : (invite.role ?? ''),
-			// The address is shown only to its owner once signed in, or as the sign-up default.
 			email: invite.email,
 			expiresAt: invite.expiresAt.toISOString(),
 			timeZone: timeZoneOr(invite.storeTimeZone),
 			state: stateOf(invite)
 		},
-		signedInAs: locals.user?.email ?? null,
-		isRecipient: locals.user?.email.toLowerCase() === invite.email.toLowerCase()
+		signedInAs,
+		isRecipient: true as const
 	};
 };
 

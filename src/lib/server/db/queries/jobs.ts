@@ -1,26 +1,25 @@
-import { and, asc, count, desc, eq, ilike, max, ne, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, max, ne, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { canMove, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
-import type { Role } from '../../permissions';
+import { rolesThatCan } from '../../permissions';
 import { customer, job, jobEvent, member, quote, user } from '../schema';
 import { inStore, type Tx } from '../tenant';
+import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
 
 export type Job = typeof job.$inferSelect;
 
-/** Who is looking: installers see only the jobs assigned to them. */
-export interface JobViewer {
-	userId: string;
-	role: Role;
-}
+/** Which of the store's jobs the reader sees: a member's `scope`, or `WHOLE_STORE`. */
+export type JobViewer = JobScope;
 
 const installer = alias(user, 'installer');
 const salesperson = alias(user, 'salesperson');
 
-function viewerFilter(viewer: JobViewer): SQL | undefined {
-	return viewer.role === 'installer' ? eq(job.installerId, viewer.userId) : undefined;
-}
+const viewerFilter = jobScopeFilter;
+
+/** The roles a job can be assigned to: those who work assigned jobs. */
+const assignable = () => inArray(member.role, rolesThatCan({ assignedJob: ['report'] }));
 
 const jobColumns = {
 	id: job.id,
@@ -250,7 +249,7 @@ export async function listInstallers(storeId: string) {
 			.select({ id: user.id, name: user.name, email: user.email })
 			.from(member)
 			.innerJoin(user, eq(user.id, member.userId))
-			.where(and(eq(member.organizationId, storeId), eq(member.role, 'installer')))
+			.where(and(eq(member.organizationId, storeId), assignable()))
 			.orderBy(asc(user.name))
 	);
 }
@@ -270,11 +269,7 @@ export async function assign(
 				.select({ id: member.id })
 				.from(member)
 				.where(
-					and(
-						eq(member.organizationId, storeId),
-						eq(member.userId, installerId),
-						eq(member.role, 'installer')
-					)
+					and(eq(member.organizationId, storeId), eq(member.userId, installerId), assignable())
 				);
 			if (!m) return 'not_an_installer';
 		}

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, isNotNull, type SQL } from 'drizzle-orm';
-import { isRole, type Role } from '../../permissions';
+import { isRole, SALES_JOB_SCOPES, type Role, type StoreAccess } from '../../permissions';
 import { timeZoneOr } from '../../../time-zone';
 import { db } from '../index';
 import { invitation, member, organization, session, storeProfile, user } from '../schema';
@@ -9,6 +9,8 @@ export interface Membership {
 	memberId: string;
 	role: Role;
 	store: { id: string; name: string; slug: string; logo: string | null; timeZone: string };
+	/** The owner's choices about who sees what. */
+	access: StoreAccess;
 }
 
 const membershipColumns = {
@@ -18,7 +20,9 @@ const membershipColumns = {
 	name: organization.name,
 	slug: organization.slug,
 	logo: organization.logo,
-	timeZone: organization.timeZone
+	timeZone: organization.timeZone,
+	salesSeeCosts: organization.salesSeeCosts,
+	salesJobs: organization.salesJobs
 };
 
 function toMembership(row: {
@@ -29,8 +33,13 @@ function toMembership(row: {
 	slug: string;
 	logo: string | null;
 	timeZone: string | null;
+	salesSeeCosts: boolean;
+	salesJobs: string;
 }): Membership | null {
 	if (!isRole(row.role)) return null;
+	const salesJobs = SALES_JOB_SCOPES.find((s) => s === row.salesJobs);
+	// The database refuses any other value (organization_sales_jobs_check): never guess one.
+	if (!salesJobs) throw new Error(`Store ${row.id} has an unknown sales job scope`);
 	return {
 		memberId: row.memberId,
 		role: row.role,
@@ -40,7 +49,8 @@ function toMembership(row: {
 			slug: row.slug,
 			logo: row.logo,
 			timeZone: timeZoneOr(row.timeZone)
-		}
+		},
+		access: { salesSeeCosts: row.salesSeeCosts, salesJobs }
 	};
 }
 

@@ -1,6 +1,7 @@
 import { endpoint, readJson, readQuery } from '$lib/server/api';
 import * as priceBook from '$lib/server/db/queries/price-book';
-import { requireRole } from '$lib/server/guards';
+import { visiblePriceItem } from '$lib/server/figures';
+import { requirePermission } from '$lib/server/guards';
 import { priceItemCreateSchema, PRICE_SECTIONS } from '$lib/schemas/price-book';
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
@@ -9,16 +10,17 @@ import { priceItemRefusal } from './refusal.server';
 
 const listQuery = z.object({ section: z.enum(PRICE_SECTIONS).optional() });
 
-/** The price book's lines (store prices and costs: owners and managers only). */
+/** The price book's lines: sell prices to every reader, costs and pay to those who see costs. */
 export const GET: RequestHandler = endpoint(async ({ url }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store, grants } = requirePermission({ priceBook: ['read'] });
 	const { section } = readQuery(url, listQuery);
-	return json({ rows: await priceBook.list(store.id, section) });
+	const rows = await priceBook.list(store.id, section);
+	return json({ rows: rows.map((r) => visiblePriceItem(grants, r)) });
 });
 
 /** A line in the engine's shape for its section: 400 naming each bad field, 409 for a second line of a kind. */
 export const POST: RequestHandler = endpoint(async ({ request }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store } = requirePermission({ priceBook: ['update'] });
 	const input = await readJson(request, priceItemCreateSchema);
 	try {
 		return json(await priceBook.create(store.id, input), { status: 201 });

@@ -13,21 +13,21 @@ import type { Actions, PageServerLoad } from './$types';
 import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const { store, user, role } = requirePermission({ customer: ['read'] });
+	const { store, grants, scope } = requirePermission({ customer: ['read'] });
 	const row = await customers.read(store.id, params.id);
 	if (!row) error(404, 'Not found');
 	const { rows: customerJobs } = await jobs.list(
 		store.id,
 		{ customerId: row.id, sort: 'number', dir: 'desc', page: 1, pageSize: 100, q: null },
-		{ userId: user.id, role }
+		scope
 	);
 	return {
 		customer: row,
 		jobs: customerJobs,
 		sites: await sites.listWithJobCounts(store.id, row.id),
-		canEditSites: can(role, { customer: ['update'] }),
-		canEdit: can(role, { customer: ['update'] }),
-		canDelete: can(role, { customer: ['delete'] })
+		canEditSites: can(grants, { customer: ['update'] }),
+		canEdit: can(grants, { customer: ['update'] }),
+		canDelete: can(grants, { customer: ['delete'] })
 	};
 };
 

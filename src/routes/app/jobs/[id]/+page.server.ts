@@ -3,7 +3,9 @@ import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
 import { parseForm } from '$lib/server/forms';
 import { measureSummary } from '$lib/server/measure-summary';
+import { visibleLedger } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
 import { nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
@@ -12,16 +14,16 @@ import type { Actions, PageServerLoad } from './$types';
 import { loadJobSite, siteAction } from './site.server';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const { store, user, role } = requirePermission({ job: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, grants, scope } = requirePermission({ job: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
-	const canSchedule = can(role, { job: ['schedule'] });
-	const canAssign = can(role, { job: ['assign'] });
+	const canSchedule = can(grants, { job: ['schedule'] });
+	const canAssign = can(grants, { job: ['assign'] });
 	const [history, installers, quoteVersions, money] = await Promise.all([
 		jobs.events(store.id, job.id),
 		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([]),
-		can(role, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([]),
-		can(role, { payment: ['read'] }) ? payments.moneyFor(store.id, job.id) : Promise.resolve(null)
+		can(grants, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([]),
+		can(grants, { payment: ['read'] }) ? payments.moneyFor(store.id, job.id) : Promise.resolve(null)
 	]);
 	const measure = await measureSummary(store.id, job.id);
 	return {
@@ -31,23 +33,25 @@ export const load: PageServerLoad = async ({ params }) => {
 		latestQuote: quoteVersions[0] ?? null,
 		money: money && {
 			currency: money.currency,
-			ledger: money.ledger,
+			ledger: visibleLedger(grants, money.ledger),
 			count: money.payments.length
 		},
 		moves: canSchedule ? nextStatuses(job.status) : [],
 		canAssign,
-		site: await loadJobSite(store.id, job, role),
+		site: await loadJobSite(store.id, job, grants),
 		measure,
-		canEdit: can(role, { job: ['update'] }),
+		canEdit: can(grants, { job: ['update'] }),
 		canDelete:
-			can(role, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')
+			can(grants, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')
 	};
 };
 
 export const actions: Actions = {
 	site: siteAction,
 	save: async ({ request, params }) => {
-		const { store } = requirePermission({ job: ['update'] });
+		const member = requirePermission({ job: ['update'] });
+		await requireJob(member, params.id);
+		const { store } = member;
 		const parsed = await parseForm(request, jobUpdateSchema);
 		if (!parsed.ok) return parsed.failure;
 		const row = await jobs.update(store.id, params.id, parsed.data);
@@ -55,7 +59,9 @@ export const actions: Actions = {
 		return { saved: true };
 	},
 	move: async ({ request, params }) => {
-		const { store, user } = requirePermission({ job: ['schedule'] });
+		const member = requirePermission({ job: ['schedule'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const parsed = await parseForm(request, jobMoveSchema);
 		if (!parsed.ok) return parsed.failure;
 		const result = await jobs.move(store.id, params.id, parsed.data.to, user.id, parsed.data.note);
@@ -68,7 +74,9 @@ export const actions: Actions = {
 		return { moved: true };
 	},
 	assign: async ({ request, params }) => {
-		const { store, user } = requirePermission({ job: ['assign'] });
+		const member = requirePermission({ job: ['assign'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const parsed = await parseForm(request, jobAssignSchema);
 		if (!parsed.ok) return parsed.failure;
 		const result = await jobs.assign(store.id, params.id, parsed.data.installerId, user.id);
@@ -79,7 +87,9 @@ export const actions: Actions = {
 		return { assigned: true };
 	},
 	delete: async ({ params }) => {
-		const { store } = requirePermission({ job: ['delete'] });
+		const member = requirePermission({ job: ['delete'] });
+		await requireJob(member, params.id);
+		const { store } = member;
 		const result = await jobs.remove(store.id, params.id);
 		if (result === 'not_found') error(404, 'Not found');
 		if (result === 'not_draft') {

@@ -2,7 +2,7 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as sites from '$lib/server/db/queries/sites';
 import { requirePermission } from '$lib/server/guards';
-import { can, type Role } from '$lib/server/permissions';
+import { can, type Grants } from '$lib/server/permissions';
 import { jobSiteSchema } from '$lib/schemas/site';
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
 import { formFields } from '$lib/input';
@@ -11,19 +11,19 @@ import { formFields } from '$lib/input';
 export async function loadJobSite(
 	storeId: string,
 	job: { id: string; customerId: string },
-	role: Role
+	grants: Grants
 ) {
 	const [current, choices] = await Promise.all([
 		sites.forJob(storeId, job.id),
 		sites.listForCustomer(storeId, job.customerId)
 	]);
-	return { current: current ?? null, choices, canChange: can(role, { job: ['update'] }) };
+	return { current: current ?? null, choices, canChange: can(grants, { job: ['update'] }) };
 }
 
 /** `?/site`: puts the job at one of its customer's sites, or none. */
 export async function siteAction({ request, params }: RequestEvent<{ id: string }>) {
-	const { store, user, role } = requirePermission({ job: ['update'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, scope } = requirePermission({ job: ['update'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	const parsed = jobSiteSchema.safeParse(formFields(await request.formData()));
 	if (!parsed.success) return fail(400, { siteError: 'Choose a site' });

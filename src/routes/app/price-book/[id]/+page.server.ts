@@ -1,11 +1,11 @@
 import * as priceBook from '$lib/server/db/queries/price-book';
-import { requireRole } from '$lib/server/guards';
+import { requirePermission } from '$lib/server/guards';
 import { error, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { currencyOf, formValues, saveLine } from '../lines.server';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store } = requirePermission({ priceBook: ['update'] });
 	const item = await priceBook.read(store.id, params.id);
 	if (!item) error(404, 'Not found');
 	const supplies = await priceBook.list(store.id, 'supply');
@@ -20,13 +20,13 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	save: async ({ request, params }) => {
-		const { store } = requireRole('owner', 'manager');
+		const { store } = requirePermission({ priceBook: ['update'] });
 		const item = await priceBook.read(store.id, params.id);
 		if (!item) error(404, 'Not found');
 		return saveLine(store.id, item.section, request, item);
 	},
 	toggle: async ({ params }) => {
-		const { store } = requireRole('owner', 'manager');
+		const { store } = requirePermission({ priceBook: ['update'] });
 		const item = await priceBook.read(store.id, params.id);
 		if (!item) error(404, 'Not found');
 		await priceBook.update(store.id, item.id, { active: !item.active });
@@ -34,7 +34,7 @@ export const actions: Actions = {
 	},
 	/** Removes the line; quotes already built keep their own copy of its prices. */
 	delete: async ({ params }) => {
-		const { store } = requireRole('owner', 'manager');
+		const { store } = requirePermission({ priceBook: ['update'] });
 		const item = await priceBook.read(store.id, params.id);
 		if (!item) error(404, 'Not found');
 		await priceBook.remove(store.id, item.id);

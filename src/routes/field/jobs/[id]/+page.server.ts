@@ -4,17 +4,17 @@ import { error, fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
-	const { store, user, role } = requirePermission({ assignedJob: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, scope } = requirePermission({ assignedJob: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	return { job };
 };
 
 export const actions: Actions = {
 	start: async ({ params }) => {
-		const { store, user, role } = requirePermission({ assignedJob: ['report'] });
+		const { store, user, scope } = requirePermission({ assignedJob: ['report'] });
 		// Only a job assigned to this installer, in this store.
-		const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+		const job = await jobs.read(store.id, params.id, scope);
 		if (!job) error(404, 'Not found');
 		const result = await jobs.move(store.id, job.id, 'in_progress', user.id, 'Started on site');
 		if (!result.ok) return fail(409, { message: 'This job is not booked to start yet.' });

@@ -5,9 +5,9 @@ import { requireMember } from '$lib/server/guards';
 import { json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 
-/** The whole estimate of a job; nothing is saved. Installers get the installer view. */
+/** The whole estimate of a job; nothing is saved. Each member gets what they may see. */
 export const POST: RequestHandler = endpoint(async ({ request }) => {
-	const { store, role } = requireMember();
+	const { store, grants } = requireMember();
 	const input = await readJson(request, estimatePreviewSchema);
-	return json(await previewEstimate(store.id, role, input));
+	return json(await previewEstimate(store.id, grants, input));
 });

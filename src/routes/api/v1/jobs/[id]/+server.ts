@@ -1,23 +1,22 @@
 import { endpoint, readJson } from '$lib/server/api';
 import { read, remove, update } from '$lib/server/db/queries/jobs';
-import { requireMember, requirePermission } from '$lib/server/guards';
-import { can } from '$lib/server/permissions';
+import { requirePermission } from '$lib/server/guards';
+import { requireJob } from '$lib/server/object-access';
 import { jobUpdateSchema } from '$lib/schemas/job';
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async ({ params }) => {
-	const { store, user, role } = requireMember();
-	if (!can(role, { job: ['read'] }) && !can(role, { assignedJob: ['read'] })) {
-		error(403, 'Your role in this store does not allow this');
-	}
-	const row = await read(store.id, params.id, { userId: user.id, role });
+	const { store, scope } = requirePermission({ job: ['read'] }, { assignedJob: ['read'] });
+	const row = await read(store.id, params.id, scope);
 	if (!row) error(404, 'Not found');
 	return json(row);
 });
 
 export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
-	const { store } = requirePermission({ job: ['update'] });
+	const member = requirePermission({ job: ['update'] });
+	await requireJob(member, params.id);
+	const { store } = member;
 	const input = await readJson(request, jobUpdateSchema);
 	const row = await update(store.id, params.id, input);
 	if (!row) error(404, 'Not found');
@@ -25,7 +24,9 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 });
 
 export const DELETE: RequestHandler = endpoint(async ({ params }) => {
-	const { store } = requirePermission({ job: ['delete'] });
+	const member = requirePermission({ job: ['delete'] });
+	await requireJob(member, params.id);
+	const { store } = member;
 	const result = await remove(store.id, params.id);
 	if (result === 'not_found') error(404, 'Not found');
 	if (result === 'not_draft') error(409, 'Only draft or cancelled jobs can be deleted');

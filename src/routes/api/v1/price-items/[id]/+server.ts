@@ -1,21 +1,22 @@
 import { endpoint, readJson } from '$lib/server/api';
 import * as priceBook from '$lib/server/db/queries/price-book';
-import { requireRole } from '$lib/server/guards';
+import { visiblePriceItem } from '$lib/server/figures';
+import { requirePermission } from '$lib/server/guards';
 import { priceItemPatchSchema } from '$lib/schemas/price-book';
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 import { priceItemRefusal } from '../refusal.server';
 
 export const GET: RequestHandler = endpoint(async ({ params }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store, grants } = requirePermission({ priceBook: ['read'] });
 	const row = await priceBook.read(store.id, params.id);
 	if (!row) error(404, 'Not found');
-	return json(row);
+	return json(visiblePriceItem(grants, row));
 });
 
 /** Changes the name, the active flag or the whole data of a line; sent quotes keep their copy. */
 export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store } = requirePermission({ priceBook: ['update'] });
 	const input = await readJson(request, priceItemPatchSchema);
 	let row;
 	try {
@@ -28,7 +29,7 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 });
 
 export const DELETE: RequestHandler = endpoint(async ({ params }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store } = requirePermission({ priceBook: ['update'] });
 	if (!(await priceBook.remove(store.id, params.id))) error(404, 'Not found');
 	return new Response(null, { status: 204 });
 });

@@ -3,8 +3,10 @@ import * as measures from '$lib/server/db/queries/measures';
 import * as priceBook from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
+import { visiblePriceBook } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { readJsonText, readNumber } from '$lib/input';
+import { requireJob } from '$lib/server/object-access';
 import { emptyMeasure, measureDraftSchema, type MeasureDraft } from '$lib/measure/draft';
 import { sameDraft } from '$lib/measure/local';
 import { mergeMeasures, type Side } from '$lib/measure/merge';
@@ -13,8 +15,8 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	const { store, user, role } = requirePermission({ job: ['update'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, user, grants, scope } = requirePermission({ job: ['update'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	const [stored, trade, items, site] = await Promise.all([
 		measures.read(store.id, job.id),
@@ -33,7 +35,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			updatedByName: null
 		},
 		settings: trade.settings,
-		priceBook: book,
+		priceBook: visiblePriceBook(grants, book),
 		floors: book.floors.map((f) => ({ id: f.id, name: f.name, kind: f.kind })),
 		site: site ? { label: site.label, address: site.address, builtYear: site.builtYear } : null,
 		room: url.searchParams.get('room'),
@@ -90,7 +92,9 @@ export const actions: Actions = {
 	 * The result is saved on top of the version the form was drawn from, or refused with both.
 	 */
 	save: async ({ request, params, url }) => {
-		const { store, user, role } = requirePermission({ job: ['update'] });
+		const member = requirePermission({ job: ['update'] });
+		await requireJob(member, params.id);
+		const { store, user, scope } = member;
 		const form = await request.formData();
 		const baseVersion = versionOf(form, 'baseVersion');
 		const drawn = formDraft(form, '_draft');
@@ -122,8 +126,7 @@ export const actions: Actions = {
 			: await measures.save(store.id, params.id, checked.data, baseVersion, user.id);
 		if (!saved.ok) {
 			if (saved.reason === 'conflict') return conflictOf(saved.current, draft, baseVersion, drawn);
-			if (!(await jobs.read(store.id, params.id, { userId: user.id, role })))
-				error(404, 'Not found');
+			if (!(await jobs.read(store.id, params.id, scope))) error(404, 'Not found');
 			return conflictOf(undefined, draft, baseVersion, drawn);
 		}
 		const query = new URLSearchParams();
@@ -134,7 +137,9 @@ export const actions: Actions = {
 
 	/** Settles a conflict without JavaScript: a side for each room, saved on top of theirs. */
 	resolve: async ({ request, params, url }) => {
-		const { store, user, role } = requirePermission({ job: ['update'] });
+		const member = requirePermission({ job: ['update'] });
+		await requireJob(member, params.id);
+		const { store, user, scope } = member;
 		const form = await request.formData();
 		const mine = formDraft(form, '_mine');
 		const theirVersion = versionOf(form, 'baseVersion');
@@ -143,8 +148,7 @@ export const actions: Actions = {
 			return fail(400, { message: 'The form was not sent whole: reload the page and try again.' });
 		}
 		const current = await measures.read(store.id, params.id);
-		if (!current && !(await jobs.read(store.id, params.id, { userId: user.id, role })))
-			error(404, 'Not found');
+		if (!current && !(await jobs.read(store.id, params.id, scope))) error(404, 'Not found');
 		const theirs = current ?? { draft: emptyMeasure(), version: 0 };
 		// Someone saved again while this one was choosing: choose again against the newest.
 		if (theirs.version !== theirVersion) return conflictOf(current, mine, mineVersion);

@@ -1,7 +1,9 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
+import { seesCardFees, visibleMoney } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob, requireObjects } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
 import { refundCard } from '$lib/server/payments';
 import { formFields, moneyField } from '$lib/input';
@@ -37,22 +39,24 @@ const refundSchema = (currency: string) =>
 	});
 
 export const load: PageServerLoad = async ({ params }) => {
-	const { store, user, role } = requirePermission({ payment: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, grants, scope } = requirePermission({ payment: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	const money = await payments.moneyFor(store.id, job.id);
 	return {
 		job,
-		money,
-		canRecord: can(role, { payment: ['record'] }),
-		canRefund: can(role, { payment: ['refund'] }),
-		showFees: can(role, { report: ['read'] })
+		money: visibleMoney(grants, money),
+		canRecord: can(grants, { payment: ['record'] }),
+		canRefund: can(grants, { payment: ['refund'] }),
+		showFees: seesCardFees(grants)
 	};
 };
 
 export const actions: Actions = {
 	record: async ({ request, params }) => {
-		const { store, user } = requirePermission({ payment: ['record'] });
+		const member = requirePermission({ payment: ['record'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const { currency } = await payments.moneyFor(store.id, params.id);
 		const parsed = await parseForm(request, recordSchema(currency));
 		if (!parsed.ok) return parsed.failure;
@@ -76,7 +80,9 @@ export const actions: Actions = {
 		return { recorded: true };
 	},
 	refund: async ({ request, params }) => {
-		const { store, user } = requirePermission({ payment: ['refund'] });
+		const member = requirePermission({ payment: ['refund'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const fields = formFields(await request.formData());
 		// Each payment has its own refund form: the answer says which one it is for.
 		const refundFor = fields.paymentId ?? '';
@@ -86,6 +92,7 @@ export const actions: Actions = {
 		const currency = money.payments.find((p) => p.id === refundFor)?.currency ?? money.currency;
 		const parsed = refundSchema(currency).safeParse(fields);
 		if (!parsed.success) return fail(400, { refundFor, values, errors: fieldErrors(parsed.error) });
+		await requireObjects(member, 'payment', [parsed.data.paymentId]);
 		const input = {
 			amountCents: parsed.data.amount,
 			reason: parsed.data.reason,

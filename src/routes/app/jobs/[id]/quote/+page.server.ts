@@ -5,7 +5,9 @@ import * as measures from '$lib/server/db/queries/measures';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { parseForm, refuse } from '$lib/server/forms';
+import { seesCosts } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob, requireObjects } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
 import { customerLink, mailQuote } from '$lib/server/quote-service';
 import { diffLines } from '$lib/quote-diff';
@@ -19,8 +21,8 @@ import { QUOTE_VERSION, readNumber } from '$lib/input';
 const sendSchema = z.object({ quoteId: z.string().min(1), to: email });
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	const { store, user, role } = requirePermission({ quote: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, grants, scope } = requirePermission({ quote: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	const [versions, measure, customer, trade] = await Promise.all([
 		quotes.list(store.id, job.id),
@@ -55,7 +57,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			view: quoteView(current.result, {
 				currency: current.currency,
 				metric,
-				storeFigures: can(role, { report: ['read'] })
+				storeFigures: seesCosts(grants)
 			})
 		},
 		changes: current && previous ? diffLines(previous.result.lines, current.result.lines) : [],
@@ -70,8 +72,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			current?.status === 'draft' && measure && measure.updatedAt > current.updatedAt
 		),
 		customerEmail: customer?.email ?? '',
-		canBuild: can(role, { quote: ['create'] }),
-		canSend: can(role, { quote: ['send'] }),
+		canBuild: can(grants, { quote: ['create'] }),
+		canSend: can(grants, { quote: ['send'] }),
 		jobOpen: job.status === 'draft' || job.status === 'quoted',
 		link: current && current.status !== 'draft' ? customerLink(store.id, job.id) : null
 	};
@@ -79,7 +81,9 @@ export const load: PageServerLoad = async ({ params, url }) => {
 
 export const actions: Actions = {
 	build: async ({ params }) => {
-		const { store, user } = requirePermission({ quote: ['create'] });
+		const member = requirePermission({ quote: ['create'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const built = await quotes.build(store.id, params.id, user.id);
 		if (!built.ok) {
 			if (built.reason === 'invalid') return fail(400, { buildErrors: built.errors });
@@ -95,9 +99,12 @@ export const actions: Actions = {
 		redirect(303, `/app/jobs/${params.id}/quote?v=${built.quote.version}`);
 	},
 	send: async ({ request, params }) => {
-		const { store, user } = requirePermission({ quote: ['send'] });
+		const member = requirePermission({ quote: ['send'] });
+		await requireJob(member, params.id);
+		const { store, user } = member;
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
+		await requireObjects(member, 'quote', [parsed.data.quoteId]);
 		const trade = await tradeSettings.read(store.id);
 		const sent = await quotes.send(store.id, parsed.data.quoteId, {
 			to: parsed.data.to,
@@ -126,7 +133,9 @@ export const actions: Actions = {
 		redirect(303, `/app/jobs/${params.id}/quote?v=${sent.quote.version}&sent=1`);
 	},
 	resend: async ({ request, params }) => {
-		const { store } = requirePermission({ quote: ['send'] });
+		const member = requirePermission({ quote: ['send'] });
+		await requireJob(member, params.id);
+		const { store } = member;
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
 		const quote = await quotes.read(store.id, parsed.data.quoteId);

@@ -1,5 +1,5 @@
 import * as priceBook from '$lib/server/db/queries/price-book';
-import { requireRole } from '$lib/server/guards';
+import { requirePermission } from '$lib/server/guards';
 import { EXISTING_FLOOR_KINDS, PREP_KINDS, SUPPLY_KINDS } from '$lib/estimating';
 import { isSection } from '$lib/schemas/price-book';
 import { error } from '@sveltejs/kit';
@@ -7,7 +7,7 @@ import type { Actions, PageServerLoad } from './$types';
 import { currencyOf, saveLine } from '../../lines.server';
 
 export const load: PageServerLoad = async ({ params, url }) => {
-	const { store } = requireRole('owner', 'manager');
+	const { store } = requirePermission({ priceBook: ['update'] });
 	if (!isSection(params.section)) error(404, 'Not found');
 	const lines = await priceBook.list(store.id);
 	const taken = lines.filter((l) => l.section === params.section).map((l) => l.code);
@@ -33,7 +33,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 
 export const actions: Actions = {
 	default: async ({ request, params }) => {
-		const { store } = requireRole('owner', 'manager');
+		const { store } = requirePermission({ priceBook: ['update'] });
 		if (!isSection(params.section)) error(404, 'Not found');
 		return saveLine(store.id, params.section, request);
 	}

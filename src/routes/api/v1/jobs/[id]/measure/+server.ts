@@ -2,6 +2,7 @@ import { endpoint, readJson } from '$lib/server/api';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob } from '$lib/server/object-access';
 import { emptyMeasure } from '$lib/measure/draft';
 import { measureSaveSchema } from '$lib/schemas/measure';
 import { error, json } from '@sveltejs/kit';
@@ -9,8 +10,8 @@ import type { RequestHandler } from './$types';
 
 /** The stored measure, or an empty one at version 0 when nothing was saved yet. */
 export const GET: RequestHandler = endpoint(async ({ params }) => {
-	const { store, user, role } = requirePermission({ job: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, scope } = requirePermission({ job: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	const stored = await measures.read(store.id, job.id);
 	return json(
@@ -23,7 +24,9 @@ export const GET: RequestHandler = endpoint(async ({ params }) => {
  * written: 409 with their measure, so the editor can show both.
  */
 export const PUT: RequestHandler = endpoint(async ({ params, request }) => {
-	const { store, user, role } = requirePermission({ job: ['update'] });
+	const member = requirePermission({ job: ['update'] });
+	await requireJob(member, params.id);
+	const { store, user, scope } = member;
 	const body = await readJson(request, measureSaveSchema);
 	const saved = await measures.save(store.id, params.id, body.draft, body.baseVersion, user.id);
 	if (saved.ok) return json({ version: saved.version, updatedAt: saved.updatedAt });
@@ -35,7 +38,7 @@ export const PUT: RequestHandler = endpoint(async ({ params, request }) => {
 		);
 	}
 	// No measure to save on top of: either the job is not the store's, or the version named is gone.
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const job = await jobs.read(store.id, params.id, scope);
 	if (!job) error(404, 'Not found');
 	return json(
 		{

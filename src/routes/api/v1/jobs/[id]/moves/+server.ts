@@ -1,13 +1,16 @@
 import { endpoint, readJson } from '$lib/server/api';
 import { move } from '$lib/server/db/queries/jobs';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob } from '$lib/server/object-access';
 import { jobMoveSchema } from '$lib/schemas/job';
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 
 /** Moves a job to another status, when the job's state machine allows it. */
 export const POST: RequestHandler = endpoint(async ({ params, request }) => {
-	const { store, user } = requirePermission({ job: ['schedule'] });
+	const member = requirePermission({ job: ['schedule'] });
+	await requireJob(member, params.id);
+	const { store, user } = member;
 	const input = await readJson(request, jobMoveSchema);
 	const result = await move(store.id, params.id, input.to, user.id, input.note);
 	if (!result.ok && result.reason === 'not_found') error(404, 'Not found');

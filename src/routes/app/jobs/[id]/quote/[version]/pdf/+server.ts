@@ -9,8 +9,8 @@ import type { RequestHandler } from './$types';
 
 /** A version of the job's quote as PDF, for store staff. */
 export const GET: RequestHandler = async ({ params }) => {
-	const { store, user, role } = requirePermission({ quote: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
+	const { store, scope } = requirePermission({ quote: ['read'] });
+	const job = await jobs.read(store.id, params.id, scope);
 	const version = readNumber(params.version, QUOTE_VERSION);
 	const quote =
 		job && version.ok ? await quotes.readVersion(store.id, job.id, version.value) : undefined;
