@@ -39,6 +39,8 @@ test('a forgotten password is reset through the e-mailed link', async ({ page })
 	await page.getByRole('button', { name: 'Sign out' }).click();
 
 	await page.getByRole('link', { name: 'Forgot your password?' }).click();
+	// The sign-in page has an E-mail field too: type once the next page is there.
+	await expect(page.getByRole('heading', { name: 'Forgot your password?' })).toBeVisible();
 	await page.getByLabel('E-mail').fill(email);
 	await page.getByRole('button', { name: 'Send the link' }).click();
 	await expect(page.getByText(`If ${email} has a login`)).toBeVisible();

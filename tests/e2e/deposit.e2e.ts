@@ -37,6 +37,8 @@ test('a declined card leaves the job accepted; the succeeding card makes it sold
 	context,
 	browser
 }) => {
+	// Two trips through the checkout page: on a loaded machine it takes minutes.
+	test.slow();
 	const store = await ownStore();
 	await demoJob(store, 'Living room oak');
 	await signInAs(context, personOf(store, 'sales'));

@@ -66,6 +66,8 @@ for (const device of [
 			page,
 			context
 		}) => {
+			// Three rooms typed field by field: on a loaded machine it takes minutes.
+			test.slow();
 			await ownStore(context);
 			const job = await newJob(page, `Measured on a ${device.name}`);
 			await page.goto(`/app/jobs/${job.id}`);
@@ -213,6 +215,8 @@ test('two salespeople on one measure: the later save sees both, and keeping mine
 	page,
 	context
 }) => {
+	// Two browsers typing in turn: on a loaded machine it takes minutes.
+	test.slow();
 	const store = await ownStore(context);
 	const job = await newJob(page, 'Two people measuring');
 	const jonah = await pageAs(browser, personOf(store, 'sales', 1));

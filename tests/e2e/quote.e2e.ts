@@ -13,6 +13,8 @@ test('a salesperson builds and sends the quote; the customer accepts it from the
 	context,
 	browser
 }) => {
+	// Building, sending and accepting through the pages: slow on a loaded machine.
+	test.slow();
 	const store = await ownStore();
 	// Greta's own address, so the newest mail to it is this test's.
 	const greta = freshEmail('greta.oakhurst');
@@ -115,6 +117,8 @@ test('a forged or expired customer link shows a clear page and no data', async (
 });
 
 test("the customer's page and PDF carry the store's logo", async ({ page, context, browser }) => {
+	// A logo upload, the customer's page and the PDF: slow on a loaded machine.
+	test.slow();
 	const store = await ownStore();
 	await demoJob(store, 'Living room oak');
 	await signInAs(context, store.people[0]);

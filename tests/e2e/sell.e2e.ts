@@ -21,6 +21,8 @@ test('a salesperson measures, quotes and sends; the customer accepts from the li
 	context,
 	browser
 }) => {
+	// A whole sale through the pages: on a loaded machine it takes minutes.
+	test.slow();
 	const customerEmail = freshEmail('odalys');
 	// A store of the test's own with the demo's price book; Priya sells.
 	const store = await makeStore({
