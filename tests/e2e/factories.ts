@@ -3,7 +3,7 @@
 //
 //   const store = await makeStore({ people: ['sales', 'installer'], priceBook: true });
 //   const greta = await demoCustomer(store, 'Greta Oakhurst', { email: freshEmail('greta') });
-//   const job = await makeJob(store, { customer: greta, title: 'Porch', to: 'accepted' });
+//   const job = await makeJob(store, { customer: greta, title: 'Porch' });   // a draft job
 //   const oak = await demoJob(store, 'Living room oak');     // the demo's job, walked as seeded
 //   await signInAs(context, store.people[1]);                 // from ./fixtures: no sign-in form
 //   const link = customerLink(store, oak);                    // the customer's signed link
