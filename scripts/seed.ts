@@ -18,7 +18,6 @@ import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
 import * as measures from '../src/lib/server/db/queries/measures';
 import * as payments from '../src/lib/server/db/queries/payments';
 import * as quotes from '../src/lib/server/db/queries/quotes';
-import * as sites from '../src/lib/server/db/queries/sites';
 import { demoMeasure } from './demo-measures';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
@@ -34,7 +33,8 @@ const SECOND_STORE = {
 	owner: { name: 'Ansel Marrow', email: 'owner@hollinvale.example' }
 };
 
-const CUSTOMERS = [
+/** The demo store's customers (invented people). */
+export const CUSTOMERS = [
 	{
 		name: 'Greta Oakhurst',
 		email: 'greta.oakhurst@example.com',
@@ -80,7 +80,7 @@ const CUSTOMERS = [
 ];
 
 /** Where each of the first customers lives (invented streets of Bramblefield). */
-const SITES = [
+export const SITES = [
 	{ address: '27 Alder Way', builtYear: 1962, subfloor: 'plywood' },
 	{ address: '4 Tannery Lane', builtYear: 1978, subfloor: 'concrete' },
 	{ address: '112 Wickett Street', builtYear: 1994, subfloor: 'plywood' },
@@ -90,7 +90,7 @@ const SITES = [
 ];
 
 /** Jobs and the statuses they walk through (every state of PRODUCT.md appears once). */
-const JOBS: { customer: number; title: string; path: JobStatus[]; installer?: number }[] = [
+export const JOBS: { customer: number; title: string; path: JobStatus[]; installer?: number }[] = [
 	{ customer: 0, title: 'Kitchen and hall, vinyl plank', path: [] },
 	{ customer: 1, title: 'Basement carpet', path: ['quoted'] },
 	{ customer: 2, title: 'Living room oak', path: ['quoted', 'accepted'] },
@@ -170,6 +170,78 @@ export async function seedPriceBook(storeId: string) {
 		if (!id) throw new Error(`No demo floor called ${name}`);
 		return id;
 	};
+}
+
+/** Who moves a job along: the seller quotes, the manager takes money and moves it on. */
+export interface JobWalkers {
+	seller: string;
+	manager: string;
+	/** Booked when the job is scheduled. */
+	installer?: string;
+}
+
+/**
+ * Moves a job along its path the way the product does: the quote is built and sent, the
+ * customer accepts it, the deposit (and at closing the balance) is paid at the store's counter,
+ * an installer is booked. `n` numbers the slips and cheques. The browser tests' factories use
+ * it too (tests/e2e/support/queries.ts).
+ */
+export async function walkJob(
+	storeId: string,
+	job: { id: string; title: string; customer: { name: string; email: string | null } },
+	path: JobStatus[],
+	by: JobWalkers,
+	n = 0
+) {
+	for (const to of path) {
+		// Quoting and acceptance go the way they do in the product: build, send, the customer accepts.
+		if (to === 'quoted') {
+			const built = await quotes.build(storeId, job.id, by.seller);
+			if (!built.ok) throw new Error(`Demo quote of ${job.title}: ${JSON.stringify(built)}`);
+			const sent = await quotes.send(storeId, built.quote.id, {
+				to: job.customer.email ?? 'no-email@example.com',
+				validDays: 30,
+				actorId: by.seller
+			});
+			if (!sent.ok) throw new Error(`Demo quote of ${job.title} was not sent`);
+			continue;
+		}
+		if (to === 'accepted') {
+			const latest = await quotes.forCustomer(storeId, job.id);
+			const accepted = await quotes.accept(storeId, job.id, latest!.id, {
+				name: job.customer.name,
+				// An address from the range kept for documentation (RFC 5737).
+				ip: '198.51.100.20',
+				userAgent: 'demo seed'
+			});
+			if (!accepted.ok) throw new Error(`Demo quote of ${job.title} was not accepted`);
+			continue;
+		}
+		if (to === 'scheduled' && by.installer) {
+			await jobs.assign(storeId, job.id, by.installer, by.manager);
+		}
+		if (to === 'sold' || to === 'closed') {
+			// The deposit on the store's card terminal (the ledger moves the job to sold); at
+			// closing, the balance by cheque.
+			const deposit = to === 'sold';
+			const { ledger } = await payments.moneyFor(storeId, job.id);
+			const paid = await payments.recordInStore(
+				storeId,
+				job.id,
+				{
+					purpose: deposit ? 'deposit' : 'balance',
+					method: deposit ? 'card_terminal' : 'cheque',
+					amountCents: deposit ? ledger.depositDueCents : ledger.balanceDueCents,
+					reference: deposit ? `Terminal slip ${4100 + n}` : `Cheque ${880 + n}`
+				},
+				by.manager
+			);
+			if (!paid.ok) throw new Error(`Demo payment for ${job.title}: ${paid.reason}`);
+			if (deposit) continue;
+		}
+		const moved = await jobs.move(storeId, job.id, to, by.manager);
+		if (!moved.ok) throw new Error(`Demo job ${job.title} could not move to ${to}`);
+	}
 }
 
 export async function seedDemo() {
@@ -263,68 +335,17 @@ export async function seedDemo() {
 		await sites.setJobSite(store.id, job.id, siteIds[j.customer]);
 		const saved = await measures.save(store.id, job.id, demoMeasure(j.title, floor), 0, seller);
 		if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
-		for (const to of j.path) {
-			// Quoting and acceptance go the way they do in the product: build, send, the customer accepts.
-			if (to === 'quoted') {
-				const built = await quotes.build(store.id, job.id, seller);
-				if (!built.ok) throw new Error(`Demo quote of ${j.title}: ${JSON.stringify(built)}`);
-				const sent = await quotes.send(store.id, built.quote.id, {
-					to: customer.email ?? 'no-email@example.com',
-					validDays: 30,
-					actorId: seller
-				});
-				if (!sent.ok) throw new Error(`Demo quote of ${j.title} was not sent`);
-				continue;
-			}
-			if (to === 'accepted') {
-				const latest = await quotes.forCustomer(store.id, job.id);
-				const accepted = await quotes.accept(store.id, job.id, latest!.id, {
-					name: customer.name,
-					// An address from the range kept for documentation (RFC 5737).
-					ip: '198.51.100.20',
-					userAgent: 'demo seed'
-				});
-				if (!accepted.ok) throw new Error(`Demo quote of ${j.title} was not accepted`);
-				continue;
-			}
-			if (to === 'scheduled' && j.installer !== undefined) {
-				await jobs.assign(store.id, job.id, ids.get(DEMO_PEOPLE[j.installer].email)!, managerId);
-			}
-			if (to === 'sold') {
-				// The deposit, taken on the store's card terminal: the ledger moves the job to sold.
-				const money = await payments.moneyFor(store.id, job.id);
-				const paid = await payments.recordInStore(
-					store.id,
-					job.id,
-					{
-						purpose: 'deposit',
-						method: 'card_terminal',
-						amountCents: money.ledger.depositDueCents,
-						reference: `Terminal slip ${4100 + n}`
-					},
-					managerId
-				);
-				if (!paid.ok) throw new Error(`Demo deposit of ${j.title}: ${paid.reason}`);
-				continue;
-			}
-			if (to === 'closed') {
-				const money = await payments.moneyFor(store.id, job.id);
-				const paid = await payments.recordInStore(
-					store.id,
-					job.id,
-					{
-						purpose: 'balance',
-						method: 'cheque',
-						amountCents: money.ledger.balanceDueCents,
-						reference: `Cheque ${880 + n}`
-					},
-					managerId
-				);
-				if (!paid.ok) throw new Error(`Demo balance of ${j.title}: ${paid.reason}`);
-			}
-			const moved = await jobs.move(store.id, job.id, to, managerId);
-			if (!moved.ok) throw new Error(`Demo job ${j.title} could not move to ${to}`);
-		}
+		await walkJob(
+			store.id,
+			{ id: job.id, title: j.title, customer },
+			j.path,
+			{
+				seller,
+				manager: managerId,
+				installer: j.installer === undefined ? undefined : ids.get(DEMO_PEOPLE[j.installer].email)
+			},
+			n
+		);
 	}
 
 	const hollinCustomer = await customers.create(second.id, {

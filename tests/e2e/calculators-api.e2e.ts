@@ -1,15 +1,13 @@
-// The calculator, preview and OpenAPI routes through HTTP, signed in by posting the sign-in form:
+// The calculator, preview and OpenAPI routes through HTTP, as the demo's salesperson and installer:
 // the engine's own answers with the store's settings, and refusals as JSON with their status.
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import type { APIRequestContext } from '@playwright/test';
 import Ajv2020 from 'ajv/dist/2020.js';
 import { calculatorExamples } from '../../src/lib/calculators/examples';
 import { estimate, type StoreSettings } from '../../src/lib/estimating';
 import { sampleJob, samplePriceBook } from '../../src/lib/estimating/sample';
 import { calculators, type CalculatorName } from '../../src/lib/calculators/registry';
-import { pool } from '../../src/lib/server/db';
-import { priceBookFor } from '../../src/lib/server/db/queries/price-book';
-import { read as readSettings } from '../../src/lib/server/db/queries/settings';
-import { demoEmail, signInRequest } from './helpers';
+import { expect, requestAs, test } from './fixtures';
+import { priceBookOf, settingsOf } from './support/queries';
 
 let sales: APIRequestContext;
 let installer: APIRequestContext;
@@ -28,17 +26,17 @@ function expected(name: CalculatorName, body: unknown) {
 }
 
 test.beforeAll(async ({ playwright, baseURL }) => {
-	const context = () => playwright.request.newContext({ baseURL });
-	[sales, installer, anonymous] = await Promise.all([context(), context(), context()]);
-	await signInRequest(sales, baseURL!, demoEmail('sales'));
-	await signInRequest(installer, baseURL!, demoEmail('installer'));
+	[sales, installer, anonymous] = await Promise.all([
+		requestAs(playwright, 'sales'),
+		requestAs(playwright, 'installer'),
+		playwright.request.newContext({ baseURL })
+	]);
 	storeId = (await (await sales.get('/api/v1/me')).json()).store.id;
-	settings = (await readSettings(storeId)).settings;
+	settings = (await settingsOf(storeId)).settings;
 });
 
 test.afterAll(async () => {
 	await Promise.all([sales, installer, anonymous].map((c) => c.dispose()));
-	await pool.end();
 });
 
 test("every calculator answers a valid body with the engine's own answer", async () => {
@@ -130,8 +128,8 @@ test('a bad body is 400 with the path of each bad field; nothing else answers', 
 });
 
 test("the preview prices a job with the store's own settings and price book", async () => {
-	const { currency } = await readSettings(storeId);
-	const priceBook = await priceBookFor(storeId, currency);
+	const { currency } = await settingsOf(storeId);
+	const priceBook = await priceBookOf(storeId, currency);
 	// The demo store's floors are the sample book's, under ids of its own.
 	const storeFloor = new Map(priceBook.floors.map((f) => [f.name, f.id]));
 	const job = sampleJob(4);

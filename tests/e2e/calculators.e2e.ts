@@ -1,88 +1,98 @@
 // The Calculators page for staff: structural answers carry their cautions, and the page works
 // without JavaScript through its form action.
-import { expect, test } from '@playwright/test';
-import { demoEmail, signIn } from './helpers';
+import { expect, test } from './fixtures';
 
-test('the joists calculator says when a floor does not pass and to confirm with a professional', async ({
-	page
-}) => {
-	await signIn(page, demoEmail('sales'));
-	await page
-		.getByRole('navigation', { name: 'Main' })
-		.getByRole('link', { name: 'Calculators' })
-		.last()
-		.click();
-	await page.getByRole('link', { name: /^Joist deflection and span/ }).click();
-	await expect(page).toHaveURL(/\/app\/calculators\?c=joists$/);
-	// Before anything is typed, the caution is already there.
-	await expect(
-		page.getByText(/a licensed professional before relying on this result/)
-	).toBeVisible();
-	await page.getByLabel('Spacing, centre to centre').fill('16');
-	await page.getByLabel('Span between supports').fill(`14'`);
-	await page.getByLabel('Floor going over it').selectOption('stone_tile');
-	// 2x10 SPF No.2 at 16 in over 14 ft: L/504 against L/720 for stone (Natural Stone Institute,
-	// quoted in NTCA Reference Manual, published).
-	await expect(page.getByTestId('calc-headline')).toHaveText('Does not pass: L/504 against L/720');
-	const cautions = page.getByRole('alert');
-	await expect(
-		cautions.filter({ hasText: 'needs a licensed professional and may need a permit' })
-	).toBeVisible();
-	await expect(
-		cautions.filter({ hasText: 'A planning aid, not an engineering design' })
-	).toBeVisible();
-	await expect(page.getByText(/Sistering each joist full length would pass/)).toBeVisible();
-	await expect(page.getByText(/Source: .*AISC Manual Table 3-23/)).toBeVisible();
+test.describe(() => {
+	test.use({ signedInAs: 'sales' });
+
+	test('the joists calculator says when a floor does not pass and to confirm with a professional', async ({
+		page
+	}) => {
+		await page.goto('/app');
+		await page
+			.getByRole('navigation', { name: 'Main' })
+			.getByRole('link', { name: 'Calculators' })
+			.last()
+			.click();
+		await page.getByRole('link', { name: /^Joist deflection and span/ }).click();
+		await expect(page).toHaveURL(/\/app\/calculators\?c=joists$/);
+		// Before anything is typed, the caution is already there.
+		await expect(
+			page.getByText(/a licensed professional before relying on this result/)
+		).toBeVisible();
+		await page.getByLabel('Spacing, centre to centre').fill('16');
+		await page.getByLabel('Span between supports').fill(`14'`);
+		await page.getByLabel('Floor going over it').selectOption('stone_tile');
+		// 2x10 SPF No.2 at 16 in over 14 ft: L/504 against L/720 for stone (Natural Stone Institute,
+		// quoted in NTCA Reference Manual, published).
+		await expect(page.getByTestId('calc-headline')).toHaveText(
+			'Does not pass: L/504 against L/720'
+		);
+		const cautions = page.getByRole('alert');
+		await expect(
+			cautions.filter({ hasText: 'needs a licensed professional and may need a permit' })
+		).toBeVisible();
+		await expect(
+			cautions.filter({ hasText: 'A planning aid, not an engineering design' })
+		).toBeVisible();
+		await expect(page.getByText(/Sistering each joist full length would pass/)).toBeVisible();
+		await expect(page.getByText(/Source: .*AISC Manual Table 3-23/)).toBeVisible();
+	});
 });
 
-test('from the keyboard, sending an empty form names each missing field and focuses the first', async ({
-	page
-}) => {
-	await signIn(page, demoEmail('manager'));
-	await page.goto('/app/calculators?c=leveller');
-	const area = page.getByLabel('Area to level');
-	await area.focus();
-	await page.keyboard.press('Enter');
-	await expect(area).toBeFocused();
-	await expect(area).toHaveAccessibleDescription(/Enter the area to level/);
-	await expect(page.getByLabel('Average depth')).toHaveAccessibleDescription(
-		/Enter the average depth/
-	);
-	await page.keyboard.type('10 x 10');
-	await page.keyboard.press('Tab');
-	await expect(page.getByLabel('Average depth')).toBeFocused();
-	await page.keyboard.type('1/4');
-	await page.keyboard.press('Tab');
-	await page.keyboard.type('0.45');
-	// 100 ft² × 1/4 in ÷ 12 = 2.083 ft³ × 1.10 ÷ 0.45 ft³ = 5.09 → 6 bags (TRADE.md Quantities)
-	await expect(page.getByTestId('calc-headline')).toHaveText('6 bags');
+test.describe(() => {
+	test.use({ signedInAs: 'manager' });
+
+	test('from the keyboard, sending an empty form names each missing field and focuses the first', async ({
+		page
+	}) => {
+		await page.goto('/app/calculators?c=leveller');
+		const area = page.getByLabel('Area to level');
+		await area.focus();
+		await page.keyboard.press('Enter');
+		await expect(area).toBeFocused();
+		await expect(area).toHaveAccessibleDescription(/Enter the area to level/);
+		await expect(page.getByLabel('Average depth')).toHaveAccessibleDescription(
+			/Enter the average depth/
+		);
+		await page.keyboard.type('10 x 10');
+		await page.keyboard.press('Tab');
+		await expect(page.getByLabel('Average depth')).toBeFocused();
+		await page.keyboard.type('1/4');
+		await page.keyboard.press('Tab');
+		await page.keyboard.type('0.45');
+		// 100 ft² × 1/4 in ÷ 12 = 2.083 ft³ × 1.10 ÷ 0.45 ft³ = 5.09 → 6 bags (TRADE.md Quantities)
+		await expect(page.getByTestId('calc-headline')).toHaveText('6 bags');
+	});
 });
 
-test('each role opens only its own Calculators page; the form action answers the same way', async ({
-	page,
-	baseURL
-}) => {
-	await signIn(page, demoEmail('installer'));
-	expect((await page.request.get('/app/calculators')).status()).toBe(403);
-	const posted = await page.request.post('/field/calculators?c=cartons', {
-		headers: { origin: baseURL!, accept: 'text/html' },
-		form: { calculator: 'cartons', areaSqFt: '120', coverageSqFt: '20.5', layout: 'straight' }
+test.describe(() => {
+	test.use({ signedInAs: 'installer' });
+
+	test('each role opens only its own Calculators page; the form action answers the same way', async ({
+		page,
+		baseURL
+	}) => {
+		expect((await page.request.get('/app/calculators')).status()).toBe(403);
+		const posted = await page.request.post('/field/calculators?c=cartons', {
+			headers: { origin: baseURL!, accept: 'text/html' },
+			form: { calculator: 'cartons', areaSqFt: '120', coverageSqFt: '20.5', layout: 'straight' }
+		});
+		expect(posted.status()).toBe(200);
+		expect(await posted.text()).toContain('7 cartons');
+		const refused = await page.request.post('/field/calculators?c=cartons', {
+			headers: { origin: baseURL!, accept: 'text/html' },
+			form: { calculator: 'cartons', areaSqFt: 'a lot', coverageSqFt: '20.5' }
+		});
+		expect(refused.status()).toBe(400);
+		expect(await refused.text()).toContain('Cannot read "a lot"');
 	});
-	expect(posted.status()).toBe(200);
-	expect(await posted.text()).toContain('7 cartons');
-	const refused = await page.request.post('/field/calculators?c=cartons', {
-		headers: { origin: baseURL!, accept: 'text/html' },
-		form: { calculator: 'cartons', areaSqFt: 'a lot', coverageSqFt: '20.5' }
-	});
-	expect(refused.status()).toBe(400);
-	expect(await refused.text()).toContain('Cannot read "a lot"');
 });
 
 test.describe('without JavaScript', () => {
-	test.use({ javaScriptEnabled: false });
+	test.use({ javaScriptEnabled: false, signedInAs: 'owner' });
 
 	test('the form posts, the server works it out, and what was typed stays', async ({ page }) => {
-		await signIn(page, demoEmail('owner'));
 		await page.goto('/app/calculators?c=cartons');
 		await page.getByLabel('Floor area').fill('12 x 10');
 		await page.getByLabel('Area one carton covers').fill('20.5');

@@ -1,11 +1,12 @@
 // An installer on a phone works out cartons as they type, and sees why a length cannot be read.
-import { expect, test } from '@playwright/test';
-import { demoEmail, signIn } from './helpers';
+import { expect, test } from './fixtures';
+
+test.use({ signedInAs: 'installer' });
 
 test('an installer types a carton calculation and the answer follows every keystroke', async ({
 	page
 }) => {
-	await signIn(page, demoEmail('installer'));
+	await page.goto('/field');
 	await page
 		.getByRole('navigation', { name: 'Installer' })
 		.getByRole('link', { name: 'Calculators' })
@@ -42,7 +43,6 @@ test('an installer types a carton calculation and the answer follows every keyst
 test('a length that cannot be read says why, beside its field, and nothing breaks', async ({
 	page
 }) => {
-	await signIn(page, demoEmail('installer'));
 	await page.goto('/field/calculators?c=area');
 	const width = page.getByLabel('Width');
 	await width.pressSequentially(`12' 6 1/0"`);

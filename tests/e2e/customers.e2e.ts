@@ -1,66 +1,73 @@
-import { expect, test, type Page } from '@playwright/test';
-import { demoEmail, signIn } from './helpers';
+import type { Page } from '@playwright/test';
+import { demoCustomer, makeJob, makeStore, personOf } from './factories';
+import { expect, pageAs, signInAs, test } from './fixtures';
 
 const names = (page: Page) =>
 	page.getByRole('table', { name: 'Customers' }).locator('tbody tr td:first-child');
 
-test('the customers table searches, sorts and pages through the API, and its URL reopens the same view', async ({
-	page,
-	browser
-}) => {
-	await signIn(page, demoEmail('sales'));
-	await page.goto('/app/customers?pageSize=2');
-	// The demo's dozen customers, by name: Beatrix, Cosmo, Dagny, Emrys, Felix, …
-	await expect(names(page)).toHaveText(['Beatrix Fallowfield', 'Cosmo Penhallow']);
-	await expect(page.getByText(/Page 1 of \d+/)).toBeVisible();
+// Reads the demo store's dozen customers, as the demo salesperson.
+test.describe(() => {
+	test.use({ signedInAs: 'sales' });
 
-	// The next page comes from the JSON API, and the URL follows.
-	const next = page.waitForResponse((r) => r.url().includes('/api/v1/customers?'));
-	await page.getByRole('link', { name: 'Next' }).click();
-	expect((await next).status()).toBe(200);
-	await expect(names(page)).toHaveText(['Dagny Wexcombe', 'Emrys Calloway']);
-	await expect(page).toHaveURL(/[?&]page=2/);
+	test('the customers table searches, sorts and pages through the API, and its URL reopens the same view', async ({
+		page,
+		browser
+	}) => {
+		await page.goto('/app/customers?pageSize=2');
+		// The demo's dozen customers, by name: Beatrix, Cosmo, Dagny, Emrys, Felix, …
+		await expect(names(page)).toHaveText(['Beatrix Fallowfield', 'Cosmo Penhallow']);
+		await expect(page.getByText(/Page 1 of \d+/)).toBeVisible();
 
-	// Sorting by a column goes back to the first page.
-	await page.getByRole('button', { name: /^Name/ }).click();
-	await expect(page).toHaveURL(/sort=name&dir=desc&page=1/);
-	await expect(names(page)).toHaveText(['Otto & Lil Vanterpool', 'Marisol Quenby']);
-	await expect(page.getByRole('columnheader', { name: /Name/ })).toHaveAttribute(
-		'aria-sort',
-		'descending'
-	);
+		// The next page comes from the JSON API, and the URL follows.
+		const next = page.waitForResponse((r) => r.url().includes('/api/v1/customers?'));
+		await page.getByRole('link', { name: 'Next' }).click();
+		expect((await next).status()).toBe(200);
+		await expect(names(page)).toHaveText(['Dagny Wexcombe', 'Emrys Calloway']);
+		await expect(page).toHaveURL(/[?&]page=2/);
 
-	await page.getByRole('button', { name: /^Added/ }).click();
-	await expect(page).toHaveURL(/sort=created&dir=desc/);
-	await expect(names(page).first()).toHaveText('Gideon Marlowe');
+		// Sorting by a column goes back to the first page.
+		await page.getByRole('button', { name: /^Name/ }).click();
+		await expect(page).toHaveURL(/sort=name&dir=desc&page=1/);
+		await expect(names(page)).toHaveText(['Otto & Lil Vanterpool', 'Marisol Quenby']);
+		await expect(page.getByRole('columnheader', { name: /Name/ })).toHaveAttribute(
+			'aria-sort',
+			'descending'
+		);
 
-	await page.getByRole('searchbox', { name: 'Search customers' }).fill('ruskin');
-	await expect(page).toHaveURL(/q=ruskin/);
-	await expect(names(page)).toHaveText(['Hana Ruskin']);
-	await expect(page.getByText('1 customer matching “ruskin”')).toBeVisible();
+		await page.getByRole('button', { name: /^Added/ }).click();
+		await expect(page).toHaveURL(/sort=created&dir=desc/);
+		await expect(names(page).first()).toHaveText('Gideon Marlowe');
 
-	// The link reopens the same view, rendered by the server, with or without JavaScript.
-	const url = page.url();
-	await page.goto(url);
-	await expect(names(page)).toHaveText(['Hana Ruskin']);
-	await expect(page.getByRole('searchbox', { name: 'Search customers' })).toHaveValue('ruskin');
+		await page.getByRole('searchbox', { name: 'Search customers' }).fill('ruskin');
+		await expect(page).toHaveURL(/q=ruskin/);
+		await expect(names(page)).toHaveText(['Hana Ruskin']);
+		await expect(page.getByText('1 customer matching “ruskin”')).toBeVisible();
 
-	const noScript = await browser.newContext({ javaScriptEnabled: false });
-	const plain = await noScript.newPage();
-	await signIn(plain, demoEmail('sales'));
-	await plain.goto(url.replace('q=ruskin', 'q=o'));
-	await expect(names(plain).first()).toHaveText('Gideon Marlowe');
-	await expect(plain.getByRole('columnheader', { name: /Added/ })).toHaveAttribute(
-		'aria-sort',
-		'descending'
-	);
-	await noScript.close();
+		// The link reopens the same view, rendered by the server, with or without JavaScript.
+		const url = page.url();
+		await page.goto(url);
+		await expect(names(page)).toHaveText(['Hana Ruskin']);
+		await expect(page.getByRole('searchbox', { name: 'Search customers' })).toHaveValue('ruskin');
+
+		const plain = await pageAs(browser, 'sales', { javaScriptEnabled: false });
+		await plain.goto(url.replace('q=ruskin', 'q=o'));
+		await expect(names(plain).first()).toHaveText('Gideon Marlowe');
+		await expect(plain.getByRole('columnheader', { name: /Added/ })).toHaveAttribute(
+			'aria-sort',
+			'descending'
+		);
+	});
 });
 
 test('a second site is added to a customer, a job starts there and moves to the other site', async ({
-	page
+	page,
+	context
 }) => {
-	await signIn(page, demoEmail('sales'));
+	// Greta at 27 Alder Way with a job there, in a store of the test's own.
+	const store = await makeStore({ people: ['sales'] });
+	const greta = await demoCustomer(store, 'Greta Oakhurst');
+	await makeJob(store, { customer: greta, title: 'Kitchen and hall, vinyl plank' });
+	await signInAs(context, personOf(store, 'sales'));
 	await page.goto('/app/customers?q=Oakhurst');
 	await page.getByRole('link', { name: 'Greta Oakhurst' }).click();
 	const sites = page.getByRole('region', { name: 'Sites' });
@@ -103,8 +110,13 @@ test('a second site is added to a customer, a job starts there and moves to the 
 	await expect(site).toContainText('Built 1962');
 });
 
-test('a job started from the jobs page goes to a new address of its customer', async ({ page }) => {
-	await signIn(page, demoEmail('sales'));
+test('a job started from the jobs page goes to a new address of its customer', async ({
+	page,
+	context
+}) => {
+	const store = await makeStore({ people: ['sales'] });
+	await demoCustomer(store, 'Ivo Thistlewood');
+	await signInAs(context, personOf(store, 'sales'));
 	await page.goto('/app/jobs/new');
 	await page.getByLabel('Customer').selectOption({ label: 'Ivo Thistlewood' });
 	await page.getByLabel('Job title').fill('Porch laminate');

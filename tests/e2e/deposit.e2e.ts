@@ -1,11 +1,23 @@
 // Issue 5: the customer pays the deposit on the Stripe fake's checkout page; a declined card
 // leaves the job as it was; the paid one makes it sold, with a receipt in the outbox; the manager's
 // reconciliation flags every kind of mismatch.
-import { expect, test, type Page } from '@playwright/test';
+import type { Page } from '@playwright/test';
 import pg from 'pg';
-import { demoEmail, lastMailLink, signIn } from './helpers';
+import { customerLink, demoJob, makeStore, payByCard, personOf } from './factories';
+import { expect, newPage, pageAs, signInAs, test } from './fixtures';
+import { lastMailLink } from './helpers';
 
-const ACCOUNT = 'acct_tallowcreekdemo1';
+/**
+ * A copy of the demo store of the test's own: its name, price book, people, and a Stripe account
+ * of its own, so its payments, payouts and mismatches are the test's alone.
+ */
+const ownStore = () =>
+	makeStore({
+		name: 'Tallow Creek Floors',
+		people: ['manager', 'sales', 'installer', 'installer'],
+		priceBook: true,
+		stripe: true
+	});
 
 async function customerLinkOf(page: Page, title: string) {
 	await page.goto(`/app/jobs?q=${encodeURIComponent(title)}`);
@@ -22,12 +34,17 @@ async function payOnCheckout(customer: Page, card: 'Succeeds' | 'Declined') {
 
 test('a declined card leaves the job accepted; the succeeding card makes it sold, with a receipt', async ({
 	page,
+	context,
 	browser
 }) => {
-	await signIn(page, demoEmail('sales'));
+	// Two trips through the checkout page: on a loaded machine it takes minutes.
+	test.slow();
+	const store = await ownStore();
+	await demoJob(store, 'Living room oak');
+	await signInAs(context, personOf(store, 'sales'));
 	const link = await customerLinkOf(page, 'Living room oak');
 	const jobUrl = page.url().replace(/\/quote.*$/, '');
-	const customer = await browser.newPage({ viewport: { width: 390, height: 844 } });
+	const customer = await newPage(browser, { viewport: { width: 390, height: 844 } });
 	await customer.goto(link);
 	await expect(
 		customer.getByRole('heading', { name: 'Deposit to book the install' })
@@ -59,7 +76,7 @@ test('a declined card leaves the job accepted; the succeeding card makes it sold
 	await expect(page.getByText('Deposit · Card (online)')).toBeVisible();
 	await expect(page.getByRole('cell', { name: 'Paid', exact: true })).toBeVisible();
 
-	const receipt = await browser.newPage();
+	const receipt = await newPage(browser);
 	await lastMailLink(receipt, 'hana.ruskin@example.com');
 	await expect(
 		receipt.getByRole('listitem').filter({ hasText: 'To hana.ruskin@example.com' }).first()
@@ -68,9 +85,12 @@ test('a declined card leaves the job accepted; the succeeding card makes it sold
 });
 
 test('the manager records a cheque and refunds part of it, never more than was paid', async ({
-	page
+	page,
+	context
 }) => {
-	await signIn(page, demoEmail('manager'));
+	const store = await ownStore();
+	await demoJob(store, 'Laundry sheet vinyl', { installer: personOf(store, 'installer', 1) });
+	await signInAs(context, personOf(store, 'manager'));
 	await page.goto('/app/jobs?q=Laundry sheet vinyl');
 	await page.getByRole('link', { name: /Laundry sheet vinyl/ }).click();
 	await page.getByRole('link', { name: 'Open the payments' }).click();
@@ -101,17 +121,20 @@ test('the manager records a cheque and refunds part of it, never more than was p
 
 test('the reconciliation flags a mismatch of each kind, and exports the period', async ({
 	page,
+	context,
 	request,
 	baseURL,
 	browser
 }) => {
-	// Make one mismatch of each kind beside the deposit that matches (paid in the test above).
+	// A deposit paid by card that matches; then one mismatch of each kind beside it.
+	const store = await ownStore();
+	await payByCard(request, customerLink(store, await demoJob(store, 'Living room oak')));
 	const loose = await request.post('/dev/stripe/checkout-sessions', {
 		headers: { 'content-type': 'application/json', origin: baseURL! },
 		data: {
 			amount: 12_345,
 			name: 'Counter sale',
-			account: ACCOUNT,
+			account: store.stripeAccount,
 			customer_email: 'walk-in@example.com'
 		}
 	});
@@ -124,10 +147,7 @@ test('the reconciliation flags a mismatch of each kind, and exports the period',
 	await db.connect();
 	try {
 		await db.query('begin');
-		const { rows } = await db.query(
-			`select id from organization where slug = 'tallow-creek-floors'`
-		);
-		await db.query(`select set_config('app.store_id', $1, true)`, [rows[0].id]);
+		await db.query(`select set_config('app.store_id', $1, true)`, [store.id]);
 		// A card payment in the ledger that Stripe never saw, and one whose amount was changed.
 		const paid = await db.query(
 			`select job_id, id from payment where method = 'card' and status = 'succeeded' limit 1`
@@ -135,7 +155,7 @@ test('the reconciliation flags a mismatch of each kind, and exports the period',
 		await db.query(
 			`insert into payment (id, organization_id, job_id, purpose, method, status, currency, amount_cents, stripe_charge_id, succeeded_at)
 			 values (gen_random_uuid(), $1, $2, 'balance', 'card', 'succeeded', 'USD', 7000, 'ch_not_in_stripe', now())`,
-			[rows[0].id, paid.rows[0].job_id]
+			[store.id, paid.rows[0].job_id]
 		);
 		await db.query(`update payment set amount_cents = amount_cents - 500 where id = $1`, [
 			paid.rows[0].id
@@ -148,12 +168,12 @@ test('the reconciliation flags a mismatch of each kind, and exports the period',
 		(
 			await request.post('/dev/stripe/payouts', {
 				headers: { 'content-type': 'application/json', origin: baseURL! },
-				data: { account: ACCOUNT }
+				data: { account: store.stripeAccount }
 			})
 		).status()
 	).toBe(200);
 
-	await signIn(page, demoEmail('manager'));
+	await signInAs(context, personOf(store, 'manager'));
 	await page.goto('/app/payments');
 	await expect(page.getByRole('heading', { name: 'Payments', level: 1 })).toBeVisible();
 	await expect(page.getByTestId('count-amount_differs')).toHaveText('1');
@@ -179,7 +199,6 @@ test('the reconciliation flags a mismatch of each kind, and exports the period',
 	expect(text).toMatch(/^payout,paid,/m);
 
 	// A salesperson may not reconcile.
-	const sales = await browser.newPage();
-	await signIn(sales, demoEmail('sales'));
+	const sales = await pageAs(browser, personOf(store, 'sales'));
 	expect((await sales.goto('/app/payments'))?.status()).toBe(403);
 });

@@ -1,8 +1,31 @@
-import { expect, test } from '@playwright/test';
-import { demoEmail, signIn } from './helpers';
+import { addPerson, demoJob, makeJob, makeCustomer, makeStore, personOf } from './factories';
+import { expect, signInAs, test } from './fixtures';
 
-test('an installer on a phone sees only their jobs, in each of their stores', async ({ page }) => {
-	await signIn(page, demoEmail('installer'));
+test('an installer on a phone sees only their jobs, in each of their stores', async ({
+	page,
+	context
+}) => {
+	// Two stores of the test's own, as in the demo: Rosa installs for both, Dev for the first.
+	const store = await makeStore({
+		name: 'Tallow Creek Floors',
+		people: [
+			{ role: 'installer', name: 'Rosa Imbrie' },
+			{ role: 'installer', name: 'Dev Kalloway' }
+		],
+		priceBook: true
+	});
+	const rosa = personOf(store, 'installer');
+	await demoJob(store, 'Bathroom tile', { installer: rosa });
+	await demoJob(store, 'Sunroom laminate', { installer: rosa });
+	await demoJob(store, 'Laundry sheet vinyl', { installer: personOf(store, 'installer', 1) });
+	const second = await makeStore({ name: 'Hollin Vale Tile House' });
+	await makeJob(second, {
+		customer: await makeCustomer(second, { name: 'Pim Arkwright' }),
+		title: 'Entry hall porcelain',
+		installer: await addPerson(second, 'installer', { login: rosa })
+	});
+	await signInAs(context, rosa);
+	await page.goto('/field');
 	await expect(page).toHaveURL(/\/field$/);
 	const jobs = page.getByRole('main').getByRole('link');
 	await expect(jobs.filter({ hasText: 'Bathroom tile' })).toBeVisible();

@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { freshEmail, lastMailLink } from './helpers';
 
 test('an owner starts a store and invites a salesperson, who joins with the sales navigation', async ({

@@ -1,13 +1,25 @@
-import { expect, test } from '@playwright/test';
 import { createHmac } from 'node:crypto';
 import sharp from 'sharp';
-import { demoEmail, lastMailLink, signIn } from './helpers';
+import { demoJob, makeStore, personOf } from './factories';
+import { expect, newPage, signInAs, test } from './fixtures';
+import { freshEmail, lastMailLink } from './helpers';
+
+/** A copy of the demo store of the test's own: its name, price book and a salesperson. */
+const ownStore = () =>
+	makeStore({ name: 'Tallow Creek Floors', people: ['sales'], priceBook: true });
 
 test('a salesperson builds and sends the quote; the customer accepts it from the e-mailed link', async ({
 	page,
+	context,
 	browser
 }) => {
-	await signIn(page, demoEmail('sales'));
+	// Building, sending and accepting through the pages: slow on a loaded machine.
+	test.slow();
+	const store = await ownStore();
+	// Greta's own address, so the newest mail to it is this test's.
+	const greta = freshEmail('greta.oakhurst');
+	await demoJob(store, 'Kitchen and hall, vinyl plank', { customerEmail: greta });
+	await signInAs(context, personOf(store, 'sales'));
 	await page.goto('/app/jobs?q=Kitchen and hall');
 	await page.getByRole('link', { name: /Kitchen and hall, vinyl plank/ }).click();
 	await page.getByRole('link', { name: 'Open the quote' }).click();
@@ -22,13 +34,13 @@ test('a salesperson builds and sends the quote; the customer accepts it from the
 	const total = await page.getByTestId('quote-total').innerText();
 	expect(total).toMatch(/^\$[\d,]+\.\d\d$/);
 
-	await expect(page.getByLabel("Customer's e-mail")).toHaveValue('greta.oakhurst@example.com');
+	await expect(page.getByLabel("Customer's e-mail")).toHaveValue(greta);
 	await page.getByRole('button', { name: 'Send the quote' }).click();
 	await expect(page.getByText('Sent. The customer has the link by e-mail.')).toBeVisible();
 	await expect(page.getByText('Sent to the customer').first()).toBeVisible();
 
-	const customer = await browser.newPage({ viewport: { width: 390, height: 844 } });
-	const link = await lastMailLink(customer, 'greta.oakhurst@example.com');
+	const customer = await newPage(browser, { viewport: { width: 390, height: 844 } });
+	const link = await lastMailLink(customer, greta);
 	expect(link).toMatch(/\/c\/[\w-]+\.[\w-]+$/);
 	await customer.goto(link);
 	await expect(customer.getByText('Tallow Creek Floors').first()).toBeVisible();
@@ -59,14 +71,17 @@ test('a salesperson builds and sends the quote; the customer accepts it from the
 
 test('a customer can ask for changes instead; the job goes back to draft', async ({
 	page,
+	context,
 	browser
 }) => {
-	await signIn(page, demoEmail('sales'));
+	const store = await ownStore();
+	await demoJob(store, 'Basement carpet');
+	await signInAs(context, personOf(store, 'sales'));
 	await page.goto('/app/jobs?q=Basement');
 	await page.getByRole('link', { name: /Basement carpet/ }).click();
 	await page.getByRole('link', { name: 'Open the quote' }).click();
 	const link = await page.getByLabel("The customer's link").inputValue();
-	const customer = await browser.newPage();
+	const customer = await newPage(browser);
 	await customer.goto(link);
 	// The slab's RH readings are over the 75 % limit (ASTM F710 / F2170, secondary).
 	await expect(customer.getByText(/RH/).first()).toBeVisible();
@@ -101,8 +116,12 @@ test('a forged or expired customer link shows a clear page and no data', async (
 	await expect(page.getByRole('heading', { name: 'This link has expired' })).toBeVisible();
 });
 
-test("the customer's page and PDF carry the store's logo", async ({ page, browser }) => {
-	await signIn(page, demoEmail('owner'));
+test("the customer's page and PDF carry the store's logo", async ({ page, context, browser }) => {
+	// A logo upload, the customer's page and the PDF: slow on a loaded machine.
+	test.slow();
+	const store = await ownStore();
+	await demoJob(store, 'Living room oak');
+	await signInAs(context, store.people[0]);
 	await page.goto('/app/settings');
 	const png = await sharp({
 		create: { width: 320, height: 120, channels: 3, background: { r: 169, g: 101, b: 44 } }
@@ -119,7 +138,7 @@ test("the customer's page and PDF carry the store's logo", async ({ page, browse
 	await page.getByRole('link', { name: /Living room oak/ }).click();
 	await page.getByRole('link', { name: 'Open the quote' }).click();
 	const link = await page.getByLabel("The customer's link").inputValue();
-	const customer = await browser.newPage();
+	const customer = await newPage(browser);
 	await customer.goto(link);
 	await expect(customer.getByRole('img', { name: 'Tallow Creek Floors logo' })).toBeVisible();
 	const served = await customer.request.get(`${new URL(link).pathname}/logo`);

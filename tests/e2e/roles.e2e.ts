@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, test } from './fixtures';
 import { demoEmail, signIn } from './helpers';
 
 const expected = {
@@ -17,16 +17,21 @@ const expected = {
 } as const;
 
 for (const [role, links] of Object.entries(expected)) {
-	test(`the demo ${role} signs in and sees the ${role}'s navigation`, async ({ page }) => {
-		await signIn(page, demoEmail(role as keyof typeof expected));
-		await expect(page).toHaveURL(/\/app$/);
-		await expect(page.getByRole('heading', { name: 'Desk' })).toBeVisible();
-		await expect(
-			page.getByRole('navigation', { name: 'Main' }).last().getByRole('link')
-		).toHaveText([...links]);
+	test.describe(() => {
+		test.use({ signedInAs: role as keyof typeof expected });
+
+		test(`the demo ${role} signs in and sees the ${role}'s navigation`, async ({ page }) => {
+			await page.goto('/app');
+			await expect(page).toHaveURL(/\/app$/);
+			await expect(page.getByRole('heading', { name: 'Desk' })).toBeVisible();
+			await expect(
+				page.getByRole('navigation', { name: 'Main' }).last().getByRole('link')
+			).toHaveText([...links]);
+		});
 	});
 }
 
+// Through the sign-in form on purpose: where a role lands after signing in.
 test('the demo installer lands on their own screens and is refused the desk', async ({ page }) => {
 	await signIn(page, demoEmail('installer'));
 	await expect(page).toHaveURL(/\/field$/);
@@ -36,13 +41,16 @@ test('the demo installer lands on their own screens and is refused the desk', as
 	await expect(page.getByText('your role in this store is Installer')).toBeVisible();
 });
 
-test('a manager is refused the team and the settings, with a clear page', async ({ page }) => {
-	await signIn(page, demoEmail('manager'));
-	for (const path of ['/app/team', '/app/settings']) {
-		const response = await page.goto(path);
-		expect(response?.status()).toBe(403);
-		await expect(page.getByRole('heading', { name: 'Not open to your role' })).toBeVisible();
-	}
+test.describe(() => {
+	test.use({ signedInAs: 'manager' });
+
+	test('a manager is refused the team and the settings, with a clear page', async ({ page }) => {
+		for (const path of ['/app/team', '/app/settings']) {
+			const response = await page.goto(path);
+			expect(response?.status()).toBe(403);
+			await expect(page.getByRole('heading', { name: 'Not open to your role' })).toBeVisible();
+		}
+	});
 });
 
 test('a page needing sign-in sends you to sign in and back', async ({ page }) => {

@@ -1,11 +1,16 @@
-import { expect, test } from '@playwright/test';
 import sharp from 'sharp';
-import { demoEmail, signIn } from './helpers';
+import { makeStore } from './factories';
+import { expect, signInAs, test } from './fixtures';
+
+// Each test changes its store: a store of its own, with the demo's settings and price book.
+test.beforeEach(async ({ context }) => {
+	const store = await makeStore({ name: 'Tallow Creek Floors', priceBook: true });
+	await signInAs(context, store.people[0]);
+});
 
 test('the owner changes the tax rate and the deposit rule, and a bad rate is refused by its field', async ({
 	page
 }) => {
-	await signIn(page, demoEmail('owner'));
 	await page.goto('/app/settings');
 	await expect(page.getByRole('heading', { name: 'Trade settings' })).toBeVisible();
 	await expect(page.getByLabel('Tax 1 name')).toHaveValue('Bramblefield sales tax');
@@ -37,7 +42,6 @@ test('the owner changes the tax rate and the deposit rule, and a bad rate is ref
 test('the owner uploads a logo, a file that is not an image is refused, and the logo is removed', async ({
 	page
 }) => {
-	await signIn(page, demoEmail('owner'));
 	await page.goto('/app/settings');
 	await expect(page.getByText('No logo yet')).toBeVisible();
 

@@ -1,4 +1,5 @@
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import type { APIRequestContext } from '@playwright/test';
+import { expect, test } from './fixtures';
 
 // The local Stripe fake end to end: a Checkout Session made through the SDK inside the server,
 // the fake's hosted page, and events delivered over HTTP to /api/webhooks/stripe, where the SDK

@@ -124,6 +124,35 @@ describe('the measure editor', () => {
 		expect(sent[0].draft.rooms[0].shape).toMatchObject({ width: "12' 6" });
 	});
 
+	it('never saves on a version whose answer is still arriving (a slow phone)', async () => {
+		// The server answers at once, but each answer's body takes 200 ms to come in; a change
+		// typed meanwhile must wait for the new version, or it is refused as someone else's save.
+		const sent: { baseVersion: number }[] = [];
+		let version = 1;
+		const fetch = vi.fn(async (_url: string, init?: RequestInit) => {
+			sent.push(JSON.parse(String(init?.body)));
+			const answer = { version: ++version, updatedAt: '2030-01-01T10:42:00Z' };
+			const json = () => new Promise((resolve) => setTimeout(() => resolve(answer), 200));
+			return { ok: true, status: 200, json } as unknown as Response;
+		});
+		const { e } = editor();
+		Object.assign(e, { fetch });
+		e.start();
+		e.draft.rooms[0].name = 'Kitchen and nook';
+		e.changed();
+		await vi.advanceTimersByTimeAsync(60);
+		expect(sent).toEqual([expect.objectContaining({ baseVersion: 1 })]);
+		e.draft.rooms[0].notes = 'Nook under the window';
+		e.changed();
+		await vi.advanceTimersByTimeAsync(100);
+		// Still reading the first answer: nothing more is sent on version 1.
+		expect(sent.length).toBe(1);
+		await vi.advanceTimersByTimeAsync(500);
+		expect(sent.map((s) => s.baseVersion)).toEqual([1, 2]);
+		expect(e.version).toBe(3);
+		expect(e.save.kind).toBe('saved');
+	});
+
 	it('offline: keeps the changes on the device and saves them when the connection returns', async () => {
 		const { e, storage, sent } = editor({ answers: ['offline', saved(2)] });
 		e.start();

@@ -246,12 +246,17 @@ export class MeasureEditor {
 		this.inflight = true;
 		this.save = { kind: 'saving' };
 		let res: Response;
+		// The answer is read before the next save may go: on a slow phone its body can come in
+		// well after its head, and a save sent meanwhile would name the old version.
+		let body: { version: number; updatedAt: string; current?: StoredMeasure } | undefined;
 		try {
 			res = await this.fetch(`/api/v1/jobs/${this.jobId}/measure`, {
 				method: 'PUT',
 				headers: { 'content-type': 'application/json', accept: 'application/json' },
 				body: `{"baseVersion":${base},"draft":${json}}`
 			});
+			if (res.ok) body = await res.json();
+			else if (res.status === 409) body = await res.json().catch(() => undefined);
 		} catch {
 			this.inflight = false;
 			this.save = { kind: 'offline' };
@@ -259,8 +264,7 @@ export class MeasureEditor {
 			return;
 		}
 		this.inflight = false;
-		if (res.ok) {
-			const body = await res.json();
+		if (res.ok && body) {
 			this.attempt = 0;
 			this.version = body.version;
 			this.savedAt = String(body.updatedAt);
@@ -280,7 +284,6 @@ export class MeasureEditor {
 			return;
 		}
 		if (res.status === 409) {
-			const body = await res.json().catch(() => undefined);
 			if (body?.current) {
 				this.enterConflict(body.current, base, this.savedDraft);
 				return;
