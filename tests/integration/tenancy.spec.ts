@@ -4,7 +4,8 @@ import { pool } from '$lib/server/db';
 import { saveProfile } from '$lib/server/db/queries/stores';
 import type { PoolClient } from 'pg';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { makeCustomer, makePaidJob, makeStore, type TestStore } from './factories';
+import { makeCustomer, makeStore, type TestStore } from './factories';
+import { makeFieldWork } from './field-factories';
 
 /** better-auth's own tables: it reads them without a store, and checks membership in code. */
 const AUTH_TABLES = new Set(['member', 'invitation']);
@@ -39,8 +40,9 @@ beforeAll(async () => {
 	for (const store of [a, b]) {
 		await saveProfile(store.id, { address: '1 Test Row', town: 'Testville', phone: '', email: '' });
 		// A row in every domain table: settings, price book, customer, site, job and its history,
-		// measure, quote, payment, refund, Stripe event.
-		await makePaidJob(store);
+		// measure, quote, payment, refund, Stripe event, and the installer's half (profile, time
+		// off, booking, report, items, photo, change order, completion, statement and lines).
+		await makeFieldWork(store);
 	}
 });
 

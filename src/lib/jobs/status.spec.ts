@@ -1,5 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { canMove, isOpen, JOB_STATUSES, jobLabel, nextStatuses } from './status';
+import {
+	canBook,
+	canCheckIn,
+	canComplete,
+	canMove,
+	canRaiseChangeOrder,
+	canReport,
+	canSignOff,
+	isOpen,
+	JOB_STATUSES,
+	jobLabel,
+	nextStatuses,
+	SITE_MOVES
+} from './status';
 
 // The job's states and moves as PRODUCT.md ("States") defines them.
 describe('job status', () => {
@@ -45,6 +58,21 @@ describe('job status', () => {
 	it('lets a quote go back to draft for changes, and a booking be undone', () => {
 		expect(canMove('quoted', 'draft')).toBe(true);
 		expect(canMove('scheduled', 'sold')).toBe(true);
+	});
+
+	it('moves on site only by allowed steps: booked, checked in, completed (issue 10)', () => {
+		for (const { from, to } of Object.values(SITE_MOVES)) expect(canMove(from, to)).toBe(true);
+		const where = (rule: (s: (typeof JOB_STATUSES)[number]) => boolean) =>
+			JOB_STATUSES.filter(rule);
+		expect(where(canBook)).toEqual(['sold', 'scheduled']);
+		expect(where(canCheckIn)).toEqual(['scheduled', 'in_progress']);
+		expect(where(canReport)).toEqual(['in_progress']);
+		expect(where(canRaiseChangeOrder)).toEqual(['in_progress']);
+		expect(where(canComplete)).toEqual(['in_progress']);
+		expect(where(canSignOff)).toEqual(['completed']);
+		// Each rule's first state is where its move starts.
+		expect(canBook(SITE_MOVES.book.from) && canCheckIn(SITE_MOVES.checkIn.from)).toBe(true);
+		expect(canComplete(SITE_MOVES.complete.from)).toBe(true);
 	});
 
 	it('names jobs J- and their number', () => {

@@ -58,6 +58,47 @@ export function canMove(from: JobStatus, to: JobStatus): boolean {
 	return nextStatuses(from).includes(to);
 }
 
+/**
+ * What happens on site moves the job (issue 10), each step through `canMove`: booking a sold
+ * job schedules it, the installer's first check-in starts it, marking it complete completes it;
+ * cancelling the booking returns it to sold.
+ */
+export const SITE_MOVES = {
+	book: { from: 'sold', to: 'scheduled' },
+	unbook: { from: 'scheduled', to: 'sold' },
+	checkIn: { from: 'scheduled', to: 'in_progress' },
+	complete: { from: 'in_progress', to: 'completed' }
+} as const satisfies Record<string, { from: JobStatus; to: JobStatus }>;
+
+/** A sold job may be booked, and a scheduled one moved to other days or another installer. */
+export function canBook(status: JobStatus): boolean {
+	return status === 'sold' || status === 'scheduled';
+}
+
+/** The first check-in starts the job; a job of several days is checked in to again each day. */
+export function canCheckIn(status: JobStatus): boolean {
+	return status === 'scheduled' || status === 'in_progress';
+}
+
+/** Prep found, readings, notes and photos are recorded while the work is under way. */
+export function canReport(status: JobStatus): boolean {
+	return status === 'in_progress';
+}
+
+/** A change order is raised from the report while the work is under way. */
+export function canRaiseChangeOrder(status: JobStatus): boolean {
+	return status === 'in_progress';
+}
+
+export function canComplete(status: JobStatus): boolean {
+	return status === 'in_progress';
+}
+
+/** The customer signs off a completed job (before the store closes it). */
+export function canSignOff(status: JobStatus): boolean {
+	return status === 'completed';
+}
+
 /** Open jobs: not yet finished or given up. */
 export function isOpen(status: JobStatus): boolean {
 	return status !== 'closed' && status !== 'cancelled';

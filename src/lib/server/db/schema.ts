@@ -3,19 +3,37 @@ import {
 	bigint,
 	boolean,
 	check,
+	date,
 	foreignKey,
 	index,
 	integer,
 	jsonb,
+	numeric,
 	pgEnum,
 	pgPolicy,
 	pgTable,
 	text,
+	time,
 	timestamp,
 	unique,
+	uniqueIndex,
 	varchar
 } from 'drizzle-orm/pg-core';
-import type { EstimateInput, EstimateResult, StoreSettings } from '../../estimating';
+import type {
+	Basis,
+	CalciumChlorideTest,
+	ChangeOrder,
+	EstimateInput,
+	EstimateResult,
+	FlatnessMeasure,
+	FloorKind,
+	ItemRef,
+	PriceBook,
+	QuantityItem,
+	Schedule,
+	StoreSettings
+} from '../../estimating';
+import { CHANGE_ORDER_STATUSES } from '../../jobs/change-order-status';
 import { JOB_STATUSES } from '../../jobs/status';
 import type { MeasureDraft } from '../../measure/draft';
 import { organization, user } from './auth.schema';
@@ -213,7 +231,9 @@ export const jobEvent = pgTable(
 		id: id(),
 		organizationId: storeId(),
 		jobId: text('job_id').notNull(),
-		kind: text('kind', { enum: ['created', 'status', 'assigned', 'note'] }).notNull(),
+		kind: text('kind', {
+			enum: ['created', 'status', 'assigned', 'note', 'booking', 'check_in', 'change_order']
+		}).notNull(),
 		fromStatus: jobStatus('from_status'),
 		toStatus: jobStatus('to_status'),
 		actorId: text('actor_id').references(() => user.id, { onDelete: 'set null' }),
@@ -352,6 +372,8 @@ export const payment = pgTable(
 		stripePaymentIntentId: text('stripe_payment_intent_id').unique(),
 		stripeChargeId: text('stripe_charge_id').unique(),
 		stripeBalanceTransactionId: text('stripe_balance_transaction_id'),
+		/** The change order this pays (purpose `change_order` only); see `change_order`. */
+		changeOrderId: text('change_order_id'),
 		checkoutUrl: text('checkout_url'),
 		checkoutExpiresAt: timestamp('checkout_expires_at', { withTimezone: true }),
 		recordedBy: text('recorded_by').references(() => user.id, { onDelete: 'set null' }),
@@ -372,6 +394,21 @@ export const payment = pgTable(
 			columns: [t.quoteId, t.organizationId],
 			foreignColumns: [quote.id, quote.organizationId]
 		}).onDelete('restrict'),
+		// The change order of the same job; a payment of another job's change order cannot exist.
+		foreignKey({
+			name: 'payment_change_order_same_job_fk',
+			columns: [t.changeOrderId, t.jobId, t.organizationId],
+			foreignColumns: [changeOrder.id, changeOrder.jobId, changeOrder.organizationId]
+		}).onDelete('restrict'),
+		// One live payment per change order: a second checkout or an in-store payment is refused
+		// until the first has failed (an expired or replaced checkout is marked failed first).
+		uniqueIndex('payment_change_order_once_uq')
+			.on(t.organizationId, t.changeOrderId)
+			.where(sql`${t.changeOrderId} is not null and ${t.status} <> 'failed'`),
+		check(
+			'payment_change_order_purpose',
+			sql`(${t.purpose} = 'change_order') = (${t.changeOrderId} is not null)`
+		),
 		check('payment_amount_positive', sql`${t.amountCents} > 0`),
 		check(
 			'payment_refund_within',
@@ -437,5 +474,566 @@ export const authLimit = pgTable('auth_limit', {
 	points: integer('points').notNull().default(0),
 	expire: bigint('expire', { mode: 'number' })
 });
+
+// ---------------------------------------------------------------------------------------------
+// The installer's half (issue 10): profiles, bookings, field reports and photos, change orders,
+// completion and installer statements. DEVELOPERS.md ("The installer's half: tables") says what
+// each row is, who writes it and what the database holds it to.
+// ---------------------------------------------------------------------------------------------
+
+/**
+ * An installer's own pay for one item in one store, in cents per unit of the price-book line's
+ * basis (`install:<floor>` per ft², `prep:hole_repair` each…); it replaces the line's `payCents`.
+ */
+export interface InstallerPayRate {
+	ref: ItemRef;
+	payCents: number;
+}
+
+/**
+ * How one installer works for one store: a store has a profile for each member it books as an
+ * installer (one login, one profile per store). The role itself stays in `member`.
+ */
+export const installerProfile = pgTable(
+	'installer_profile',
+	{
+		id: id(),
+		organizationId: storeId(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => user.id, { onDelete: 'cascade' }),
+		crewSize: integer('crew_size').notNull().default(1),
+		/** Floor kinds this installer lays. */
+		floorKinds: text('floor_kinds')
+			.array()
+			.$type<FloorKind[]>()
+			.notNull()
+			.default(sql`'{}'::text[]`),
+		/** The crew's ft² per day by floor kind; a kind left out uses the store's setting. */
+		sqFtPerDay: jsonb('sq_ft_per_day')
+			.$type<Partial<Record<FloorKind, number>>>()
+			.notNull()
+			.default({}),
+		/** Pay that replaces the price book's installer pay, item by item. */
+		payRates: jsonb('pay_rates').$type<InstallerPayRate[]>().notNull().default([]),
+		/** Weekdays never worked, ISO numbering (1 = Monday … 7 = Sunday). */
+		daysOff: integer('days_off')
+			.array()
+			.$type<number[]>()
+			.notNull()
+			.default(sql`'{}'::integer[]`),
+		phone: text('phone').notNull().default(''),
+		notes: text('notes').notNull().default(''),
+		...timestamps
+	},
+	(t) => [
+		unique('installer_profile_user_uq').on(t.organizationId, t.userId),
+		check('installer_profile_crew_size', sql`${t.crewSize} between 1 and 50`),
+		check('installer_profile_days_off', sql`${t.daysOff} <@ array[1, 2, 3, 4, 5, 6, 7]`),
+		storeIsolation
+	]
+).enableRLS();
+
+/** Dates an installer is away (holiday, another site), both days included. */
+export const installerTimeOff = pgTable(
+	'installer_time_off',
+	{
+		id: id(),
+		organizationId: storeId(),
+		installerId: text('installer_id').notNull(),
+		startsOn: date('starts_on').notNull(),
+		endsOn: date('ends_on').notNull(),
+		note: text('note').notNull().default(''),
+		createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+		createdAt: timestamp('created_at', { withTimezone: true }).defaultNow().notNull()
+	},
+	(t) => [
+		index('installer_time_off_installer_idx').on(t.organizationId, t.installerId, t.startsOn),
+		foreignKey({
+			name: 'installer_time_off_profile_fk',
+			columns: [t.organizationId, t.installerId],
+			foreignColumns: [installerProfile.organizationId, installerProfile.userId]
+		}).onDelete('cascade'),
+		check(
+			'installer_time_off_dates',
+			sql`${t.endsOn} >= ${t.startsOn} and ${t.endsOn} - ${t.startsOn} < 366`
+		),
+		storeIsolation
+	]
+).enableRLS();
+
+/**
+ * A job booked for an installer: consecutive calendar days from `starts_on` in the store's time
+ * zone. `version` rises with every change of days or installer (the calendar file's SEQUENCE;
+ * the id is its UID). Cancelled bookings are kept; a job has at most one live booking.
+ */
+export const booking = pgTable(
+	'booking',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		installerId: text('installer_id').notNull(),
+		startsOn: date('starts_on').notNull(),
+		days: integer('days').notNull(),
+		/** The last day booked, kept by the database. */
+		endsOn: date('ends_on').generatedAlwaysAs(sql`starts_on + days - 1`),
+		/** Arrival on each day, the store's local time; none means the store's day start. */
+		arrivesAt: time('arrives_at'),
+		/** The days the engine proposed, and why: its work steps, hours and cure waits. */
+		proposedDays: integer('proposed_days').notNull(),
+		proposal: jsonb('proposal').$type<Schedule>().notNull(),
+		/** What the installer should know: access, parking, keys. */
+		notes: text('notes').notNull().default(''),
+		version: integer('version').notNull().default(1),
+		bookedBy: text('booked_by').references(() => user.id, { onDelete: 'set null' }),
+		cancelledAt: timestamp('cancelled_at', { withTimezone: true }),
+		cancelledBy: text('cancelled_by').references(() => user.id, { onDelete: 'set null' }),
+		...timestamps
+	},
+	(t) => [
+		index('booking_installer_days_idx').on(t.organizationId, t.installerId, t.startsOn),
+		index('booking_days_idx').on(t.organizationId, t.startsOn),
+		unique('booking_id_organization_uq').on(t.id, t.organizationId),
+		uniqueIndex('booking_job_live_uq')
+			.on(t.organizationId, t.jobId)
+			.where(sql`${t.cancelledAt} is null`),
+		foreignKey({
+			name: 'booking_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		foreignKey({
+			name: 'booking_installer_profile_fk',
+			columns: [t.organizationId, t.installerId],
+			foreignColumns: [installerProfile.organizationId, installerProfile.userId]
+		}),
+		check('booking_days', sql`${t.days} between 1 and 60`),
+		check('booking_proposed_days', sql`${t.proposedDays} between 0 and 366`),
+		check('booking_version', sql`${t.version} >= 1`),
+		storeIsolation
+	]
+).enableRLS();
+
+/**
+ * The installer's report of a job: one per job, made at the first check-in. What was found,
+ * read and noted are its items (`field_item`); photos are in `field_photo`.
+ */
+export const fieldReport = pgTable(
+	'field_report',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		checkedInAt: timestamp('checked_in_at', { withTimezone: true }).notNull(),
+		checkedInBy: text('checked_in_by').references(() => user.id, { onDelete: 'set null' }),
+		/** When the installer last sent the report for the store's review. */
+		submittedAt: timestamp('submitted_at', { withTimezone: true }),
+		submittedBy: text('submitted_by').references(() => user.id, { onDelete: 'set null' }),
+		...timestamps
+	},
+	(t) => [
+		unique('field_report_job_uq').on(t.organizationId, t.jobId),
+		unique('field_report_id_organization_uq').on(t.id, t.organizationId),
+		foreignKey({
+			name: 'field_report_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		storeIsolation
+	]
+).enableRLS();
+
+export const FIELD_ITEM_KINDS = ['found', 'reading', 'note'] as const;
+export const fieldItemKind = pgEnum('field_item_kind', FIELD_ITEM_KINDS);
+
+/** Readings as the engine's `ReadingsMeasure` has them, one reading per item. */
+export const READING_KINDS = [
+	'flatness',
+	'rh',
+	'calcium_chloride',
+	'wood_mc_subfloor',
+	'wood_mc_flooring'
+] as const;
+export const readingKind = pgEnum('reading_kind', READING_KINDS);
+
+/** One reading: a straightedge gap, a dish test, or a percentage (RH probe, wood moisture). */
+export type FieldReadingValue = FlatnessMeasure | CalciumChlorideTest | { pct: number };
+
+/**
+ * One thing the installer recorded on the phone: prep found (the quote's item and unit, the
+ * whole amount found in that room), a reading, or a note. `client_id` is made on the phone, so
+ * a resend is stored once; `version` rises with each edit so two phones merge item by item; a
+ * deletion is kept as `deleted_at` so it merges too.
+ */
+export const fieldItem = pgTable(
+	'field_item',
+	{
+		id: id(),
+		organizationId: storeId(),
+		reportId: text('report_id').notNull(),
+		clientId: text('client_id').notNull(),
+		kind: fieldItemKind('kind').notNull(),
+		/** The measure's room id; none for the whole job (as the quote's job-wide lines). */
+		roomId: text('room_id'),
+		ref: jsonb('ref').$type<ItemRef>(),
+		/** `refKey(ref)`, for grouping and the one-live-item rule. */
+		refKey: text('ref_key'),
+		qty: numeric('qty', { precision: 14, scale: 4, mode: 'number' }),
+		unit: text('unit').$type<Basis>(),
+		readingKind: readingKind('reading_kind'),
+		reading: jsonb('reading').$type<FieldReadingValue>(),
+		note: text('note').notNull().default(''),
+		version: integer('version').notNull().default(1),
+		recordedBy: text('recorded_by').references(() => user.id, { onDelete: 'set null' }),
+		/** When it was recorded, by the phone's clock. */
+		recordedAt: timestamp('recorded_at', { withTimezone: true }).notNull(),
+		deletedAt: timestamp('deleted_at', { withTimezone: true }),
+		...timestamps
+	},
+	(t) => [
+		index('field_item_report_idx').on(t.organizationId, t.reportId),
+		unique('field_item_client_uq').on(t.organizationId, t.clientId),
+		unique('field_item_id_organization_uq').on(t.id, t.organizationId),
+		// One live amount found per room and item: a second phone's item for the same room and
+		// item is refused, and merges with the first instead of adding to it.
+		uniqueIndex('field_item_found_once_uq')
+			.on(t.organizationId, t.reportId, sql`coalesce(${t.roomId}, '')`, t.refKey)
+			.where(sql`${t.kind} = 'found' and ${t.deletedAt} is null`),
+		foreignKey({
+			name: 'field_item_report_same_store_fk',
+			columns: [t.reportId, t.organizationId],
+			foreignColumns: [fieldReport.id, fieldReport.organizationId]
+		}).onDelete('cascade'),
+		check('field_item_client_id', sql`char_length(${t.clientId}) between 8 and 64`),
+		check(
+			'field_item_found_shape',
+			sql`${t.kind} <> 'found' or (${t.ref} is not null and ${t.refKey} is not null and ${t.unit} is not null and ${t.qty} is not null and ${t.qty} >= 0 and ${t.qty} <= 1000000)`
+		),
+		check(
+			'field_item_reading_shape',
+			sql`${t.kind} <> 'reading' or (${t.readingKind} is not null and ${t.reading} is not null)`
+		),
+		check('field_item_note_shape', sql`${t.kind} <> 'note' or ${t.note} <> ''`),
+		check('field_item_version', sql`${t.version} >= 1`),
+		storeIsolation
+	]
+).enableRLS();
+
+export const PHOTO_PURPOSES = ['report', 'completion'] as const;
+export const photoPurpose = pgEnum('photo_purpose', PHOTO_PURPOSES);
+
+/** What the file store keeps: images re-encoded by the server, never the phone's original. */
+export const PHOTO_MEDIA_TYPES = ['image/jpeg', 'image/png', 'image/webp'] as const;
+
+/**
+ * A photo from the site. The stored file is the server's re-encoding (orientation applied,
+ * metadata and location removed) and its thumbnail; `client_id` is made on the phone, so a
+ * resend is stored once. A report photo may belong to an item (by the item's client id).
+ */
+export const fieldPhoto = pgTable(
+	'field_photo',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		clientId: text('client_id').notNull(),
+		purpose: photoPurpose('purpose').notNull(),
+		roomId: text('room_id'),
+		itemClientId: text('item_client_id'),
+		fileKey: text('file_key').notNull(),
+		thumbKey: text('thumb_key').notNull(),
+		mediaType: text('media_type', { enum: PHOTO_MEDIA_TYPES }).notNull(),
+		byteSize: integer('byte_size').notNull(),
+		width: integer('width').notNull(),
+		height: integer('height').notNull(),
+		caption: text('caption').notNull().default(''),
+		/** When it was taken, by the phone; none when unknown. */
+		takenAt: timestamp('taken_at', { withTimezone: true }),
+		uploadedBy: text('uploaded_by').references(() => user.id, { onDelete: 'set null' }),
+		deletedAt: timestamp('deleted_at', { withTimezone: true }),
+		...timestamps
+	},
+	(t) => [
+		index('field_photo_job_idx').on(t.organizationId, t.jobId),
+		unique('field_photo_client_uq').on(t.organizationId, t.clientId),
+		unique('field_photo_id_organization_uq').on(t.id, t.organizationId),
+		foreignKey({
+			name: 'field_photo_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		foreignKey({
+			name: 'field_photo_item_same_store_fk',
+			columns: [t.organizationId, t.itemClientId],
+			foreignColumns: [fieldItem.organizationId, fieldItem.clientId]
+		}),
+		check('field_photo_client_id', sql`char_length(${t.clientId}) between 8 and 64`),
+		check(
+			'field_photo_media_type',
+			sql`${t.mediaType} in ('image/jpeg', 'image/png', 'image/webp')`
+		),
+		check('field_photo_byte_size', sql`${t.byteSize} between 1 and 20971520`),
+		check(
+			'field_photo_dimensions',
+			sql`${t.width} between 1 and 20000 and ${t.height} between 1 and 20000`
+		),
+		check(
+			'field_photo_completion_no_item',
+			sql`${t.purpose} <> 'completion' or ${t.itemClientId} is null`
+		),
+		storeIsolation
+	]
+).enableRLS();
+
+/** What the change-order engine was given, whole, so its figures can be worked out again. */
+export interface ChangeOrderInput {
+	sold: QuantityItem[];
+	found: QuantityItem[];
+	priceBook: PriceBook;
+	settings: StoreSettings;
+}
+
+/** A manager's change to the engine's figures, with why (e.g. a goodwill credit). */
+export interface ChangeOrderAdjustment {
+	description: string;
+	/** Added to the customer's amount before tax; negative for a credit. */
+	amountCents: number;
+	/** Added to the installer's pay. */
+	payCents: number;
+}
+
+export const changeOrderStatus = pgEnum('change_order_status', CHANGE_ORDER_STATUSES);
+
+/**
+ * The difference between the prep sold and the prep found, priced by the engine from the store's
+ * price book: made from the report, adjusted and sent by a manager, approved or declined by the
+ * customer. Totals are after adjustments and may be negative (a credit). From `reviewed` on its
+ * figures are frozen, and once decided the decision is too (trigger `change_order_guard`).
+ */
+export const changeOrder = pgTable(
+	'change_order',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		reportId: text('report_id').notNull(),
+		/** CO-1, CO-2…: per job. */
+		number: integer('number').notNull(),
+		status: changeOrderStatus('status').notNull().default('submitted'),
+		input: jsonb('input').$type<ChangeOrderInput>().notNull(),
+		result: jsonb('result').$type<ChangeOrder>().notNull(),
+		adjustments: jsonb('adjustments').$type<ChangeOrderAdjustment[]>().notNull().default([]),
+		currency: text('currency').notNull(),
+		subtotalCents: integer('subtotal_cents').notNull(),
+		taxCents: integer('tax_cents').notNull(),
+		totalCents: integer('total_cents').notNull(),
+		payDeltaCents: integer('pay_delta_cents').notNull(),
+		createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+		reviewedAt: timestamp('reviewed_at', { withTimezone: true }),
+		reviewedBy: text('reviewed_by').references(() => user.id, { onDelete: 'set null' }),
+		sentAt: timestamp('sent_at', { withTimezone: true }),
+		sentTo: text('sent_to'),
+		/** A manager's reason for declining (required then); or the customer's, if given. */
+		declineReason: text('decline_reason').notNull().default(''),
+		declinedBy: text('declined_by').references(() => user.id, { onDelete: 'set null' }),
+		/** The customer's decision, approve or decline, as for a quote's acceptance. */
+		decidedAt: timestamp('decided_at', { withTimezone: true }),
+		decidedName: text('decided_name'),
+		decidedIp: text('decided_ip'),
+		decidedUserAgent: text('decided_user_agent'),
+		...timestamps
+	},
+	(t) => [
+		index('change_order_job_idx').on(t.organizationId, t.jobId),
+		unique('change_order_id_organization_uq').on(t.id, t.organizationId),
+		unique('change_order_id_job_organization_uq').on(t.id, t.jobId, t.organizationId),
+		unique('change_order_job_number_uq').on(t.organizationId, t.jobId, t.number),
+		// One change order in the works per job: a report sent twice cannot make two.
+		uniqueIndex('change_order_one_open_uq')
+			.on(t.organizationId, t.jobId)
+			.where(sql`${t.status} in ('submitted', 'reviewed')`),
+		foreignKey({
+			name: 'change_order_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('restrict'),
+		foreignKey({
+			name: 'change_order_report_same_store_fk',
+			columns: [t.reportId, t.organizationId],
+			foreignColumns: [fieldReport.id, fieldReport.organizationId]
+		}).onDelete('restrict'),
+		check('change_order_number', sql`${t.number} >= 1`),
+		check('change_order_total', sql`${t.totalCents} = ${t.subtotalCents} + ${t.taxCents}`),
+		check(
+			'change_order_approved_by_customer',
+			sql`${t.status} <> 'approved' or (${t.decidedAt} is not null and ${t.decidedName} <> '')`
+		),
+		check(
+			'change_order_manager_decline_reason',
+			sql`${t.declinedBy} is null or ${t.declineReason} <> ''`
+		),
+		storeIsolation
+	]
+).enableRLS();
+
+/**
+ * The job marked complete by the installer, with the customer's walk-through notes, and the
+ * customer's sign-off through the link (typed name, time, address, browser, as for a quote).
+ * Its photos are `field_photo` rows with purpose `completion`. Signed off, it is kept as is.
+ */
+export const jobCompletion = pgTable(
+	'job_completion',
+	{
+		id: id(),
+		organizationId: storeId(),
+		jobId: text('job_id').notNull(),
+		completedAt: timestamp('completed_at', { withTimezone: true }).notNull(),
+		completedBy: text('completed_by').references(() => user.id, { onDelete: 'set null' }),
+		walkthroughNotes: text('walkthrough_notes').notNull().default(''),
+		signedAt: timestamp('signed_at', { withTimezone: true }),
+		signedName: text('signed_name'),
+		signedIp: text('signed_ip'),
+		signedUserAgent: text('signed_user_agent'),
+		...timestamps
+	},
+	(t) => [
+		unique('job_completion_job_uq').on(t.organizationId, t.jobId),
+		foreignKey({
+			name: 'job_completion_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		check(
+			'job_completion_signed',
+			sql`(${t.signedAt} is null and ${t.signedName} is null) or (${t.signedAt} is not null and ${t.signedName} <> '')`
+		),
+		storeIsolation
+	]
+).enableRLS();
+
+export const STATEMENT_STATUSES = ['open', 'paid'] as const;
+export const statementStatus = pgEnum('statement_status', STATEMENT_STATUSES);
+
+/**
+ * What a store owes one installer for one period. `total_cents` is the sum of its lines, kept by
+ * the database. Paid, it is kept as it is: a correction is a line in a later period.
+ */
+export const installerStatement = pgTable(
+	'installer_statement',
+	{
+		id: id(),
+		organizationId: storeId(),
+		installerId: text('installer_id').notNull(),
+		periodStart: date('period_start').notNull(),
+		periodEnd: date('period_end').notNull(),
+		currency: text('currency').notNull(),
+		status: statementStatus('status').notNull().default('open'),
+		totalCents: integer('total_cents').notNull().default(0),
+		paidAt: timestamp('paid_at', { withTimezone: true }),
+		paidBy: text('paid_by').references(() => user.id, { onDelete: 'set null' }),
+		/** The store's payment reference (transfer id, cheque number). */
+		paidReference: text('paid_reference').notNull().default(''),
+		...timestamps
+	},
+	(t) => [
+		index('installer_statement_period_idx').on(t.organizationId, t.periodStart),
+		unique('installer_statement_period_uq').on(t.organizationId, t.installerId, t.periodStart),
+		unique('installer_statement_id_installer_organization_uq').on(
+			t.id,
+			t.installerId,
+			t.organizationId
+		),
+		foreignKey({
+			name: 'installer_statement_profile_fk',
+			columns: [t.organizationId, t.installerId],
+			foreignColumns: [installerProfile.organizationId, installerProfile.userId]
+		}),
+		check(
+			'installer_statement_period',
+			sql`${t.periodEnd} >= ${t.periodStart} and ${t.periodEnd} - ${t.periodStart} < 366`
+		),
+		check(
+			'installer_statement_paid',
+			sql`(${t.status} = 'open' and ${t.paidAt} is null) or (${t.status} = 'paid' and ${t.paidAt} is not null and ${t.paidReference} <> '')`
+		),
+		storeIsolation
+	]
+).enableRLS();
+
+export const STATEMENT_LINE_KINDS = ['install', 'extra', 'chargeback', 'adjustment'] as const;
+export const statementLineKind = pgEnum('statement_line_kind', STATEMENT_LINE_KINDS);
+
+/**
+ * One line of an installer statement, in cents: install pay for a job (once per installer and
+ * job), the pay of an approved change order (once per change order), a chargeback (negative,
+ * with a reason) or an adjustment (a correction of an earlier period, with a reason).
+ */
+export const installerStatementLine = pgTable(
+	'installer_statement_line',
+	{
+		id: id(),
+		organizationId: storeId(),
+		statementId: text('statement_id').notNull(),
+		installerId: text('installer_id').notNull(),
+		kind: statementLineKind('kind').notNull(),
+		jobId: text('job_id'),
+		changeOrderId: text('change_order_id'),
+		description: text('description').notNull().default(''),
+		reason: text('reason').notNull().default(''),
+		amountCents: integer('amount_cents').notNull(),
+		createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+		createdAt: timestamp('created_at', { withTimezone: true }).defaultNow().notNull()
+	},
+	(t) => [
+		index('installer_statement_line_statement_idx').on(t.organizationId, t.statementId),
+		uniqueIndex('installer_statement_line_install_once_uq')
+			.on(t.organizationId, t.installerId, t.jobId)
+			.where(sql`${t.kind} = 'install'`),
+		uniqueIndex('installer_statement_line_extra_once_uq')
+			.on(t.organizationId, t.changeOrderId)
+			.where(sql`${t.kind} = 'extra'`),
+		foreignKey({
+			name: 'installer_statement_line_statement_fk',
+			columns: [t.statementId, t.installerId, t.organizationId],
+			foreignColumns: [
+				installerStatement.id,
+				installerStatement.installerId,
+				installerStatement.organizationId
+			]
+		}).onDelete('cascade'),
+		foreignKey({
+			name: 'installer_statement_line_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('restrict'),
+		foreignKey({
+			name: 'installer_statement_line_change_order_same_job_fk',
+			columns: [t.changeOrderId, t.jobId, t.organizationId],
+			foreignColumns: [changeOrder.id, changeOrder.jobId, changeOrder.organizationId]
+		}).onDelete('restrict'),
+		check(
+			'installer_statement_line_amount',
+			sql`${t.amountCents} between -100000000 and 100000000`
+		),
+		check(
+			'installer_statement_line_install',
+			sql`${t.kind} <> 'install' or (${t.jobId} is not null and ${t.amountCents} >= 0)`
+		),
+		check(
+			'installer_statement_line_extra',
+			sql`${t.kind} <> 'extra' or (${t.jobId} is not null and ${t.changeOrderId} is not null)`
+		),
+		check(
+			'installer_statement_line_chargeback',
+			sql`${t.kind} <> 'chargeback' or (${t.amountCents} < 0 and ${t.reason} <> '')`
+		),
+		check(
+			'installer_statement_line_adjustment',
+			sql`${t.kind} <> 'adjustment' or ${t.reason} <> ''`
+		),
+		storeIsolation
+	]
+).enableRLS();
 
 export * from './auth.schema';

@@ -91,6 +91,7 @@ const paymentColumns = {
 	stripePaymentIntentId: payment.stripePaymentIntentId,
 	stripeChargeId: payment.stripeChargeId,
 	stripeBalanceTransactionId: payment.stripeBalanceTransactionId,
+	changeOrderId: payment.changeOrderId,
 	checkoutUrl: payment.checkoutUrl,
 	checkoutExpiresAt: payment.checkoutExpiresAt,
 	recordedBy: payment.recordedBy,
