@@ -18,7 +18,11 @@ import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
 import * as measures from '../src/lib/server/db/queries/measures';
 import * as payments from '../src/lib/server/db/queries/payments';
 import * as quotes from '../src/lib/server/db/queries/quotes';
-import * as sites from '../src/lib/server/db/queries/sites';
+import { inStore, type StoreWriteTx } from '../src/lib/server/db/tenant';
+import { recordInStore } from '../src/lib/server/payments/record';
+import { acceptQuote } from '../src/lib/server/quotes/answer';
+import { buildQuote } from '../src/lib/server/quotes/build';
+import { sendQuote } from '../src/lib/server/quotes/send';
 import { demoMeasure } from './demo-measures';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
@@ -154,8 +158,8 @@ const MORE_FLOORS = [
 ];
 
 /** The demo store's trade settings and price book (invented products, sensible trade prices). */
-export async function seedPriceBook(storeId: string) {
-	await tradeSettings.save(storeId, {
+export async function seedPriceBook(tx: StoreWriteTx) {
+	await tradeSettings.save(tx, {
 		settings: {
 			...defaultSettings,
 			taxes: [{ name: 'Bramblefield sales tax', rateBps: 650, groups: ['material'] }],
@@ -170,11 +174,11 @@ export async function seedPriceBook(storeId: string) {
 		...floors,
 		...MORE_FLOORS.map((f) => ({ id: '', ...f }))
 	]) {
-		const row = await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+		const row = await priceBook.create(tx, { section: 'floor', code: '', name, data });
 		floorIds.set(name, row.id);
 	}
 	for (const item of prep) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'prep',
 			code: item.kind,
 			name: PREP_LABELS[item.kind],
@@ -182,7 +186,7 @@ export async function seedPriceBook(storeId: string) {
 		});
 	}
 	for (const item of removal) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'removal',
 			code: item.existing,
 			name: `Tear out ${EXISTING_FLOOR_LABELS[item.existing].toLowerCase()}`,
@@ -190,7 +194,7 @@ export async function seedPriceBook(storeId: string) {
 		});
 	}
 	for (const item of supplies) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'supply',
 			code: item.kind,
 			name: item.name,
@@ -230,14 +234,17 @@ export async function seedDemo() {
 			body: { userId: ids.get(person.email)!, role: person.role, organizationId: store.id }
 		});
 	}
-	const floor = await seedPriceBook(store.id);
-	// Each store's own Stripe account (the local fake keeps each apart, as Stripe does).
-	await tradeSettings.saveStripeAccount(store.id, 'acct_tallowcreekdemo1');
-	await saveProfile(store.id, {
-		address: '418 Millrace Road',
-		town: 'Bramblefield',
-		phone: '555-0100',
-		email: 'desk@tallowcreek.example'
+	const floor = await inStore(store.id, async (tx) => {
+		const floor = await seedPriceBook(tx);
+		// Each store's own Stripe account (the local fake keeps each apart, as Stripe does).
+		await tradeSettings.saveStripeAccount(tx, 'acct_tallowcreekdemo1');
+		await saveProfile(tx, {
+			address: '418 Millrace Road',
+			town: 'Bramblefield',
+			phone: '555-0100',
+			email: 'desk@tallowcreek.example'
+		});
+		return floor;
 	});
 
 	const second = await auth.api.createOrganization({
@@ -248,7 +255,7 @@ export async function seedDemo() {
 		}
 	});
 	if (!second) throw new Error('The second demo store was not created');
-	await tradeSettings.saveStripeAccount(second.id, 'acct_hollinvaledemo1');
+	await inStore(second.id, (tx) => tradeSettings.saveStripeAccount(tx, 'acct_hollinvaledemo1'));
 	// Rosa installs for both stores with one login.
 	await auth.api.addMember({
 		body: {
@@ -257,18 +264,42 @@ export async function seedDemo() {
 			organizationId: second.id
 		}
 	});
-	await saveProfile(second.id, {
-		address: '7 Weir Lane',
-		town: 'Hollin Vale',
-		phone: '555-0200',
-		email: ''
-	});
+	await inStore(second.id, (tx) =>
+		saveProfile(tx, { address: '7 Weir Lane', town: 'Hollin Vale', phone: '555-0200', email: '' })
+	);
+	await inStore(store.id, (tx) =>
+		seedJobs(tx, {
+			floor,
+			sellers: [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!],
+			managerId: ids.get('manager@tallowcreek.example')!,
+			installerOf: (n) => ids.get(DEMO_PEOPLE[n].email)!
+		})
+	);
+	await inStore(second.id, (tx) =>
+		seedSecondStore(tx, {
+			ownerId: ids.get(SECOND_STORE.owner.email)!,
+			installerId: ids.get('installer@tallowcreek.example')!
+		})
+	);
+	return { storeId: store.id, secondStoreId: second.id };
+}
 
+/** The demo store's customers, their homes and their jobs, each walked as far as its path goes. */
+async function seedJobs(
+	tx: StoreWriteTx,
+	people: {
+		floor: (name: string) => string;
+		sellers: string[];
+		managerId: string;
+		installerOf: (index: number) => string;
+	}
+) {
+	const { floor, sellers, managerId } = people;
 	const customerRows = [];
-	for (const c of CUSTOMERS) customerRows.push(await customers.create(store.id, c));
+	for (const c of CUSTOMERS) customerRows.push(await customers.create(tx, c));
 	const siteIds: string[] = [];
 	for (const [i, place] of SITES.entries()) {
-		const row = await sites.create(store.id, customerRows[i].id, {
+		const row = await sites.create(tx, customerRows[i].id, {
 			label: 'Home',
 			address: place.address,
 			town: 'Bramblefield',
@@ -279,22 +310,20 @@ export async function seedDemo() {
 		});
 		siteIds.push(row!.id);
 	}
-	const sellers = [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!];
-	const managerId = ids.get('manager@tallowcreek.example')!;
 	for (const [n, j] of JOBS.entries()) {
 		const seller = sellers[n % 2];
 		const customer = customerRows[j.customer];
-		const job = await jobs.create(store.id, { customerId: customer.id, title: j.title }, seller);
+		const job = await jobs.create(tx, { customerId: customer.id, title: j.title }, seller);
 		if (!job) throw new Error(`Demo job ${j.title} was not created`);
-		await sites.setJobSite(store.id, job.id, siteIds[j.customer]);
-		const saved = await measures.save(store.id, job.id, demoMeasure(j.title, floor), 0, seller);
+		await sites.setJobSite(tx, job.id, siteIds[j.customer]);
+		const saved = await measures.save(tx, job.id, demoMeasure(j.title, floor), 0, seller);
 		if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
 		for (const to of j.path) {
 			// Quoting and acceptance go the way they do in the product: build, send, the customer accepts.
 			if (to === 'quoted') {
-				const built = await quotes.build(store.id, job.id, seller);
+				const built = await buildQuote(tx, job.id, seller);
 				if (!built.ok) throw new Error(`Demo quote of ${j.title}: ${JSON.stringify(built)}`);
-				const sent = await quotes.send(store.id, built.quote.id, {
+				const sent = await sendQuote(tx, built.quote.id, {
 					to: customer.email ?? 'no-email@example.com',
 					validDays: 30,
 					actorId: seller
@@ -303,8 +332,8 @@ export async function seedDemo() {
 				continue;
 			}
 			if (to === 'accepted') {
-				const latest = await quotes.forCustomer(store.id, job.id);
-				const accepted = await quotes.accept(store.id, job.id, latest!.id, {
+				const latest = await quotes.forCustomer(tx, job.id);
+				const accepted = await acceptQuote(tx, job.id, latest!.id, {
 					name: customer.name,
 					// An address from the range kept for documentation (RFC 5737).
 					ip: '198.51.100.20',
@@ -314,13 +343,13 @@ export async function seedDemo() {
 				continue;
 			}
 			if (to === 'scheduled' && j.installer !== undefined) {
-				await jobs.assign(store.id, job.id, ids.get(DEMO_PEOPLE[j.installer].email)!, managerId);
+				await jobs.assign(tx, job.id, people.installerOf(j.installer), managerId);
 			}
 			if (to === 'sold') {
 				// The deposit, taken on the store's card terminal: the ledger moves the job to sold.
-				const money = await payments.moneyFor(store.id, job.id);
-				const paid = await payments.recordInStore(
-					store.id,
+				const money = await payments.moneyFor(tx, job.id);
+				const paid = await recordInStore(
+					tx,
 					job.id,
 					{
 						purpose: 'deposit',
@@ -334,9 +363,9 @@ export async function seedDemo() {
 				continue;
 			}
 			if (to === 'closed') {
-				const money = await payments.moneyFor(store.id, job.id);
-				const paid = await payments.recordInStore(
-					store.id,
+				const money = await payments.moneyFor(tx, job.id);
+				const paid = await recordInStore(
+					tx,
 					job.id,
 					{
 						purpose: 'balance',
@@ -348,19 +377,22 @@ export async function seedDemo() {
 				);
 				if (!paid.ok) throw new Error(`Demo balance of ${j.title}: ${paid.reason}`);
 			}
-			const moved = await jobs.move(store.id, job.id, to, managerId);
+			const moved = await jobs.move(tx, job.id, to, managerId);
 			if (!moved.ok) throw new Error(`Demo job ${j.title} could not move to ${to}`);
 		}
 	}
+}
 
-	const hollinCustomer = await customers.create(second.id, {
+/** The second store's customer, site, price and job, for the tenancy checks and Rosa's two stores. */
+async function seedSecondStore(tx: StoreWriteTx, people: { ownerId: string; installerId: string }) {
+	const hollinCustomer = await customers.create(tx, {
 		name: 'Pim Arkwright',
 		email: 'pim.arkwright@example.com',
 		phone: '555-0231',
 		notes: ''
 	});
 	// A site and a price of the second store, for the tenancy checks.
-	await sites.create(second.id, hollinCustomer.id, {
+	await sites.create(tx, hollinCustomer.id, {
 		label: 'Home',
 		address: '12 Sluice Row',
 		town: 'Hollin Vale',
@@ -369,7 +401,7 @@ export async function seedDemo() {
 		subfloor: 'Boards',
 		notes: ''
 	});
-	await priceBook.create(second.id, {
+	await priceBook.create(tx, {
 		section: 'floor',
 		code: '',
 		name: 'Hollin porcelain 24 × 24 in',
@@ -383,14 +415,11 @@ export async function seedDemo() {
 		}
 	});
 	const hollinJob = await jobs.create(
-		second.id,
+		tx,
 		{ customerId: hollinCustomer.id, title: 'Entry hall porcelain' },
-		ids.get(SECOND_STORE.owner.email)!
+		people.ownerId
 	);
-	if (hollinJob) {
-		await jobs.assign(second.id, hollinJob.id, ids.get('installer@tallowcreek.example')!, ownerId);
-	}
-	return { storeId: store.id, secondStoreId: second.id };
+	if (hollinJob) await jobs.assign(tx, hollinJob.id, people.installerId, people.ownerId);
 }
 
 /** Empties every table (as the schema owner; the app's role may not truncate). */

@@ -9,6 +9,7 @@ import { calculators, type CalculatorName } from '../../src/lib/schemas/estimate
 import { pool } from '../../src/lib/server/db';
 import { priceBookFor } from '../../src/lib/server/db/queries/price-book';
 import { read as readSettings } from '../../src/lib/server/db/queries/settings';
+import { readInStore } from '../../src/lib/server/db/tenant';
 import { demoEmail, signInRequest } from './helpers';
 
 let sales: APIRequestContext;
@@ -33,7 +34,7 @@ test.beforeAll(async ({ playwright, baseURL }) => {
 	await signInRequest(sales, baseURL!, demoEmail('sales'));
 	await signInRequest(installer, baseURL!, demoEmail('installer'));
 	storeId = (await (await sales.get('/api/v1/me')).json()).store.id;
-	settings = (await readSettings(storeId)).settings;
+	settings = (await readInStore(storeId, readSettings)).settings;
 });
 
 test.afterAll(async () => {
@@ -130,8 +131,9 @@ test('a bad body is 400 with the path of each bad field; nothing else answers', 
 });
 
 test("the preview prices a job with the store's own settings and price book", async () => {
-	const { currency } = await readSettings(storeId);
-	const priceBook = await priceBookFor(storeId, currency);
+	const priceBook = await readInStore(storeId, async (tx) =>
+		priceBookFor(tx, (await readSettings(tx)).currency)
+	);
 	// The demo store's floors are the sample book's, under ids of its own.
 	const storeFloor = new Map(priceBook.floors.map((f) => [f.name, f.id]));
 	const job = sampleJob(4);

@@ -1,5 +1,6 @@
 // The calculator and preview routes' server side: the store's own settings and price book, and
 // what an installer may get back.
+import { inStore } from '$lib/server/db/tenant';
 import { describe, expect, it } from 'vitest';
 import { defaultSettings, estimate } from '$lib/estimating';
 import { sampleJob, samplePriceBook } from '$lib/estimating/sample';
@@ -15,21 +16,25 @@ describe('runCalculator', () => {
 	it("uses the engine's defaults for a store that saved none, and the store's own once saved", async () => {
 		const store = await makeStore('Calc Floors');
 		// 120 × 1.10 ÷ 20.5 = 6.44 → 7 (common practice arithmetic)
-		expect(await runCalculator(store.id, 'cartons', cartons)).toMatchObject({
+		expect(await inStore(store.id, (tx) => runCalculator(tx, 'cartons', cartons))).toMatchObject({
 			cartons: 7,
 			wastePct: 10
 		});
 		const settings = structuredClone(defaultSettings);
 		settings.wastePct.straight = 25;
-		await tradeSettings.save(store.id, { settings, currency: 'USD', quoteValidDays: 30 });
+		await inStore(store.id, (tx) =>
+			tradeSettings.save(tx, { settings, currency: 'USD', quoteValidDays: 30 })
+		);
 		// 120 × 1.25 ÷ 20.5 = 7.32 → 8
-		expect(await runCalculator(store.id, 'cartons', cartons)).toMatchObject({
+		expect(await inStore(store.id, (tx) => runCalculator(tx, 'cartons', cartons))).toMatchObject({
 			cartons: 8,
 			wastePct: 25
 		});
 		// Another store keeps its own.
 		const other = await makeStore('Other Floors');
-		expect(await runCalculator(other.id, 'cartons', cartons)).toMatchObject({ cartons: 7 });
+		expect(await inStore(other.id, (tx) => runCalculator(tx, 'cartons', cartons))).toMatchObject({
+			cartons: 7
+		});
 	});
 });
 
@@ -40,10 +45,14 @@ describe('previewEstimate', () => {
 		const job = sampleJob(4);
 		for (const room of job.rooms)
 			if (room.floor) room.floor.productId = floors[room.floor.productId];
-		const result = await previewEstimate(store.id, 'sales', { job });
-		const { settings, currency } = await tradeSettings.read(store.id);
+		const result = await inStore(store.id, (tx) => previewEstimate(tx, 'sales', { job }));
+		const { settings, currency } = await inStore(store.id, (tx) => tradeSettings.read(tx));
 		expect(result).toEqual(
-			estimate({ job, settings, priceBook: await priceBookFor(store.id, currency) })
+			estimate({
+				job,
+				settings,
+				priceBook: await inStore(store.id, (tx) => priceBookFor(tx, currency))
+			})
 		);
 		expect('lines' in result && result.ok).toBe(true);
 		// The store's sales tax applies (Test sales tax, 6.5 % on material).
@@ -53,7 +62,9 @@ describe('previewEstimate', () => {
 	it('uses the settings and price book sent in the body as they are', async () => {
 		const store = await makeStore('Sent Floors');
 		const input = { job: sampleJob(2), settings: defaultSettings, priceBook: samplePriceBook };
-		expect(await previewEstimate(store.id, 'owner', input)).toEqual(estimate(input));
+		expect(await inStore(store.id, (tx) => previewEstimate(tx, 'owner', input))).toEqual(
+			estimate(input)
+		);
 	});
 
 	it('gives an installer the installer view: no prices, totals or margins', async () => {
@@ -62,7 +73,7 @@ describe('previewEstimate', () => {
 		const job = sampleJob(3);
 		for (const room of job.rooms)
 			if (room.floor) room.floor.productId = floors[room.floor.productId];
-		const view = await previewEstimate(store.id, 'installer', { job });
+		const view = await inStore(store.id, (tx) => previewEstimate(tx, 'installer', { job }));
 		expect(Object.keys(view).sort()).toEqual(
 			[
 				'cautions',

@@ -2,12 +2,12 @@
 // they netted.
 import { LOCAL_STRIPE_WEBHOOK_SECRET } from '$lib/server/config';
 import * as payments from '$lib/server/db/queries/payments';
-import * as quotes from '$lib/server/db/queries/quotes';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
 import { payment } from '$lib/server/db/schema';
 import { inStore } from '$lib/server/db/tenant';
-import { handleEvent, startCheckout } from '$lib/server/payments';
-import { reconcile } from '$lib/server/reconcile';
+import { startCheckout } from '$lib/server/payments/checkout';
+import { reconcile } from '$lib/server/payments/reconcile';
+import { handleEvent } from '$lib/server/payments/webhook';
 import { stripeFakeForTests } from '$mocks/stripe/testing';
 import { resendHandlers } from '$mocks/resend';
 import { mkdtempSync } from 'node:fs';
@@ -15,7 +15,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeQuotedJob, makeStore, unique } from './factories';
+import { makeQuotedJob, makeStore, sendAndAccept, unique } from './factories';
 
 let t: ReturnType<typeof stripeFakeForTests>;
 beforeAll(() => {
@@ -30,22 +30,13 @@ describe('reconciliation', () => {
 	it('flags matched, Stripe-only, ledger-only and differing lines, and shows payouts with their fees', async () => {
 		const store = await makeStore('Reconcile Floors');
 		const account = `acct_${unique('r').replace(/[^a-z0-9]/gi, '')}`;
-		await saveStripeAccount(store.id, account);
+		await inStore(store.id, (tx) => saveStripeAccount(tx, account));
 		const from = new Date(Date.now() - 60_000);
 
 		/** A job paid by card through Checkout, its events handled. */
 		async function paidJob() {
 			const made = await makeQuotedJob(store);
-			await quotes.send(store.id, made.quote.id, {
-				to: 'c@test.example',
-				validDays: 30,
-				actorId: store.owner.id
-			});
-			await quotes.accept(store.id, made.job.id, made.quote.id, {
-				name: 'A',
-				ip: null,
-				userAgent: null
-			});
+			await sendAndAccept(store, made);
 			const since = Math.floor(Date.now() / 1000) - 1;
 			const started = await startCheckout(
 				{ storeId: store.id, jobId: made.job.id, purpose: 'deposit', linkToken: 'x' },
@@ -59,7 +50,7 @@ describe('reconciliation', () => {
 				.reverse()) {
 				await handleEvent(e, t.stripe);
 			}
-			return (await payments.moneyFor(store.id, made.job.id)).payments[0];
+			return (await inStore(store.id, (tx) => payments.moneyFor(tx, made.job.id))).payments[0];
 		}
 
 		const matched = await paidJob();

@@ -58,6 +58,34 @@ export function canMove(from: JobStatus, to: JobStatus): boolean {
 	return nextStatuses(from).includes(to);
 }
 
+/** A job whose quote may still be built, changed and sent: the customer has not accepted yet. */
+export function canQuote(status: JobStatus): boolean {
+	return status === 'draft' || status === 'quoted';
+}
+
+/**
+ * A job that may be deleted: one never sold (a draft) or given up. Its quotes must also never
+ * have been sent: the caller checks that, since it is about quotes, not the job's state.
+ */
+export function canDelete(status: JobStatus): boolean {
+	return status === 'draft' || status === 'cancelled';
+}
+
+/** What a customer pays on a job: the deposit to book it, the balance once it is done. */
+export type PayablePurpose = 'deposit' | 'balance';
+
+/** What the customer can pay on a job now: the deposit once accepted, the balance once completed. */
+export function payableNow(status: JobStatus): PayablePurpose | null {
+	if (status === 'accepted') return 'deposit';
+	if (status === 'completed') return 'balance';
+	return null;
+}
+
+/** A deposit that succeeds sells a job the customer accepted (and nothing else). */
+export function soldByDeposit(status: JobStatus): boolean {
+	return status === 'accepted';
+}
+
 /** Open jobs: not yet finished or given up. */
 export function isOpen(status: JobStatus): boolean {
 	return status !== 'closed' && status !== 'cancelled';

@@ -3,6 +3,7 @@ import type { EstimatePreviewInput } from '$lib/schemas/preview';
 import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
 import { priceBookFor } from './db/queries/price-book';
 import { read as readSettings } from './db/queries/settings';
+import type { StoreTx } from './db/tenant';
 import { can, type Role } from './permissions';
 
 /** What an installer gets from a preview: the engine's installer view, with the errors. */
@@ -14,11 +15,11 @@ export type InstallerPreview = ReturnType<typeof forInstaller> &
  * so the store's own waste, loads and limits apply.
  */
 export async function runCalculator(
-	storeId: string,
+	tx: StoreTx,
 	name: CalculatorName,
 	input: unknown
 ): Promise<CalculatorResult> {
-	const { settings } = await readSettings(storeId);
+	const { settings } = await readSettings(tx);
 	const run = calculators[name].run as (i: unknown, s: StoreSettings) => CalculatorResult;
 	return run(input, settings);
 }
@@ -29,13 +30,13 @@ export async function runCalculator(
  * installer view (quantities, prep, pay and schedule), never store prices or margins.
  */
 export async function previewEstimate(
-	storeId: string,
+	tx: StoreTx,
 	role: Role,
 	body: EstimatePreviewInput
 ): Promise<EstimateResult | InstallerPreview> {
-	const stored = body.settings && body.priceBook ? undefined : await readSettings(storeId);
+	const stored = body.settings && body.priceBook ? undefined : await readSettings(tx);
 	const settings = body.settings ?? stored!.settings;
-	const priceBook = body.priceBook ?? (await priceBookFor(storeId, stored!.currency));
+	const priceBook = body.priceBook ?? (await priceBookFor(tx, stored!.currency));
 	const result = estimate({ job: body.job, settings, priceBook });
 	if (can(role, { priceBook: ['read'] })) return result;
 	return {

@@ -1,6 +1,6 @@
 import { requirePermission } from '$lib/server/guards';
-import { catchUp } from '$lib/server/payments';
-import { reconcile } from '$lib/server/reconcile';
+import { catchUp } from '$lib/server/payments/sync';
+import { reconcile } from '$lib/server/payments/reconcile';
 import type { Actions, PageServerLoad } from './$types';
 import { periodOf } from './period';
 

@@ -1,14 +1,18 @@
 import * as priceBook from '$lib/server/db/queries/price-book';
+import * as tradeSettings from '$lib/server/db/queries/settings';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requireRole } from '$lib/server/guards';
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
-import { currencyOf } from './lines.server';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const { store } = requireRole('owner', 'manager');
-	const [items, currency] = await Promise.all([priceBook.list(store.id), currencyOf(store.id)]);
-	return { items, currency, added: url.searchParams.get('added') };
+	return readInStore(store.id, async (tx) => ({
+		items: await priceBook.list(tx),
+		currency: (await tradeSettings.read(tx)).currency,
+		added: url.searchParams.get('added')
+	}));
 };
 
 const lineId = z.object({ id: z.string().trim().min(1).max(64) });
@@ -19,9 +23,12 @@ export const actions: Actions = {
 		const { store } = requireRole('owner', 'manager');
 		const parsed = lineId.safeParse(Object.fromEntries(await request.formData()));
 		if (!parsed.success) return fail(400, { message: 'Choose a line' });
-		const current = await priceBook.read(store.id, parsed.data.id);
-		if (!current) error(404, 'Not found');
-		await priceBook.update(store.id, current.id, { active: !current.active });
-		return { toggled: current.id, active: !current.active };
+		const id = parsed.data.id;
+		const changed = await inStore(store.id, async (tx) => {
+			const current = await priceBook.read(tx, id);
+			return current && priceBook.update(tx, current.id, { active: !current.active });
+		});
+		if (!changed) error(404, 'Not found');
+		return { toggled: changed.id, active: changed.active };
 	}
 };

@@ -2,6 +2,7 @@ import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { readProfile, saveProfile } from '$lib/server/db/queries/stores';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { fieldErrors, parseForm, refuse, typedValues } from '$lib/server/forms';
 import { requireRole } from '$lib/server/guards';
 import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
@@ -17,12 +18,15 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const { store } = requireRole('owner');
-	const [profile, trade] = await Promise.all([readProfile(store.id), tradeSettings.read(store.id)]);
+	const { profile, trade, stripeAccount } = await readInStore(store.id, async (tx) => ({
+		profile: await readProfile(tx),
+		trade: await tradeSettings.read(tx),
+		stripeAccount: await tradeSettings.stripeAccount(tx)
+	}));
 	const schedules = Object.entries(trade.settings.underlayment.schedules).map(([key, s]) => ({
 		key,
 		...s
 	}));
-	const stripeAccount = await tradeSettings.stripeAccount(store.id);
 	return {
 		stripeAccount,
 		profile: { ...profile, name: store.name },
@@ -49,7 +53,7 @@ export const actions: Actions = {
 			});
 		}
 		try {
-			await tradeSettings.saveStripeAccount(store.id, account || null);
+			await inStore(store.id, (tx) => tradeSettings.saveStripeAccount(tx, account || null));
 		} catch (e) {
 			if ((e as { cause?: { code?: string } }).cause?.code === '23505') {
 				return fail(409, {
@@ -75,24 +79,28 @@ export const actions: Actions = {
 				return refuse(parsed.form, { name: [authFailure(e).message] });
 			}
 		}
-		await saveProfile(store.id, profile);
+		await inStore(store.id, (tx) => saveProfile(tx, profile));
 		return { saved: true };
 	},
 	/** Taxes, deposit, quote validity, units, waste, fastening schedule, crew output; the rest is kept. */
 	trade: async ({ request }) => {
 		const { store } = requireRole('owner');
 		const form = await request.formData();
-		const current = await tradeSettings.read(store.id);
-		const schema = tradeSettingsFormSchema(Object.keys(current.settings.underlayment.schedules));
-		const parsed = schema.safeParse(nestForm(form));
-		if (!parsed.success) return refuseTrade(form, fieldErrors(parsed.error));
-		const applied = applyTradeSettings(current.settings, parsed.data);
-		if (!applied.ok) return refuseTrade(form, applied.errors);
-		await tradeSettings.save(store.id, {
-			settings: applied.settings,
-			currency: current.currency,
-			quoteValidDays: applied.quoteValidDays
+		const refused = await inStore(store.id, async (tx) => {
+			const current = await tradeSettings.read(tx);
+			const schema = tradeSettingsFormSchema(Object.keys(current.settings.underlayment.schedules));
+			const parsed = schema.safeParse(nestForm(form));
+			if (!parsed.success) return fieldErrors(parsed.error);
+			const applied = applyTradeSettings(current.settings, parsed.data);
+			if (!applied.ok) return applied.errors;
+			await tradeSettings.save(tx, {
+				settings: applied.settings,
+				currency: current.currency,
+				quoteValidDays: applied.quoteValidDays
+			});
+			return null;
 		});
+		if (refused) return refuseTrade(form, refused);
 		return { tradeSaved: true };
 	},
 	logo: async ({ request }) => {

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { defaultSettings, type StoreSettings } from '../../../estimating';
 import { settingsSchema } from '../../../schemas/estimate';
 import { storeSettings } from '../schema';
-import { inStore } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export interface StoreTradeSettings {
 	settings: StoreSettings;
@@ -25,67 +25,55 @@ export function mergeSettings<T>(defaults: T, saved: unknown): T {
 }
 
 /** The store's settings; the engine's defaults where the store has saved nothing. */
-export async function read(storeId: string): Promise<StoreTradeSettings> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(storeSettings)
-			.where(eq(storeSettings.organizationId, storeId));
-		if (!row) return { settings: defaultSettings, currency: 'USD', quoteValidDays: 30 };
-		const merged = settingsSchema.safeParse(mergeSettings(defaultSettings, row.settings));
-		return {
-			settings: merged.success ? (merged.data as StoreSettings) : defaultSettings,
-			currency: row.currency,
-			quoteValidDays: row.quoteValidDays
-		};
-	});
+export async function read(tx: StoreTx): Promise<StoreTradeSettings> {
+	const [row] = await tx
+		.select()
+		.from(storeSettings)
+		.where(eq(storeSettings.organizationId, tx.storeId));
+	if (!row) return { settings: defaultSettings, currency: 'USD', quoteValidDays: 30 };
+	const merged = settingsSchema.safeParse(mergeSettings(defaultSettings, row.settings));
+	return {
+		settings: merged.success ? (merged.data as StoreSettings) : defaultSettings,
+		currency: row.currency,
+		quoteValidDays: row.quoteValidDays
+	};
 }
 
 /** Saves the whole settings document (validated by the caller with `settingsSchema`). */
-export async function save(storeId: string, input: StoreTradeSettings) {
-	return inStore(storeId, async (tx) => {
-		const values = {
-			settings: input.settings,
-			currency: input.currency,
-			quoteValidDays: input.quoteValidDays
-		};
-		await tx
-			.insert(storeSettings)
-			.values({ organizationId: storeId, ...values })
-			.onConflictDoUpdate({
-				target: storeSettings.organizationId,
-				set: { ...values, updatedAt: new Date() }
-			});
-	});
+export async function save(tx: StoreWriteTx, input: StoreTradeSettings) {
+	const values = {
+		settings: input.settings,
+		currency: input.currency,
+		quoteValidDays: input.quoteValidDays
+	};
+	await tx
+		.insert(storeSettings)
+		.values({ organizationId: tx.storeId, ...values })
+		.onConflictDoUpdate({
+			target: storeSettings.organizationId,
+			set: { ...values, updatedAt: new Date() }
+		});
 }
 
 /** The store's own Stripe account (`acct_…`), or null when card payments are not set up. */
-export async function stripeAccount(storeId: string): Promise<string | null> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select({ account: storeSettings.stripeAccountId })
-			.from(storeSettings)
-			.where(eq(storeSettings.organizationId, storeId));
-		return row?.account ?? null;
-	});
+export async function stripeAccount(tx: StoreTx): Promise<string | null> {
+	const [row] = await tx
+		.select({ account: storeSettings.stripeAccountId })
+		.from(storeSettings)
+		.where(eq(storeSettings.organizationId, tx.storeId));
+	return row?.account ?? null;
 }
 
-/** Connects (or, with null, disconnects) the store's Stripe account. */
-export async function saveStripeAccount(storeId: string, account: string | null) {
-	const current = await read(storeId);
-	return inStore(storeId, async (tx) => {
-		await tx
-			.insert(storeSettings)
-			.values({
-				organizationId: storeId,
-				settings: current.settings,
-				currency: current.currency,
-				quoteValidDays: current.quoteValidDays,
-				stripeAccountId: account
-			})
-			.onConflictDoUpdate({
-				target: storeSettings.organizationId,
-				set: { stripeAccountId: account, updatedAt: new Date() }
-			});
-	});
+/**
+ * Connects (or, with null, disconnects) the store's Stripe account. A store that never saved its
+ * settings gets the engine's defaults with it, as `read` would have given.
+ */
+export async function saveStripeAccount(tx: StoreWriteTx, account: string | null) {
+	await tx
+		.insert(storeSettings)
+		.values({ organizationId: tx.storeId, settings: defaultSettings, stripeAccountId: account })
+		.onConflictDoUpdate({
+			target: storeSettings.organizationId,
+			set: { stripeAccountId: account, updatedAt: new Date() }
+		});
 }

@@ -1,11 +1,12 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { parseForm } from '$lib/server/forms';
-import { measureSummary } from '$lib/server/measure-summary';
+import { measureSummary } from '$lib/server/jobs/measure-summary';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
-import { nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
+import { canDelete, nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
 import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
@@ -13,35 +14,32 @@ import { loadJobSite, siteAction } from './site.server';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, user, role } = requirePermission({ job: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
-	if (!job) error(404, 'Not found');
-	const canSchedule = can(role, { job: ['schedule'] });
-	const canAssign = can(role, { job: ['assign'] });
-	const [history, installers, quoteVersions, money] = await Promise.all([
-		jobs.events(store.id, job.id),
-		canAssign ? jobs.listInstallers(store.id) : Promise.resolve([]),
-		can(role, { quote: ['read'] }) ? quotes.list(store.id, job.id) : Promise.resolve([]),
-		can(role, { payment: ['read'] }) ? payments.moneyFor(store.id, job.id) : Promise.resolve(null)
-	]);
-	const measure = await measureSummary(store.id, job.id);
-	return {
-		job,
-		history,
-		installers,
-		latestQuote: quoteVersions[0] ?? null,
-		money: money && {
-			currency: money.currency,
-			ledger: money.ledger,
-			count: money.payments.length
-		},
-		moves: canSchedule ? nextStatuses(job.status) : [],
-		canAssign,
-		site: await loadJobSite(store.id, job, role),
-		measure,
-		canEdit: can(role, { job: ['update'] }),
-		canDelete:
-			can(role, { job: ['delete'] }) && (job.status === 'draft' || job.status === 'cancelled')
-	};
+	return readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, { userId: user.id, role });
+		if (!job) error(404, 'Not found');
+		const canAssign = can(role, { job: ['assign'] });
+		const history = await jobs.events(tx, job.id);
+		const installers = canAssign ? await jobs.listInstallers(tx) : [];
+		const quoteVersions = can(role, { quote: ['read'] }) ? await quotes.list(tx, job.id) : [];
+		const money = can(role, { payment: ['read'] }) ? await payments.moneyFor(tx, job.id) : null;
+		return {
+			job,
+			history,
+			installers,
+			latestQuote: quoteVersions[0] ?? null,
+			money: money && {
+				currency: money.currency,
+				ledger: money.ledger,
+				count: money.payments.length
+			},
+			moves: can(role, { job: ['schedule'] }) ? nextStatuses(job.status) : [],
+			canAssign,
+			site: await loadJobSite(tx, job, role),
+			measure: await measureSummary(tx, job.id),
+			canEdit: can(role, { job: ['update'] }),
+			canDelete: can(role, { job: ['delete'] }) && canDelete(job.status)
+		};
+	});
 };
 
 export const actions: Actions = {
@@ -50,7 +48,7 @@ export const actions: Actions = {
 		const { store } = requirePermission({ job: ['update'] });
 		const parsed = await parseForm(request, jobUpdateSchema);
 		if (!parsed.ok) return parsed.failure;
-		const row = await jobs.update(store.id, params.id, parsed.data);
+		const row = await inStore(store.id, (tx) => jobs.update(tx, params.id, parsed.data));
 		if (!row) error(404, 'Not found');
 		return { saved: true };
 	},
@@ -58,11 +56,12 @@ export const actions: Actions = {
 		const { store, user } = requirePermission({ job: ['schedule'] });
 		const parsed = await parseForm(request, jobMoveSchema);
 		if (!parsed.ok) return parsed.failure;
-		const result = await jobs.move(store.id, params.id, parsed.data.to, user.id, parsed.data.note);
+		const { to, note } = parsed.data;
+		const result = await inStore(store.id, (tx) => jobs.move(tx, params.id, to, user.id, note));
 		if (!result.ok && result.reason === 'not_found') error(404, 'Not found');
 		if (!result.ok && result.reason === 'not_allowed') {
 			return fail(409, {
-				moveError: `A ${JOB_STATUS_LABELS[result.from].toLowerCase()} job cannot become ${JOB_STATUS_LABELS[parsed.data.to].toLowerCase()}. The page shows the moves it allows.`
+				moveError: `A ${JOB_STATUS_LABELS[result.from].toLowerCase()} job cannot become ${JOB_STATUS_LABELS[to].toLowerCase()}. The page shows the moves it allows.`
 			});
 		}
 		return { moved: true };
@@ -71,7 +70,10 @@ export const actions: Actions = {
 		const { store, user } = requirePermission({ job: ['assign'] });
 		const parsed = await parseForm(request, jobAssignSchema);
 		if (!parsed.ok) return parsed.failure;
-		const result = await jobs.assign(store.id, params.id, parsed.data.installerId, user.id);
+		const { installerId } = parsed.data;
+		const result = await inStore(store.id, (tx) =>
+			jobs.assign(tx, params.id, installerId, user.id)
+		);
 		if (result === 'not_found') error(404, 'Not found');
 		if (result === 'not_an_installer') {
 			return fail(400, { assignError: 'Choose one of the store’s installers.' });
@@ -80,7 +82,7 @@ export const actions: Actions = {
 	},
 	delete: async ({ params }) => {
 		const { store } = requirePermission({ job: ['delete'] });
-		const result = await jobs.remove(store.id, params.id);
+		const result = await inStore(store.id, (tx) => jobs.remove(tx, params.id));
 		if (result === 'not_found') error(404, 'Not found');
 		if (result === 'not_draft') {
 			return fail(409, {

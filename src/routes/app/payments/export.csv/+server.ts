@@ -1,5 +1,5 @@
 import { requirePermission } from '$lib/server/guards';
-import { reconcile } from '$lib/server/reconcile';
+import { reconcile } from '$lib/server/payments/reconcile';
 import { majorText } from '$lib/format';
 import { stringify } from 'csv-stringify/sync';
 import type { RequestHandler } from './$types';

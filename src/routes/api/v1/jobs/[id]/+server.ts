@@ -1,5 +1,6 @@
 import { endpoint, readJson } from '$lib/server/api';
-import { read, remove, update } from '$lib/server/db/queries/jobs';
+import { readForViewer, remove, update } from '$lib/server/db/queries/jobs';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requireMember, requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { jobUpdateSchema } from '$lib/schemas/job';
@@ -11,7 +12,9 @@ export const GET: RequestHandler = endpoint(async ({ params }) => {
 	if (!can(role, { job: ['read'] }) && !can(role, { assignedJob: ['read'] })) {
 		error(403, 'Your role in this store does not allow this');
 	}
-	const row = await read(store.id, params.id, { userId: user.id, role });
+	const row = await readInStore(store.id, (tx) =>
+		readForViewer(tx, params.id, { userId: user.id, role })
+	);
 	if (!row) error(404, 'Not found');
 	return json(row);
 });
@@ -19,14 +22,14 @@ export const GET: RequestHandler = endpoint(async ({ params }) => {
 export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 	const { store } = requirePermission({ job: ['update'] });
 	const input = await readJson(request, jobUpdateSchema);
-	const row = await update(store.id, params.id, input);
+	const row = await inStore(store.id, (tx) => update(tx, params.id, input));
 	if (!row) error(404, 'Not found');
 	return json(row);
 });
 
 export const DELETE: RequestHandler = endpoint(async ({ params }) => {
 	const { store } = requirePermission({ job: ['delete'] });
-	const result = await remove(store.id, params.id);
+	const result = await inStore(store.id, (tx) => remove(tx, params.id));
 	if (result === 'not_found') error(404, 'Not found');
 	if (result === 'not_draft') error(409, 'Only draft or cancelled jobs can be deleted');
 	return new Response(null, { status: 204 });

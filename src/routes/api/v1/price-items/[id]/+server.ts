@@ -1,5 +1,6 @@
 import { endpoint, readJson } from '$lib/server/api';
 import * as priceBook from '$lib/server/db/queries/price-book';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requireRole } from '$lib/server/guards';
 import { priceItemPatchSchema } from '$lib/schemas/price-book';
 import { error, json } from '@sveltejs/kit';
@@ -8,7 +9,7 @@ import { priceItemRefusal } from '../refusal.server';
 
 export const GET: RequestHandler = endpoint(async ({ params }) => {
 	const { store } = requireRole('owner', 'manager');
-	const row = await priceBook.read(store.id, params.id);
+	const row = await readInStore(store.id, (tx) => priceBook.read(tx, params.id));
 	if (!row) error(404, 'Not found');
 	return json(row);
 });
@@ -19,7 +20,7 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 	const input = await readJson(request, priceItemPatchSchema);
 	let row;
 	try {
-		row = await priceBook.update(store.id, params.id, input);
+		row = await inStore(store.id, (tx) => priceBook.update(tx, params.id, input));
 	} catch (e) {
 		return priceItemRefusal(e);
 	}
@@ -29,6 +30,6 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 
 export const DELETE: RequestHandler = endpoint(async ({ params }) => {
 	const { store } = requireRole('owner', 'manager');
-	if (!(await priceBook.remove(store.id, params.id))) error(404, 'Not found');
+	if (!(await inStore(store.id, (tx) => priceBook.remove(tx, params.id)))) error(404, 'Not found');
 	return new Response(null, { status: 204 });
 });

@@ -3,10 +3,16 @@ import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import { customerLink } from '$lib/server/customer-page';
 import { parseForm, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
+import { mailer } from '$lib/server/mail';
 import { can } from '$lib/server/permissions';
-import { customerLink, mailQuote } from '$lib/server/quote-service';
+import { buildQuote } from '$lib/server/quotes/build';
+import { quoteMailFor } from '$lib/server/quotes/mail';
+import { sendQuote } from '$lib/server/quotes/send';
+import { canQuote } from '$lib/jobs/status';
 import { diffLines } from '$lib/quote-diff';
 import { quoteView } from '$lib/quote-view';
 import { email } from '$lib/schemas/fields';
@@ -18,22 +24,29 @@ const sendSchema = z.object({ quoteId: z.string().min(1), to: email });
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const { store, user, role } = requirePermission({ quote: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
-	if (!job) error(404, 'Not found');
-	const [versions, measure, customer, trade] = await Promise.all([
-		quotes.list(store.id, job.id),
-		measures.read(store.id, job.id),
-		customers.read(store.id, job.customerId),
-		tradeSettings.read(store.id)
-	]);
 	const asked = url.searchParams.get('v');
-	const wanted = asked ? Number(asked) : versions[0]?.version;
-	const current = wanted ? await quotes.readVersion(store.id, job.id, wanted) : undefined;
-	if (asked && !current) error(404, 'Not found');
-	const previous =
-		current && current.version > 1
-			? await quotes.readVersion(store.id, job.id, current.version - 1)
-			: undefined;
+	const found = await readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, { userId: user.id, role });
+		if (!job) error(404, 'Not found');
+		const versions = await quotes.list(tx, job.id);
+		const wanted = asked ? Number(asked) : versions[0]?.version;
+		const current = wanted ? await quotes.readVersion(tx, job.id, wanted) : undefined;
+		if (asked && !current) error(404, 'Not found');
+		const previous =
+			current && current.version > 1
+				? await quotes.readVersion(tx, job.id, current.version - 1)
+				: undefined;
+		return {
+			job,
+			versions,
+			current,
+			previous,
+			measure: await measures.read(tx, job.id),
+			customer: await customers.read(tx, job.customerId),
+			trade: await tradeSettings.read(tx)
+		};
+	});
+	const { job, versions, current, previous, measure, customer, trade } = found;
 	const metric = trade.settings.units.system === 'metric';
 	return {
 		job,
@@ -69,7 +82,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		customerEmail: customer?.email ?? '',
 		canBuild: can(role, { quote: ['create'] }),
 		canSend: can(role, { quote: ['send'] }),
-		jobOpen: job.status === 'draft' || job.status === 'quoted',
+		jobOpen: canQuote(job.status),
 		link: current && current.status !== 'draft' ? customerLink(store.id, job.id) : null
 	};
 };
@@ -77,7 +90,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 export const actions: Actions = {
 	build: async ({ params }) => {
 		const { store, user } = requirePermission({ quote: ['create'] });
-		const built = await quotes.build(store.id, params.id, user.id);
+		const built = await inStore(store.id, (tx) => buildQuote(tx, params.id, user.id));
 		if (!built.ok) {
 			if (built.reason === 'invalid') return fail(400, { buildErrors: built.errors });
 			if (built.reason === 'not_found') error(404, 'Not found');
@@ -95,11 +108,15 @@ export const actions: Actions = {
 		const { store, user } = requirePermission({ quote: ['send'] });
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
-		const trade = await tradeSettings.read(store.id);
-		const sent = await quotes.send(store.id, parsed.data.quoteId, {
-			to: parsed.data.to,
-			validDays: trade.quoteValidDays,
-			actorId: user.id
+		const { quoteId, to } = parsed.data;
+		const sent = await inStore(store.id, async (tx) => {
+			const trade = await tradeSettings.read(tx);
+			const result = await sendQuote(tx, quoteId, {
+				to,
+				validDays: trade.quoteValidDays,
+				actorId: user.id
+			});
+			return result.ok ? { ...result, mail: await quoteMailFor(tx, result.quote, to) } : result;
 		});
 		if (!sent.ok) {
 			if (sent.reason === 'not_found') error(404, 'Not found');
@@ -113,11 +130,11 @@ export const actions: Actions = {
 			);
 		}
 		try {
-			await mailQuote(store, sent.quote, parsed.data.to);
+			await mailer(sent.mail);
 		} catch (e) {
 			console.error(e);
 			return fail(502, {
-				mailFailed: `The quote is sent and frozen, but the e-mail to ${parsed.data.to} failed. Send the link again.`
+				mailFailed: `The quote is sent and frozen, but the e-mail to ${to} failed. Send the link again.`
 			});
 		}
 		redirect(303, `/app/jobs/${params.id}/quote?v=${sent.quote.version}&sent=1`);
@@ -126,10 +143,16 @@ export const actions: Actions = {
 		const { store } = requirePermission({ quote: ['send'] });
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
-		const quote = await quotes.read(store.id, parsed.data.quoteId);
-		if (!quote || quote.jobId !== params.id) error(404, 'Not found');
-		if (quote.status === 'draft') return refuse(parsed.form, {}, 'Send the quote first.', 409);
-		await mailQuote(store, quote, parsed.data.to);
-		return { resent: parsed.data.to };
+		const { quoteId, to } = parsed.data;
+		const found = await readInStore(store.id, async (tx) => {
+			const quote = await quotes.read(tx, quoteId);
+			if (!quote || quote.jobId !== params.id) return 'not_found' as const;
+			if (quote.status === 'draft') return 'draft' as const;
+			return quoteMailFor(tx, quote, to);
+		});
+		if (found === 'not_found') error(404, 'Not found');
+		if (found === 'draft') return refuse(parsed.form, {}, 'Send the quote first.', 409);
+		await mailer(found);
+		return { resent: to };
 	}
 };

@@ -1,7 +1,9 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as quotes from '$lib/server/db/queries/quotes';
+import { readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
-import { pdfOf, pdfResponse } from '$lib/server/quote-service';
+import { quotePdf } from '$lib/server/pdf/quote-pdf';
+import { pdfResponse, quotePdfInput } from '$lib/server/quotes/pdf';
 import { jobLabel } from '$lib/jobs/status';
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
@@ -9,13 +11,16 @@ import type { RequestHandler } from './$types';
 /** A version of the job's quote as PDF, for store staff. */
 export const GET: RequestHandler = async ({ params }) => {
 	const { store, user, role } = requirePermission({ quote: ['read'] });
-	const job = await jobs.read(store.id, params.id, { userId: user.id, role });
 	const version = Number(params.version);
-	const quote =
-		job && Number.isInteger(version)
-			? await quotes.readVersion(store.id, job.id, version)
-			: undefined;
-	if (!job || !quote) error(404, 'Not found');
-	const bytes = await pdfOf(store, quote);
-	return pdfResponse(bytes, `${jobLabel(job.number)}-quote-v${quote.version}.pdf`);
+	const made = await readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, { userId: user.id, role });
+		const quote =
+			job && Number.isInteger(version) ? await quotes.readVersion(tx, job.id, version) : undefined;
+		if (!job || !quote) error(404, 'Not found');
+		return {
+			input: await quotePdfInput(tx, quote),
+			name: `${jobLabel(job.number)}-quote-v${quote.version}`
+		};
+	});
+	return pdfResponse(await quotePdf(made.input), `${made.name}.pdf`);
 };

@@ -1,15 +1,14 @@
 import { areaText } from '$lib/measure/format';
 import { summarize } from '$lib/measure/summary';
-import * as measures from './db/queries/measures';
-import * as tradeSettings from './db/queries/settings';
+import * as measures from '../db/queries/measures';
+import * as tradeSettings from '../db/queries/settings';
+import type { StoreTx } from '../db/tenant';
 
 /** The job's measure in a line (rooms, floor area, last save), or null when nothing was measured. */
-export async function measureSummary(storeId: string, jobId: string) {
-	const [stored, trade] = await Promise.all([
-		measures.read(storeId, jobId),
-		tradeSettings.read(storeId)
-	]);
+export async function measureSummary(tx: StoreTx, jobId: string) {
+	const stored = await measures.read(tx, jobId);
 	if (!stored) return null;
+	const trade = await tradeSettings.read(tx);
 	const summary = summarize(stored.draft, trade.settings);
 	return {
 		...summary,

@@ -1,11 +1,11 @@
 import { and, eq, gte, inArray, lte } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import { formatMoney } from '../format';
-import { jobLabel } from '../jobs/status';
-import { read as readSettings, stripeAccount } from './db/queries/settings';
-import { job, payment, refund } from './db/schema';
-import { inStore } from './db/tenant';
-import { stripe as appStripe, idOf } from './stripe';
+import { formatMoney } from '$lib/format';
+import { jobLabel } from '$lib/jobs/status';
+import { read as readSettings, stripeAccount } from '../db/queries/settings';
+import { job, payment, refund } from '../db/schema';
+import { readInStore } from '../db/tenant';
+import { stripe as appStripe, idOf } from '../stripe';
 
 /**
  * The manager's week-end check: what Stripe says happened in the store's account over a period
@@ -75,7 +75,10 @@ export async function reconcile(
 ): Promise<Reconciliation> {
 	const empty = { matched: 0, stripe_only: 0, ledger_only: 0, amount_differs: 0 };
 	const base = { from: from.toISOString(), to: to.toISOString() };
-	const [account, trade] = await Promise.all([stripeAccount(storeId), readSettings(storeId)]);
+	const { account, trade } = await readInStore(storeId, async (tx) => ({
+		account: await stripeAccount(tx),
+		trade: await readSettings(tx)
+	}));
 	const currency = trade.currency;
 	if (!account) {
 		return {
@@ -97,7 +100,7 @@ export async function reconcile(
 	]);
 	const succeeded = charges.filter((c) => c.status === 'succeeded');
 
-	const ledger = await inStore(storeId, async (tx) => {
+	const ledger = await readInStore(storeId, async (tx) => {
 		const cardPayments = await tx
 			.select({ p: payment, number: job.number })
 			.from(payment)
