@@ -435,6 +435,9 @@ export async function resetDatabase(ownerUrl: string) {
 				`truncate table ${rows.map((r) => `"${r.tablename}"`).join(', ')} restart identity cascade`
 			);
 		}
+		// Tasks still waiting in the queue were about the data just emptied; the queues stay.
+		const queue = await client.query("select 1 from pg_namespace where nspname = 'pgboss'");
+		if (queue.rowCount) await client.query('truncate table pgboss.job, pgboss.archive');
 	} finally {
 		await client.end();
 	}

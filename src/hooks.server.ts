@@ -16,6 +16,7 @@ import { svelteKitHandler } from 'better-auth/svelte-kit';
 
 export const init: ServerInit = async () => {
 	checkConfig();
+	if (!building) await startTasks();
 	if (config.fakeMail || config.fakeStripe) {
 		const { startFakes } = await import('$mocks/node');
 		startFakes({
@@ -112,6 +113,20 @@ const handleGuard: Handle = async ({ event, resolve }) => {
 	}
 	return resolve(event);
 };
+
+/**
+ * The task worker runs with the server: it sends what the app queued (e-mail), retries what
+ * failed, and picks up what a server stopped mid-send left behind. A stop lets running tasks end.
+ */
+async function startTasks() {
+	const [{ startTaskWorker }, { mailer }, { stripe }] = await Promise.all([
+		import('$lib/server/tasks/worker'),
+		import('$lib/server/mail'),
+		import('$lib/server/stripe')
+	]);
+	const worker = await startTaskWorker({ sendMail: mailer, stripe, schedule: true });
+	process.once('sveltekit:shutdown', () => worker.stop());
+}
 
 export const handle = sequence(handleAuth, handleStore, handleGuard);
 

@@ -9,6 +9,7 @@ import { inStore, type StoreWriteTx } from '$lib/server/db/tenant';
 import * as priceBook from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
+import * as activity from '$lib/server/db/queries/stripe-activity';
 import { recordInStore } from '$lib/server/payments/record';
 import { refundInStore } from '$lib/server/payments/refunds';
 import { acceptQuote } from '$lib/server/quotes/answer';
@@ -231,8 +232,54 @@ export async function makePaidJob(store: TestStore) {
 			objectId: null,
 			created: 1_800_000_000
 		});
+		await seedStripeActivity(tx);
 		return { ...made, payment: paid.payment, refund: refunded.refund };
 	});
+}
+
+/** A charge, a refund and a payout in the store's copy of its Stripe activity, and its sync. */
+async function seedStripeActivity(tx: StoreWriteTx) {
+	const at = new Date('2027-01-15T12:00:00Z');
+	const charge = unique('ch').replace(/[^a-z0-9]/gi, '');
+	await activity.saveCharges(tx, [
+		{
+			id: charge,
+			paymentIntentId: null,
+			status: 'succeeded',
+			currency: 'USD',
+			amountCents: 10_000,
+			feeCents: 320,
+			paymentId: null,
+			jobId: null,
+			stripeCreated: at
+		}
+	]);
+	await activity.saveRefunds(tx, [
+		{
+			id: unique('re').replace(/[^a-z0-9]/gi, ''),
+			chargeId: charge,
+			paymentIntentId: null,
+			status: 'succeeded',
+			currency: 'USD',
+			amountCents: 1_000,
+			stripeCreated: at
+		}
+	]);
+	await activity.savePayouts(tx, [
+		{
+			id: unique('po').replace(/[^a-z0-9]/gi, ''),
+			status: 'paid',
+			currency: 'USD',
+			amountCents: 8_680,
+			grossCents: 10_000,
+			feeCents: 320,
+			refundCents: 1_000,
+			transactions: 2,
+			arrivalDate: at,
+			stripeCreated: at
+		}
+	]);
+	await activity.noteSync(tx, at);
 }
 
 /** Sends a made quote to the customer, who accepts it: the job is ready for its deposit. */

@@ -24,14 +24,20 @@ import path from 'node:path';
 import type Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeQuotedJob, makeStore, sendAndAccept, unique, type TestStore } from './factories';
+import { eventually, startTestWorker } from './task-worker';
+import type { TaskWorker } from '$lib/server/tasks/worker';
 
 const outbox = mkdtempSync(path.join(tmpdir(), 'payments-outbox-'));
 let t: ReturnType<typeof stripeFakeForTests>;
-beforeAll(() => {
+let worker: TaskWorker;
+beforeAll(async () => {
 	t = stripeFakeForTests({ dataDir: null, webhookSecret: LOCAL_STRIPE_WEBHOOK_SECRET });
 	t.server.use(...resendHandlers(outbox));
+	// Receipts and notices are tasks: the worker sends them once the payment has committed.
+	worker = await startTestWorker(t.stripe);
 });
 afterAll(async () => {
+	await worker.stop();
 	await t.close();
 });
 
@@ -90,8 +96,8 @@ describe('a deposit by card', () => {
 		expect(
 			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, owner(store))))?.status
 		).toBe('sold');
-		const receipt = readOutbox(outbox).find((m) =>
-			m.subject.startsWith('Receipt from Card Floors')
+		const receipt = await eventually(() =>
+			readOutbox(outbox).find((m) => m.subject.startsWith('Receipt from Card Floors'))
 		);
 		expect(receipt?.to).toEqual(['customer@test.example']);
 

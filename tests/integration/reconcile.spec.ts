@@ -4,9 +4,10 @@ import { LOCAL_STRIPE_WEBHOOK_SECRET } from '$lib/server/config';
 import * as payments from '$lib/server/db/queries/payments';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
 import { payment } from '$lib/server/db/schema';
-import { inStore } from '$lib/server/db/tenant';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { startCheckout } from '$lib/server/payments/checkout';
 import { reconcile } from '$lib/server/payments/reconcile';
+import { syncStripeActivity } from '$lib/server/payments/stripe-activity';
 import { handleEvent } from '$lib/server/payments/webhook';
 import { stripeFakeForTests } from '$mocks/stripe/testing';
 import { resendHandlers } from '$mocks/resend';
@@ -108,7 +109,9 @@ describe('reconciliation', () => {
 		);
 		const [payout] = await t.fake.payout(undefined, account);
 
-		const report = await reconcile(store.id, from, new Date(Date.now() + 60_000), t.stripe);
+		const to = new Date(Date.now() + 60_000);
+		await syncStripeActivity(store.id, { from, to }, t.stripe);
+		const report = await readInStore(store.id, (tx) => reconcile(tx, from, to));
 		const find = (status: string, kind = 'charge') =>
 			report.rows.filter((r) => r.status === status && r.kind === kind);
 		expect(find('matched').map((r) => r.paymentId)).toEqual([matched.id]);
@@ -146,7 +149,8 @@ describe('reconciliation', () => {
 
 	it('says when the store has no Stripe account', async () => {
 		const store = await makeStore('Cash Only Floors');
-		const report = await reconcile(store.id, new Date(0), new Date(), t.stripe);
+		await syncStripeActivity(store.id, {}, t.stripe);
+		const report = await readInStore(store.id, (tx) => reconcile(tx, new Date(0), new Date()));
 		expect(report).toMatchObject({ connected: false, rows: [] });
 	});
 });

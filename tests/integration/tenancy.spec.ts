@@ -42,7 +42,7 @@ beforeAll(async () => {
 			saveProfile(tx, { address: '1 Test Row', town: 'Testville', phone: '', email: '' })
 		);
 		// A row in every domain table: settings, price book, customer, site, job and its history,
-		// measure, quote, payment, refund, Stripe event.
+		// measure, quote, payment, refund, Stripe event, the e-mail tasks, the copy of Stripe activity.
 		await makePaidJob(store);
 	}
 });

@@ -3,12 +3,12 @@ import { sveltekitCookies } from 'better-auth/svelte-kit';
 import { config } from './config';
 import { createAuth } from './create-auth';
 import { db } from './db';
-import { mailer } from './mail';
+import { queueAuthMail } from './mail/queue';
 
 export const auth = createAuth({
 	db,
 	baseURL: config.origin,
 	secret: config.authSecret || 'build-time-placeholder-secret-never-served',
-	sendMail: mailer,
+	sendMail: queueAuthMail,
 	plugins: [sveltekitCookies(getRequestEvent)]
 });

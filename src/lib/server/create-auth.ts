@@ -3,8 +3,7 @@ import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { organization } from 'better-auth/plugins';
 import type { NodePgDatabase } from 'drizzle-orm/node-postgres';
 import * as schema from './db/schema';
-import { invitationMail, passwordResetMail } from './mail/templates';
-import type { SendMail } from './mail/send';
+import { invitationMail, passwordResetMail, type Mail } from './mail/templates';
 import { ac, isRole, ROLE_LABELS, roles } from './permissions';
 
 export const PASSWORD_MIN_LENGTH = 10;
@@ -15,7 +14,11 @@ export interface AuthDeps {
 	/** The one origin the app is served on; sign-in answers only requests from it. */
 	baseURL: string;
 	secret: string;
-	sendMail: SendMail;
+	/**
+	 * Hands an e-mail over for sending; an invitation names its store, a password reset none.
+	 * The app queues it as a task (`queueAuthMail`), so it is retried and never lost.
+	 */
+	sendMail: (mail: Mail, storeId: string | null) => Promise<unknown>;
 	/** Framework glue such as `sveltekitCookies`, which must come last. */
 	plugins?: BetterAuthPlugin[];
 }
@@ -40,7 +43,7 @@ export function createAuth(deps: AuthDeps) {
 			resetPasswordTokenExpiresIn: 60 * 60,
 			revokeSessionsOnPasswordReset: true,
 			sendResetPassword: async ({ user, url }) => {
-				await deps.sendMail(passwordResetMail({ to: user.email, name: user.name, url }));
+				await deps.sendMail(passwordResetMail({ to: user.email, name: user.name, url }), null);
 			}
 		},
 		session: {
@@ -84,7 +87,8 @@ export function createAuth(deps: AuthDeps) {
 							roleLabel: isRole(role) ? ROLE_LABELS[role] : role,
 							url: `${deps.baseURL}/invite/${id}`,
 							expiresAt: new Date(invitation.expiresAt)
-						})
+						}),
+						organization.id
 					);
 				}
 			}),

@@ -17,7 +17,9 @@ export const statement = {
 	payment: ['read', 'record', 'refund', 'reconcile'],
 	changeOrder: ['review', 'approve'],
 	report: ['read'],
-	installerPay: ['read']
+	installerPay: ['read'],
+	/** What the store sent (e-mail): seeing what did not go out, and sending it again. */
+	outbox: ['read', 'resend']
 } as const;
 
 export const ac = createAccessControl(statement);
@@ -32,6 +34,7 @@ const manager = ac.newRole({
 	changeOrder: ['review', 'approve'],
 	report: ['read'],
 	installerPay: ['read'],
+	outbox: ['read', 'resend'],
 	ac: ['read']
 });
 

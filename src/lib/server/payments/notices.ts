@@ -6,9 +6,9 @@ import * as customers from '../db/queries/customers';
 import * as jobs from '../db/queries/jobs';
 import * as payments from '../db/queries/payments';
 import { emailOf, readProfile, readStore } from '../db/queries/stores';
-import { readInStore, type StoreTx } from '../db/tenant';
-import { mailer } from '../mail';
-import { paidNoticeMail, receiptMail, type Mail } from '../mail/templates';
+import type { StoreWriteTx } from '../db/tenant';
+import { queueMail } from '../mail/queue';
+import { paidNoticeMail, receiptMail } from '../mail/templates';
 
 const PURPOSE_WORDS: Record<payments.Payment['purpose'], string> = {
 	deposit: 'deposit',
@@ -16,20 +16,25 @@ const PURPOSE_WORDS: Record<payments.Payment['purpose'], string> = {
 	change_order: 'change order'
 };
 
-/** The customer's receipt and the salesperson's notice of a payment (those with an address). */
-export async function paymentMailsFor(tx: StoreTx, paid: payments.Payment): Promise<Mail[]> {
+/**
+ * Queues the customer's receipt and the salesperson's notice of a payment (to those with an
+ * address), in the transaction that recorded it.
+ */
+export async function announcePayment(tx: StoreWriteTx, paid: payments.Payment) {
 	const store = await readStore(tx);
 	const job = await jobs.readForStore(tx, paid.jobId);
-	if (!store || !job) return [];
+	if (!store || !job) return;
 	const profile = await readProfile(tx);
 	const money = await payments.moneyFor(tx, paid.jobId);
 	const customer = await customers.read(tx, job.customerId);
 	const seller = await emailOf(tx, job.salespersonId);
 	const amount = formatMoney(paid.amountCents, paid.currency);
 	const what = PURPOSE_WORDS[paid.purpose];
-	const mails: Mail[] = [];
+	const about = { jobId: job.id };
 	if (customer?.email) {
-		mails.push(
+		await queueMail(
+			tx,
+			'receipt',
 			receiptMail({
 				to: customer.email,
 				storeName: store.name,
@@ -43,11 +48,14 @@ export async function paymentMailsFor(tx: StoreTx, paid: payments.Payment): Prom
 				paidAt: paid.succeededAt ?? new Date(),
 				reference: paid.stripeChargeId ?? paid.id,
 				url: customerLink(tx.storeId, job.id)
-			})
+			}),
+			about
 		);
 	}
 	if (seller) {
-		mails.push(
+		await queueMail(
+			tx,
+			'paid-notice',
 			paidNoticeMail({
 				to: seller,
 				storeName: store.name,
@@ -57,18 +65,8 @@ export async function paymentMailsFor(tx: StoreTx, paid: payments.Payment): Prom
 				what,
 				amount,
 				url: `${config.origin}/app/jobs/${job.id}/payments`
-			})
+			}),
+			about
 		);
-	}
-	return mails;
-}
-
-/** Sends a payment's receipt and notice; a failed e-mail never undoes a payment. */
-export async function announcePayment(storeId: string, paid: payments.Payment) {
-	try {
-		const mails = await readInStore(storeId, (tx) => paymentMailsFor(tx, paid));
-		for (const mail of mails) await mailer(mail);
-	} catch (e) {
-		console.error(`Could not send the receipt for payment ${paid.id}`, e);
 	}
 }

@@ -28,8 +28,8 @@ export async function storeAccount(storeId: string): Promise<StoreAccount | null
 
 /**
  * Brings a payment in line with its Checkout Session as Stripe has it now. A payment that
- * succeeded never goes back; the first time one succeeds, a deposit moves the job to sold (in
- * the same transaction) and the customer's receipt and the salesperson's notice go out.
+ * succeeded never goes back; the first time one succeeds, a deposit moves the job to sold and the
+ * customer's receipt and the salesperson's notice are queued, in the same transaction.
  */
 export async function syncSession(
 	storeId: string,
@@ -73,7 +73,8 @@ export async function syncSessionIn(
 				succeededAt: charge ? new Date(charge.created * 1000) : new Date()
 			});
 			await paymentSucceeded(tx, row!, null);
-			return { outcome: 'succeeded' as const, payment: row! };
+			await announcePayment(tx, row!);
+			return { outcome: 'succeeded' as const };
 		}
 		if (session.status === 'expired') {
 			await payments.update(tx, p.id, {
@@ -89,7 +90,6 @@ export async function syncSessionIn(
 		});
 		return { outcome: 'pending' as const };
 	});
-	if (result.outcome === 'succeeded') await announcePayment(storeId, result.payment);
 	return result.outcome;
 }
 

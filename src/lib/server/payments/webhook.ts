@@ -1,18 +1,24 @@
 import type Stripe from 'stripe';
 import * as payments from '../db/queries/payments';
-import { stripeAccount } from '../db/queries/settings';
+import { stripeAccount, storeOfStripeAccount } from '../db/queries/settings';
 import { readStore } from '../db/queries/stores';
 import { inStore, readInStore } from '../db/tenant';
 import { stripe as appStripe, idOf } from '../stripe';
+import { mirrorObject } from './stripe-activity';
 import { syncRefundsIn, syncSessionIn, type StoreAccount } from './sync';
 
 export type EventOutcome = 'handled' | 'duplicate' | 'ignored';
 
-/** The store an event's object names, if the store's Stripe account is the one it came from. */
+/**
+ * The store an event is for: the one whose Stripe account sent it, or (from the platform's own
+ * account) the one its object names. An object naming another store than its account's is
+ * refused, and so is a store without that account.
+ */
 async function storeOfEvent(event: Stripe.Event): Promise<StoreAccount | null> {
 	const object = event.data.object as { metadata?: Record<string, string> | null };
-	const storeId = object.metadata?.store_id;
-	if (!storeId) return null;
+	const named = object.metadata?.store_id ?? null;
+	const storeId = event.account ? await storeOfStripeAccount(event.account) : named;
+	if (!storeId || (named && named !== storeId)) return null;
 	const found = await readInStore(storeId, async (tx) => ({
 		store: await readStore(tx),
 		account: await stripeAccount(tx)
@@ -23,9 +29,9 @@ async function storeOfEvent(event: Stripe.Event): Promise<StoreAccount | null> {
 }
 
 /**
- * Handles one verified webhook event: once per event id, in the store its object names (and
- * whose Stripe account sent it). The ledger is set from Stripe's current state, not the event's
- * snapshot, so the order events arrive in does not matter.
+ * Handles one verified webhook event: once per event id, in the store it is for. The ledger and
+ * the reconciliation's tables are set from Stripe's current state, not the event's snapshot, so
+ * the order events arrive in does not matter.
  */
 export async function handleEvent(
 	event: Stripe.Event,
@@ -62,6 +68,8 @@ export async function handleEvent(
 			outcome = `${outcome}; refunds synced`;
 		}
 	}
+	// The reconciliation's copy of the charge, refund or payout, as Stripe has it now.
+	await mirrorObject(store, object, client);
 	await inStore(storeId, (tx) =>
 		payments.firstSight(
 			tx,

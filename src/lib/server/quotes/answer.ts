@@ -1,6 +1,8 @@
 import * as jobs from '../db/queries/jobs';
 import * as quotes from '../db/queries/quotes';
 import type { StoreWriteTx } from '../db/tenant';
+import { queueMail } from '../mail/queue';
+import { answerMailFor } from './mail';
 
 export type CustomerAnswer =
 	{ ok: true; quote: quotes.Quote } | { ok: false; reason: 'not_found' | 'not_open' | 'expired' };
@@ -14,7 +16,21 @@ async function openQuote(tx: StoreWriteTx, quoteId: string, jobId: string) {
 	return { ok: true, quote: q } as const;
 }
 
-/** The customer accepts a sent version by typing their name; the job becomes accepted. */
+/** Tells the job's salesperson what the customer did, when the job has one with an e-mail. */
+async function tellSalesperson(
+	tx: StoreWriteTx,
+	jobId: string,
+	answer: 'accepted' | 'changes',
+	note?: string
+) {
+	const mail = await answerMailFor(tx, jobId, answer, note);
+	if (mail) await queueMail(tx, 'customer-answer', mail, { jobId });
+}
+
+/**
+ * The customer accepts a sent version by typing their name; the job becomes accepted and the
+ * salesperson is told.
+ */
 export async function acceptQuote(
 	tx: StoreWriteTx,
 	jobId: string,
@@ -38,10 +54,14 @@ export async function acceptQuote(
 		`Accepted by ${signature.name} (version ${accepted.version})`
 	);
 	if (!moved.ok) throw new Error(`job ${jobId} could not become accepted: ${moved.reason}`);
+	await tellSalesperson(tx, jobId, 'accepted');
 	return { ok: true, quote: accepted };
 }
 
-/** The customer asks for changes with a note; the job goes back to draft for the next version. */
+/**
+ * The customer asks for changes with a note; the job goes back to draft for the next version, and
+ * the salesperson is told.
+ */
 export async function requestChanges(
 	tx: StoreWriteTx,
 	jobId: string,
@@ -56,5 +76,6 @@ export async function requestChanges(
 		changeRequestedAt: new Date()
 	});
 	await jobs.move(tx, jobId, 'draft', null, `Customer asked for changes: ${note}`);
+	await tellSalesperson(tx, jobId, 'changes', note);
 	return { ok: true, quote: asked };
 }

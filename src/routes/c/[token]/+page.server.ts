@@ -7,12 +7,9 @@ import * as sites from '$lib/server/db/queries/sites';
 import { readProfile } from '$lib/server/db/queries/stores';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { parseForm } from '$lib/server/forms';
-import { mailer } from '$lib/server/mail';
-import type { Mail } from '$lib/server/mail/templates';
 import { startCheckout } from '$lib/server/payments/checkout';
 import { syncSession } from '$lib/server/payments/sync';
 import { acceptQuote, requestChanges } from '$lib/server/quotes/answer';
-import { answerMailFor } from '$lib/server/quotes/mail';
 import { jobLabel, payableNow } from '$lib/jobs/status';
 import { quoteView } from '$lib/quote-view';
 import { requiredText } from '$lib/schemas/fields';
@@ -124,16 +121,6 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 	};
 };
 
-/** Tells the job's salesperson; a failed notice never undoes what the customer did. */
-async function tellSalesperson(mail: Mail | null) {
-	if (!mail) return;
-	try {
-		await mailer(mail);
-	} catch (e) {
-		console.error(`Could not tell the salesperson (${mail.subject})`, e);
-	}
-}
-
 const REFUSED = {
 	not_found: 'This quote is not the one this link is for.',
 	not_open:
@@ -178,11 +165,9 @@ export const actions: Actions = {
 		};
 		const answer = await inStore(link.storeId, async (tx) => {
 			const { job } = await linkedJob(tx, link);
-			const done = await acceptQuote(tx, job.id, parsed.data.quoteId, signature);
-			return { done, mail: done.ok ? await answerMailFor(tx, job.id, 'accepted') : null };
+			return acceptQuote(tx, job.id, parsed.data.quoteId, signature);
 		});
-		if (!answer.done.ok) return fail(409, { message: REFUSED[answer.done.reason] });
-		await tellSalesperson(answer.mail);
+		if (!answer.ok) return fail(409, { message: REFUSED[answer.reason] });
 		return { accepted: true };
 	},
 	changes: async ({ params, request }) => {
@@ -192,11 +177,9 @@ export const actions: Actions = {
 		const { quoteId, note } = parsed.data;
 		const answer = await inStore(link.storeId, async (tx) => {
 			const { job } = await linkedJob(tx, link);
-			const done = await requestChanges(tx, job.id, quoteId, note);
-			return { done, mail: done.ok ? await answerMailFor(tx, job.id, 'changes', note) : null };
+			return requestChanges(tx, job.id, quoteId, note);
 		});
-		if (!answer.done.ok) return fail(409, { message: REFUSED[answer.done.reason] });
-		await tellSalesperson(answer.mail);
+		if (!answer.ok) return fail(409, { message: REFUSED[answer.reason] });
 		return { changesSent: true };
 	}
 };

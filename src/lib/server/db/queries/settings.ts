@@ -1,7 +1,8 @@
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { defaultSettings, type StoreSettings } from '../../../estimating';
 import { settingsSchema } from '../../../schemas/estimate';
 import { storeSettings } from '../schema';
+import { db } from '../index';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export interface StoreTradeSettings {
@@ -76,4 +77,21 @@ export async function saveStripeAccount(tx: StoreWriteTx, account: string | null
 			target: storeSettings.organizationId,
 			set: { stripeAccountId: account, updatedAt: new Date() }
 		});
+}
+
+/**
+ * The store whose Stripe account this is, for a verified webhook event that names the account but
+ * not the store (a payout, a charge made in Stripe's dashboard). Row security shows the lookup the
+ * one settings row of that account (policy `stripe_account_lookup`), and nothing of any store.
+ */
+export async function storeOfStripeAccount(account: string): Promise<string | null> {
+	if (!account) return null;
+	return db.transaction(async (tx) => {
+		await tx.execute(sql`select set_config('app.stripe_account', ${account}, true)`);
+		const [row] = await tx
+			.select({ storeId: storeSettings.organizationId })
+			.from(storeSettings)
+			.where(eq(storeSettings.stripeAccountId, account));
+		return row?.storeId ?? null;
+	});
 }

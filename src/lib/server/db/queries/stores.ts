@@ -214,3 +214,13 @@ export async function emailOf(tx: StoreTx, userId: string | null): Promise<strin
 	const [row] = await tx.select({ email: user.email }).from(user).where(eq(user.id, userId));
 	return row?.email ?? null;
 }
+
+/** Every store's id, oldest first, for work done for each store in turn (at most `limit`). */
+export async function listStoreIds(limit = 10_000): Promise<string[]> {
+	const rows = await db
+		.select({ id: organization.id })
+		.from(organization)
+		.orderBy(asc(organization.createdAt))
+		.limit(limit);
+	return rows.map((r) => r.id);
+}

@@ -7,11 +7,9 @@ import { inStore, readInStore } from '$lib/server/db/tenant';
 import { customerLink } from '$lib/server/customer-page';
 import { parseForm, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
-import { mailer } from '$lib/server/mail';
 import { can } from '$lib/server/permissions';
 import { buildQuote } from '$lib/server/quotes/build';
-import { quoteMailFor } from '$lib/server/quotes/mail';
-import { sendQuote } from '$lib/server/quotes/send';
+import { resendQuoteLink, sendQuote } from '$lib/server/quotes/send';
 import { canQuote } from '$lib/jobs/status';
 import { diffLines } from '$lib/quote-diff';
 import { quoteView } from '$lib/quote-view';
@@ -111,12 +109,7 @@ export const actions: Actions = {
 		const { quoteId, to } = parsed.data;
 		const sent = await inStore(store.id, async (tx) => {
 			const trade = await tradeSettings.read(tx);
-			const result = await sendQuote(tx, quoteId, {
-				to,
-				validDays: trade.quoteValidDays,
-				actorId: user.id
-			});
-			return result.ok ? { ...result, mail: await quoteMailFor(tx, result.quote, to) } : result;
+			return sendQuote(tx, quoteId, { to, validDays: trade.quoteValidDays, actorId: user.id });
 		});
 		if (!sent.ok) {
 			if (sent.reason === 'not_found') error(404, 'Not found');
@@ -129,30 +122,18 @@ export const actions: Actions = {
 				409
 			);
 		}
-		try {
-			await mailer(sent.mail);
-		} catch (e) {
-			console.error(e);
-			return fail(502, {
-				mailFailed: `The quote is sent and frozen, but the e-mail to ${to} failed. Send the link again.`
-			});
-		}
 		redirect(303, `/app/jobs/${params.id}/quote?v=${sent.quote.version}&sent=1`);
 	},
 	resend: async ({ request, params }) => {
-		const { store } = requirePermission({ quote: ['send'] });
+		const { store, user } = requirePermission({ quote: ['send'] });
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { quoteId, to } = parsed.data;
-		const found = await readInStore(store.id, async (tx) => {
-			const quote = await quotes.read(tx, quoteId);
-			if (!quote || quote.jobId !== params.id) return 'not_found' as const;
-			if (quote.status === 'draft') return 'draft' as const;
-			return quoteMailFor(tx, quote, to);
-		});
-		if (found === 'not_found') error(404, 'Not found');
-		if (found === 'draft') return refuse(parsed.form, {}, 'Send the quote first.', 409);
-		await mailer(found);
+		const queued = await inStore(store.id, (tx) =>
+			resendQuoteLink(tx, params.id, quoteId, to, user.id)
+		);
+		if (queued === 'not_found') error(404, 'Not found');
+		if (queued === 'draft') return refuse(parsed.form, {}, 'Send the quote first.', 409);
 		return { resent: to };
 	}
 };
