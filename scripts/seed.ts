@@ -20,9 +20,9 @@ import * as payments from '../src/lib/server/db/queries/payments';
 import * as quotes from '../src/lib/server/db/queries/quotes';
 import { inStore, type StoreWriteTx } from '../src/lib/server/db/tenant';
 import { recordInStore } from '../src/lib/server/payments/record';
-import { acceptQuote } from '../src/lib/server/quotes/answer';
 import { buildQuote } from '../src/lib/server/quotes/build';
-import { sendQuote } from '../src/lib/server/quotes/send';
+import { freezeQuote } from '../src/lib/server/quotes/freeze';
+import { recordAcceptance } from '../src/lib/server/quotes/record-answer';
 import { demoMeasure } from './demo-measures';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
@@ -319,11 +319,12 @@ async function seedJobs(
 		const saved = await measures.save(tx, job.id, demoMeasure(j.title, floor), 0, seller);
 		if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
 		for (const to of j.path) {
-			// Quoting and acceptance go the way they do in the product: build, send, the customer accepts.
+			// Quoting and acceptance go the way they do in the product: build, send, the customer
+			// accepts; the made-up customers and salespeople are sent no e-mail.
 			if (to === 'quoted') {
 				const built = await buildQuote(tx, job.id, seller);
 				if (!built.ok) throw new Error(`Demo quote of ${j.title}: ${JSON.stringify(built)}`);
-				const sent = await sendQuote(tx, built.quote.id, {
+				const sent = await freezeQuote(tx, built.quote.id, {
 					to: customer.email ?? 'no-email@example.com',
 					validDays: 30,
 					actorId: seller
@@ -333,7 +334,7 @@ async function seedJobs(
 			}
 			if (to === 'accepted') {
 				const latest = await quotes.forCustomer(tx, job.id);
-				const accepted = await acceptQuote(tx, job.id, latest!.id, {
+				const accepted = await recordAcceptance(tx, job.id, latest!.id, {
 					name: customer.name,
 					// An address from the range kept for documentation (RFC 5737).
 					ip: '198.51.100.20',

@@ -86,6 +86,11 @@ export function soldByDeposit(status: JobStatus): boolean {
 	return status === 'accepted';
 }
 
+/** A job an installer may start on site: one that is booked. */
+export function canStartOnSite(status: JobStatus): boolean {
+	return canMove(status, 'in_progress');
+}
+
 /** Open jobs: not yet finished or given up. */
 export function isOpen(status: JobStatus): boolean {
 	return status !== 'closed' && status !== 'cancelled';

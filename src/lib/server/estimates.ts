@@ -2,8 +2,8 @@ import { estimate, forInstaller, type EstimateResult, type StoreSettings } from 
 import type { EstimatePreviewInput } from '$lib/schemas/preview';
 import { calculators, type CalculatorName, type CalculatorResult } from '$lib/schemas/estimate';
 import { priceBookFor } from './db/queries/price-book';
-import { read as readSettings } from './db/queries/settings';
 import type { StoreTx } from './db/tenant';
+import { tradeSettingsFor } from './store-settings';
 import { can, type Role } from './permissions';
 
 /** What an installer gets from a preview: the engine's installer view, with the errors. */
@@ -19,7 +19,7 @@ export async function runCalculator(
 	name: CalculatorName,
 	input: unknown
 ): Promise<CalculatorResult> {
-	const { settings } = await readSettings(tx);
+	const { settings } = await tradeSettingsFor(tx);
 	const run = calculators[name].run as (i: unknown, s: StoreSettings) => CalculatorResult;
 	return run(input, settings);
 }
@@ -34,7 +34,7 @@ export async function previewEstimate(
 	role: Role,
 	body: EstimatePreviewInput
 ): Promise<EstimateResult | InstallerPreview> {
-	const stored = body.settings && body.priceBook ? undefined : await readSettings(tx);
+	const stored = body.settings && body.priceBook ? undefined : await tradeSettingsFor(tx);
 	const settings = body.settings ?? stored!.settings;
 	const priceBook = body.priceBook ?? (await priceBookFor(tx, stored!.currency));
 	const result = estimate({ job: body.job, settings, priceBook });

@@ -1,7 +1,7 @@
 import { and, eq, gte, lte } from 'drizzle-orm';
 import { formatMoney } from '$lib/format';
 import { jobLabel } from '$lib/jobs/status';
-import { read as readSettings, stripeAccount } from '../db/queries/settings';
+import { stripeAccount, termsOf } from '../db/queries/settings';
 import * as activity from '../db/queries/stripe-activity';
 import { job, payment, refund } from '../db/schema';
 import type { StoreTx } from '../db/tenant';
@@ -75,7 +75,7 @@ export async function reconcile(
 	const empty = { matched: 0, stripe_only: 0, ledger_only: 0, amount_differs: 0 };
 	const base = { from: from.toISOString(), to: to.toISOString() };
 	const account = await stripeAccount(tx);
-	const currency = (await readSettings(tx)).currency;
+	const { currency } = await termsOf(tx);
 	const state = await activity.readSync(tx);
 	const sync: SyncStatus = {
 		syncedUntil: state?.syncedUntil?.toISOString() ?? null,

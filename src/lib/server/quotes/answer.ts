@@ -1,20 +1,9 @@
-import * as jobs from '../db/queries/jobs';
-import * as quotes from '../db/queries/quotes';
 import type { StoreWriteTx } from '../db/tenant';
 import { queueMail } from '../mail/queue';
 import { answerMailFor } from './mail';
+import { recordAcceptance, recordChangeRequest, type CustomerAnswer } from './record-answer';
 
-export type CustomerAnswer =
-	{ ok: true; quote: quotes.Quote } | { ok: false; reason: 'not_found' | 'not_open' | 'expired' };
-
-/** The sent version the customer answers, locked: refused when answered, replaced or expired. */
-async function openQuote(tx: StoreWriteTx, quoteId: string, jobId: string) {
-	const q = await quotes.lock(tx, quoteId, jobId);
-	if (!q) return { ok: false, reason: 'not_found' } as const;
-	if (q.status !== 'sent') return { ok: false, reason: 'not_open' } as const;
-	if (q.validUntil && q.validUntil < new Date()) return { ok: false, reason: 'expired' } as const;
-	return { ok: true, quote: q } as const;
-}
+export type { CustomerAnswer };
 
 /** Tells the job's salesperson what the customer did, when the job has one with an e-mail. */
 async function tellSalesperson(
@@ -37,25 +26,9 @@ export async function acceptQuote(
 	quoteId: string,
 	signature: { name: string; ip: string | null; userAgent: string | null }
 ): Promise<CustomerAnswer> {
-	const open = await openQuote(tx, quoteId, jobId);
-	if (!open.ok) return open;
-	const accepted = await quotes.update(tx, quoteId, {
-		status: 'accepted',
-		acceptedAt: new Date(),
-		acceptedName: signature.name,
-		acceptedIp: signature.ip,
-		acceptedUserAgent: signature.userAgent
-	});
-	const moved = await jobs.move(
-		tx,
-		jobId,
-		'accepted',
-		null,
-		`Accepted by ${signature.name} (version ${accepted.version})`
-	);
-	if (!moved.ok) throw new Error(`job ${jobId} could not become accepted: ${moved.reason}`);
-	await tellSalesperson(tx, jobId, 'accepted');
-	return { ok: true, quote: accepted };
+	const answer = await recordAcceptance(tx, jobId, quoteId, signature);
+	if (answer.ok) await tellSalesperson(tx, jobId, 'accepted');
+	return answer;
 }
 
 /**
@@ -68,14 +41,7 @@ export async function requestChanges(
 	quoteId: string,
 	note: string
 ): Promise<CustomerAnswer> {
-	const open = await openQuote(tx, quoteId, jobId);
-	if (!open.ok) return open;
-	const asked = await quotes.update(tx, quoteId, {
-		status: 'changes_requested',
-		changeNote: note,
-		changeRequestedAt: new Date()
-	});
-	await jobs.move(tx, jobId, 'draft', null, `Customer asked for changes: ${note}`);
-	await tellSalesperson(tx, jobId, 'changes', note);
-	return { ok: true, quote: asked };
+	const answer = await recordChangeRequest(tx, jobId, quoteId, note);
+	if (answer.ok) await tellSalesperson(tx, jobId, 'changes', note);
+	return answer;
 }

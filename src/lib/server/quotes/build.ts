@@ -6,18 +6,26 @@ import * as measures from '../db/queries/measures';
 import { priceBookFor } from '../db/queries/price-book';
 import * as quotes from '../db/queries/quotes';
 import * as tradeSettings from '../db/queries/settings';
+import { InvalidStoreSettings } from '../db/queries/settings';
 import type { StoreTx, StoreWriteTx } from '../db/tenant';
 
 export type BuildResult =
 	| { ok: true; quote: quotes.Quote }
-	| { ok: false; reason: 'not_found' | 'no_measure' | 'closed' }
+	| { ok: false; reason: 'not_found' | 'no_measure' | 'closed' | 'settings' }
 	| { ok: false; reason: 'invalid'; errors: DraftError[] };
 
 /** The whole input of a quote: the job's measure, the store's settings and a copy of its prices. */
 async function inputFor(tx: StoreTx, jobId: string) {
 	const stored = await measures.read(tx, jobId);
 	if (!stored) return { missing: true as const };
-	const trade = await tradeSettings.read(tx);
+	let trade: tradeSettings.StoreTradeSettings;
+	try {
+		trade = await tradeSettings.read(tx);
+	} catch (e) {
+		// Never priced with the engine's defaults instead of what the store saved.
+		if (e instanceof InvalidStoreSettings) return { invalidSettings: true as const };
+		throw e;
+	}
 	const priceBook = await priceBookFor(tx, trade.currency);
 	const read = toEngine(stored.draft, trade.settings);
 	const input: EstimateInput = { job: read.job, settings: trade.settings, priceBook };
@@ -36,6 +44,7 @@ export async function buildQuote(
 ): Promise<BuildResult> {
 	const prepared = await inputFor(tx, jobId);
 	if ('missing' in prepared) return { ok: false, reason: 'no_measure' };
+	if ('invalidSettings' in prepared) return { ok: false, reason: 'settings' };
 	const { input, draftErrors, trade } = prepared;
 	if (draftErrors.length) return { ok: false, reason: 'invalid', errors: draftErrors };
 	if (input.job.rooms.length === 0) {
@@ -81,6 +90,6 @@ export async function buildQuote(
 /** The estimate the job's measure gives today, without saving anything (a preview). */
 export async function previewQuote(tx: StoreTx, jobId: string) {
 	const prepared = await inputFor(tx, jobId);
-	if ('missing' in prepared) return undefined;
+	if ('missing' in prepared || 'invalidSettings' in prepared) return undefined;
 	return { result: estimate(prepared.input), draftErrors: prepared.draftErrors };
 }

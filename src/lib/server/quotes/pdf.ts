@@ -3,7 +3,6 @@ import { quoteView } from '$lib/quote-view';
 import * as customers from '../db/queries/customers';
 import * as jobs from '../db/queries/jobs';
 import type * as quotes from '../db/queries/quotes';
-import * as tradeSettings from '../db/queries/settings';
 import * as sites from '../db/queries/sites';
 import { readProfile, readStore } from '../db/queries/stores';
 import type { StoreTx } from '../db/tenant';
@@ -19,7 +18,6 @@ export async function quotePdfInput(tx: StoreTx, quote: quotes.Quote): Promise<Q
 	const job = await jobs.readForStore(tx, quote.jobId);
 	if (!store || !job) throw new Error('quote without its store or job');
 	const profile = await readProfile(tx);
-	const trade = await tradeSettings.read(tx);
 	const customer = await customers.read(tx, job.customerId);
 	const site = job.siteId ? await sites.read(tx, job.siteId) : undefined;
 	const logo = await readLogo(tx);
@@ -52,7 +50,8 @@ export async function quotePdfInput(tx: StoreTx, quote: quotes.Quote): Promise<Q
 				: null,
 		quote: quoteView(quote.result, {
 			currency: quote.currency,
-			metric: trade.settings.units.system === 'metric'
+			// The units the quote was built in, as stored with it.
+			metric: quote.input.settings.units.system === 'metric'
 		})
 	};
 }

@@ -10,7 +10,7 @@ export const load: PageServerLoad = async ({ url }) => {
 	const { store } = requireRole('owner', 'manager');
 	return readInStore(store.id, async (tx) => ({
 		items: await priceBook.list(tx),
-		currency: (await tradeSettings.read(tx)).currency,
+		currency: (await tradeSettings.termsOf(tx)).currency,
 		added: url.searchParams.get('added')
 	}));
 };

@@ -13,26 +13,47 @@ import {
 	tradeSettingsFormSchema,
 	tradeSettingsToForm
 } from '$lib/schemas/store-settings';
+import { defaultSettings, type StoreSettings } from '$lib/estimating';
+import { settingsSchema } from '$lib/schemas/estimate';
+import { restoreDefaultsWhereInvalid } from '$lib/server/store-settings';
 import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
+/** The trade form's values and the fastening schedules, from settings that may not be valid. */
+function tradeForm(trade: tradeSettings.StoreTradeSettings) {
+	const of = (settings: StoreSettings) => ({
+		values: tradeSettingsToForm(settings, trade.quoteValidDays),
+		schedules: Object.entries(settings.underlayment.schedules).map(([key, s]) => ({ key, ...s }))
+	});
+	try {
+		return { ...of(trade.settings), fromDefaults: false };
+	} catch {
+		// Saved settings too broken to fill the form: it shows the engine's defaults, and says so.
+		return { ...of(defaultSettings), fromDefaults: true };
+	}
+}
+
 export const load: PageServerLoad = async () => {
 	const { store } = requireRole('owner');
-	const { profile, trade, stripeAccount } = await readInStore(store.id, async (tx) => ({
+	const { profile, checked, stripeAccount } = await readInStore(store.id, async (tx) => ({
 		profile: await readProfile(tx),
-		trade: await tradeSettings.read(tx),
+		checked: await tradeSettings.readChecked(tx),
 		stripeAccount: await tradeSettings.stripeAccount(tx)
 	}));
-	const schedules = Object.entries(trade.settings.underlayment.schedules).map(([key, s]) => ({
-		key,
-		...s
-	}));
+	const form = tradeForm(checked.ok ? checked.trade : checked.saved);
+	if (!checked.ok) {
+		console.error(`Store ${store.id}: its saved trade settings are not valid`, checked.issues);
+	}
 	return {
 		stripeAccount,
 		profile: { ...profile, name: store.name },
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
-		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays),
-		schedules
+		trade: form.values,
+		schedules: form.schedules,
+		// Shown to the owner: what is wrong with the saved settings (never replaced in silence).
+		settingsProblem: checked.ok
+			? null
+			: { issues: checked.issues.slice(0, 20), formFromDefaults: form.fromDefaults }
 	};
 };
 
@@ -87,8 +108,15 @@ export const actions: Actions = {
 		const { store } = requireRole('owner');
 		const form = await request.formData();
 		const refused = await inStore(store.id, async (tx) => {
-			const current = await tradeSettings.read(tx);
-			const schema = tradeSettingsFormSchema(Object.keys(current.settings.underlayment.schedules));
+			const checked = await tradeSettings.readChecked(tx);
+			// Settings that are not valid are fixed by saving the form over them (or by putting the
+			// defaults back, below); what the form does not show must then be valid too.
+			const current = checked.ok ? checked.trade : checked.saved;
+			const schema = tradeSettingsFormSchema(
+				Object.keys(
+					current.settings.underlayment?.schedules ?? defaultSettings.underlayment.schedules
+				)
+			);
 			const parsed = schema.safeParse(nestForm(form));
 			if (!parsed.success) return fieldErrors(parsed.error);
 			const applied = applyTradeSettings(current.settings, parsed.data);
@@ -102,6 +130,24 @@ export const actions: Actions = {
 		});
 		if (refused) return refuseTrade(form, refused);
 		return { tradeSaved: true };
+	},
+	/** Puts the engine's defaults back for the saved settings that are not valid, at the owner's word. */
+	restoreDefaults: async () => {
+		const { store } = requireRole('owner');
+		const outcome = await inStore(store.id, async (tx) => {
+			const checked = await tradeSettings.readChecked(tx);
+			if (checked.ok) return 'valid' as const;
+			const restored = settingsSchema.safeParse(
+				restoreDefaultsWhereInvalid(checked.saved.settings, checked.issues)
+			);
+			if (!restored.success) return 'still_invalid' as const;
+			await tradeSettings.save(tx, { ...checked.saved, settings: restored.data as StoreSettings });
+			return 'restored' as const;
+		});
+		if (outcome === 'still_invalid') {
+			return fail(409, { restoreError: 'The settings could not be put right: call for help.' });
+		}
+		return { defaultsRestored: outcome === 'restored' };
 	},
 	logo: async ({ request }) => {
 		const { store } = requireRole('owner');

@@ -53,12 +53,11 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			quote: await quotes.forCustomer(tx, job.id),
 			customer: await customers.read(tx, job.customerId),
 			site: job.siteId ? await sites.read(tx, job.siteId) : undefined,
-			trade: await tradeSettings.read(tx),
 			money: await payments.moneyFor(tx, job.id),
 			account: await tradeSettings.stripeAccount(tx)
 		};
 	});
-	const { store, job, profile, quote, customer, site, trade, money, account } = found;
+	const { store, job, profile, quote, customer, site, money, account } = found;
 	const due = payableNow(job.status);
 	const lastCard = [...money.payments].reverse().find((p) => p.method === 'card');
 	return {
@@ -115,7 +114,8 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			changeNote: quote.changeNote,
 			view: quoteView(quote.result, {
 				currency: quote.currency,
-				metric: trade.settings.units.system === 'metric'
+				// The units the quote was built in, as stored with it.
+				metric: quote.input.settings.units.system === 'metric'
 			})
 		}
 	};

@@ -25,19 +25,88 @@ export function mergeSettings<T>(defaults: T, saved: unknown): T {
 	return out as T;
 }
 
-/** The store's settings; the engine's defaults where the store has saved nothing. */
-export async function read(tx: StoreTx): Promise<StoreTradeSettings> {
+/** A problem with a saved setting: where it is (`deposit.percentBps`) and what is wrong. */
+export interface SettingsIssue {
+	path: string;
+	message: string;
+}
+
+/**
+ * The store's saved trade settings do not pass the engine's schema. They are never replaced by the
+ * engine's defaults in silence (a store's taxes must not vanish from new quotes): whatever needs
+ * them refuses until the owner fixes them in Store settings.
+ */
+export class InvalidStoreSettings extends Error {
+	constructor(
+		readonly storeId: string,
+		readonly issues: SettingsIssue[]
+	) {
+		super(
+			`The saved trade settings of store ${storeId} are not valid: ${issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`
+		);
+	}
+}
+
+export type CheckedSettings =
+	| { ok: true; trade: StoreTradeSettings }
+	| {
+			ok: false;
+			issues: SettingsIssue[];
+			/** What is saved, over the defaults, unchecked: for the owner's form, nothing else. */
+			saved: StoreTradeSettings;
+	  };
+
+/**
+ * The store's settings as saved, checked with the engine's schema. Settings added since the store
+ * last saved get their default (they were never chosen); a saved value that fails the check is an
+ * issue, never a default.
+ */
+export async function readChecked(tx: StoreTx): Promise<CheckedSettings> {
 	const [row] = await tx
 		.select()
 		.from(storeSettings)
 		.where(eq(storeSettings.organizationId, tx.storeId));
-	if (!row) return { settings: defaultSettings, currency: 'USD', quoteValidDays: 30 };
-	const merged = settingsSchema.safeParse(mergeSettings(defaultSettings, row.settings));
+	if (!row) {
+		return { ok: true, trade: { settings: defaultSettings, currency: 'USD', quoteValidDays: 30 } };
+	}
+	const merged = mergeSettings(defaultSettings, row.settings);
+	const checked = settingsSchema.safeParse(merged);
+	const base = { currency: row.currency, quoteValidDays: row.quoteValidDays };
+	if (checked.success) {
+		return { ok: true, trade: { ...base, settings: checked.data as StoreSettings } };
+	}
 	return {
-		settings: merged.success ? (merged.data as StoreSettings) : defaultSettings,
-		currency: row.currency,
-		quoteValidDays: row.quoteValidDays
+		ok: false,
+		issues: checked.error.issues.map((i) => ({
+			path: i.path.map(String).join('.') || '(settings)',
+			message: i.message
+		})),
+		saved: { ...base, settings: merged }
 	};
+}
+
+/**
+ * The store's settings, for anything that measures, prices or quotes with them. Settings that fail
+ * the check are logged with the store and thrown as `InvalidStoreSettings`.
+ */
+export async function read(tx: StoreTx): Promise<StoreTradeSettings> {
+	const checked = await readChecked(tx);
+	if (checked.ok) return checked.trade;
+	const problem = new InvalidStoreSettings(tx.storeId, checked.issues);
+	console.error(problem.message);
+	throw problem;
+}
+
+/**
+ * The store's currency and how long its quotes stay open: columns of their own, readable whatever
+ * the state of the trade settings.
+ */
+export async function termsOf(tx: StoreTx): Promise<{ currency: string; quoteValidDays: number }> {
+	const [row] = await tx
+		.select({ currency: storeSettings.currency, quoteValidDays: storeSettings.quoteValidDays })
+		.from(storeSettings)
+		.where(eq(storeSettings.organizationId, tx.storeId));
+	return row ?? { currency: 'USD', quoteValidDays: 30 };
 }
 
 /** Saves the whole settings document (validated by the caller with `settingsSchema`). */

@@ -15,7 +15,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		return {
 			item,
 			values: formValues(item),
-			currency: (await tradeSettings.read(tx)).currency,
+			currency: (await tradeSettings.termsOf(tx)).currency,
 			supplies: supplies.map((s) => ({ kind: s.code, name: s.name, active: s.active }))
 		};
 	});

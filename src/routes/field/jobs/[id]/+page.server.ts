@@ -1,3 +1,4 @@
+import { canStartOnSite } from '$lib/jobs/status';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
@@ -20,6 +21,7 @@ export const actions: Actions = {
 			// Only a job assigned to this installer, in this store.
 			const job = await jobs.readForViewer(tx, params.id, { userId: user.id, role });
 			if (!job) return null;
+			if (!canStartOnSite(job.status)) return { ok: false } as const;
 			return jobs.move(tx, job.id, 'in_progress', user.id, 'Started on site');
 		});
 		if (!result) error(404, 'Not found');

@@ -4,6 +4,7 @@ import * as priceBook from '$lib/server/db/queries/price-book';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
 import { inStore, readInStore } from '$lib/server/db/tenant';
+import { tradeSettingsFor } from '$lib/server/store-settings';
 import { requirePermission } from '$lib/server/guards';
 import { emptyMeasure, measureDraftSchema, type MeasureDraft } from '$lib/measure/draft';
 import { sameDraft } from '$lib/measure/local';
@@ -20,7 +21,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		return {
 			job,
 			stored: await measures.read(tx, job.id),
-			trade: await tradeSettings.read(tx),
+			trade: await tradeSettingsFor(tx),
 			items: await priceBook.list(tx),
 			site: await sites.forJob(tx, job.id)
 		};

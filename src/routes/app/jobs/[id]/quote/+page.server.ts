@@ -6,6 +6,7 @@ import * as tradeSettings from '$lib/server/db/queries/settings';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { customerLink } from '$lib/server/customer-page';
 import { parseForm, refuse } from '$lib/server/forms';
+import { SETTINGS_NOT_VALID } from '$lib/server/store-settings';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { buildQuote } from '$lib/server/quotes/build';
@@ -40,12 +41,12 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			current,
 			previous,
 			measure: await measures.read(tx, job.id),
-			customer: await customers.read(tx, job.customerId),
-			trade: await tradeSettings.read(tx)
+			customer: await customers.read(tx, job.customerId)
 		};
 	});
-	const { job, versions, current, previous, measure, customer, trade } = found;
-	const metric = trade.settings.units.system === 'metric';
+	const { job, versions, current, previous, measure, customer } = found;
+	// Each version shows in the units it was built in, as stored with it.
+	const metric = current?.input.settings.units.system === 'metric';
 	return {
 		job,
 		versions,
@@ -94,6 +95,8 @@ export const actions: Actions = {
 			if (built.reason === 'not_found') error(404, 'Not found');
 			if (built.reason === 'no_measure')
 				return fail(400, { buildErrors: [{ path: '', message: 'Measure the rooms first.' }] });
+			if (built.reason === 'settings')
+				return fail(409, { buildErrors: [{ path: '', message: SETTINGS_NOT_VALID }] });
 			return fail(409, {
 				buildErrors: [
 					{ path: '', message: 'This job is past quoting: its quote can no longer change.' }
@@ -108,8 +111,8 @@ export const actions: Actions = {
 		if (!parsed.ok) return parsed.failure;
 		const { quoteId, to } = parsed.data;
 		const sent = await inStore(store.id, async (tx) => {
-			const trade = await tradeSettings.read(tx);
-			return sendQuote(tx, quoteId, { to, validDays: trade.quoteValidDays, actorId: user.id });
+			const { quoteValidDays } = await tradeSettings.termsOf(tx);
+			return sendQuote(tx, quoteId, { to, validDays: quoteValidDays, actorId: user.id });
 		});
 		if (!sent.ok) {
 			if (sent.reason === 'not_found') error(404, 'Not found');

@@ -14,7 +14,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	if (!isSection(section)) error(404, 'Not found');
 	const { lines, currency } = await readInStore(store.id, async (tx) => ({
 		lines: await priceBook.list(tx),
-		currency: (await tradeSettings.read(tx)).currency
+		currency: (await tradeSettings.termsOf(tx)).currency
 	}));
 	const taken = lines.filter((l) => l.section === section).map((l) => l.code);
 	const kinds: readonly string[] =
