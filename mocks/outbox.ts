@@ -11,6 +11,8 @@ export interface OutboxMessage {
 	html: string;
 	text: string;
 	replyTo: string | null;
+	/** The `Idempotency-Key` it was sent with, if any: the same key sends nothing twice. */
+	idempotencyKey?: string;
 }
 
 /** Messages are kept as JSON lines in the data folder, so a restart keeps them. */

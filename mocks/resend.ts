@@ -1,5 +1,5 @@
 import { http, HttpResponse } from 'msw';
-import { recordMessage } from './outbox';
+import { readOutbox, recordMessage } from './outbox';
 
 const base = () => (process.env.RESEND_BASE_URL ?? 'https://api.resend.com').replace(/\/$/, '');
 
@@ -10,6 +10,9 @@ function failure(statusCode: number, name: string, message: string) {
 
 const asList = (v: unknown): string[] =>
 	(Array.isArray(v) ? v : v ? [v] : []).map((x) => String(x));
+
+/** Resend keeps an idempotency key for 24 hours. */
+const KEY_HOURS = 24;
 
 /** Handlers for the part of Resend's API the app uses: sending one e-mail. */
 export function resendHandlers(dataDir: string) {
@@ -30,6 +33,23 @@ export function resendHandlers(dataDir: string) {
 			if (!body.html && !body.text) {
 				return failure(422, 'validation_error', 'Either `html` or `text` must be provided.');
 			}
+			// The same key and message answer the first send again and send nothing; the same key
+			// with another message is refused, as Resend does.
+			const key = request.headers.get('idempotency-key');
+			if (key) {
+				const since = Date.now() - KEY_HOURS * 3_600_000;
+				const first = readOutbox(dataDir).find(
+					(m) => m.idempotencyKey === key && Date.parse(m.at) >= since
+				);
+				if (first && (first.subject !== body.subject || first.to.join() !== to.join())) {
+					return failure(
+						409,
+						'invalid_idempotent_request',
+						'Same idempotency key used with a different request payload.'
+					);
+				}
+				if (first) return HttpResponse.json({ id: first.id });
+			}
 			const id = crypto.randomUUID();
 			recordMessage(dataDir, {
 				id,
@@ -39,7 +59,8 @@ export function resendHandlers(dataDir: string) {
 				subject: String(body.subject),
 				html: String(body.html ?? ''),
 				text: String(body.text ?? ''),
-				replyTo: body.reply_to ? asList(body.reply_to).join(', ') : null
+				replyTo: body.reply_to ? asList(body.reply_to).join(', ') : null,
+				...(key ? { idempotencyKey: key } : {})
 			});
 			return HttpResponse.json({ id });
 		})

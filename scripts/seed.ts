@@ -18,6 +18,11 @@ import { EXISTING_FLOOR_LABELS, PREP_LABELS } from '../src/lib/measure/labels';
 import * as measures from '../src/lib/server/db/queries/measures';
 import * as payments from '../src/lib/server/db/queries/payments';
 import * as quotes from '../src/lib/server/db/queries/quotes';
+import { inStore, type StoreWriteTx } from '../src/lib/server/db/tenant';
+import { recordInStore } from '../src/lib/server/payments/record';
+import { buildQuote } from '../src/lib/server/quotes/build';
+import { freezeQuote } from '../src/lib/server/quotes/freeze';
+import { recordAcceptance } from '../src/lib/server/quotes/record-answer';
 import { demoMeasure } from './demo-measures';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
@@ -125,8 +130,8 @@ export const JOBS: { customer: number; title: string; path: JobStatus[]; install
 const noMail = async () => ({ id: 'seed' });
 
 /** The demo store's trade settings and price book (invented products, sensible trade prices). */
-export async function seedPriceBook(storeId: string) {
-	await tradeSettings.save(storeId, {
+export async function seedPriceBook(tx: StoreWriteTx) {
+	await tradeSettings.save(tx, {
 		settings: {
 			...defaultSettings,
 			taxes: [{ name: 'Bramblefield sales tax', rateBps: 650, groups: ['material'] }],
@@ -138,11 +143,11 @@ export async function seedPriceBook(storeId: string) {
 	const { floors, prep, removal, supplies } = samplePriceBook;
 	const floorIds = new Map<string, string>();
 	for (const { id: _id, name, ...data } of [...floors, ...demoFloors]) {
-		const row = await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+		const row = await priceBook.create(tx, { section: 'floor', code: '', name, data });
 		floorIds.set(name, row.id);
 	}
 	for (const item of prep) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'prep',
 			code: item.kind,
 			name: PREP_LABELS[item.kind],
@@ -150,7 +155,7 @@ export async function seedPriceBook(storeId: string) {
 		});
 	}
 	for (const item of removal) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'removal',
 			code: item.existing,
 			name: `Tear out ${EXISTING_FLOOR_LABELS[item.existing].toLowerCase()}`,
@@ -158,7 +163,7 @@ export async function seedPriceBook(storeId: string) {
 		});
 	}
 	for (const item of supplies) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'supply',
 			code: item.kind,
 			name: item.name,
@@ -187,18 +192,19 @@ export interface JobWalkers {
  * it too (tests/e2e/support/queries.ts).
  */
 export async function walkJob(
-	storeId: string,
+	tx: StoreWriteTx,
 	job: { id: string; title: string; customer: { name: string; email: string | null } },
 	path: JobStatus[],
 	by: JobWalkers,
 	n = 0
 ) {
 	for (const to of path) {
-		// Quoting and acceptance go the way they do in the product: build, send, the customer accepts.
+		// Quoting and acceptance go the way they do in the product: build, send, the customer
+		// accepts; the made-up customers are sent no e-mail.
 		if (to === 'quoted') {
-			const built = await quotes.build(storeId, job.id, by.seller);
+			const built = await buildQuote(tx, job.id, by.seller);
 			if (!built.ok) throw new Error(`Demo quote of ${job.title}: ${JSON.stringify(built)}`);
-			const sent = await quotes.send(storeId, built.quote.id, {
+			const sent = await freezeQuote(tx, built.quote.id, {
 				to: job.customer.email ?? 'no-email@example.com',
 				validDays: 30,
 				actorId: by.seller
@@ -207,8 +213,8 @@ export async function walkJob(
 			continue;
 		}
 		if (to === 'accepted') {
-			const latest = await quotes.forCustomer(storeId, job.id);
-			const accepted = await quotes.accept(storeId, job.id, latest!.id, {
+			const latest = await quotes.forCustomer(tx, job.id);
+			const accepted = await recordAcceptance(tx, job.id, latest!.id, {
 				name: job.customer.name,
 				// An address from the range kept for documentation (RFC 5737).
 				ip: '198.51.100.20',
@@ -218,15 +224,15 @@ export async function walkJob(
 			continue;
 		}
 		if (to === 'scheduled' && by.installer) {
-			await jobs.assign(storeId, job.id, by.installer, by.manager);
+			await jobs.assign(tx, job.id, by.installer, by.manager);
 		}
 		if (to === 'sold' || to === 'closed') {
 			// The deposit on the store's card terminal (the ledger moves the job to sold); at
 			// closing, the balance by cheque.
 			const deposit = to === 'sold';
-			const { ledger } = await payments.moneyFor(storeId, job.id);
-			const paid = await payments.recordInStore(
-				storeId,
+			const { ledger } = await payments.moneyFor(tx, job.id);
+			const paid = await recordInStore(
+				tx,
 				job.id,
 				{
 					purpose: deposit ? 'deposit' : 'balance',
@@ -239,7 +245,7 @@ export async function walkJob(
 			if (!paid.ok) throw new Error(`Demo payment for ${job.title}: ${paid.reason}`);
 			if (deposit) continue;
 		}
-		const moved = await jobs.move(storeId, job.id, to, by.manager);
+		const moved = await jobs.move(tx, job.id, to, by.manager);
 		if (!moved.ok) throw new Error(`Demo job ${job.title} could not move to ${to}`);
 	}
 }
@@ -275,14 +281,17 @@ export async function seedDemo() {
 			body: { userId: ids.get(person.email)!, role: person.role, organizationId: store.id }
 		});
 	}
-	const floor = await seedPriceBook(store.id);
-	// Each store's own Stripe account (the local fake keeps each apart, as Stripe does).
-	await tradeSettings.saveStripeAccount(store.id, 'acct_tallowcreekdemo1');
-	await saveProfile(store.id, {
-		address: '418 Millrace Road',
-		town: 'Bramblefield',
-		phone: '555-0100',
-		email: 'desk@tallowcreek.example'
+	const floor = await inStore(store.id, async (tx) => {
+		const floor = await seedPriceBook(tx);
+		// Each store's own Stripe account (the local fake keeps each apart, as Stripe does).
+		await tradeSettings.saveStripeAccount(tx, 'acct_tallowcreekdemo1');
+		await saveProfile(tx, {
+			address: '418 Millrace Road',
+			town: 'Bramblefield',
+			phone: '555-0100',
+			email: 'desk@tallowcreek.example'
+		});
+		return floor;
 	});
 
 	const second = await auth.api.createOrganization({
@@ -294,7 +303,7 @@ export async function seedDemo() {
 		}
 	});
 	if (!second) throw new Error('The second demo store was not created');
-	await tradeSettings.saveStripeAccount(second.id, 'acct_hollinvaledemo1');
+	await inStore(second.id, (tx) => tradeSettings.saveStripeAccount(tx, 'acct_hollinvaledemo1'));
 	// Rosa installs for both stores with one login.
 	await auth.api.addMember({
 		body: {
@@ -303,18 +312,42 @@ export async function seedDemo() {
 			organizationId: second.id
 		}
 	});
-	await saveProfile(second.id, {
-		address: '7 Weir Lane',
-		town: 'Hollin Vale',
-		phone: '555-0200',
-		email: ''
-	});
+	await inStore(second.id, (tx) =>
+		saveProfile(tx, { address: '7 Weir Lane', town: 'Hollin Vale', phone: '555-0200', email: '' })
+	);
+	await inStore(store.id, (tx) =>
+		seedJobs(tx, {
+			floor,
+			sellers: [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!],
+			managerId: ids.get('manager@tallowcreek.example')!,
+			installerOf: (n) => ids.get(DEMO_PEOPLE[n].email)!
+		})
+	);
+	await inStore(second.id, (tx) =>
+		seedSecondStore(tx, {
+			ownerId: ids.get(SECOND_STORE.owner.email)!,
+			installerId: ids.get('installer@tallowcreek.example')!
+		})
+	);
+	return { storeId: store.id, secondStoreId: second.id };
+}
 
+/** The demo store's customers, their homes and their jobs, each walked as far as its path goes. */
+async function seedJobs(
+	tx: StoreWriteTx,
+	people: {
+		floor: (name: string) => string;
+		sellers: string[];
+		managerId: string;
+		installerOf: (index: number) => string;
+	}
+) {
+	const { floor, sellers, managerId } = people;
 	const customerRows = [];
-	for (const c of CUSTOMERS) customerRows.push(await customers.create(store.id, c));
+	for (const c of CUSTOMERS) customerRows.push(await customers.create(tx, c));
 	const siteIds: string[] = [];
 	for (const [i, place] of SITES.entries()) {
-		const row = await sites.create(store.id, customerRows[i].id, {
+		const row = await sites.create(tx, customerRows[i].id, {
 			label: 'Home',
 			address: place.address,
 			town: 'Bramblefield',
@@ -325,37 +358,38 @@ export async function seedDemo() {
 		});
 		siteIds.push(row!.id);
 	}
-	const sellers = [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!];
-	const managerId = ids.get('manager@tallowcreek.example')!;
 	for (const [n, j] of JOBS.entries()) {
 		const seller = sellers[n % 2];
 		const customer = customerRows[j.customer];
-		const job = await jobs.create(store.id, { customerId: customer.id, title: j.title }, seller);
+		const job = await jobs.create(tx, { customerId: customer.id, title: j.title }, seller);
 		if (!job) throw new Error(`Demo job ${j.title} was not created`);
-		await sites.setJobSite(store.id, job.id, siteIds[j.customer]);
-		const saved = await measures.save(store.id, job.id, demoMeasure(j.title, floor), 0, seller);
+		await sites.setJobSite(tx, job.id, siteIds[j.customer]);
+		const saved = await measures.save(tx, job.id, demoMeasure(j.title, floor), 0, seller);
 		if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
 		await walkJob(
-			store.id,
+			tx,
 			{ id: job.id, title: j.title, customer },
 			j.path,
 			{
 				seller,
 				manager: managerId,
-				installer: j.installer === undefined ? undefined : ids.get(DEMO_PEOPLE[j.installer].email)
+				installer: j.installer === undefined ? undefined : people.installerOf(j.installer)
 			},
 			n
 		);
 	}
+}
 
-	const hollinCustomer = await customers.create(second.id, {
+/** The second store's customer, site, price and job, for the tenancy checks and Rosa's two stores. */
+async function seedSecondStore(tx: StoreWriteTx, people: { ownerId: string; installerId: string }) {
+	const hollinCustomer = await customers.create(tx, {
 		name: 'Pim Arkwright',
 		email: 'pim.arkwright@example.com',
 		phone: '555-0231',
 		notes: ''
 	});
 	// A site and a price of the second store, for the tenancy checks.
-	await sites.create(second.id, hollinCustomer.id, {
+	await sites.create(tx, hollinCustomer.id, {
 		label: 'Home',
 		address: '12 Sluice Row',
 		town: 'Hollin Vale',
@@ -364,7 +398,7 @@ export async function seedDemo() {
 		subfloor: 'Boards',
 		notes: ''
 	});
-	await priceBook.create(second.id, {
+	await priceBook.create(tx, {
 		section: 'floor',
 		code: '',
 		name: 'Hollin porcelain 24 × 24 in',
@@ -378,14 +412,11 @@ export async function seedDemo() {
 		}
 	});
 	const hollinJob = await jobs.create(
-		second.id,
+		tx,
 		{ customerId: hollinCustomer.id, title: 'Entry hall porcelain' },
-		ids.get(SECOND_STORE.owner.email)!
+		people.ownerId
 	);
-	if (hollinJob) {
-		await jobs.assign(second.id, hollinJob.id, ids.get('installer@tallowcreek.example')!, ownerId);
-	}
-	return { storeId: store.id, secondStoreId: second.id };
+	if (hollinJob) await jobs.assign(tx, hollinJob.id, people.installerId, people.ownerId);
 }
 
 /** Empties every table (as the schema owner; the app's role may not truncate). */
@@ -401,6 +432,9 @@ export async function resetDatabase(ownerUrl: string) {
 				`truncate table ${rows.map((r) => `"${r.tablename}"`).join(', ')} restart identity cascade`
 			);
 		}
+		// Tasks still waiting in the queue were about the data just emptied; the queues stay.
+		const queue = await client.query("select 1 from pg_namespace where nspname = 'pgboss'");
+		if (queue.rowCount) await client.query('truncate table pgboss.job, pgboss.archive');
 	} finally {
 		await client.end();
 	}

@@ -39,6 +39,8 @@ export const init: ServerInit = async () => {
 		if (config.fakeMail) log.info('Local fakes on: e-mail goes to /dev/outbox');
 		if (config.fakeStripe) log.info('Local fakes on: Stripe test payments, see /dev/stripe');
 	}
+	// After the fakes, so that nothing the worker sends can reach a real provider by mistake.
+	if (!building) await startTasks();
 };
 
 /** The session onto locals, and better-auth's own routes under /api/auth. */
@@ -121,6 +123,20 @@ const handleGuard: Handle = async ({ event, resolve }) => {
 	}
 	return resolve(event);
 };
+
+/**
+ * The task worker runs with the server: it sends what the app queued (e-mail), retries what
+ * failed, and picks up what a server stopped mid-send left behind. A stop lets running tasks end.
+ */
+async function startTasks() {
+	const [{ startTaskWorker }, { mailer }, { stripe }] = await Promise.all([
+		import('$lib/server/tasks/worker'),
+		import('$lib/server/mail'),
+		import('$lib/server/stripe')
+	]);
+	const worker = await startTaskWorker({ sendMail: mailer, stripe, schedule: true });
+	process.once('sveltekit:shutdown', () => worker.stop());
+}
 
 export const handle = sequence(
 	handleRequestId,

@@ -180,7 +180,8 @@ export function databaseUrl(cluster, user, database) {
 
 /**
  * Creates the roles and the database (when missing, or afresh), applies the migrations from
- * `drizzle/` as the owner, and grants the application role what it needs.
+ * `drizzle/` as the owner, and grants the application role what it needs: rows of the app's
+ * tables and of the task queue's (schema `pgboss`), never the right to change either schema.
  * @param {Cluster} cluster
  * @param {{ database: string, fresh?: boolean }} options
  * @returns {Promise<{ ownerUrl: string, appUrl: string }>}
@@ -225,6 +226,10 @@ export async function prepareDatabase(cluster, { database, fresh = false }) {
 				grant select, insert, update, delete on tables to ${APP_ROLE};
 			alter default privileges for role ${OWNER_ROLE} in schema public
 				grant usage, select on sequences to ${APP_ROLE};
+			grant usage on schema pgboss to ${APP_ROLE};
+			grant select, insert, update, delete on all tables in schema pgboss to ${APP_ROLE};
+			alter default privileges for role ${OWNER_ROLE} in schema pgboss
+				grant select, insert, update, delete on tables to ${APP_ROLE};
 		`);
 	} finally {
 		await owner.end();

@@ -5,11 +5,16 @@ import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
 import * as payments from '$lib/server/db/queries/payments';
-import { inStore } from '$lib/server/db/tenant';
+import { inStore, type StoreWriteTx } from '$lib/server/db/tenant';
 import * as priceBook from '$lib/server/db/queries/price-book';
-import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
+import * as activity from '$lib/server/db/queries/stripe-activity';
+import { recordInStore } from '$lib/server/payments/record';
+import { refundInStore } from '$lib/server/payments/refunds';
+import { acceptQuote } from '$lib/server/quotes/answer';
+import { buildQuote } from '$lib/server/quotes/build';
+import { sendQuote } from '$lib/server/quotes/send';
 import { defaultSettings } from '$lib/estimating';
 import { samplePriceBook } from '$lib/estimating/sample';
 import { emptyRoom } from '$lib/measure/draft';
@@ -80,15 +85,15 @@ export async function addMember(storeId: string, role: Role, name = `A ${role}`)
 }
 
 export async function makeCustomer(storeId: string, name = 'Test Customer') {
-	return customers.create(storeId, { name, email: null, phone: null, notes: '' });
+	return inStore(storeId, (tx) =>
+		customers.create(tx, { name, email: null, phone: null, notes: '' })
+	);
 }
 
 export async function makeJob(storeId: string, actorId: string, customerId?: string) {
 	const customerRow = customerId ?? (await makeCustomer(storeId)).id;
-	const job = await jobs.create(
-		storeId,
-		{ customerId: customerRow, title: unique('job') },
-		actorId
+	const job = await inStore(storeId, (tx) =>
+		jobs.create(tx, { customerId: customerRow, title: unique('job') }, actorId)
 	);
 	if (!job) throw new Error('job not created');
 	return job;
@@ -96,14 +101,20 @@ export async function makeJob(storeId: string, actorId: string, customerId?: str
 
 /** The store's settings (engine defaults, a sales tax and a deposit rule) and the sample price book. */
 export async function makePriceBook(storeId: string) {
-	const existing = await priceBook.list(storeId, 'floor');
-	if (existing.length) {
-		const byName = new Map(existing.map((row) => [row.name, row.id]));
-		return {
-			floors: Object.fromEntries(samplePriceBook.floors.map((f) => [f.id, byName.get(f.name)!]))
-		};
-	}
-	await tradeSettings.save(storeId, {
+	return inStore(storeId, async (tx) => {
+		const existing = await priceBook.list(tx, 'floor');
+		if (existing.length) {
+			const byName = new Map(existing.map((row) => [row.name, row.id]));
+			return {
+				floors: Object.fromEntries(samplePriceBook.floors.map((f) => [f.id, byName.get(f.name)!]))
+			};
+		}
+		return seedPriceBook(tx);
+	});
+}
+
+async function seedPriceBook(tx: StoreWriteTx) {
+	await tradeSettings.save(tx, {
 		settings: {
 			...defaultSettings,
 			taxes: [{ name: 'Test sales tax', rateBps: 650, groups: ['material'] }],
@@ -114,11 +125,11 @@ export async function makePriceBook(storeId: string) {
 	});
 	const floors: Record<string, string> = {};
 	for (const { id: sampleId, name, ...data } of samplePriceBook.floors) {
-		const row = await priceBook.create(storeId, { section: 'floor', code: '', name, data });
+		const row = await priceBook.create(tx, { section: 'floor', code: '', name, data });
 		floors[sampleId] = row.id;
 	}
 	for (const item of samplePriceBook.prep) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'prep',
 			code: item.kind,
 			name: item.kind,
@@ -126,7 +137,7 @@ export async function makePriceBook(storeId: string) {
 		});
 	}
 	for (const item of samplePriceBook.removal) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'removal',
 			code: item.existing,
 			name: item.existing,
@@ -134,7 +145,7 @@ export async function makePriceBook(storeId: string) {
 		});
 	}
 	for (const item of samplePriceBook.supplies) {
-		await priceBook.create(storeId, {
+		await priceBook.create(tx, {
 			section: 'supply',
 			code: item.kind,
 			name: item.name,
@@ -145,15 +156,17 @@ export async function makePriceBook(storeId: string) {
 }
 
 export async function makeSite(storeId: string, customerId: string) {
-	const row = await sites.create(storeId, customerId, {
-		label: 'Home',
-		address: '9 Test Lane',
-		town: 'Testville',
-		postcode: '',
-		builtYear: 1962,
-		subfloor: 'plywood',
-		notes: ''
-	});
+	const row = await inStore(storeId, (tx) =>
+		sites.create(tx, customerId, {
+			label: 'Home',
+			address: '9 Test Lane',
+			town: 'Testville',
+			postcode: '',
+			builtYear: 1962,
+			subfloor: 'plywood',
+			notes: ''
+		})
+	);
 	if (!row) throw new Error('site not created');
 	return row;
 }
@@ -179,11 +192,13 @@ export async function makeQuotedJob(store: TestStore) {
 	const customerRow = await makeCustomer(store.id);
 	const site = await makeSite(store.id, customerRow.id);
 	const jobRow = await makeJob(store.id, store.owner.id, customerRow.id);
-	await sites.setJobSite(store.id, jobRow.id, site.id);
 	const draft = { builtYear: '1962', rooms: [roomDraft('r1', 'Kitchen', floors['lvp-grey'])] };
-	const saved = await measures.save(store.id, jobRow.id, draft, 0, store.owner.id);
-	if (!saved.ok) throw new Error('measure not saved');
-	const built = await quotes.build(store.id, jobRow.id, store.owner.id);
+	const built = await inStore(store.id, async (tx) => {
+		await sites.setJobSite(tx, jobRow.id, site.id);
+		const saved = await measures.save(tx, jobRow.id, draft, 0, store.owner.id);
+		if (!saved.ok) throw new Error('measure not saved');
+		return buildQuote(tx, jobRow.id, store.owner.id);
+	});
 	if (!built.ok) throw new Error(`quote not built: ${JSON.stringify(built)}`);
 	return { job: jobRow, customer: customerRow, site, floors, draft, quote: built.quote };
 }
@@ -191,44 +206,103 @@ export async function makeQuotedJob(store: TestStore) {
 /** A quoted job the customer accepted, with a cash deposit, a partial refund and a Stripe event. */
 export async function makePaidJob(store: TestStore) {
 	const made = await makeQuotedJob(store);
-	await quotes.send(store.id, made.quote.id, {
-		to: 'c@test.example',
-		validDays: 30,
-		actorId: store.owner.id
-	});
-	await quotes.accept(store.id, made.job.id, made.quote.id, {
-		name: 'A Customer',
-		ip: null,
-		userAgent: null
-	});
-	const paid = await payments.recordInStore(
-		store.id,
-		made.job.id,
-		{
-			purpose: 'deposit',
-			method: 'cash',
-			amountCents: made.quote.depositCents,
-			reference: 'Receipt 1'
-		},
-		store.owner.id
-	);
-	if (!paid.ok) throw new Error(`deposit not recorded: ${paid.reason}`);
-	const refunded = await payments.refundInStore(
-		store.id,
-		paid.payment.id,
-		{ amountCents: 100, reason: 'overcharge', note: 'Rounded down' },
-		store.owner.id
-	);
-	if (!refunded.ok) throw new Error(`refund not recorded: ${refunded.reason}`);
-	await inStore(store.id, (tx) =>
-		payments.firstSight(tx, store.id, {
+	await sendAndAccept(store, made);
+	return inStore(store.id, async (tx) => {
+		const paid = await recordInStore(
+			tx,
+			made.job.id,
+			{
+				purpose: 'deposit',
+				method: 'cash',
+				amountCents: made.quote.depositCents,
+				reference: 'Receipt 1'
+			},
+			store.owner.id
+		);
+		if (!paid.ok) throw new Error(`deposit not recorded: ${paid.reason}`);
+		const refunded = await refundInStore(
+			tx,
+			paid.payment.id,
+			{ amountCents: 100, reason: 'overcharge', note: 'Rounded down' },
+			store.owner.id
+		);
+		if (!refunded.ok) throw new Error(`refund not recorded: ${refunded.reason}`);
+		await payments.firstSight(tx, {
 			id: unique('evt'),
 			type: 'charge.succeeded',
 			objectId: null,
 			created: 1_800_000_000
-		})
-	);
-	return { ...made, payment: paid.payment, refund: refunded.refund };
+		});
+		await seedStripeActivity(tx);
+		return { ...made, payment: paid.payment, refund: refunded.refund };
+	});
+}
+
+/** A charge, a refund and a payout in the store's copy of its Stripe activity, and its sync. */
+async function seedStripeActivity(tx: StoreWriteTx) {
+	const at = new Date('2027-01-15T12:00:00Z');
+	const charge = unique('ch').replace(/[^a-z0-9]/gi, '');
+	await activity.saveCharges(tx, [
+		{
+			id: charge,
+			paymentIntentId: null,
+			status: 'succeeded',
+			currency: 'USD',
+			amountCents: 10_000,
+			feeCents: 320,
+			paymentId: null,
+			jobId: null,
+			stripeCreated: at
+		}
+	]);
+	await activity.saveRefunds(tx, [
+		{
+			id: unique('re').replace(/[^a-z0-9]/gi, ''),
+			chargeId: charge,
+			paymentIntentId: null,
+			status: 'succeeded',
+			currency: 'USD',
+			amountCents: 1_000,
+			stripeCreated: at
+		}
+	]);
+	await activity.savePayouts(tx, [
+		{
+			id: unique('po').replace(/[^a-z0-9]/gi, ''),
+			status: 'paid',
+			currency: 'USD',
+			amountCents: 8_680,
+			grossCents: 10_000,
+			feeCents: 320,
+			refundCents: 1_000,
+			transactions: 2,
+			arrivalDate: at,
+			stripeCreated: at
+		}
+	]);
+	await activity.noteSync(tx, at);
+}
+
+/** Sends a made quote to the customer, who accepts it: the job is ready for its deposit. */
+export async function sendAndAccept(
+	store: TestStore,
+	made: { job: { id: string }; quote: { id: string } },
+	to = 'c@test.example'
+) {
+	await inStore(store.id, async (tx) => {
+		const sent = await sendQuote(tx, made.quote.id, {
+			to,
+			validDays: 30,
+			actorId: store.owner.id
+		});
+		if (!sent.ok) throw new Error(`quote not sent: ${sent.reason}`);
+		const accepted = await acceptQuote(tx, made.job.id, made.quote.id, {
+			name: 'A Customer',
+			ip: null,
+			userAgent: null
+		});
+		if (!accepted.ok) throw new Error(`quote not accepted: ${accepted.reason}`);
+	});
 }
 
 /** A member of a store as the hooks put them in `locals`. */

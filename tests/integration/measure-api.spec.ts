@@ -1,5 +1,6 @@
 // The measure's JSON API and its form fallback, called as SvelteKit calls them: the handler gets
 // a request event whose locals are what the hooks put there for a real member of a real store.
+import { inStore } from '$lib/server/db/tenant';
 import { isActionFailure, isRedirect, type RequestEvent } from '@sveltejs/kit';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import * as measures from '$lib/server/db/queries/measures';
@@ -94,7 +95,9 @@ describe('PUT and GET /api/v1/jobs/:id/measure', () => {
 			updatedByName: 'Jonah Measure',
 			draft: { rooms: [{ name: 'Hall' }] }
 		});
-		expect((await measures.read(store.id, job.id))?.draft.rooms[0].name).toBe('Hall');
+		expect((await inStore(store.id, (tx) => measures.read(tx, job.id)))?.draft.rooms[0].name).toBe(
+			'Hall'
+		);
 	});
 
 	it("another store's job is 404, and its measure is untouched", async () => {
@@ -107,7 +110,9 @@ describe('PUT and GET /api/v1/jobs/:id/measure', () => {
 		expect(taken.status).toBe(404);
 		expect(await taken.json()).toEqual({ message: 'Not found' });
 		expect((await get(stranger, job.id)).status).toBe(404);
-		expect((await measures.read(store.id, job.id))?.draft.rooms[0].name).toBe('Den');
+		expect((await inStore(store.id, (tx) => measures.read(tx, job.id)))?.draft.rooms[0].name).toBe(
+			'Den'
+		);
 		expect((await put(owner, crypto.randomUUID(), { baseVersion: 0, draft: draft() })).status).toBe(
 			404
 		);
@@ -141,7 +146,7 @@ describe('PUT and GET /api/v1/jobs/:id/measure', () => {
 			}) as Parameters<typeof PUT>[0]
 		);
 		expect(text.status).toBe(415);
-		expect(await measures.read(store.id, job.id)).toBeUndefined();
+		expect(await inStore(store.id, (tx) => measures.read(tx, job.id))).toBeUndefined();
 	});
 
 	it('an installer may neither read nor save a measure', async () => {
@@ -149,7 +154,7 @@ describe('PUT and GET /api/v1/jobs/:id/measure', () => {
 		const refused = await put(installer, job.id, { baseVersion: 0, draft: draft() });
 		expect(refused.status).toBe(403);
 		expect((await get(installer, job.id)).status).toBe(403);
-		expect(await measures.read(store.id, job.id)).toBeUndefined();
+		expect(await inStore(store.id, (tx) => measures.read(tx, job.id))).toBeUndefined();
 	});
 });
 
@@ -183,7 +188,7 @@ describe('the measure form without JavaScript', () => {
 		expect(isRedirect(answer) && answer.location).toBe(
 			`/app/jobs/${job.id}/measure?room=r1#m-rooms-0-repairs-holes-0-width`
 		);
-		const stored = await measures.read(store.id, job.id);
+		const stored = await inStore(store.id, (tx) => measures.read(tx, job.id));
 		expect(stored?.version).toBe(1);
 		expect(stored?.draft.rooms[0].shape).toEqual({ kind: 'rect', width: "12'", length: '8\' 6"' });
 		expect(stored?.draft.rooms[0].repairs.holes).toEqual([{ width: '', length: '' }]);
@@ -191,7 +196,9 @@ describe('the measure form without JavaScript', () => {
 
 	it('a form drawn from an older version is refused with both, and nothing is written', async () => {
 		const job = await makeJob(store.id, owner.user.id);
-		await measures.save(store.id, job.id, draft(emptyRoom('r1', 'Theirs')), 0, owner.user.id);
+		await inStore(store.id, (tx) =>
+			measures.save(tx, job.id, draft(emptyRoom('r1', 'Theirs')), 0, owner.user.id)
+		);
 		const answer = await post(sales, job.id, {
 			baseVersion: '0',
 			_draft: JSON.stringify(draft(emptyRoom('r1', 'Kitchen'))),
@@ -203,7 +210,9 @@ describe('the measure form without JavaScript', () => {
 		).data;
 		expect(data.conflict.mine.rooms[0].name).toBe('Mine');
 		expect(data.conflict.current.version).toBe(1);
-		expect((await measures.read(store.id, job.id))?.draft.rooms[0].name).toBe('Theirs');
+		expect((await inStore(store.id, (tx) => measures.read(tx, job.id)))?.draft.rooms[0].name).toBe(
+			'Theirs'
+		);
 
 		// Choosing mine for the room saves it on top of theirs.
 		const chosen = await post(
@@ -219,7 +228,7 @@ describe('the measure form without JavaScript', () => {
 			'resolve'
 		);
 		expect(isRedirect(chosen)).toBe(true);
-		expect(await measures.read(store.id, job.id)).toMatchObject({
+		expect(await inStore(store.id, (tx) => measures.read(tx, job.id))).toMatchObject({
 			version: 2,
 			draft: { rooms: [{ name: 'Mine' }] }
 		});
@@ -228,19 +237,23 @@ describe('the measure form without JavaScript', () => {
 	it('removing a room asks first, then removes it', async () => {
 		const job = await makeJob(store.id, owner.user.id);
 		const two = draft(emptyRoom('r1', 'Kitchen'), emptyRoom('r2', 'Hall'));
-		await measures.save(store.id, job.id, two, 0, owner.user.id);
+		await inStore(store.id, (tx) => measures.save(tx, job.id, two, 0, owner.user.id));
 		const ask = await post(sales, job.id, {
 			baseVersion: '1',
 			_draft: JSON.stringify(two),
 			op: 'remove-room:r1'
 		});
 		expect(isRedirect(ask) && ask.location).toContain('remove=r1');
-		expect((await measures.read(store.id, job.id))?.draft.rooms).toHaveLength(2);
+		expect((await inStore(store.id, (tx) => measures.read(tx, job.id)))?.draft.rooms).toHaveLength(
+			2
+		);
 		await post(sales, job.id, {
 			baseVersion: '1',
 			_draft: JSON.stringify(two),
 			op: 'remove-room-now:r1'
 		});
-		expect((await measures.read(store.id, job.id))?.draft.rooms.map((r) => r.id)).toEqual(['r2']);
+		expect(
+			(await inStore(store.id, (tx) => measures.read(tx, job.id)))?.draft.rooms.map((r) => r.id)
+		).toEqual(['r2']);
 	});
 });

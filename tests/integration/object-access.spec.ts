@@ -1,5 +1,6 @@
 // "May this member touch these ids": jobs, customers, quotes and payments, by role, by the
 // store's choice for salespeople, and never another store's.
+import { inStore } from '$lib/server/db/tenant';
 import { isHttpError } from '@sveltejs/kit';
 import { beforeAll, describe, expect, it } from 'vitest';
 import * as jobs from '$lib/server/db/queries/jobs';
@@ -55,7 +56,7 @@ beforeAll(async () => {
 	};
 	sold = await makeJob(store.id, people.sales.id);
 	soldByOther = await makeJob(store.id, people.otherSales.id);
-	await jobs.assign(store.id, sold.id, people.installer.id, store.owner.id);
+	await inStore(store.id, (tx) => jobs.assign(tx, sold.id, people.installer.id, store.owner.id));
 	paid = await makePaidJob(store);
 	theirs = await makePaidJob(other);
 });

@@ -1,14 +1,18 @@
 // The money path against the real database and the Stripe fake, through the real SDK: deposits
 // by Checkout, webhooks replayed, late, out of order or forged, declines, two tabs, refunds, and a
 // webhook the app never got.
+import { inStore } from '$lib/server/db/tenant';
 import { LOCAL_STRIPE_WEBHOOK_SECRET } from '$lib/server/config';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
-import * as quotes from '$lib/server/db/queries/quotes';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
 import * as tradeSettings from '$lib/server/db/queries/settings';
-import { catchUp, handleEvent, refundCard, startCheckout } from '$lib/server/payments';
+import { startCheckout } from '$lib/server/payments/checkout';
+import { refundCard } from '$lib/server/payments/refunds';
+import { catchUp } from '$lib/server/payments/sync';
+import { handleEvent } from '$lib/server/payments/webhook';
+import { buildQuote } from '$lib/server/quotes/build';
 import { verifiedEvent } from '$lib/server/stripe';
 import { signatureHeader } from '$mocks/stripe';
 import { stripeFakeForTests } from '$mocks/stripe/testing';
@@ -19,17 +23,23 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeQuotedJob, makeStore, unique, type TestStore } from './factories';
+import { makeQuotedJob, makeStore, sendAndAccept, unique, type TestStore } from './factories';
+import { eventually, startTestWorker } from './task-worker';
+import type { TaskWorker } from '$lib/server/tasks/worker';
 import { jobScope } from '$lib/server/object-access';
 import { grantsOf } from '$lib/server/permissions';
 
 const outbox = mkdtempSync(path.join(tmpdir(), 'payments-outbox-'));
 let t: ReturnType<typeof stripeFakeForTests>;
-beforeAll(() => {
+let worker: TaskWorker;
+beforeAll(async () => {
 	t = stripeFakeForTests({ dataDir: null, webhookSecret: LOCAL_STRIPE_WEBHOOK_SECRET });
 	t.server.use(...resendHandlers(outbox));
+	// Receipts and notices are tasks: the worker sends them once the payment has committed.
+	worker = await startTestWorker(t.stripe);
 });
 afterAll(async () => {
+	await worker.stop();
 	await t.close();
 });
 
@@ -39,19 +49,12 @@ const owner = (store: TestStore) => jobScope(grantsOf('owner'), store.owner.id);
 async function acceptedJob(name = 'Card Floors') {
 	const store = await makeStore(name);
 	const account = `acct_${unique('s').replace(/[^a-z0-9]/gi, '')}`;
-	await saveStripeAccount(store.id, account);
+	await inStore(store.id, (tx) => saveStripeAccount(tx, account));
 	const made = await makeQuotedJob(store);
-	await customers.update(store.id, made.customer.id, { email: 'customer@test.example' });
-	await quotes.send(store.id, made.quote.id, {
-		to: 'customer@test.example',
-		validDays: 30,
-		actorId: store.owner.id
-	});
-	await quotes.accept(store.id, made.job.id, made.quote.id, {
-		name: 'A Customer',
-		ip: null,
-		userAgent: null
-	});
+	await inStore(store.id, (tx) =>
+		customers.update(tx, made.customer.id, { email: 'customer@test.example' })
+	);
+	await sendAndAccept(store, made, 'customer@test.example');
 	return { store, account, ...made };
 }
 
@@ -83,7 +86,7 @@ describe('a deposit by card', () => {
 		expect(events.map((e) => e.type)).toContain('checkout.session.completed');
 		for (const e of events) expect(await handleEvent(e, t.stripe)).toBe('handled');
 
-		const money = await payments.moneyFor(store.id, job.id);
+		const money = await inStore(store.id, (tx) => payments.moneyFor(tx, job.id));
 		expect(money.payments).toHaveLength(1);
 		expect(money.payments[0]).toMatchObject({
 			status: 'succeeded',
@@ -92,15 +95,19 @@ describe('a deposit by card', () => {
 		});
 		// The fake's own fee rule: 2.9 % rounded half up, plus 30 of the smallest unit (mocks/stripe/money.ts).
 		expect(money.payments[0].feeCents).toBe(Math.round(quote.depositCents * 0.029) + 30);
-		expect((await jobs.read(store.id, job.id, owner(store)))?.status).toBe('sold');
-		const receipt = readOutbox(outbox).find((m) =>
-			m.subject.startsWith('Receipt from Card Floors')
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, owner(store))))?.status
+		).toBe('sold');
+		const receipt = await eventually(() =>
+			readOutbox(outbox).find((m) => m.subject.startsWith('Receipt from Card Floors'))
 		);
 		expect(receipt?.to).toEqual(['customer@test.example']);
 
 		// The same events again change nothing.
 		for (const e of events) expect(await handleEvent(e, t.stripe)).toBe('duplicate');
-		expect((await payments.moneyFor(store.id, job.id)).payments).toHaveLength(1);
+		expect((await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).payments).toHaveLength(
+			1
+		);
 	});
 
 	it('ends in the same state when its events arrive out of order', async () => {
@@ -109,10 +116,12 @@ describe('a deposit by card', () => {
 		const session = await deposit(store, job.id);
 		await t.fake.pay(session, 'success');
 		for (const e of eventsFor(account, since).reverse()) await handleEvent(e, t.stripe);
-		const money = await payments.moneyFor(store.id, job.id);
+		const money = await inStore(store.id, (tx) => payments.moneyFor(tx, job.id));
 		expect(money.payments.map((p) => p.status)).toEqual(['succeeded']);
 		expect(money.ledger.depositDueCents).toBe(0);
-		expect((await jobs.read(store.id, job.id, owner(store)))?.status).toBe('sold');
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, owner(store))))?.status
+		).toBe('sold');
 	});
 
 	it('declined, leaves the job accepted, with the decline for the customer', async () => {
@@ -121,10 +130,12 @@ describe('a deposit by card', () => {
 		const session = await deposit(store, job.id);
 		expect((await t.fake.pay(session, 'decline')).outcome).toBe('declined');
 		for (const e of eventsFor(account, since)) await handleEvent(e, t.stripe);
-		const [p] = (await payments.moneyFor(store.id, job.id)).payments;
+		const [p] = (await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).payments;
 		expect(p.status).toBe('pending');
 		expect(p.failureMessage).toMatch(/declined/i);
-		expect((await jobs.read(store.id, job.id, owner(store)))?.status).toBe('accepted');
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, owner(store))))?.status
+		).toBe('accepted');
 	});
 
 	it('opened in two tabs at once is one checkout and one charge', async () => {
@@ -140,21 +151,29 @@ describe('a deposit by card', () => {
 			)
 		]);
 		expect(a.ok && b.ok && a.url === b.url).toBe(true);
-		expect((await payments.moneyFor(store.id, job.id)).payments).toHaveLength(1);
+		expect((await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).payments).toHaveLength(
+			1
+		);
 	});
 
 	it('paid while the app missed the webhook is caught up from Stripe', async () => {
 		const { store, job } = await acceptedJob('Offline Floors');
 		const session = await deposit(store, job.id);
 		await t.fake.pay(session, 'success');
-		expect((await payments.moneyFor(store.id, job.id)).payments[0].status).toBe('pending');
+		expect(
+			(await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).payments[0].status
+		).toBe('pending');
 		expect(await catchUp(store.id, t.stripe)).toEqual(['succeeded']);
-		expect((await jobs.read(store.id, job.id, owner(store)))?.status).toBe('sold');
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, owner(store))))?.status
+		).toBe('sold');
 	});
 
 	it('is not payable before the quote is accepted, and nothing is due twice', async () => {
 		const store = await makeStore('Early Floors');
-		await saveStripeAccount(store.id, `acct_${unique('e').replace(/[^a-z0-9]/gi, '')}`);
+		await inStore(store.id, (tx) =>
+			saveStripeAccount(tx, `acct_${unique('e').replace(/[^a-z0-9]/gi, '')}`)
+		);
 		const { job } = await makeQuotedJob(store);
 		const early = await startCheckout(
 			{ storeId: store.id, jobId: job.id, purpose: 'deposit', linkToken: 'tok' },
@@ -206,7 +225,7 @@ describe('refunds of a card payment', () => {
 		const session = await deposit(store, job.id);
 		await t.fake.pay(session, 'success');
 		for (const e of eventsFor(account, since)) await handleEvent(e, t.stripe);
-		const [paid] = (await payments.moneyFor(store.id, job.id)).payments;
+		const [paid] = (await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).payments;
 		const third = Math.floor(paid.amountCents / 3);
 		const parts = [third, third, paid.amountCents - 2 * third];
 		for (const amountCents of parts) {
@@ -220,7 +239,7 @@ describe('refunds of a card payment', () => {
 				)
 			).toEqual({ ok: true });
 		}
-		const after = await payments.moneyFor(store.id, job.id);
+		const after = await inStore(store.id, (tx) => payments.moneyFor(tx, job.id));
 		expect(after.payments[0]).toMatchObject({
 			status: 'refunded',
 			refundedCents: paid.amountCents
@@ -246,7 +265,7 @@ describe('refunds of a card payment', () => {
 		const since = Math.floor(Date.now() / 1000) - 1;
 		await t.fake.pay(await deposit(store, job.id), 'success');
 		for (const e of eventsFor(account, since)) await handleEvent(e, t.stripe);
-		const [paid] = (await payments.moneyFor(store.id, job.id)).payments;
+		const [paid] = (await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).payments;
 		expect(
 			await refundCard(
 				store.id,
@@ -256,7 +275,7 @@ describe('refunds of a card payment', () => {
 				t.stripe
 			)
 		).toEqual({ ok: false, reason: 'more_than_paid' });
-		expect((await payments.moneyFor(store.id, job.id)).refunds).toEqual([]);
+		expect((await inStore(store.id, (tx) => payments.moneyFor(tx, job.id))).refunds).toEqual([]);
 	});
 });
 
@@ -272,7 +291,9 @@ describe('events across stores', () => {
 		(forged.data.object as { metadata: Record<string, string> }).metadata.store_id = b.store.id;
 		forged.id = `${real.id}_forged`;
 		expect(await handleEvent(forged, t.stripe)).toBe('ignored');
-		expect((await payments.moneyFor(b.store.id, b.job.id)).payments).toEqual([]);
+		expect((await inStore(b.store.id, (tx) => payments.moneyFor(tx, b.job.id))).payments).toEqual(
+			[]
+		);
 	});
 });
 
@@ -280,22 +301,13 @@ describe('a store in a zero-decimal currency', () => {
 	it('charges whole yen, as Stripe counts them', async () => {
 		const store = await makeStore('Yen Floors');
 		const account = `acct_${unique('y').replace(/[^a-z0-9]/gi, '')}`;
-		await saveStripeAccount(store.id, account);
+		await inStore(store.id, (tx) => saveStripeAccount(tx, account));
 		const made = await makeQuotedJob(store);
-		const trade = await tradeSettings.read(store.id);
-		await tradeSettings.save(store.id, { ...trade, currency: 'JPY' });
-		const yen = await quotes.build(store.id, made.job.id, store.owner.id);
+		const trade = await inStore(store.id, (tx) => tradeSettings.read(tx));
+		await inStore(store.id, (tx) => tradeSettings.save(tx, { ...trade, currency: 'JPY' }));
+		const yen = await inStore(store.id, (tx) => buildQuote(tx, made.job.id, store.owner.id));
 		if (!yen.ok) throw new Error('rebuild');
-		await quotes.send(store.id, yen.quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
-		await quotes.accept(store.id, made.job.id, yen.quote.id, {
-			name: 'A',
-			ip: null,
-			userAgent: null
-		});
+		await sendAndAccept(store, { job: made.job, quote: yen.quote });
 		const session = await deposit(store, made.job.id);
 		const created = await t.stripe.checkout.sessions.retrieve(
 			session,

@@ -1,5 +1,6 @@
 // The sign-in limits' store in PostgreSQL (9.5) and the store's time zone setting (8.9), against
 // the real test database.
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { createAuthLimits } from '$lib/server/auth-limits';
 import { pool } from '$lib/server/db';
 import { readMembership, readStore, saveTimeZone } from '$lib/server/db/queries/stores';
@@ -44,11 +45,11 @@ describe('the store\u2019s time zone', () => {
 	it('is UTC until set, comes with the membership, and is kept when changed', async () => {
 		const store = await makeStore('Zone Floors');
 		expect((await readMembership(store.owner.id, store.id))?.store.timeZone).toBe('UTC');
-		await saveTimeZone(store.id, 'America/Chicago');
+		await inStore(store.id, (tx) => saveTimeZone(tx, 'America/Chicago'));
 		expect((await readMembership(store.owner.id, store.id))?.store.timeZone).toBe(
 			'America/Chicago'
 		);
-		expect((await readStore(store.id))?.timeZone).toBe('America/Chicago');
+		expect((await readInStore(store.id, (tx) => readStore(tx)))?.timeZone).toBe('America/Chicago');
 	});
 
 	it('can be given when the store is created', async () => {

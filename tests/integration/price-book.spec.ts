@@ -1,5 +1,7 @@
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import * as priceBook from '$lib/server/db/queries/price-book';
 import * as quotes from '$lib/server/db/queries/quotes';
+import { previewQuote } from '$lib/server/quotes/build';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { estimate } from '$lib/estimating';
 import { readFields } from '$lib/input';
@@ -203,7 +205,7 @@ describe('price-book forms', () => {
 describe('trade settings form', () => {
 	it('lays taxes, deposit, waste, schedule and crew output over the whole settings document', async () => {
 		const store = await makeStore('Settings Floors');
-		const current = await tradeSettings.read(store.id);
+		const current = await inStore(store.id, (tx) => tradeSettings.read(tx));
 		const values = {
 			...tradeSettingsToForm(current.settings, current.quoteValidDays, current.currency),
 			'taxes.0.name': 'County tax',
@@ -263,7 +265,7 @@ describe('trade settings form', () => {
 describe('trade settings form in a zero-decimal currency', () => {
 	it('reads the minimum deposit in whole yen and shows it back so (Stripe zero-decimal, published)', async () => {
 		const store = await makeStore('Yen Floors');
-		const current = await tradeSettings.read(store.id);
+		const current = await readInStore(store.id, (tx) => tradeSettings.read(tx));
 		const schedules = Object.keys(current.settings.underlayment.schedules);
 		const values = {
 			...tradeSettingsToForm(current.settings, current.quoteValidDays, 'JPY'),
@@ -290,51 +292,63 @@ describe('price-book lines', () => {
 	it('are checked with the engine’s schema on create and update, and nothing is written when refused', async () => {
 		const store = await makeStore('Checked Floors');
 		await expect(
-			priceBook.create(store.id, {
-				section: 'prep',
-				code: 'level',
-				name: 'Level',
-				data: { basis: 'sqft', priceCents: 12.5, payCents: 50 }
-			})
+			inStore(store.id, (tx) =>
+				priceBook.create(tx, {
+					section: 'prep',
+					code: 'level',
+					name: 'Level',
+					data: { basis: 'sqft', priceCents: 12.5, payCents: 50 }
+				})
+			)
 		).rejects.toBeInstanceOf(priceBook.InvalidPriceItem);
 		await expect(
-			priceBook.create(store.id, {
-				section: 'prep',
-				code: 'not_a_prep',
-				name: 'x',
-				data: { basis: 'sqft', priceCents: 100, payCents: 50 }
-			})
+			inStore(store.id, (tx) =>
+				priceBook.create(tx, {
+					section: 'prep',
+					code: 'not_a_prep',
+					name: 'x',
+					data: { basis: 'sqft', priceCents: 100, payCents: 50 }
+				})
+			)
 		).rejects.toThrow(/code|kind|Invalid/);
-		expect(await priceBook.list(store.id)).toEqual([]);
+		expect(await inStore(store.id, (tx) => priceBook.list(tx))).toEqual([]);
 
-		const line = await priceBook.create(store.id, {
-			section: 'removal',
-			code: 'carpet',
-			name: 'Tear out carpet',
-			data: { basis: 'sqft', priceCents: 60, payCents: 40 }
-		});
-		await expect(
-			priceBook.update(store.id, line.id, { data: { basis: 'yard', priceCents: 60, payCents: 40 } })
-		).rejects.toBeInstanceOf(priceBook.InvalidPriceItem);
-		await expect(
-			priceBook.create(store.id, {
+		const line = await inStore(store.id, (tx) =>
+			priceBook.create(tx, {
 				section: 'removal',
 				code: 'carpet',
-				name: 'Again',
-				data: { basis: 'sqft', priceCents: 1, payCents: 1 }
+				name: 'Tear out carpet',
+				data: { basis: 'sqft', priceCents: 60, payCents: 40 }
 			})
+		);
+		await expect(
+			inStore(store.id, (tx) =>
+				priceBook.update(tx, line.id, { data: { basis: 'yard', priceCents: 60, payCents: 40 } })
+			)
+		).rejects.toBeInstanceOf(priceBook.InvalidPriceItem);
+		await expect(
+			inStore(store.id, (tx) =>
+				priceBook.create(tx, {
+					section: 'removal',
+					code: 'carpet',
+					name: 'Again',
+					data: { basis: 'sqft', priceCents: 1, payCents: 1 }
+				})
+			)
 		).rejects.toBeInstanceOf(priceBook.DuplicatePriceItem);
-		const updated = await priceBook.update(store.id, line.id, {
-			data: { basis: 'room', priceCents: 9_000, payCents: 6_000 }
-		});
+		const updated = await inStore(store.id, (tx) =>
+			priceBook.update(tx, line.id, {
+				data: { basis: 'room', priceCents: 9_000, payCents: 6_000 }
+			})
+		);
 		expect(updated?.data).toEqual({ basis: 'room', priceCents: 9_000, payCents: 6_000 });
-		expect((await priceBook.list(store.id)).length).toBe(1);
+		expect((await inStore(store.id, (tx) => priceBook.list(tx))).length).toBe(1);
 	});
 
 	it('a price change leaves a built quote’s stored input and result as they were', async () => {
 		const store = await makeStore('Frozen Floors');
 		const { quote, floors, job } = await makeQuotedJob(store);
-		const lvp = (await priceBook.read(store.id, floors['lvp-grey']))!;
+		const lvp = (await inStore(store.id, (tx) => priceBook.read(tx, floors['lvp-grey'])))!;
 		const before = quote.input.priceBook.floors.find((f) => f.id === lvp.id)!;
 		expect(before.material.priceCents).toBe(329);
 
@@ -342,39 +356,46 @@ describe('price-book lines', () => {
 			...floorToForm(lvp.name, lvp.data as never, 'USD'),
 			materialPrice: '4.99'
 		});
-		await priceBook.update(store.id, lvp.id, { data: parsed.data!.data });
+		await inStore(store.id, (tx) => priceBook.update(tx, lvp.id, { data: parsed.data!.data }));
 		expect(
-			((await priceBook.read(store.id, lvp.id))!.data as { material: { priceCents: number } })
-				.material.priceCents
+			(
+				(await inStore(store.id, (tx) => priceBook.read(tx, lvp.id)))!.data as {
+					material: { priceCents: number };
+				}
+			).material.priceCents
 		).toBe(499);
 
-		const stored = (await quotes.read(store.id, quote.id))!;
+		const stored = (await inStore(store.id, (tx) => quotes.read(tx, quote.id)))!;
 		expect(stored.input).toEqual(quote.input);
 		expect(stored.totalCents).toBe(quote.totalCents);
 		expect(estimate(stored.input).totals).toEqual(quote.result.totals);
 		// Today's preview uses the new price.
-		const preview = await quotes.preview(store.id, job.id);
+		const preview = await inStore(store.id, (tx) => previewQuote(tx, job.id));
 		expect(preview!.result.totals.subtotalCents).toBeGreaterThan(quote.subtotalCents);
 	});
 
 	it('of another store cannot be read, changed or deleted', async () => {
 		const a = await makeStore('A Floors');
 		const b = await makeStore('B Floors');
-		const theirs = await priceBook.create(b.id, {
-			section: 'removal',
-			code: 'laminate',
-			name: 'Tear out laminate',
-			data: { basis: 'sqft', priceCents: 75, payCents: 50 }
-		});
-		expect(await priceBook.read(a.id, theirs.id)).toBeUndefined();
-		expect(
-			await priceBook.update(a.id, theirs.id, {
-				data: { basis: 'sqft', priceCents: 1, payCents: 1 }
+		const theirs = await inStore(b.id, (tx) =>
+			priceBook.create(tx, {
+				section: 'removal',
+				code: 'laminate',
+				name: 'Tear out laminate',
+				data: { basis: 'sqft', priceCents: 75, payCents: 50 }
 			})
+		);
+		expect(await inStore(a.id, (tx) => priceBook.read(tx, theirs.id))).toBeUndefined();
+		expect(
+			await inStore(a.id, (tx) =>
+				priceBook.update(tx, theirs.id, {
+					data: { basis: 'sqft', priceCents: 1, payCents: 1 }
+				})
+			)
 		).toBeUndefined();
-		expect(await priceBook.remove(a.id, theirs.id)).toBe(false);
-		expect(await priceBook.list(a.id)).toEqual([]);
-		expect((await priceBook.read(b.id, theirs.id))?.data).toEqual({
+		expect(await inStore(a.id, (tx) => priceBook.remove(tx, theirs.id))).toBe(false);
+		expect(await inStore(a.id, (tx) => priceBook.list(tx))).toEqual([]);
+		expect((await inStore(b.id, (tx) => priceBook.read(tx, theirs.id)))?.data).toEqual({
 			basis: 'sqft',
 			priceCents: 75,
 			payCents: 50

@@ -2,6 +2,7 @@
 // sent to every form that reads nested fields and to every JSON route that takes a body, called
 // as SvelteKit calls them (a request event whose locals are what the hooks put there). Each
 // answer is a refusal (4xx) or an ordinary success, and Object.prototype is untouched after.
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { isActionFailure, isRedirect, type RequestEvent } from '@sveltejs/kit';
 import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import * as customers from '$lib/server/db/queries/customers';
@@ -113,7 +114,7 @@ beforeAll(async () => {
 
 describe('forms that read nested field names', () => {
 	it('store settings: refuses the form, saves nothing and writes nothing onto Object.prototype', async () => {
-		const before = await tradeSettings.read(store.id);
+		const before = await readInStore(store.id, (tx) => tradeSettings.read(tx));
 		const valid = Object.entries(
 			tradeSettingsToForm(before.settings, before.quoteValidDays, before.currency)
 		);
@@ -131,7 +132,9 @@ describe('forms that read nested field names', () => {
 				.trade;
 			expect(trade.errors._form?.[0]).toMatch(/is not allowed|is also/);
 		}
-		expect((await tradeSettings.read(store.id)).settings.deposit).toEqual(before.settings.deposit);
+		expect((await readInStore(store.id, (tx) => tradeSettings.read(tx))).settings.deposit).toEqual(
+			before.settings.deposit
+		);
 		// A name through an inherited property is an ordinary (unknown) field: saved, nothing written.
 		const answer = await post(owner, settingsPage.actions.trade as Action, '/app/settings', {}, [
 			...valid,
@@ -141,7 +144,7 @@ describe('forms that read nested field names', () => {
 	});
 
 	it('store settings: a name that is both a value and a group is refused, not a 500', async () => {
-		const before = await tradeSettings.read(store.id);
+		const before = await readInStore(store.id, (tx) => tradeSettings.read(tx));
 		const valid = Object.entries(
 			tradeSettingsToForm(before.settings, before.quoteValidDays, before.currency)
 		);
@@ -265,12 +268,14 @@ describe('the JSON API', () => {
 	};
 
 	it('refuses a body with __proto__, constructor or prototype keys at any depth, naming where', async () => {
-		const customer = await customers.create(store.id, {
-			name: 'Rowan Ash',
-			email: null,
-			phone: null,
-			notes: ''
-		});
+		const customer = await inStore(store.id, (tx) =>
+			customers.create(tx, {
+				name: 'Rowan Ash',
+				email: null,
+				phone: null,
+				notes: ''
+			})
+		);
 		const job = await makeJob(store.id, store.owner.id, customer.id);
 		type Handler = (e: RequestEvent) => Promise<Response>;
 		const routes: [

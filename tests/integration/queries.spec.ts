@@ -1,4 +1,5 @@
 // The first wall: every query module takes the store id first and never crosses it.
+import { inStore } from '$lib/server/db/tenant';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -24,63 +25,81 @@ beforeAll(async () => {
 
 describe('customers across stores', () => {
 	it("lists, reads, changes and deletes none of another store's customers", async () => {
-		const listed = await customers.list(a.id, page);
+		const listed = await inStore(a.id, (tx) => customers.list(tx, page));
 		expect(listed.rows.map((r) => r.organizationId)).toEqual(listed.rows.map(() => a.id));
 		expect(listed.rows.some((r) => r.id === bCustomer.id)).toBe(false);
-		expect(await customers.read(a.id, bCustomer.id)).toBeUndefined();
-		expect(await customers.update(a.id, bCustomer.id, { name: 'Taken' })).toBeUndefined();
-		expect(await customers.remove(a.id, bCustomer.id)).toBe('not_found');
-		expect((await customers.read(b.id, bCustomer.id))?.name).toBe('Beta customer');
+		expect(await inStore(a.id, (tx) => customers.read(tx, bCustomer.id))).toBeUndefined();
+		expect(
+			await inStore(a.id, (tx) => customers.update(tx, bCustomer.id, { name: 'Taken' }))
+		).toBeUndefined();
+		expect(await inStore(a.id, (tx) => customers.remove(tx, bCustomer.id))).toBe('not_found');
+		expect((await inStore(b.id, (tx) => customers.read(tx, bCustomer.id)))?.name).toBe(
+			'Beta customer'
+		);
 	});
 
 	it('searches by name, e-mail or phone, with wildcards taken literally', async () => {
 		const store = await makeStore('Search Floors');
-		await customers.create(store.id, {
-			name: 'Greta Oak',
-			email: 'g@x.example',
-			phone: '555-0101',
-			notes: ''
-		});
-		await customers.create(store.id, {
-			name: '100% Wool Rugs',
-			email: null,
-			phone: null,
-			notes: ''
-		});
+		await inStore(store.id, (tx) =>
+			customers.create(tx, {
+				name: 'Greta Oak',
+				email: 'g@x.example',
+				phone: '555-0101',
+				notes: ''
+			})
+		);
+		await inStore(store.id, (tx) =>
+			customers.create(tx, {
+				name: '100% Wool Rugs',
+				email: null,
+				phone: null,
+				notes: ''
+			})
+		);
 		const find = async (q: string) =>
-			(await customers.list(store.id, { ...page, q })).rows.map((r) => r.name);
+			(await inStore(store.id, (tx) => customers.list(tx, { ...page, q }))).rows.map((r) => r.name);
 		expect(await find('oak')).toEqual(['Greta Oak']);
 		expect(await find('0101')).toEqual(['Greta Oak']);
 		expect(await find('%')).toEqual(['100% Wool Rugs']);
 	});
 
 	it('keeps a customer who has jobs', async () => {
-		expect(await customers.remove(b.id, bCustomer.id)).toBe('has_jobs');
+		expect(await inStore(b.id, (tx) => customers.remove(tx, bCustomer.id))).toBe('has_jobs');
 	});
 });
 
 describe('jobs across stores', () => {
 	it("lists, reads, changes, moves, assigns and deletes none of another store's jobs", async () => {
 		const staff = jobScope(grantsOf('owner'), a.owner.id);
-		const { rows } = await jobs.list(a.id, jobPage, staff);
+		const { rows } = await inStore(a.id, (tx) => jobs.list(tx, jobPage, staff));
 		expect(rows.some((r) => r.id === bJob.id)).toBe(false);
-		expect(await jobs.read(a.id, bJob.id, staff)).toBeUndefined();
-		expect(await jobs.update(a.id, bJob.id, { title: 'Taken' })).toBeUndefined();
-		expect(await jobs.move(a.id, bJob.id, 'quoted', a.owner.id)).toEqual({
+		expect(await inStore(a.id, (tx) => jobs.readForViewer(tx, bJob.id, staff))).toBeUndefined();
+		expect(
+			await inStore(a.id, (tx) => jobs.update(tx, bJob.id, { title: 'Taken' }))
+		).toBeUndefined();
+		expect(await inStore(a.id, (tx) => jobs.move(tx, bJob.id, 'quoted', a.owner.id))).toEqual({
 			ok: false,
 			reason: 'not_found'
 		});
-		expect(await jobs.assign(a.id, bJob.id, null, a.owner.id)).toBe('not_found');
-		expect(await jobs.remove(a.id, bJob.id)).toBe('not_found');
-		expect(await jobs.events(a.id, bJob.id)).toEqual([]);
-		expect((await jobs.read(b.id, bJob.id, jobScope(grantsOf('owner'), b.owner.id)))?.status).toBe(
-			'draft'
+		expect(await inStore(a.id, (tx) => jobs.assign(tx, bJob.id, null, a.owner.id))).toBe(
+			'not_found'
 		);
+		expect(await inStore(a.id, (tx) => jobs.remove(tx, bJob.id))).toBe('not_found');
+		expect(await inStore(a.id, (tx) => jobs.events(tx, bJob.id))).toEqual([]);
+		expect(
+			(
+				await inStore(b.id, (tx) =>
+					jobs.readForViewer(tx, bJob.id, jobScope(grantsOf('owner'), b.owner.id))
+				)
+			)?.status
+		).toBe('draft');
 	});
 
 	it("refuses a job for another store's customer", async () => {
 		expect(
-			await jobs.create(a.id, { customerId: bCustomer.id, title: 'x' }, a.owner.id)
+			await inStore(a.id, (tx) =>
+				jobs.create(tx, { customerId: bCustomer.id, title: 'x' }, a.owner.id)
+			)
 		).toBeUndefined();
 	});
 
@@ -96,7 +115,7 @@ describe('jobs across stores', () => {
 		const c = await makeCustomer(store.id);
 		const made = await Promise.all(
 			Array.from({ length: 12 }, () =>
-				jobs.create(store.id, { customerId: c.id, title: 't' }, store.owner.id)
+				inStore(store.id, (tx) => jobs.create(tx, { customerId: c.id, title: 't' }, store.owner.id))
 			)
 		);
 		expect(new Set(made.map((j) => j?.number)).size).toBe(12);
@@ -110,13 +129,17 @@ describe('installers', () => {
 		const dev = await addMember(store.id, 'installer', 'Dev');
 		const hers = await makeJob(store.id, store.owner.id);
 		const his = await makeJob(store.id, store.owner.id);
-		expect(await jobs.assign(store.id, hers.id, rosa.id, store.owner.id)).toBe('assigned');
-		expect(await jobs.assign(store.id, his.id, dev.id, store.owner.id)).toBe('assigned');
+		expect(await inStore(store.id, (tx) => jobs.assign(tx, hers.id, rosa.id, store.owner.id))).toBe(
+			'assigned'
+		);
+		expect(await inStore(store.id, (tx) => jobs.assign(tx, his.id, dev.id, store.owner.id))).toBe(
+			'assigned'
+		);
 		const asRosa = jobScope(grantsOf('installer'), rosa.id);
-		const { rows } = await jobs.list(store.id, jobPage, asRosa);
+		const { rows } = await inStore(store.id, (tx) => jobs.list(tx, jobPage, asRosa));
 		expect(rows.map((r) => r.id)).toEqual([hers.id]);
-		expect(await jobs.read(store.id, his.id, asRosa)).toBeUndefined();
-		expect(await jobs.countByStatus(store.id, asRosa)).toEqual({ draft: 1 });
+		expect(await inStore(store.id, (tx) => jobs.readForViewer(tx, his.id, asRosa))).toBeUndefined();
+		expect(await inStore(store.id, (tx) => jobs.countByStatus(tx, asRosa))).toEqual({ draft: 1 });
 	});
 
 	it('of another store, or people who are not installers, cannot be assigned', async () => {
@@ -125,10 +148,12 @@ describe('installers', () => {
 		const outsider = await addMember(other.id, 'installer');
 		const seller = await addMember(store.id, 'sales');
 		const job = await makeJob(store.id, store.owner.id);
-		expect(await jobs.assign(store.id, job.id, outsider.id, store.owner.id)).toBe(
-			'not_an_installer'
-		);
-		expect(await jobs.assign(store.id, job.id, seller.id, store.owner.id)).toBe('not_an_installer');
+		expect(
+			await inStore(store.id, (tx) => jobs.assign(tx, job.id, outsider.id, store.owner.id))
+		).toBe('not_an_installer');
+		expect(
+			await inStore(store.id, (tx) => jobs.assign(tx, job.id, seller.id, store.owner.id))
+		).toBe('not_an_installer');
 	});
 });
 
@@ -136,14 +161,16 @@ describe('job moves', () => {
 	it('follow the state machine and keep a history with who and why', async () => {
 		const store = await makeStore('History Floors');
 		const job = await makeJob(store.id, store.owner.id);
-		expect(await jobs.move(store.id, job.id, 'sold', store.owner.id)).toEqual({
+		expect(await inStore(store.id, (tx) => jobs.move(tx, job.id, 'sold', store.owner.id))).toEqual({
 			ok: false,
 			reason: 'not_allowed',
 			from: 'draft'
 		});
-		const moved = await jobs.move(store.id, job.id, 'quoted', store.owner.id, 'Sent by hand');
+		const moved = await inStore(store.id, (tx) =>
+			jobs.move(tx, job.id, 'quoted', store.owner.id, 'Sent by hand')
+		);
 		expect(moved.ok && moved.job.status).toBe('quoted');
-		const history = await jobs.events(store.id, job.id);
+		const history = await inStore(store.id, (tx) => jobs.events(tx, job.id));
 		expect(history.map((e) => [e.kind, e.fromStatus, e.toStatus, e.note])).toEqual([
 			['status', 'draft', 'quoted', 'Sent by hand'],
 			['created', null, 'draft', '']
@@ -153,10 +180,10 @@ describe('job moves', () => {
 	it('let only one of two simultaneous moves from the same state win', async () => {
 		const store = await makeStore('Race Floors');
 		const job = await makeJob(store.id, store.owner.id);
-		await jobs.move(store.id, job.id, 'quoted', store.owner.id);
+		await inStore(store.id, (tx) => jobs.move(tx, job.id, 'quoted', store.owner.id));
 		const [x, y] = await Promise.all([
-			jobs.move(store.id, job.id, 'accepted', store.owner.id),
-			jobs.move(store.id, job.id, 'draft', store.owner.id)
+			inStore(store.id, (tx) => jobs.move(tx, job.id, 'accepted', store.owner.id)),
+			inStore(store.id, (tx) => jobs.move(tx, job.id, 'draft', store.owner.id))
 		]);
 		expect([x.ok, y.ok].filter(Boolean)).toHaveLength(1);
 	});
@@ -164,9 +191,9 @@ describe('job moves', () => {
 	it('delete only draft or cancelled jobs', async () => {
 		const store = await makeStore('Delete Floors');
 		const job = await makeJob(store.id, store.owner.id);
-		await jobs.move(store.id, job.id, 'quoted', store.owner.id);
-		expect(await jobs.remove(store.id, job.id)).toBe('not_draft');
-		await jobs.move(store.id, job.id, 'cancelled', store.owner.id);
-		expect(await jobs.remove(store.id, job.id)).toBe('deleted');
+		await inStore(store.id, (tx) => jobs.move(tx, job.id, 'quoted', store.owner.id));
+		expect(await inStore(store.id, (tx) => jobs.remove(tx, job.id))).toBe('not_draft');
+		await inStore(store.id, (tx) => jobs.move(tx, job.id, 'cancelled', store.owner.id));
+		expect(await inStore(store.id, (tx) => jobs.remove(tx, job.id))).toBe('deleted');
 	});
 });

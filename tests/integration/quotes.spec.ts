@@ -1,8 +1,12 @@
+import { inStore } from '$lib/server/db/tenant';
 import { pool } from '$lib/server/db';
 import * as measures from '$lib/server/db/queries/measures';
 import * as priceBook from '$lib/server/db/queries/price-book';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as jobs from '$lib/server/db/queries/jobs';
+import { acceptQuote, requestChanges } from '$lib/server/quotes/answer';
+import { buildQuote } from '$lib/server/quotes/build';
+import { sendQuote } from '$lib/server/quotes/send';
 import { estimate } from '$lib/estimating';
 import { describe, expect, it } from 'vitest';
 import { makeJob, makeQuotedJob, makeStore, makePriceBook, roomDraft } from './factories';
@@ -52,27 +56,31 @@ describe('building a quote', () => {
 			floor: { productId: '', layout: 'straight' as const }
 		};
 		const badLength = roomDraft('r2', 'Den', floors['lvp-grey'], '12\' 6 1/0"');
-		await measures.save(store.id, job.id, { builtYear: '', rooms: [noFloor] }, 0, store.owner.id);
-		const first = await quotes.build(store.id, job.id, store.owner.id);
+		await inStore(store.id, (tx) =>
+			measures.save(tx, job.id, { builtYear: '', rooms: [noFloor] }, 0, store.owner.id)
+		);
+		const first = await inStore(store.id, (tx) => buildQuote(tx, job.id, store.owner.id));
 		expect(first).toMatchObject({
 			ok: false,
 			reason: 'invalid',
 			errors: [{ path: 'rooms.0.floor', roomId: 'r1' }]
 		});
-		await measures.save(store.id, job.id, { builtYear: '', rooms: [badLength] }, 1, store.owner.id);
-		const second = await quotes.build(store.id, job.id, store.owner.id);
+		await inStore(store.id, (tx) =>
+			measures.save(tx, job.id, { builtYear: '', rooms: [badLength] }, 1, store.owner.id)
+		);
+		const second = await inStore(store.id, (tx) => buildQuote(tx, job.id, store.owner.id));
 		expect(second).toMatchObject({
 			ok: false,
 			reason: 'invalid',
 			errors: [{ path: 'rooms.0.shape.width' }]
 		});
-		expect(await quotes.list(store.id, job.id)).toEqual([]);
+		expect(await inStore(store.id, (tx) => quotes.list(tx, job.id))).toEqual([]);
 	});
 
 	it('says so when nothing was measured', async () => {
 		const store = await makeStore('Empty Floors');
 		const job = await makeJob(store.id, store.owner.id);
-		expect(await quotes.build(store.id, job.id, store.owner.id)).toEqual({
+		expect(await inStore(store.id, (tx) => buildQuote(tx, job.id, store.owner.id))).toEqual({
 			ok: false,
 			reason: 'no_measure'
 		});
@@ -83,24 +91,28 @@ describe('a sent quote', () => {
 	it('stays as sent when a price changes afterwards; the next version takes the new price', async () => {
 		const store = await makeStore('Frozen Floors');
 		const { job, quote, floors } = await makeQuotedJob(store);
-		const sent = await quotes.send(store.id, quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
+		const sent = await inStore(store.id, (tx) =>
+			sendQuote(tx, quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
 		expect(sent.ok).toBe(true);
-		const item = (await priceBook.read(store.id, floors['lvp-grey']))!;
+		const item = (await inStore(store.id, (tx) => priceBook.read(tx, floors['lvp-grey'])))!;
 		const material = item.data.material as { basis: string; priceCents: number };
-		await priceBook.update(store.id, item.id, {
-			data: { ...item.data, material: { ...material, priceCents: material.priceCents * 2 } }
-		});
+		await inStore(store.id, (tx) =>
+			priceBook.update(tx, item.id, {
+				data: { ...item.data, material: { ...material, priceCents: material.priceCents * 2 } }
+			})
+		);
 
-		const kept = (await quotes.read(store.id, quote.id))!;
+		const kept = (await inStore(store.id, (tx) => quotes.read(tx, quote.id)))!;
 		expect(kept.totalCents).toBe(quote.totalCents);
 		expect(kept.input).toEqual(quote.input);
 		expect(kept.result).toEqual(quote.result);
 
-		const next = await quotes.build(store.id, job.id, store.owner.id);
+		const next = await inStore(store.id, (tx) => buildQuote(tx, job.id, store.owner.id));
 		expect(next.ok && next.quote.version).toBe(2);
 		expect(next.ok && next.quote.totalCents).toBeGreaterThan(quote.totalCents);
 	});
@@ -108,11 +120,13 @@ describe('a sent quote', () => {
 	it('cannot be changed or deleted, even by a raw query', async () => {
 		const store = await makeStore('Locked Floors');
 		const { quote } = await makeQuotedJob(store);
-		await quotes.send(store.id, quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
+		await inStore(store.id, (tx) =>
+			sendQuote(tx, quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
 		await expect(
 			asOwner(`update quote set total_cents = 1 where id = $1`, [store.id, quote.id])
 		).rejects.toThrow(/frozen/);
@@ -124,25 +138,35 @@ describe('a sent quote', () => {
 	it('moves a draft job to quoted, and a newer sent version supersedes it', async () => {
 		const store = await makeStore('Versions Floors');
 		const { job, quote } = await makeQuotedJob(store);
-		await quotes.send(store.id, quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
-		expect((await jobs.read(store.id, job.id, staff(store.owner.id)))?.status).toBe('quoted');
-		const v2 = await quotes.build(store.id, job.id, store.owner.id);
+		await inStore(store.id, (tx) =>
+			sendQuote(tx, quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, staff(store.owner.id))))
+				?.status
+		).toBe('quoted');
+		const v2 = await inStore(store.id, (tx) => buildQuote(tx, job.id, store.owner.id));
 		if (!v2.ok) throw new Error('v2');
-		await quotes.send(store.id, v2.quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
-		const statuses = (await quotes.list(store.id, job.id)).map((q) => [q.version, q.status]);
+		await inStore(store.id, (tx) =>
+			sendQuote(tx, v2.quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
+		const statuses = (await inStore(store.id, (tx) => quotes.list(tx, job.id))).map((q) => [
+			q.version,
+			q.status
+		]);
 		expect(statuses).toEqual([
 			[2, 'sent'],
 			[1, 'superseded']
 		]);
-		expect((await quotes.forCustomer(store.id, job.id))?.version).toBe(2);
+		expect((await inStore(store.id, (tx) => quotes.forCustomer(tx, job.id)))?.version).toBe(2);
 	});
 });
 
@@ -150,19 +174,24 @@ describe("the customer's answer", () => {
 	it('accepts once, recording the name, and the job becomes accepted', async () => {
 		const store = await makeStore('Accept Floors');
 		const { job, quote } = await makeQuotedJob(store);
-		await quotes.send(store.id, quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
+		await inStore(store.id, (tx) =>
+			sendQuote(tx, quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
 		const signature = { name: 'Greta Oakhurst', ip: '203.0.113.7', userAgent: 'test' };
-		const accepted = await quotes.accept(store.id, job.id, quote.id, signature);
+		const accepted = await inStore(store.id, (tx) => acceptQuote(tx, job.id, quote.id, signature));
 		expect(accepted).toMatchObject({
 			ok: true,
 			quote: { status: 'accepted', acceptedName: 'Greta Oakhurst', acceptedIp: '203.0.113.7' }
 		});
-		expect((await jobs.read(store.id, job.id, staff(store.owner.id)))?.status).toBe('accepted');
-		expect(await quotes.accept(store.id, job.id, quote.id, signature)).toEqual({
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, staff(store.owner.id))))
+				?.status
+		).toBe('accepted');
+		expect(await inStore(store.id, (tx) => acceptQuote(tx, job.id, quote.id, signature))).toEqual({
 			ok: false,
 			reason: 'not_open'
 		});
@@ -172,51 +201,61 @@ describe("the customer's answer", () => {
 		const store = await makeStore('Late Floors');
 		const { job, quote } = await makeQuotedJob(store);
 		const signature = { name: 'A', ip: null, userAgent: null };
-		expect(await quotes.accept(store.id, job.id, quote.id, signature)).toEqual({
+		expect(await inStore(store.id, (tx) => acceptQuote(tx, job.id, quote.id, signature))).toEqual({
 			ok: false,
 			reason: 'not_open'
 		});
-		await quotes.send(store.id, quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
+		await inStore(store.id, (tx) =>
+			sendQuote(tx, quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
 		const other = await makeJob(store.id, store.owner.id);
-		expect(await quotes.accept(store.id, other.id, quote.id, signature)).toEqual({
-			ok: false,
-			reason: 'not_found'
-		});
+		expect(await inStore(store.id, (tx) => acceptQuote(tx, other.id, quote.id, signature))).toEqual(
+			{
+				ok: false,
+				reason: 'not_found'
+			}
+		);
 		const expiredStore = await makeStore('Expired Floors');
 		const expired = await makeQuotedJob(expiredStore);
-		await quotes.send(expiredStore.id, expired.quote.id, {
-			to: 'c@test.example',
-			validDays: 0,
-			actorId: expiredStore.owner.id
-		});
+		await inStore(expiredStore.id, (tx) =>
+			sendQuote(tx, expired.quote.id, {
+				to: 'c@test.example',
+				validDays: 0,
+				actorId: expiredStore.owner.id
+			})
+		);
 		expect(
-			await quotes.accept(expiredStore.id, expired.job.id, expired.quote.id, signature)
+			await inStore(expiredStore.id, (tx) =>
+				acceptQuote(tx, expired.job.id, expired.quote.id, signature)
+			)
 		).toEqual({ ok: false, reason: 'expired' });
 	});
 
 	it('asks for changes with a note; the job returns to draft for the next version', async () => {
 		const store = await makeStore('Changes Floors');
 		const { job, quote } = await makeQuotedJob(store);
-		await quotes.send(store.id, quote.id, {
-			to: 'c@test.example',
-			validDays: 30,
-			actorId: store.owner.id
-		});
-		const asked = await quotes.requestChanges(
-			store.id,
-			job.id,
-			quote.id,
-			'Oak in the hall instead'
+		await inStore(store.id, (tx) =>
+			sendQuote(tx, quote.id, {
+				to: 'c@test.example',
+				validDays: 30,
+				actorId: store.owner.id
+			})
+		);
+		const asked = await inStore(store.id, (tx) =>
+			requestChanges(tx, job.id, quote.id, 'Oak in the hall instead')
 		);
 		expect(asked).toMatchObject({
 			ok: true,
 			quote: { status: 'changes_requested', changeNote: 'Oak in the hall instead' }
 		});
-		expect((await jobs.read(store.id, job.id, staff(store.owner.id)))?.status).toBe('draft');
+		expect(
+			(await inStore(store.id, (tx) => jobs.readForViewer(tx, job.id, staff(store.owner.id))))
+				?.status
+		).toBe('draft');
 	});
 });
 
@@ -227,18 +266,24 @@ describe('measures', () => {
 		const job = await makeJob(store.id, store.owner.id);
 		const priya = { builtYear: '', rooms: [roomDraft('r1', 'Kitchen', floors['oak-7'])] };
 		const jonah = { builtYear: '', rooms: [roomDraft('r1', 'Kitchen', floors['lvp-grey'], "14'")] };
-		expect(await measures.save(store.id, job.id, priya, 0, store.owner.id)).toMatchObject({
+		expect(
+			await inStore(store.id, (tx) => measures.save(tx, job.id, priya, 0, store.owner.id))
+		).toMatchObject({
 			ok: true,
 			version: 1
 		});
-		const late = await measures.save(store.id, job.id, jonah, 0, store.owner.id);
+		const late = await inStore(store.id, (tx) =>
+			measures.save(tx, job.id, jonah, 0, store.owner.id)
+		);
 		expect(late).toMatchObject({
 			ok: false,
 			reason: 'conflict',
 			current: { version: 1, draft: priya }
 		});
-		expect((await measures.read(store.id, job.id))?.draft).toEqual(priya);
-		expect(await measures.save(store.id, job.id, jonah, 1, store.owner.id)).toMatchObject({
+		expect((await inStore(store.id, (tx) => measures.read(tx, job.id)))?.draft).toEqual(priya);
+		expect(
+			await inStore(store.id, (tx) => measures.save(tx, job.id, jonah, 1, store.owner.id))
+		).toMatchObject({
 			ok: true,
 			version: 2
 		});
@@ -250,33 +295,39 @@ describe('across stores', () => {
 		const a = await makeStore('Alpha Quote Floors');
 		const b = await makeStore('Beta Quote Floors');
 		const theirs = await makeQuotedJob(b);
-		expect(await quotes.read(a.id, theirs.quote.id)).toBeUndefined();
-		expect(await quotes.readVersion(a.id, theirs.job.id, 1)).toBeUndefined();
-		expect(await quotes.list(a.id, theirs.job.id)).toEqual([]);
-		expect(await quotes.build(a.id, theirs.job.id, a.owner.id)).toEqual({
+		expect(await inStore(a.id, (tx) => quotes.read(tx, theirs.quote.id))).toBeUndefined();
+		expect(await inStore(a.id, (tx) => quotes.readVersion(tx, theirs.job.id, 1))).toBeUndefined();
+		expect(await inStore(a.id, (tx) => quotes.list(tx, theirs.job.id))).toEqual([]);
+		expect(await inStore(a.id, (tx) => buildQuote(tx, theirs.job.id, a.owner.id))).toEqual({
 			ok: false,
 			reason: 'no_measure'
 		});
 		expect(
-			await quotes.send(a.id, theirs.quote.id, {
-				to: 'x@test.example',
-				validDays: 30,
-				actorId: a.owner.id
-			})
+			await inStore(a.id, (tx) =>
+				sendQuote(tx, theirs.quote.id, {
+					to: 'x@test.example',
+					validDays: 30,
+					actorId: a.owner.id
+				})
+			)
 		).toEqual({
 			ok: false,
 			reason: 'not_found'
 		});
 		const signature = { name: 'X', ip: null, userAgent: null };
-		expect(await quotes.accept(a.id, theirs.job.id, theirs.quote.id, signature)).toEqual({
+		expect(
+			await inStore(a.id, (tx) => acceptQuote(tx, theirs.job.id, theirs.quote.id, signature))
+		).toEqual({
 			ok: false,
 			reason: 'not_found'
 		});
-		expect(await measures.read(a.id, theirs.job.id)).toBeUndefined();
-		expect(await measures.save(a.id, theirs.job.id, theirs.draft, 1, a.owner.id)).toEqual({
+		expect(await inStore(a.id, (tx) => measures.read(tx, theirs.job.id))).toBeUndefined();
+		expect(
+			await inStore(a.id, (tx) => measures.save(tx, theirs.job.id, theirs.draft, 1, a.owner.id))
+		).toEqual({
 			ok: false,
 			reason: 'not_found'
 		});
-		expect(await priceBook.read(a.id, theirs.floors['oak-7'])).toBeUndefined();
+		expect(await inStore(a.id, (tx) => priceBook.read(tx, theirs.floors['oak-7']))).toBeUndefined();
 	});
 });

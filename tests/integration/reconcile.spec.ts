@@ -2,12 +2,13 @@
 // they netted.
 import { LOCAL_STRIPE_WEBHOOK_SECRET } from '$lib/server/config';
 import * as payments from '$lib/server/db/queries/payments';
-import * as quotes from '$lib/server/db/queries/quotes';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
 import { payment } from '$lib/server/db/schema';
-import { inStore } from '$lib/server/db/tenant';
-import { handleEvent, startCheckout } from '$lib/server/payments';
-import { reconcile } from '$lib/server/reconcile';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import { startCheckout } from '$lib/server/payments/checkout';
+import { reconcile } from '$lib/server/payments/reconcile';
+import { syncStripeActivity } from '$lib/server/payments/stripe-activity';
+import { handleEvent } from '$lib/server/payments/webhook';
 import { stripeFakeForTests } from '$mocks/stripe/testing';
 import { resendHandlers } from '$mocks/resend';
 import { mkdtempSync } from 'node:fs';
@@ -15,7 +16,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { and, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeQuotedJob, makeStore, unique } from './factories';
+import { makeQuotedJob, makeStore, sendAndAccept, unique } from './factories';
 
 let t: ReturnType<typeof stripeFakeForTests>;
 beforeAll(() => {
@@ -30,22 +31,13 @@ describe('reconciliation', () => {
 	it('flags matched, Stripe-only, ledger-only and differing lines, and shows payouts with their fees', async () => {
 		const store = await makeStore('Reconcile Floors');
 		const account = `acct_${unique('r').replace(/[^a-z0-9]/gi, '')}`;
-		await saveStripeAccount(store.id, account);
+		await inStore(store.id, (tx) => saveStripeAccount(tx, account));
 		const from = new Date(Date.now() - 60_000);
 
 		/** A job paid by card through Checkout, its events handled. */
 		async function paidJob() {
 			const made = await makeQuotedJob(store);
-			await quotes.send(store.id, made.quote.id, {
-				to: 'c@test.example',
-				validDays: 30,
-				actorId: store.owner.id
-			});
-			await quotes.accept(store.id, made.job.id, made.quote.id, {
-				name: 'A',
-				ip: null,
-				userAgent: null
-			});
+			await sendAndAccept(store, made);
 			const since = Math.floor(Date.now() / 1000) - 1;
 			const started = await startCheckout(
 				{ storeId: store.id, jobId: made.job.id, purpose: 'deposit', linkToken: 'x' },
@@ -59,7 +51,7 @@ describe('reconciliation', () => {
 				.reverse()) {
 				await handleEvent(e, t.stripe);
 			}
-			return (await payments.moneyFor(store.id, made.job.id)).payments[0];
+			return (await inStore(store.id, (tx) => payments.moneyFor(tx, made.job.id))).payments[0];
 		}
 
 		const matched = await paidJob();
@@ -117,7 +109,9 @@ describe('reconciliation', () => {
 		);
 		const [payout] = await t.fake.payout(undefined, account);
 
-		const report = await reconcile(store.id, from, new Date(Date.now() + 60_000), t.stripe);
+		const to = new Date(Date.now() + 60_000);
+		await syncStripeActivity(store.id, { from, to }, t.stripe);
+		const report = await readInStore(store.id, (tx) => reconcile(tx, from, to));
 		const find = (status: string, kind = 'charge') =>
 			report.rows.filter((r) => r.status === status && r.kind === kind);
 		expect(find('matched').map((r) => r.paymentId)).toEqual([matched.id]);
@@ -155,7 +149,8 @@ describe('reconciliation', () => {
 
 	it('says when the store has no Stripe account', async () => {
 		const store = await makeStore('Cash Only Floors');
-		const report = await reconcile(store.id, new Date(0), new Date(), t.stripe);
+		await syncStripeActivity(store.id, {}, t.stripe);
+		const report = await readInStore(store.id, (tx) => reconcile(tx, new Date(0), new Date()));
 		expect(report).toMatchObject({ connected: false, rows: [] });
 	});
 });

@@ -1,3 +1,4 @@
+import { inStore } from '$lib/server/db/tenant';
 import { mkdtemp, readdir, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -25,26 +26,28 @@ describe('sites', () => {
 		const store = await makeStore('Site Floors');
 		const customer = await makeCustomer(store.id);
 		const first = await makeSite(store.id, customer.id);
-		const second = await sites.create(store.id, customer.id, home);
+		const second = await inStore(store.id, (tx) => sites.create(tx, customer.id, home));
 		expect(second).toMatchObject(home);
-		const listed = await sites.listWithJobCounts(store.id, customer.id);
+		const listed = await inStore(store.id, (tx) => sites.listWithJobCounts(tx, customer.id));
 		expect(listed.map((s) => [s.label, s.jobs])).toEqual([
 			['Home', 0],
 			['Lake house', 0]
 		]);
-		const changed = await sites.update(store.id, second!.id, {
-			notes: 'Dog in the yard',
-			builtYear: null
-		});
+		const changed = await inStore(store.id, (tx) =>
+			sites.update(tx, second!.id, {
+				notes: 'Dog in the yard',
+				builtYear: null
+			})
+		);
 		expect(changed).toMatchObject({
 			notes: 'Dog in the yard',
 			builtYear: null,
 			address: home.address
 		});
-		expect(await sites.remove(store.id, first.id)).toBe('deleted');
-		expect((await sites.listForCustomer(store.id, customer.id)).map((s) => s.id)).toEqual([
-			second!.id
-		]);
+		expect(await inStore(store.id, (tx) => sites.remove(tx, first.id))).toBe('deleted');
+		expect(
+			(await inStore(store.id, (tx) => sites.listForCustomer(tx, customer.id))).map((s) => s.id)
+		).toEqual([second!.id]);
 	});
 
 	it('with jobs are kept', async () => {
@@ -52,11 +55,13 @@ describe('sites', () => {
 		const customer = await makeCustomer(store.id);
 		const site = await makeSite(store.id, customer.id);
 		const job = await makeJob(store.id, store.owner.id, customer.id);
-		expect(await sites.setJobSite(store.id, job.id, site.id)).toBe('saved');
-		expect((await sites.forJob(store.id, job.id))?.id).toBe(site.id);
-		expect((await sites.listWithJobCounts(store.id, customer.id))[0].jobs).toBe(1);
-		expect(await sites.remove(store.id, site.id)).toBe('has_jobs');
-		expect(await sites.read(store.id, site.id)).toBeDefined();
+		expect(await inStore(store.id, (tx) => sites.setJobSite(tx, job.id, site.id))).toBe('saved');
+		expect((await inStore(store.id, (tx) => sites.forJob(tx, job.id)))?.id).toBe(site.id);
+		expect(
+			(await inStore(store.id, (tx) => sites.listWithJobCounts(tx, customer.id)))[0].jobs
+		).toBe(1);
+		expect(await inStore(store.id, (tx) => sites.remove(tx, site.id))).toBe('has_jobs');
+		expect(await inStore(store.id, (tx) => sites.read(tx, site.id))).toBeDefined();
 	});
 
 	it('of another customer cannot hold a job', async () => {
@@ -64,8 +69,10 @@ describe('sites', () => {
 		const job = await makeJob(store.id, store.owner.id);
 		const stranger = await makeCustomer(store.id, 'Someone Else');
 		const theirSite = await makeSite(store.id, stranger.id);
-		expect(await sites.setJobSite(store.id, job.id, theirSite.id)).toBe('other_customer');
-		expect(await sites.forJob(store.id, job.id)).toBeUndefined();
+		expect(await inStore(store.id, (tx) => sites.setJobSite(tx, job.id, theirSite.id))).toBe(
+			'other_customer'
+		);
+		expect(await inStore(store.id, (tx) => sites.forJob(tx, job.id))).toBeUndefined();
 	});
 
 	it('of another store cannot be read, listed, changed, deleted or used', async () => {
@@ -74,13 +81,19 @@ describe('sites', () => {
 		const theirCustomer = await makeCustomer(b.id);
 		const theirSite = await makeSite(b.id, theirCustomer.id);
 		const myJob = await makeJob(a.id, a.owner.id);
-		expect(await sites.read(a.id, theirSite.id)).toBeUndefined();
-		expect(await sites.listForCustomer(a.id, theirCustomer.id)).toEqual([]);
-		expect(await sites.update(a.id, theirSite.id, { address: 'Taken' })).toBeUndefined();
-		expect(await sites.remove(a.id, theirSite.id)).toBe('not_found');
-		expect(await sites.create(a.id, theirCustomer.id, home)).toBeUndefined();
-		expect(await sites.setJobSite(a.id, myJob.id, theirSite.id)).toBe('not_found');
-		expect((await sites.read(b.id, theirSite.id))?.address).toBe('9 Test Lane');
+		expect(await inStore(a.id, (tx) => sites.read(tx, theirSite.id))).toBeUndefined();
+		expect(await inStore(a.id, (tx) => sites.listForCustomer(tx, theirCustomer.id))).toEqual([]);
+		expect(
+			await inStore(a.id, (tx) => sites.update(tx, theirSite.id, { address: 'Taken' }))
+		).toBeUndefined();
+		expect(await inStore(a.id, (tx) => sites.remove(tx, theirSite.id))).toBe('not_found');
+		expect(await inStore(a.id, (tx) => sites.create(tx, theirCustomer.id, home))).toBeUndefined();
+		expect(await inStore(a.id, (tx) => sites.setJobSite(tx, myJob.id, theirSite.id))).toBe(
+			'not_found'
+		);
+		expect((await inStore(b.id, (tx) => sites.read(tx, theirSite.id)))?.address).toBe(
+			'9 Test Lane'
+		);
 	});
 
 	it('forms refuse an empty address and an impossible year by their fields', () => {
@@ -118,7 +131,7 @@ describe('the store logo', () => {
 		]);
 		expect((await saveLogo(store.id, fake, files)).ok).toBe(false);
 		expect(await saveLogo(store.id, Buffer.alloc(0), files)).toMatchObject({ ok: false });
-		expect((await readProfile(store.id)).logoKey ?? null).toBeNull();
+		expect((await inStore(store.id, (tx) => readProfile(tx))).logoKey ?? null).toBeNull();
 		expect(await readdir(dir)).toEqual([]);
 	});
 
@@ -135,7 +148,7 @@ describe('the store logo', () => {
 		const saved = await saveLogo(store.id, big, files);
 		if (!saved.ok) throw new Error(saved.message);
 		expect(saved.key).toMatch(new RegExp(`^${store.id}/logo-[0-9a-f]{16}\\.png$`));
-		const logo = await readLogo(store.id, files);
+		const logo = await inStore(store.id, (tx) => readLogo(tx, files));
 		expect(logo?.type).toBe('image/png');
 		const meta = await sharp(logo!.bytes).metadata();
 		expect([meta.width, meta.height, meta.format]).toEqual([600, 200, 'png']);
@@ -149,10 +162,12 @@ describe('the store logo', () => {
 		const replaced = await saveLogo(store.id, jpeg, files);
 		expect(replaced.ok && replaced.key.endsWith('.jpg')).toBe(true);
 		expect(await files.get(saved.key)).toBeUndefined();
-		expect((await sharp((await readLogo(store.id, files))!.bytes).metadata()).width).toBe(300);
+		expect(
+			(await sharp((await inStore(store.id, (tx) => readLogo(tx, files)))!.bytes).metadata()).width
+		).toBe(300);
 
 		await removeLogo(store.id, files);
-		expect(await readLogo(store.id, files)).toBeUndefined();
+		expect(await inStore(store.id, (tx) => readLogo(tx, files))).toBeUndefined();
 	});
 
 	it('of another store is not read through this store', async () => {
@@ -163,7 +178,7 @@ describe('the store logo', () => {
 			.png()
 			.toBuffer();
 		await saveLogo(b.id, png, files);
-		expect(await readLogo(a.id, files)).toBeUndefined();
-		expect(await readLogo(b.id, files)).toBeDefined();
+		expect(await inStore(a.id, (tx) => readLogo(tx, files))).toBeUndefined();
+		expect(await inStore(b.id, (tx) => readLogo(tx, files))).toBeDefined();
 	});
 });

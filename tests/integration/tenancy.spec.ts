@@ -1,5 +1,6 @@
 // The second wall: PostgreSQL row-level security on every domain table, beneath the queries'
 // own organization_id filter.
+import { inStore } from '$lib/server/db/tenant';
 import { pool } from '$lib/server/db';
 import { saveProfile } from '$lib/server/db/queries/stores';
 import type { PoolClient } from 'pg';
@@ -38,10 +39,13 @@ beforeAll(async () => {
 	a = await makeStore('Alpha Floors');
 	b = await makeStore('Beta Floors');
 	for (const store of [a, b]) {
-		await saveProfile(store.id, { address: '1 Test Row', town: 'Testville', phone: '', email: '' });
+		await inStore(store.id, (tx) =>
+			saveProfile(tx, { address: '1 Test Row', town: 'Testville', phone: '', email: '' })
+		);
 		// A row in every domain table: settings, price book, customer, site, job and its history,
-		// measure, quote, payment, refund, Stripe event, and the installer's half (profile, time
-		// off, booking, report, items, photo, change order, completion, statement and lines).
+		// measure, quote, payment, refund, Stripe event, the e-mail tasks, the copy of Stripe activity,
+		// and the installer's half (profile, time off, booking, report, items, photo, change order,
+		// completion, statement and lines).
 		await makeFieldWork(store);
 	}
 });

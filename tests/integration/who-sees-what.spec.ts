@@ -3,12 +3,12 @@
 // installer pay and margins only where the owner turns it on; card fees never. Installers cannot
 // list the store's people through the auth endpoints; an invitation shows only the store's name
 // to anyone but its invitee.
+import { inStore } from '$lib/server/db/tenant';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sampleJob } from '$lib/estimating/sample';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { payment } from '$lib/server/db/schema';
-import { inStore } from '$lib/server/db/tenant';
 import { startApp, type App, type PageData, type Visitor } from './app-server';
 import {
 	addMember,
@@ -43,7 +43,7 @@ beforeAll(async () => {
 	await inStore(store.id, (tx) =>
 		tx.update(payment).set({ feeCents: FEE }).where(eq(payment.id, paid.payment.id))
 	);
-	await jobs.assign(store.id, paid.job.id, installer.id, store.owner.id);
+	await inStore(store.id, (tx) => jobs.assign(tx, paid.job.id, installer.id, store.owner.id));
 	soldBySales = await makeJob(store.id, sales.id);
 	people = {
 		owner: await app.signIn(store.owner.email),

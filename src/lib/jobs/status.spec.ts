@@ -3,15 +3,20 @@ import {
 	canBook,
 	canCheckIn,
 	canComplete,
+	canDelete,
 	canMove,
+	canQuote,
 	canRaiseChangeOrder,
 	canReport,
 	canSignOff,
+	canStartOnSite,
 	isOpen,
 	JOB_STATUSES,
 	jobLabel,
 	nextStatuses,
-	SITE_MOVES
+	payableNow,
+	SITE_MOVES,
+	soldByDeposit
 } from './status';
 
 // The job's states and moves as PRODUCT.md ("States") defines them.
@@ -77,5 +82,27 @@ describe('job status', () => {
 
 	it('names jobs J- and their number', () => {
 		expect(jobLabel(1001)).toBe('J-1001');
+	});
+
+	it('quotes only until the customer accepts', () => {
+		expect(JOB_STATUSES.filter(canQuote)).toEqual(['draft', 'quoted']);
+	});
+
+	it('takes the deposit once accepted and the balance once completed, nothing else', () => {
+		expect(JOB_STATUSES.map((s) => [s, payableNow(s)]).filter(([, p]) => p)).toEqual([
+			['accepted', 'deposit'],
+			['completed', 'balance']
+		]);
+		expect(JOB_STATUSES.filter(soldByDeposit)).toEqual(['accepted']);
+		// A deposit sells the job: the move it makes is one the state machine allows.
+		expect(canMove('accepted', 'sold')).toBe(true);
+	});
+
+	it('lets the installer start only a booked job', () => {
+		expect(JOB_STATUSES.filter(canStartOnSite)).toEqual(['scheduled']);
+	});
+
+	it('deletes only jobs never sold, or given up', () => {
+		expect(JOB_STATUSES.filter(canDelete)).toEqual(['draft', 'cancelled']);
 	});
 });

@@ -58,6 +58,39 @@ export function canMove(from: JobStatus, to: JobStatus): boolean {
 	return nextStatuses(from).includes(to);
 }
 
+/** A job whose quote may still be built, changed and sent: the customer has not accepted yet. */
+export function canQuote(status: JobStatus): boolean {
+	return status === 'draft' || status === 'quoted';
+}
+
+/**
+ * A job that may be deleted: one never sold (a draft) or given up. Its quotes must also never
+ * have been sent: the caller checks that, since it is about quotes, not the job's state.
+ */
+export function canDelete(status: JobStatus): boolean {
+	return status === 'draft' || status === 'cancelled';
+}
+
+/** What a customer pays on a job: the deposit to book it, the balance once it is done. */
+export type PayablePurpose = 'deposit' | 'balance';
+
+/** What the customer can pay on a job now: the deposit once accepted, the balance once completed. */
+export function payableNow(status: JobStatus): PayablePurpose | null {
+	if (status === 'accepted') return 'deposit';
+	if (status === 'completed') return 'balance';
+	return null;
+}
+
+/** A deposit that succeeds sells a job the customer accepted (and nothing else). */
+export function soldByDeposit(status: JobStatus): boolean {
+	return status === 'accepted';
+}
+
+/** A job an installer may start on site: one that is booked. */
+export function canStartOnSite(status: JobStatus): boolean {
+	return canMove(status, 'in_progress');
+}
+
 /**
  * What happens on site moves the job (issue 10), each step through `canMove`: booking a sold
  * job schedules it, the installer's first check-in starts it, marking it complete completes it;

@@ -4,13 +4,13 @@ import { config } from './config';
 import { createAuthLimits } from './auth-limits';
 import { createAuth } from './create-auth';
 import { db, pool } from './db';
-import { mailer } from './mail';
+import { queueAuthMail } from './mail/queue';
 
 export const auth = createAuth({
 	db,
 	baseURL: config.origin,
 	secret: config.authSecret || 'build-time-placeholder-secret-never-served',
-	sendMail: mailer,
+	sendMail: queueAuthMail,
 	limits: createAuthLimits(pool, config.authLimits),
 	plugins: [sveltekitCookies(getRequestEvent)]
 });

@@ -6,9 +6,10 @@ import {
 	isCalculatorName,
 	removeRow
 } from '$lib/calculators/forms';
-import { read } from './db/queries/settings';
+import { readInStore } from './db/tenant';
 import { typedValues } from './forms';
 import { requirePermission } from './guards';
+import { tradeSettingsFor } from './store-settings';
 
 /**
  * The Calculators page's load, shared by the staff desk and the installer screens: the store's
@@ -16,7 +17,7 @@ import { requirePermission } from './guards';
  */
 export async function calculatorLoad() {
 	const { store } = requirePermission({ calculator: ['use'] });
-	const { settings } = await read(store.id);
+	const { settings } = await readInStore(store.id, tradeSettingsFor);
 	return { settings: calculatorSettings(settings) };
 }
 
@@ -36,7 +37,7 @@ export const calculatorActions = {
 		const at = remove ? /^(.+)\.(\d+)$/.exec(remove) : null;
 		if (at) values = removeRow(values, calculator, at[1], Number(at[2]));
 		const changedRows = Boolean(add || remove);
-		const { settings } = await read(store.id);
+		const { settings } = await readInStore(store.id, tradeSettingsFor);
 		const ev = evaluate(calculator, values, calculatorSettings(settings));
 		const body = { calculator, values, submitted: !changedRows };
 		if (!changedRows && Object.keys(ev.problems).length > 0) return fail(400, body);

@@ -4,8 +4,7 @@ import { APIError, createAuthMiddleware } from 'better-auth/api';
 import { organization } from 'better-auth/plugins';
 import type { NodePgDatabase } from 'drizzle-orm/node-postgres';
 import * as schema from './db/schema';
-import { invitationMail, passwordResetMail } from './mail/templates';
-import type { SendMail } from './mail/send';
+import { invitationMail, passwordResetMail, type Mail } from './mail/templates';
 import { waitText, type AttemptKind, type AuthLimits } from './auth-limits';
 import { ac, isRole, ROLE_LABELS, roles } from './permissions';
 import { timeZoneOr } from '../time-zone';
@@ -18,7 +17,11 @@ export interface AuthDeps {
 	/** The one origin the app is served on; sign-in answers only requests from it. */
 	baseURL: string;
 	secret: string;
-	sendMail: SendMail;
+	/**
+	 * Hands an e-mail over for sending; an invitation names its store, a password reset none.
+	 * The app queues it as a task (`queueAuthMail`), so it is retried and never lost.
+	 */
+	sendMail: (mail: Mail, storeId: string | null) => Promise<unknown>;
 	/** Framework glue such as `sveltekitCookies`, which must come last. */
 	plugins?: BetterAuthPlugin[];
 	/** Limits on sign-in, sign-up, resets and invitations (auth-limits.ts); none without it. */
@@ -133,7 +136,8 @@ export function createAuth(deps: AuthDeps) {
 					url: `${deps.baseURL}/invite/${id}`,
 					expiresAt: new Date(invitation.expiresAt),
 					timeZone: timeZoneOr((organization as { timeZone?: unknown }).timeZone)
-				})
+				}),
+				organization.id
 			);
 		}
 	});
@@ -152,7 +156,7 @@ export function createAuth(deps: AuthDeps) {
 			resetPasswordTokenExpiresIn: 60 * 60,
 			revokeSessionsOnPasswordReset: true,
 			sendResetPassword: async ({ user, url }) => {
-				await deps.sendMail(passwordResetMail({ to: user.email, name: user.name, url }));
+				await deps.sendMail(passwordResetMail({ to: user.email, name: user.name, url }), null);
 			}
 		},
 		session: {

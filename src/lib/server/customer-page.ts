@@ -1,33 +1,44 @@
 import { error } from '@sveltejs/kit';
 import { config } from './config';
-import { verifyLink } from './customer-link';
+import { signLink, verifyLink } from './customer-link';
 import * as jobs from './db/queries/jobs';
-import { WHOLE_STORE } from './db/queries/access';
 import { readStore } from './db/queries/stores';
+import type { StoreTx } from './db/tenant';
+
+/** How long a customer's link works; every e-mail carries a fresh one. */
+export const LINK_DAYS = 90;
+
+/** The customer's link to a job: `/c/<token>`, signed, expiring. */
+export function customerLink(storeId: string, jobId: string, now = new Date()) {
+	const token = signLink(
+		{ storeId, jobId, expiresAt: new Date(now.getTime() + LINK_DAYS * 86_400_000) },
+		config.authSecret
+	);
+	return `${config.origin}/c/${token}`;
+}
+
+const NOT_VALID =
+	'This link is not valid. Check that it was copied whole, or ask the store for a new one.';
 
 /**
  * The store and job a customer's link names, or the page that says the link cannot be used.
- * No data of the job is read before the signature and expiry check pass.
+ * Nothing is read from the database here: the signature and expiry are checked first.
  */
-export async function resolveLink(token: string) {
+export function openLink(token: string) {
 	const link = verifyLink(token, config.authSecret);
 	if (!link.ok) {
 		if (link.reason === 'expired') {
 			error(410, 'This link has expired. Ask the store that sent it for a new one.');
 		}
-		error(
-			404,
-			'This link is not valid. Check that it was copied whole, or ask the store for a new one.'
-		);
+		error(404, NOT_VALID);
 	}
-	const [store, job] = await Promise.all([
-		readStore(link.storeId),
-		jobs.read(link.storeId, link.jobId, WHOLE_STORE)
-	]);
-	if (!store || !job)
-		error(
-			404,
-			'This link is not valid. Check that it was copied whole, or ask the store for a new one.'
-		);
-	return { store, job, expiresAt: link.expiresAt };
+	return { storeId: link.storeId, jobId: link.jobId, expiresAt: link.expiresAt };
+}
+
+/** The store and the job of an opened link, in the store's transaction; 404 when either is gone. */
+export async function linkedJob(tx: StoreTx, link: { jobId: string }) {
+	const store = await readStore(tx);
+	const job = store ? await jobs.readForStore(tx, link.jobId) : undefined;
+	if (!store || !job) error(404, NOT_VALID);
+	return { store, job };
 }

@@ -8,7 +8,8 @@ import {
 import { estimate, forInstaller, type EstimateResult, type StoreSettings } from '$lib/estimating';
 import type { EstimatePreviewInput } from '$lib/schemas/preview';
 import { priceBookFor } from './db/queries/price-book';
-import { read as readSettings } from './db/queries/settings';
+import type { StoreTx } from './db/tenant';
+import { tradeSettingsFor } from './store-settings';
 import { sellEstimate, seesCosts, type SellEstimate } from './figures';
 import { can, type Grants } from './permissions';
 
@@ -26,11 +27,11 @@ function refuse(issues: { path: string; message: string }[]): never {
  * so the store's own waste, loads and limits apply. Work beyond the engine's limits is a 400.
  */
 export async function runCalculator(
-	storeId: string,
+	tx: StoreTx,
 	name: CalculatorName,
 	input: unknown
 ): Promise<CalculatorResult> {
-	const { settings } = await readSettings(storeId);
+	const { settings } = await tradeSettingsFor(tx);
 	const run = calculators[name].run as (i: unknown, s: StoreSettings) => CalculatorResult;
 	const result = run(input, settings);
 	if (isRefusal(result)) refuse([{ path: result.field, message: result.message }]);
@@ -44,13 +45,13 @@ export async function runCalculator(
  * (quantities, prep, their pay and schedule) for the rest, never store prices or margins.
  */
 export async function previewEstimate(
-	storeId: string,
+	tx: StoreTx,
 	grants: Grants,
 	body: EstimatePreviewInput
 ): Promise<EstimateResult | SellEstimate | InstallerPreview> {
-	const stored = body.settings && body.priceBook ? undefined : await readSettings(storeId);
+	const stored = body.settings && body.priceBook ? undefined : await tradeSettingsFor(tx);
 	const settings = body.settings ?? stored!.settings;
-	const priceBook = body.priceBook ?? (await priceBookFor(storeId, stored!.currency));
+	const priceBook = body.priceBook ?? (await priceBookFor(tx, stored!.currency));
 	const result = estimate({ job: body.job, settings, priceBook });
 	const beyond = result.errors.filter((e) => e.limit !== undefined);
 	if (beyond.length > 0) refuse(beyond.map(({ path, message }) => ({ path, message })));

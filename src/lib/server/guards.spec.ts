@@ -15,7 +15,7 @@ const GUARDS_MODULE = 'src/lib/server/guards.ts';
 
 /** Guards kept elsewhere, each for callers who are not members of a store. */
 const OTHER_GUARDS: Record<string, string> = {
-	'src/lib/server/customer-page.ts#resolveLink': "a customer's signed, unexpired link",
+	'src/lib/server/customer-page.ts#openLink': "a customer's signed, unexpired link",
 	'src/routes/dev/stripe/fake.server.ts#requireStripeFake': '404 unless the Stripe fake is on',
 	'src/lib/server/stripe.ts#verifiedEvent': "Stripe's signature on a webhook event"
 };

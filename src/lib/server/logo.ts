@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import sharp from 'sharp';
 import { readProfile, saveLogoKey } from './db/queries/stores';
+import { inStore, type StoreTx } from './db/tenant';
 import { storage, type Storage, type StoredFile } from './storage';
 
 /** The largest logo accepted, before resizing. */
@@ -47,7 +48,8 @@ export async function prepareLogo(bytes: Buffer): Promise<LogoResult> {
 }
 
 /**
- * Saves a new logo for the store and drops the old file. Nothing changes when the file is refused.
+ * Saves a new logo for the store and drops the old file once the new key is committed. Nothing
+ * changes when the file is refused.
  */
 export async function saveLogo(
 	storeId: string,
@@ -58,17 +60,23 @@ export async function saveLogo(
 	if (!logo.ok) return logo;
 	const hash = createHash('sha256').update(logo.bytes).digest('hex').slice(0, 16);
 	const key = `${storeId}/logo-${hash}.${logo.type === 'image/png' ? 'png' : 'jpg'}`;
-	const previous = (await readProfile(storeId)).logoKey ?? null;
 	await files.put(key, logo.bytes, logo.type);
-	await saveLogoKey(storeId, key);
+	const previous = await inStore(storeId, async (tx) => {
+		const before = (await readProfile(tx)).logoKey ?? null;
+		await saveLogoKey(tx, key);
+		return before;
+	});
 	if (previous && previous !== key) await files.delete(previous);
 	return { ok: true, key };
 }
 
 /** Removes the store's logo (the key first, then the file). */
 export async function removeLogo(storeId: string, files: Storage = storage()) {
-	const previous = (await readProfile(storeId)).logoKey ?? null;
-	await saveLogoKey(storeId, null);
+	const previous = await inStore(storeId, async (tx) => {
+		const before = (await readProfile(tx)).logoKey ?? null;
+		await saveLogoKey(tx, null);
+		return before;
+	});
 	if (previous) await files.delete(previous);
 }
 
@@ -77,10 +85,10 @@ export async function removeLogo(storeId: string, files: Storage = storage()) {
  * when it has none. Reads only the key saved for that store.
  */
 export async function readLogo(
-	storeId: string,
+	tx: StoreTx,
 	files: Storage = storage()
 ): Promise<StoredFile | undefined> {
-	const key = (await readProfile(storeId)).logoKey;
-	if (!key || !key.startsWith(`${storeId}/`)) return undefined;
+	const key = (await readProfile(tx)).logoKey;
+	if (!key || !key.startsWith(`${tx.storeId}/`)) return undefined;
 	return files.get(key);
 }

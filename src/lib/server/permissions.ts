@@ -28,7 +28,9 @@ export const statement = {
 	/** An installer's own pay on the jobs assigned to them. */
 	installerPay: ['read'],
 	/** The trade calculators (no prices in them). */
-	calculator: ['use']
+	calculator: ['use'],
+	/** What the store sent (e-mail): seeing what did not go out, and sending it again. */
+	outbox: ['read', 'resend']
 } as const;
 
 export const ac = createAccessControl(statement);
@@ -46,6 +48,7 @@ const manager = ac.newRole({
 	report: ['read'],
 	installerPay: ['read'],
 	calculator: ['use'],
+	outbox: ['read', 'resend'],
 	ac: ['read']
 });
 

@@ -12,6 +12,7 @@ import {
 	pgEnum,
 	pgPolicy,
 	pgTable,
+	primaryKey,
 	text,
 	time,
 	timestamp,
@@ -108,7 +109,17 @@ export const storeSettings = pgTable(
 		stripeAccountId: text('stripe_account_id').unique(),
 		...timestamps
 	},
-	() => [storeIsolation]
+	() => [
+		storeIsolation,
+		// Stripe names a connected account, never our store, on events such as payouts: a
+		// transaction that set `app.stripe_account` to the account of a verified event may find
+		// the one settings row of that account (and so its store), and nothing else.
+		pgPolicy('stripe_account_lookup', {
+			as: 'permissive',
+			for: 'select',
+			using: sql`stripe_account_id = current_setting('app.stripe_account', true)`
+		})
+	]
 ).enableRLS();
 
 export const priceSection = pgEnum('price_section', ['floor', 'prep', 'removal', 'supply']);
@@ -1034,6 +1045,134 @@ export const installerStatementLine = pgTable(
 		),
 		storeIsolation
 	]
+).enableRLS();
+
+export const taskState = pgEnum('task_state', ['queued', 'done', 'failed', 'dropped']);
+
+/**
+ * A side effect of the store (an e-mail) as the store sees it: written in the same transaction
+ * as the change that causes it, beside the queue's own row (pg-boss, schema `pgboss`) that
+ * delivers and retries it. `failed` is where the retries ended: a manager sees it and resends.
+ */
+export const task = pgTable(
+	'task',
+	{
+		id: id(),
+		organizationId: storeId(),
+		kind: text('kind').notNull(),
+		payload: jsonb('payload').$type<Record<string, unknown>>().notNull(),
+		/** What it is, in words, for the people of the store ("Quote to greta@…"). */
+		summary: text('summary').notNull().default(''),
+		/** The job it is about, when there is one, to link to. */
+		jobId: text('job_id'),
+		state: taskState('state').notNull().default('queued'),
+		/** How many times it was sent again after failing: tells a new round from the one before. */
+		round: integer('round').notNull().default(0),
+		attempts: integer('attempts').notNull().default(0),
+		lastError: text('last_error'),
+		createdBy: text('created_by').references(() => user.id, { onDelete: 'set null' }),
+		finishedAt: timestamp('finished_at', { withTimezone: true }),
+		...timestamps
+	},
+	(t) => [
+		index('task_organization_state_idx').on(t.organizationId, t.state, t.createdAt),
+		foreignKey({
+			name: 'task_job_same_store_fk',
+			columns: [t.jobId, t.organizationId],
+			foreignColumns: [job.id, job.organizationId]
+		}).onDelete('cascade'),
+		storeIsolation
+	]
+).enableRLS();
+
+/**
+ * The store's Stripe activity as Stripe last told it, for the reconciliation page: charges,
+ * refunds and payouts of the store's own Stripe account, kept up to date by webhooks and by a
+ * sync in the background (or when a manager asks). The page reads these, never Stripe itself.
+ */
+export const stripeCharge = pgTable(
+	'stripe_charge',
+	{
+		organizationId: storeId(),
+		id: text('id').notNull(),
+		paymentIntentId: text('payment_intent_id'),
+		status: text('status').notNull(),
+		currency: text('currency').notNull(),
+		amountCents: integer('amount_cents').notNull(),
+		/** Stripe's fee on the charge, from its balance transaction (null until Stripe has one). */
+		feeCents: integer('fee_cents'),
+		/** Our payment and job, when the charge carries them in its metadata. */
+		paymentId: text('payment_id'),
+		jobId: text('job_id'),
+		stripeCreated: timestamp('stripe_created', { withTimezone: true }).notNull(),
+		syncedAt: timestamp('synced_at', { withTimezone: true }).defaultNow().notNull()
+	},
+	(t) => [
+		primaryKey({ columns: [t.organizationId, t.id] }),
+		index('stripe_charge_created_idx').on(t.organizationId, t.stripeCreated),
+		storeIsolation
+	]
+).enableRLS();
+
+export const stripeRefund = pgTable(
+	'stripe_refund',
+	{
+		organizationId: storeId(),
+		id: text('id').notNull(),
+		chargeId: text('charge_id'),
+		paymentIntentId: text('payment_intent_id'),
+		status: text('status').notNull(),
+		currency: text('currency').notNull(),
+		amountCents: integer('amount_cents').notNull(),
+		stripeCreated: timestamp('stripe_created', { withTimezone: true }).notNull(),
+		syncedAt: timestamp('synced_at', { withTimezone: true }).defaultNow().notNull()
+	},
+	(t) => [
+		primaryKey({ columns: [t.organizationId, t.id] }),
+		index('stripe_refund_created_idx').on(t.organizationId, t.stripeCreated),
+		storeIsolation
+	]
+).enableRLS();
+
+/** A payout to the store's bank, with what it netted (from its balance transactions). */
+export const stripePayout = pgTable(
+	'stripe_payout',
+	{
+		organizationId: storeId(),
+		id: text('id').notNull(),
+		status: text('status').notNull(),
+		currency: text('currency').notNull(),
+		/** What reached the bank. */
+		amountCents: integer('amount_cents').notNull(),
+		grossCents: integer('gross_cents').notNull().default(0),
+		feeCents: integer('fee_cents').notNull().default(0),
+		refundCents: integer('refund_cents').notNull().default(0),
+		transactions: integer('transactions').notNull().default(0),
+		arrivalDate: timestamp('arrival_date', { withTimezone: true }).notNull(),
+		stripeCreated: timestamp('stripe_created', { withTimezone: true }).notNull(),
+		syncedAt: timestamp('synced_at', { withTimezone: true }).defaultNow().notNull()
+	},
+	(t) => [
+		primaryKey({ columns: [t.organizationId, t.id] }),
+		index('stripe_payout_created_idx').on(t.organizationId, t.stripeCreated),
+		storeIsolation
+	]
+).enableRLS();
+
+/** How far the store's Stripe activity has been brought into the tables above. */
+export const stripeSync = pgTable(
+	'stripe_sync',
+	{
+		organizationId: text('organization_id')
+			.primaryKey()
+			.references(() => organization.id, { onDelete: 'cascade' }),
+		/** Everything Stripe created before this is in the tables (webhooks add what comes after). */
+		syncedUntil: timestamp('synced_until', { withTimezone: true }),
+		lastRunAt: timestamp('last_run_at', { withTimezone: true }),
+		lastError: text('last_error'),
+		lastErrorAt: timestamp('last_error_at', { withTimezone: true })
+	},
+	() => [storeIsolation]
 ).enableRLS();
 
 export * from './auth.schema';

@@ -1,22 +1,120 @@
-import { sql } from 'drizzle-orm';
-import type { Db } from './client';
-import { db as appDb } from './index';
+import { log } from '../log';
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import type pg from 'pg';
+import { pool as appPool } from './index';
 
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+declare const storeTxBrand: unique symbol;
+
+/** What a store transaction may do: read only (a consistent snapshot), or read and write. */
+export type TxMode = 'read' | 'write';
 
 /**
- * Runs `work` in one transaction with `app.store_id` set to the store, for row-level security:
- * inside, the domain tables show only that store's rows; the setting ends with the transaction,
- * so a pooled connection never carries it to the next request.
+ * One database transaction scoped to one store: `app.store_id` is set for row-level security,
+ * and `storeId` says which store, so query functions never take a second, possibly different,
+ * store id. The brand keeps it apart from the pool (`db`) and from a plain transaction: neither
+ * can be passed where a store transaction is wanted. It is opened once per load, action or
+ * workflow (`inStore`, `readInStore`) and handed down to the query functions.
  */
-export async function inStore<T>(
+export type StoreTx<M extends TxMode = TxMode> = Omit<
+	NodePgDatabase,
+	'transaction' | '$client' | '$cache'
+> & {
+	readonly storeId: string;
+	readonly [storeTxBrand]: M;
+};
+
+/** A store transaction that may write: what writing query functions ask for. */
+export type StoreWriteTx = StoreTx<'write'>;
+
+interface Internals {
+	client: pg.PoolClient;
+	afterCommit: (() => void | Promise<void>)[];
+}
+
+// What the tasks module needs from a transaction (its pg client, to enqueue in it, and work to
+// run once it commits), kept off the transaction's public face.
+const internals = new WeakMap<object, Internals>();
+
+/** The pg client of a store transaction, for libraries that run their own SQL in it (pg-boss). */
+export function clientOf(tx: StoreWriteTx): pg.PoolClient {
+	const found = internals.get(tx);
+	if (!found) throw new Error('Not a store transaction');
+	return found.client;
+}
+
+/** Runs `work` once the transaction has committed (never when it rolls back). */
+export function afterCommit(tx: StoreWriteTx, work: () => void | Promise<void>) {
+	const found = internals.get(tx);
+	if (!found) throw new Error('Not a store transaction');
+	found.afterCommit.push(work);
+}
+
+const BEGIN: Record<TxMode, string> = {
+	// Reads of one page agree with each other: one snapshot for the whole transaction.
+	read: 'begin isolation level repeatable read read only',
+	// Writes keep READ COMMITTED: a row lock taken with FOR UPDATE waits for the other writer and
+	// then sees what it committed, which is what the state checks after a lock rely on.
+	write: 'begin'
+};
+
+async function run<T, M extends TxMode>(
+	mode: M,
 	storeId: string,
-	work: (tx: Tx) => Promise<T>,
-	database: Db = appDb
+	work: (tx: StoreTx<M>) => Promise<T>,
+	pool: pg.Pool
 ): Promise<T> {
-	if (!storeId) throw new Error('inStore needs a store id');
-	return database.transaction(async (tx) => {
-		await tx.execute(sql`select set_config('app.store_id', ${storeId}, true)`);
-		return work(tx);
-	});
+	if (!storeId) throw new Error('A store transaction needs a store id');
+	const client = await pool.connect();
+	const own: Internals = { client, afterCommit: [] };
+	let broken: Error | undefined;
+	let result: T;
+	try {
+		await client.query(BEGIN[mode]);
+		await client.query(`select set_config('app.store_id', $1, true)`, [storeId]);
+		const tx = drizzle(client, { casing: 'snake_case' }) as unknown as StoreTx<M>;
+		Object.defineProperty(tx, 'storeId', { value: storeId, enumerable: true });
+		internals.set(tx, own);
+		result = await work(tx);
+		await client.query('commit');
+	} catch (e) {
+		try {
+			await client.query('rollback');
+		} catch (rollbackFailed) {
+			// The connection is unusable: the pool must drop it rather than lend it out again.
+			broken = rollbackFailed as Error;
+		}
+		throw e;
+	} finally {
+		client.release(broken);
+	}
+	for (const next of own.afterCommit) {
+		try {
+			await next();
+		} catch (e) {
+			log.error({ err: e, storeId }, 'Work after a commit failed');
+		}
+	}
+	return result;
+}
+
+/**
+ * Runs `work` in one read-write transaction of the store. The setting of `app.store_id` ends with
+ * the transaction, so a pooled connection never carries it to the next request. Throw SvelteKit's
+ * `error()`/`redirect()` after it returns, not inside: a throw inside rolls everything back.
+ */
+export function inStore<T>(
+	storeId: string,
+	work: (tx: StoreWriteTx) => Promise<T>,
+	pool: pg.Pool = appPool
+): Promise<T> {
+	return run('write', storeId, work, pool);
+}
+
+/** Runs `work` in one read-only transaction of the store: every read sees the same snapshot. */
+export function readInStore<T>(
+	storeId: string,
+	work: (tx: StoreTx<'read'>) => Promise<T>,
+	pool: pg.Pool = appPool
+): Promise<T> {
+	return run('read', storeId, work, pool);
 }

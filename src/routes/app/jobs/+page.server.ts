@@ -1,4 +1,5 @@
 import { list } from '$lib/server/db/queries/jobs';
+import { readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
 import { jobListSchema } from '$lib/schemas/job';
 import type { PageServerLoad } from './$types';
@@ -8,10 +9,8 @@ export const load: PageServerLoad = async ({ url }) => {
 	const parsed = jobListSchema.safeParse(Object.fromEntries(url.searchParams));
 	const query = parsed.success ? parsed.data : jobListSchema.parse({});
 	const mine = url.searchParams.get('mine') === '1';
-	const { rows, total } = await list(
-		store.id,
-		{ ...query, salespersonId: mine ? user.id : undefined },
-		scope
+	const { rows, total } = await readInStore(store.id, (tx) =>
+		list(tx, { ...query, salespersonId: mine ? user.id : undefined }, scope)
 	);
 	return { rows, total, query, mine };
 };

@@ -1,23 +1,23 @@
 import * as priceBook from '$lib/server/db/queries/price-book';
+import * as tradeSettings from '$lib/server/db/queries/settings';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { seesCosts, visiblePriceItem } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
-import { currencyOf } from './lines.server';
 import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const { store, grants } = requirePermission({ priceBook: ['read'] });
-	const [items, currency] = await Promise.all([priceBook.list(store.id), currencyOf(store.id)]);
-	return {
-		items: items.map((i) => visiblePriceItem(grants, i)),
-		currency,
+	return readInStore(store.id, async (tx) => ({
+		items: (await priceBook.list(tx)).map((i) => visiblePriceItem(grants, i)),
+		currency: (await tradeSettings.termsOf(tx)).currency,
 		added: url.searchParams.get('added'),
 		canEdit: can(grants, { priceBook: ['update'] }),
 		canSeeCosts: seesCosts(grants)
-	};
+	}));
 };
 
 const lineId = z.object({ id: z.string().trim().min(1).max(64) });
@@ -28,9 +28,12 @@ export const actions: Actions = {
 		const { store } = requirePermission({ priceBook: ['update'] });
 		const parsed = lineId.safeParse(formFields(await request.formData()));
 		if (!parsed.success) return fail(400, { message: 'Choose a line' });
-		const current = await priceBook.read(store.id, parsed.data.id);
-		if (!current) error(404, 'Not found');
-		await priceBook.update(store.id, current.id, { active: !current.active });
-		return { toggled: current.id, active: !current.active };
+		const id = parsed.data.id;
+		const changed = await inStore(store.id, async (tx) => {
+			const current = await priceBook.read(tx, id);
+			return current && priceBook.update(tx, current.id, { active: !current.active });
+		});
+		if (!changed) error(404, 'Not found');
+		return { toggled: changed.id, active: changed.active };
 	}
 };

@@ -2,6 +2,7 @@ import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { readProfile, saveProfile, saveTimeZone } from '$lib/server/db/queries/stores';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { fieldErrors, parseForm, refuse, typedValues } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
@@ -14,25 +15,51 @@ import {
 	tradeSettingsToForm
 } from '$lib/schemas/store-settings';
 import { currencySymbol, formFields, readFields } from '$lib/input';
+import { defaultSettings, type StoreSettings } from '$lib/estimating';
+import { settingsSchema } from '$lib/schemas/estimate';
+import { restoreDefaultsWhereInvalid } from '$lib/server/store-settings';
+import { log } from '$lib/server/log';
 import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
+/** The trade form's values and the fastening schedules, from settings that may not be valid. */
+function tradeForm(trade: tradeSettings.StoreTradeSettings) {
+	const of = (settings: StoreSettings) => ({
+		values: tradeSettingsToForm(settings, trade.quoteValidDays, trade.currency),
+		schedules: Object.entries(settings.underlayment.schedules).map(([key, s]) => ({ key, ...s }))
+	});
+	try {
+		return { ...of(trade.settings), fromDefaults: false };
+	} catch {
+		// Saved settings too broken to fill the form: it shows the engine's defaults, and says so.
+		return { ...of(defaultSettings), fromDefaults: true };
+	}
+}
+
 export const load: PageServerLoad = async () => {
 	const { store, grants } = requirePermission({ store: ['update'] });
-	const [profile, trade] = await Promise.all([readProfile(store.id), tradeSettings.read(store.id)]);
-	const schedules = Object.entries(trade.settings.underlayment.schedules).map(([key, s]) => ({
-		key,
-		...s
+	const { profile, checked, stripeAccount } = await readInStore(store.id, async (tx) => ({
+		profile: await readProfile(tx),
+		checked: await tradeSettings.readChecked(tx),
+		stripeAccount: await tradeSettings.stripeAccount(tx)
 	}));
-	const stripeAccount = await tradeSettings.stripeAccount(store.id);
+	const trade = checked.ok ? checked.trade : checked.saved;
+	const form = tradeForm(trade);
+	if (!checked.ok) {
+		log.error({ storeId: store.id, issues: checked.issues }, 'Saved trade settings are not valid');
+	}
 	return {
 		stripeAccount,
 		profile: { ...profile, name: store.name, timeZone: store.timeZone },
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
-		trade: tradeSettingsToForm(trade.settings, trade.quoteValidDays, trade.currency),
+		trade: form.values,
 		currencySymbol: currencySymbol(trade.currency),
 		access: grants.access,
-		schedules
+		schedules: form.schedules,
+		// Shown to the owner: what is wrong with the saved settings (never replaced in silence).
+		settingsProblem: checked.ok
+			? null
+			: { issues: checked.issues.slice(0, 20), formFromDefaults: form.fromDefaults }
 	};
 };
 
@@ -53,7 +80,7 @@ export const actions: Actions = {
 			});
 		}
 		try {
-			await tradeSettings.saveStripeAccount(store.id, account || null);
+			await inStore(store.id, (tx) => tradeSettings.saveStripeAccount(tx, account || null));
 		} catch (e) {
 			if ((e as { cause?: { code?: string } }).cause?.code === '23505') {
 				return fail(409, {
@@ -79,30 +106,41 @@ export const actions: Actions = {
 				return refuse(parsed.form, { name: [authFailure(e).message] });
 			}
 		}
-		await saveProfile(store.id, profile);
-		if (timeZone !== store.timeZone) await saveTimeZone(store.id, timeZone);
+		await inStore(store.id, async (tx) => {
+			await saveProfile(tx, profile);
+			if (timeZone !== store.timeZone) await saveTimeZone(tx, timeZone);
+		});
 		return { saved: true };
 	},
 	/** Taxes, deposit, quote validity, units, waste, fastening schedule, crew output; the rest is kept. */
 	trade: async ({ request }) => {
 		const { store } = requirePermission({ store: ['update'] });
 		const form = await request.formData();
-		const current = await tradeSettings.read(store.id);
 		const fields = readFields(form);
 		if (!fields.ok) return refuseTrade(form, { _form: [fields.message] });
-		const schema = tradeSettingsFormSchema(
-			Object.keys(current.settings.underlayment.schedules),
-			current.currency
-		);
-		const parsed = schema.safeParse(fields.value);
-		if (!parsed.success) return refuseTrade(form, fieldErrors(parsed.error));
-		const applied = applyTradeSettings(current.settings, parsed.data);
-		if (!applied.ok) return refuseTrade(form, applied.errors);
-		await tradeSettings.save(store.id, {
-			settings: applied.settings,
-			currency: current.currency,
-			quoteValidDays: applied.quoteValidDays
+		const refused = await inStore(store.id, async (tx) => {
+			const checked = await tradeSettings.readChecked(tx);
+			// Settings that are not valid are fixed by saving the form over them (or by putting the
+			// defaults back, below); what the form does not show must then be valid too.
+			const current = checked.ok ? checked.trade : checked.saved;
+			const schema = tradeSettingsFormSchema(
+				Object.keys(
+					current.settings.underlayment?.schedules ?? defaultSettings.underlayment.schedules
+				),
+				current.currency
+			);
+			const parsed = schema.safeParse(fields.value);
+			if (!parsed.success) return fieldErrors(parsed.error);
+			const applied = applyTradeSettings(current.settings, parsed.data);
+			if (!applied.ok) return applied.errors;
+			await tradeSettings.save(tx, {
+				settings: applied.settings,
+				currency: current.currency,
+				quoteValidDays: applied.quoteValidDays
+			});
+			return null;
 		});
+		if (refused) return refuseTrade(form, refused);
 		return { tradeSaved: true };
 	},
 	/** Who sees what: salespeople and costs, salespeople and other people's jobs. */
@@ -112,6 +150,24 @@ export const actions: Actions = {
 		if (!parsed.success) return fail(400, { accessErrors: fieldErrors(parsed.error) });
 		await saveStoreAccess(store.id, parsed.data);
 		return { accessSaved: true };
+	},
+	/** Puts the engine's defaults back for the saved settings that are not valid, at the owner's word. */
+	restoreDefaults: async () => {
+		const { store } = requirePermission({ store: ['update'] });
+		const outcome = await inStore(store.id, async (tx) => {
+			const checked = await tradeSettings.readChecked(tx);
+			if (checked.ok) return 'valid' as const;
+			const restored = settingsSchema.safeParse(
+				restoreDefaultsWhereInvalid(checked.saved.settings, checked.issues)
+			);
+			if (!restored.success) return 'still_invalid' as const;
+			await tradeSettings.save(tx, { ...checked.saved, settings: restored.data as StoreSettings });
+			return 'restored' as const;
+		});
+		if (outcome === 'still_invalid') {
+			return fail(409, { restoreError: 'The settings could not be put right: call for help.' });
+		}
+		return { defaultsRestored: outcome === 'restored' };
 	},
 	logo: async ({ request }) => {
 		const { store } = requirePermission({ store: ['update'] });

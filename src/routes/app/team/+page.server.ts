@@ -1,6 +1,7 @@
 import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
 import { listInvitations, listMembers } from '$lib/server/db/queries/stores';
+import { readInStore } from '$lib/server/db/tenant';
 import { parseForm, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { isRole, ROLE_LABELS, ROLES } from '$lib/server/permissions';
@@ -10,10 +11,10 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const { store, user } = requirePermission({ member: ['update'] });
-	const [members, invitations] = await Promise.all([
-		listMembers(store.id),
-		listInvitations(store.id)
-	]);
+	const { members, invitations } = await readInStore(store.id, async (tx) => ({
+		members: await listMembers(tx),
+		invitations: await listInvitations(tx)
+	}));
 	const now = Date.now();
 	return {
 		me: user.id,
@@ -32,7 +33,7 @@ export const load: PageServerLoad = async () => {
 
 /** A member or invitation id must belong to this store, or it is 404 (never another store's). */
 async function ownMember(storeId: string, memberId: string) {
-	const members = await listMembers(storeId);
+	const members = await readInStore(storeId, listMembers);
 	if (!members.some((m) => m.memberId === memberId)) error(404, 'Not found');
 }
 
@@ -55,7 +56,7 @@ export const actions: Actions = {
 	cancel: async ({ request }) => {
 		const { store } = requirePermission({ invitation: ['cancel'] });
 		const id = String((await request.formData()).get('invitationId') ?? '');
-		const open = await listInvitations(store.id);
+		const open = await readInStore(store.id, listInvitations);
 		if (!open.some((i) => i.id === id)) error(404, 'Not found');
 		await auth.api.cancelInvitation({ headers: request.headers, body: { invitationId: id } });
 		return { cancelled: true };

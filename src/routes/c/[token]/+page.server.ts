@@ -1,21 +1,20 @@
 import { log } from '$lib/server/log';
-import { resolveLink } from '$lib/server/customer-page';
-import * as payments from '$lib/server/db/queries/payments';
-import { stripeAccount } from '$lib/server/db/queries/settings';
-import { startCheckout, syncSession } from '$lib/server/payments';
+import { linkedJob, openLink } from '$lib/server/customer-page';
 import * as customers from '$lib/server/db/queries/customers';
+import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
-import { emailOf, readProfile } from '$lib/server/db/queries/stores';
-import { config } from '$lib/server/config';
+import { readProfile } from '$lib/server/db/queries/stores';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { parseForm } from '$lib/server/forms';
-import { mailer } from '$lib/server/mail';
-import { customerAnswerMail } from '$lib/server/mail/templates';
-import { jobLabel } from '$lib/jobs/status';
+import { startCheckout } from '$lib/server/payments/checkout';
+import { syncSession } from '$lib/server/payments/sync';
+import { acceptQuote, requestChanges } from '$lib/server/quotes/answer';
+import { jobLabel, payableNow } from '$lib/jobs/status';
 import { quoteView } from '$lib/quote-view';
 import { requiredText } from '$lib/schemas/fields';
-import { fail, redirect } from '@sveltejs/kit';
+import { error, fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -35,26 +34,32 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 	// same-origin: the link's token never goes to another site in a Referer, while this page's own
 	// form posts still carry their Origin (no-referrer would send Origin: null, refused as cross-site).
 	setHeaders({ 'cache-control': 'private, no-store', 'referrer-policy': 'same-origin' });
-	const { store, job } = await resolveLink(params.token);
+	const link = openLink(params.token);
 	// Back from the checkout: read the payment's state from Stripe now rather than wait for the
 	// webhook, which may come later (or, if the app was down, never).
 	const paid = url.searchParams.get('paid');
 	if (paid && /^cs_[\w]+$/.test(paid)) {
 		try {
-			await syncSession(store.id, paid);
+			await syncSession(link.storeId, paid);
 		} catch (e) {
-			log.error({ err: e, jobId: job.id }, 'Could not read the checkout back from Stripe');
+			log.error({ err: e, jobId: link.jobId }, 'Could not read the checkout back from Stripe');
 		}
 	}
-	const [profile, quote, customer, site, trade, money, account] = await Promise.all([
-		readProfile(store.id),
-		quotes.forCustomer(store.id, job.id),
-		customers.read(store.id, job.customerId),
-		job.siteId ? sites.read(store.id, job.siteId) : Promise.resolve(undefined),
-		tradeSettings.read(store.id),
-		payments.moneyFor(store.id, job.id),
-		stripeAccount(store.id)
-	]);
+	const found = await readInStore(link.storeId, async (tx) => {
+		const { store, job } = await linkedJob(tx, link);
+		return {
+			store,
+			job,
+			profile: await readProfile(tx),
+			quote: await quotes.forCustomer(tx, job.id),
+			customer: await customers.read(tx, job.customerId),
+			site: job.siteId ? await sites.read(tx, job.siteId) : undefined,
+			money: await payments.moneyFor(tx, job.id),
+			account: await tradeSettings.stripeAccount(tx)
+		};
+	});
+	const { store, job, profile, quote, customer, site, money, account } = found;
+	const due = payableNow(job.status);
 	const lastCard = [...money.payments].reverse().find((p) => p.method === 'card');
 	return {
 		money: {
@@ -64,11 +69,10 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			netPaidCents: money.ledger.netPaidCents,
 			canPayByCard: Boolean(account),
 			payable:
-				job.status === 'accepted' && money.ledger.depositDueCents > 0
-					? ('deposit' as const)
-					: job.status === 'completed' && money.ledger.balanceDueCents > 0
-						? ('balance' as const)
-						: null,
+				(due === 'deposit' && money.ledger.depositDueCents > 0) ||
+				(due === 'balance' && money.ledger.balanceDueCents > 0)
+					? due
+					: null,
 			paid: money.payments
 				.filter((p) => p.status === 'succeeded' || p.status === 'refunded')
 				.map((p) => ({
@@ -112,38 +116,12 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			changeNote: quote.changeNote,
 			view: quoteView(quote.result, {
 				currency: quote.currency,
-				metric: trade.settings.units.system === 'metric'
+				// The units the quote was built in, as stored with it.
+				metric: quote.input.settings.units.system === 'metric'
 			})
 		}
 	};
 };
-
-/** Tells the job's salesperson; a failed notice never undoes what the customer did. */
-async function tellSalesperson(
-	storeName: string,
-	job: Awaited<ReturnType<typeof resolveLink>>['job'],
-	answer: 'accepted' | 'changes',
-	note?: string
-) {
-	const seller = await emailOf(job.salespersonId);
-	if (!seller) return;
-	try {
-		await mailer(
-			customerAnswerMail({
-				to: seller,
-				storeName,
-				customerName: job.customerName,
-				jobLabel: jobLabel(job.number),
-				jobTitle: job.title,
-				answer,
-				note,
-				url: `${config.origin}/app/jobs/${job.id}/quote`
-			})
-		);
-	} catch (e) {
-		log.error({ err: e, jobId: job.id }, 'Could not tell the salesperson');
-	}
-}
 
 const REFUSED = {
 	not_found: 'This quote is not the one this link is for.',
@@ -162,15 +140,16 @@ const CHECKOUT_REFUSED = {
 
 export const actions: Actions = {
 	pay: async ({ params, request }) => {
-		const { store, job } = await resolveLink(params.token);
+		const link = openLink(params.token);
 		const form = await request.formData();
 		const purpose = form.get('purpose') === 'balance' ? 'balance' : 'deposit';
 		const started = await startCheckout({
-			storeId: store.id,
-			jobId: job.id,
+			storeId: link.storeId,
+			jobId: link.jobId,
 			purpose,
 			linkToken: params.token
 		});
+		if (!started.ok && started.reason === 'not_found') error(404, CHECKOUT_REFUSED.not_found);
 		if (!started.ok)
 			return fail(started.reason === 'stripe' ? 502 : 409, {
 				payError: CHECKOUT_REFUSED[started.reason]
@@ -178,30 +157,31 @@ export const actions: Actions = {
 		redirect(303, started.url);
 	},
 	accept: async ({ params, request, getClientAddress }) => {
-		const { store, job } = await resolveLink(params.token);
+		const link = openLink(params.token);
 		const parsed = await parseForm(request, acceptSchema);
 		if (!parsed.ok) return parsed.failure;
-		const answer = await quotes.accept(store.id, job.id, parsed.data.quoteId, {
+		const signature = {
 			name: parsed.data.name,
 			ip: getClientAddress(),
 			userAgent: request.headers.get('user-agent')
+		};
+		const answer = await inStore(link.storeId, async (tx) => {
+			const { job } = await linkedJob(tx, link);
+			return acceptQuote(tx, job.id, parsed.data.quoteId, signature);
 		});
 		if (!answer.ok) return fail(409, { message: REFUSED[answer.reason] });
-		await tellSalesperson(store.name, job, 'accepted');
 		return { accepted: true };
 	},
 	changes: async ({ params, request }) => {
-		const { store, job } = await resolveLink(params.token);
+		const link = openLink(params.token);
 		const parsed = await parseForm(request, changesSchema);
 		if (!parsed.ok) return parsed.failure;
-		const answer = await quotes.requestChanges(
-			store.id,
-			job.id,
-			parsed.data.quoteId,
-			parsed.data.note
-		);
+		const { quoteId, note } = parsed.data;
+		const answer = await inStore(link.storeId, async (tx) => {
+			const { job } = await linkedJob(tx, link);
+			return requestChanges(tx, job.id, quoteId, note);
+		});
 		if (!answer.ok) return fail(409, { message: REFUSED[answer.reason] });
-		await tellSalesperson(store.name, job, 'changes', parsed.data.note);
 		return { changesSent: true };
 	}
 };

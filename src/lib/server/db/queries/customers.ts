@@ -1,7 +1,7 @@
 import { and, asc, count, desc, eq, ilike, or, type SQL } from 'drizzle-orm';
 import type { CustomerInput, CustomerListQuery } from '../../../schemas/customer';
 import { customer, job } from '../schema';
-import { inStore } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Customer = typeof customer.$inferSelect;
 
@@ -17,8 +17,8 @@ export function likePattern(text: string): string {
 }
 
 /** A page of the store's customers, filtered by name, e-mail or phone. */
-export async function list(storeId: string, query: CustomerListQuery) {
-	const filters: SQL[] = [eq(customer.organizationId, storeId)];
+export async function list(tx: StoreTx, query: CustomerListQuery) {
+	const filters: SQL[] = [eq(customer.organizationId, tx.storeId)];
 	if (query.q) {
 		const pattern = likePattern(query.q);
 		filters.push(
@@ -31,54 +31,44 @@ export async function list(storeId: string, query: CustomerListQuery) {
 	}
 	const where = and(...filters);
 	const order = query.dir === 'asc' ? asc : desc;
-	return inStore(storeId, async (tx) => {
-		const [rows, [{ total }]] = await Promise.all([
-			tx
-				.select()
-				.from(customer)
-				.where(where)
-				.orderBy(order(sortColumns[query.sort]), asc(customer.id))
-				.limit(query.pageSize)
-				.offset((query.page - 1) * query.pageSize),
-			tx.select({ total: count() }).from(customer).where(where)
-		]);
-		return { rows, total };
-	});
+	const rows = await tx
+		.select()
+		.from(customer)
+		.where(where)
+		.orderBy(order(sortColumns[query.sort]), asc(customer.id))
+		.limit(query.pageSize)
+		.offset((query.page - 1) * query.pageSize);
+	const [{ total }] = await tx.select({ total: count() }).from(customer).where(where);
+	return { rows, total };
 }
 
-export async function read(storeId: string, id: string): Promise<Customer | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(customer)
-			.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)));
-		return row;
-	});
+export async function read(tx: StoreTx, id: string): Promise<Customer | undefined> {
+	const [row] = await tx
+		.select()
+		.from(customer)
+		.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, id)));
+	return row;
 }
 
-export async function create(storeId: string, input: CustomerInput): Promise<Customer> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.insert(customer)
-			.values({ ...input, organizationId: storeId })
-			.returning();
-		return row;
-	});
+export async function create(tx: StoreWriteTx, input: CustomerInput): Promise<Customer> {
+	const [row] = await tx
+		.insert(customer)
+		.values({ ...input, organizationId: tx.storeId })
+		.returning();
+	return row;
 }
 
 export async function update(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string,
 	input: Partial<CustomerInput>
 ): Promise<Customer | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.update(customer)
-			.set({ ...input, updatedAt: new Date() })
-			.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)))
-			.returning();
-		return row;
-	});
+	const [row] = await tx
+		.update(customer)
+		.set({ ...input, updatedAt: new Date() })
+		.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, id)))
+		.returning();
+	return row;
 }
 
 /**
@@ -86,25 +76,23 @@ export async function update(
  * them): the answer says so.
  */
 export async function remove(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string
 ): Promise<'deleted' | 'not_found' | 'has_jobs'> {
-	return inStore(storeId, async (tx) => {
-		const [{ jobs }] = await tx
-			.select({ jobs: count() })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.customerId, id)));
-		if (jobs > 0) {
-			const [exists] = await tx
-				.select({ id: customer.id })
-				.from(customer)
-				.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)));
-			return exists ? 'has_jobs' : 'not_found';
-		}
-		const deleted = await tx
-			.delete(customer)
-			.where(and(eq(customer.organizationId, storeId), eq(customer.id, id)))
-			.returning({ id: customer.id });
-		return deleted.length ? 'deleted' : 'not_found';
-	});
+	const [{ jobs }] = await tx
+		.select({ jobs: count() })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.customerId, id)));
+	if (jobs > 0) {
+		const [exists] = await tx
+			.select({ id: customer.id })
+			.from(customer)
+			.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, id)));
+		return exists ? 'has_jobs' : 'not_found';
+	}
+	const deleted = await tx
+		.delete(customer)
+		.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, id)))
+		.returning({ id: customer.id });
+	return deleted.length ? 'deleted' : 'not_found';
 }

@@ -1,10 +1,10 @@
 import { and, asc, count, desc, eq, ilike, inArray, max, ne, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { canMove, type JobStatus } from '../../../jobs/status';
+import { canDelete, canMove, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
 import { rolesThatCan } from '../../permissions';
 import { customer, job, jobEvent, member, quote, user } from '../schema';
-import { inStore, type Tx } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
 
@@ -48,7 +48,7 @@ const sortColumns = {
 } as const;
 
 /** The job columns every view uses, with the customer's and people's names. */
-function selectJobs(tx: Tx) {
+function selectJobs(tx: StoreTx) {
 	return tx
 		.select(jobColumns)
 		.from(job)
@@ -62,11 +62,11 @@ function selectJobs(tx: Tx) {
 
 /** A page of the store's jobs as the viewer may see them. */
 export async function list(
-	storeId: string,
+	tx: StoreTx,
 	query: JobListQuery & { customerId?: string; salespersonId?: string },
 	viewer: JobViewer
 ) {
-	const filters = [eq(job.organizationId, storeId), viewerFilter(viewer)];
+	const filters = [eq(job.organizationId, tx.storeId), viewerFilter(viewer)];
 	if (query.status) filters.push(eq(job.status, query.status));
 	if (query.customerId) filters.push(eq(job.customerId, query.customerId));
 	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
@@ -83,50 +83,49 @@ export async function list(
 	}
 	const where = and(...filters);
 	const order = query.dir === 'asc' ? asc : desc;
-	return inStore(storeId, async (tx) => {
-		const [rows, [{ total }]] = await Promise.all([
-			selectJobs(tx)
-				.where(where)
-				.orderBy(order(sortColumns[query.sort]), desc(job.number))
-				.limit(query.pageSize)
-				.offset((query.page - 1) * query.pageSize),
-			tx
-				.select({ total: count() })
-				.from(job)
-				.innerJoin(
-					customer,
-					and(eq(customer.id, job.customerId), eq(customer.organizationId, job.organizationId))
-				)
-				.where(where)
-		]);
-		return { rows, total };
-	});
+	const rows = await selectJobs(tx)
+		.where(where)
+		.orderBy(order(sortColumns[query.sort]), desc(job.number))
+		.limit(query.pageSize)
+		.offset((query.page - 1) * query.pageSize);
+	const [{ total }] = await tx
+		.select({ total: count() })
+		.from(job)
+		.innerJoin(
+			customer,
+			and(eq(customer.id, job.customerId), eq(customer.organizationId, job.organizationId))
+		)
+		.where(where);
+	return { rows, total };
 }
 
 export type JobRow = Awaited<ReturnType<typeof list>>['rows'][number];
 
-/** One job with its people, or undefined when it is not the store's or not the viewer's. */
-export async function read(storeId: string, id: string, viewer: JobViewer) {
-	return inStore(storeId, async (tx) => {
-		const [row] = await selectJobs(tx).where(
-			and(eq(job.organizationId, storeId), eq(job.id, id), viewerFilter(viewer))
-		);
-		return row;
-	});
+/** One job with its people as the viewer may see it: undefined when not the store's or not theirs. */
+export async function readForViewer(tx: StoreTx, id: string, viewer: JobViewer) {
+	const [row] = await selectJobs(tx).where(
+		and(eq(job.organizationId, tx.storeId), eq(job.id, id), viewerFilter(viewer))
+	);
+	return row;
+}
+
+/**
+ * One job of the store with its people, whoever asks: for workflows and the customer's link,
+ * which are not a member looking. Undefined when it is not the store's.
+ */
+export async function readForStore(tx: StoreTx, id: string) {
+	const [row] = await selectJobs(tx).where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)));
+	return row;
 }
 
 /** Counts of the viewer's jobs per status. */
-export async function countByStatus(storeId: string, viewer: JobViewer) {
-	return inStore(storeId, async (tx) => {
-		const rows = await tx
-			.select({ status: job.status, n: count() })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), viewerFilter(viewer)))
-			.groupBy(job.status);
-		return Object.fromEntries(rows.map((r) => [r.status, r.n])) as Partial<
-			Record<JobStatus, number>
-		>;
-	});
+export async function countByStatus(tx: StoreTx, viewer: JobViewer) {
+	const rows = await tx
+		.select({ status: job.status, n: count() })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), viewerFilter(viewer)))
+		.groupBy(job.status);
+	return Object.fromEntries(rows.map((r) => [r.status, r.n])) as Partial<Record<JobStatus, number>>;
 }
 
 /**
@@ -135,56 +134,62 @@ export async function countByStatus(storeId: string, viewer: JobViewer) {
  * creates, so two people never get the same number.
  */
 export async function create(
-	storeId: string,
+	tx: StoreWriteTx,
 	input: { customerId: string; title: string; notes?: string },
 	actorId: string
 ): Promise<Job | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [owner] = await tx
-			.select({ id: customer.id })
-			.from(customer)
-			.where(and(eq(customer.organizationId, storeId), eq(customer.id, input.customerId)));
-		if (!owner) return undefined;
-		await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`job-number:${storeId}`}))`);
-		const [{ last }] = await tx
-			.select({ last: max(job.number) })
-			.from(job)
-			.where(eq(job.organizationId, storeId));
-		const [row] = await tx
-			.insert(job)
-			.values({
-				organizationId: storeId,
-				number: (last ?? 1000) + 1,
-				customerId: input.customerId,
-				title: input.title,
-				notes: input.notes ?? '',
-				salespersonId: actorId
-			})
-			.returning();
-		await tx.insert(jobEvent).values({
-			organizationId: storeId,
-			jobId: row.id,
-			kind: 'created',
-			toStatus: row.status,
-			actorId
-		});
-		return row;
+	const [owner] = await tx
+		.select({ id: customer.id })
+		.from(customer)
+		.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, input.customerId)));
+	if (!owner) return undefined;
+	await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`job-number:${tx.storeId}`}))`);
+	const [{ last }] = await tx
+		.select({ last: max(job.number) })
+		.from(job)
+		.where(eq(job.organizationId, tx.storeId));
+	const [row] = await tx
+		.insert(job)
+		.values({
+			organizationId: tx.storeId,
+			number: (last ?? 1000) + 1,
+			customerId: input.customerId,
+			title: input.title,
+			notes: input.notes ?? '',
+			salespersonId: actorId
+		})
+		.returning();
+	await tx.insert(jobEvent).values({
+		organizationId: tx.storeId,
+		jobId: row.id,
+		kind: 'created',
+		toStatus: row.status,
+		actorId
 	});
+	return row;
 }
 
 export async function update(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string,
 	input: { title?: string; notes?: string }
 ): Promise<Job | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.update(job)
-			.set({ ...input, updatedAt: new Date() })
-			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
-			.returning();
-		return row;
-	});
+	const [row] = await tx
+		.update(job)
+		.set({ ...input, updatedAt: new Date() })
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)))
+		.returning();
+	return row;
+}
+
+/** A job's status, its row locked until the transaction ends; undefined when not the store's. */
+export async function lockStatus(tx: StoreWriteTx, id: string) {
+	const [row] = await tx
+		.select({ status: job.status })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)))
+		.for('update');
+	return row?.status;
 }
 
 export type MoveResult =
@@ -197,44 +202,26 @@ export type MoveResult =
  * row is locked for the check, so two people moving the same job cannot both succeed.
  */
 export async function move(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string,
 	to: JobStatus,
 	actorId: string | null,
 	note = ''
 ): Promise<MoveResult> {
-	return inStore(storeId, (tx) => moveIn(tx, storeId, id, to, actorId, note));
-}
-
-/** `move` inside a transaction that already set the store (a quote and its job change together). */
-export async function moveIn(
-	tx: Tx,
-	storeId: string,
-	id: string,
-	to: JobStatus,
-	actorId: string | null,
-	note = ''
-): Promise<MoveResult> {
-	const [current] = await tx
-		.select({ status: job.status })
-		.from(job)
-		.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
-		.for('update');
-	if (!current) return { ok: false, reason: 'not_found' };
-	if (!canMove(current.status, to)) {
-		return { ok: false, reason: 'not_allowed', from: current.status };
-	}
+	const from = await lockStatus(tx, id);
+	if (!from) return { ok: false, reason: 'not_found' };
+	if (!canMove(from, to)) return { ok: false, reason: 'not_allowed', from };
 	const now = new Date();
 	const [row] = await tx
 		.update(job)
 		.set({ status: to, statusChangedAt: now, updatedAt: now })
-		.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)))
 		.returning();
 	await tx.insert(jobEvent).values({
-		organizationId: storeId,
+		organizationId: tx.storeId,
 		jobId: id,
 		kind: 'status',
-		fromStatus: current.status,
+		fromStatus: from,
 		toStatus: to,
 		actorId,
 		note
@@ -243,96 +230,85 @@ export async function moveIn(
 }
 
 /** The store's members with the installer role, for assigning jobs. */
-export async function listInstallers(storeId: string) {
-	return inStore(storeId, (tx) =>
-		tx
-			.select({ id: user.id, name: user.name, email: user.email })
-			.from(member)
-			.innerJoin(user, eq(user.id, member.userId))
-			.where(and(eq(member.organizationId, storeId), assignable()))
-			.orderBy(asc(user.name))
-	);
+export async function listInstallers(tx: StoreTx) {
+	return tx
+		.select({ id: user.id, name: user.name, email: user.email })
+		.from(member)
+		.innerJoin(user, eq(user.id, member.userId))
+		.where(and(eq(member.organizationId, tx.storeId), assignable()))
+		.orderBy(asc(user.name));
 }
 
 export type AssignResult = 'assigned' | 'not_found' | 'not_an_installer';
 
 /** Assigns (or, with null, unassigns) an installer who is a member of the same store. */
 export async function assign(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string,
 	installerId: string | null,
 	actorId: string
 ): Promise<AssignResult> {
-	return inStore(storeId, async (tx) => {
-		if (installerId) {
-			const [m] = await tx
-				.select({ id: member.id })
-				.from(member)
-				.where(
-					and(eq(member.organizationId, storeId), eq(member.userId, installerId), assignable())
-				);
-			if (!m) return 'not_an_installer';
-		}
-		const updated = await tx
-			.update(job)
-			.set({ installerId, updatedAt: new Date() })
-			.where(and(eq(job.organizationId, storeId), eq(job.id, id)))
-			.returning({ id: job.id });
-		if (!updated.length) return 'not_found';
-		await tx.insert(jobEvent).values({
-			organizationId: storeId,
-			jobId: id,
-			kind: 'assigned',
-			actorId,
-			note: installerId ?? ''
-		});
-		return 'assigned';
+	if (installerId) {
+		const [m] = await tx
+			.select({ id: member.id })
+			.from(member)
+			.where(
+				and(eq(member.organizationId, tx.storeId), eq(member.userId, installerId), assignable())
+			);
+		if (!m) return 'not_an_installer';
+	}
+	const updated = await tx
+		.update(job)
+		.set({ installerId, updatedAt: new Date() })
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)))
+		.returning({ id: job.id });
+	if (!updated.length) return 'not_found';
+	await tx.insert(jobEvent).values({
+		organizationId: tx.storeId,
+		jobId: id,
+		kind: 'assigned',
+		actorId,
+		note: installerId ?? ''
 	});
+	return 'assigned';
 }
 
 /**
- * Deletes a draft or cancelled job that never had a quote sent; others are kept for their
- * history (sent quotes are kept for good).
+ * Deletes a job that may still be deleted (see `canDelete`) and never had a quote sent; others
+ * are kept for their history (sent quotes are kept for good).
  */
 export async function remove(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string
 ): Promise<'deleted' | 'not_found' | 'not_draft'> {
-	return inStore(storeId, async (tx) => {
-		const [current] = await tx
-			.select({ status: job.status })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.id, id)));
-		if (!current) return 'not_found';
-		if (current.status !== 'draft' && current.status !== 'cancelled') return 'not_draft';
-		const [{ sent }] = await tx
-			.select({ sent: count() })
-			.from(quote)
-			.where(
-				and(eq(quote.organizationId, storeId), eq(quote.jobId, id), ne(quote.status, 'draft'))
-			);
-		if (sent > 0) return 'not_draft';
-		await tx.delete(job).where(and(eq(job.organizationId, storeId), eq(job.id, id)));
-		return 'deleted';
-	});
+	const status = await lockStatus(tx, id);
+	if (!status) return 'not_found';
+	if (!canDelete(status)) return 'not_draft';
+	const [{ sent }] = await tx
+		.select({ sent: count() })
+		.from(quote)
+		.where(
+			and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, id), ne(quote.status, 'draft'))
+		);
+	if (sent > 0) return 'not_draft';
+	await tx.delete(job).where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)));
+	return 'deleted';
 }
 
 /** A job's history, newest first, with who did each step. */
-export async function events(storeId: string, jobId: string) {
-	return inStore(storeId, (tx) =>
-		tx
-			.select({
-				id: jobEvent.id,
-				kind: jobEvent.kind,
-				fromStatus: jobEvent.fromStatus,
-				toStatus: jobEvent.toStatus,
-				note: jobEvent.note,
-				createdAt: jobEvent.createdAt,
-				actorName: user.name
-			})
-			.from(jobEvent)
-			.leftJoin(user, eq(user.id, jobEvent.actorId))
-			.where(and(eq(jobEvent.organizationId, storeId), eq(jobEvent.jobId, jobId)))
-			.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`))
-	);
+export async function events(tx: StoreTx, jobId: string) {
+	return tx
+		.select({
+			id: jobEvent.id,
+			kind: jobEvent.kind,
+			fromStatus: jobEvent.fromStatus,
+			toStatus: jobEvent.toStatus,
+			note: jobEvent.note,
+			createdAt: jobEvent.createdAt,
+			actorName: user.name
+		})
+		.from(jobEvent)
+		.leftJoin(user, eq(user.id, jobEvent.actorId))
+		.where(and(eq(jobEvent.organizationId, tx.storeId), eq(jobEvent.jobId, jobId)))
+		.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`));
 }

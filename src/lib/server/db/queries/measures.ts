@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm';
 import type { MeasureDraft } from '../../../measure/draft';
 import { job, measure, user } from '../schema';
-import { inStore } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export interface StoredMeasure {
 	draft: MeasureDraft;
@@ -23,15 +23,13 @@ const storedColumns = {
 };
 
 /** The job's measure, or undefined when nothing was measured yet (or the job is not the store's). */
-export async function read(storeId: string, jobId: string): Promise<StoredMeasure | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select(storedColumns)
-			.from(measure)
-			.leftJoin(user, eq(user.id, measure.updatedBy))
-			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
-		return row;
-	});
+export async function read(tx: StoreTx, jobId: string): Promise<StoredMeasure | undefined> {
+	const [row] = await tx
+		.select(storedColumns)
+		.from(measure)
+		.leftJoin(user, eq(user.id, measure.updatedBy))
+		.where(and(eq(measure.organizationId, tx.storeId), eq(measure.jobId, jobId)));
+	return row;
 }
 
 /**
@@ -40,38 +38,37 @@ export async function read(storeId: string, jobId: string): Promise<StoredMeasur
  * comes back, so the editor can show both.
  */
 export async function save(
-	storeId: string,
+	tx: StoreWriteTx,
 	jobId: string,
 	draft: MeasureDraft,
 	baseVersion: number,
 	userId: string
 ): Promise<SaveResult> {
-	return inStore(storeId, async (tx) => {
-		const [owner] = await tx
-			.select({ id: job.id })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)))
-			.for('update');
-		if (!owner) return { ok: false, reason: 'not_found' };
-		const [current] = await tx
-			.select(storedColumns)
-			.from(measure)
-			.leftJoin(user, eq(user.id, measure.updatedBy))
-			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
-		const now = new Date();
-		if (!current) {
-			if (baseVersion !== 0) return { ok: false, reason: 'not_found' };
-			await tx
-				.insert(measure)
-				.values({ organizationId: storeId, jobId, draft, version: 1, updatedBy: userId });
-			return { ok: true, version: 1, updatedAt: now };
-		}
-		if (current.version !== baseVersion) return { ok: false, reason: 'conflict', current };
-		const version = current.version + 1;
+	const storeId = tx.storeId;
+	const [owner] = await tx
+		.select({ id: job.id })
+		.from(job)
+		.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)))
+		.for('update');
+	if (!owner) return { ok: false, reason: 'not_found' };
+	const [current] = await tx
+		.select(storedColumns)
+		.from(measure)
+		.leftJoin(user, eq(user.id, measure.updatedBy))
+		.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
+	const now = new Date();
+	if (!current) {
+		if (baseVersion !== 0) return { ok: false, reason: 'not_found' };
 		await tx
-			.update(measure)
-			.set({ draft, version, updatedBy: userId, updatedAt: now })
-			.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
-		return { ok: true, version, updatedAt: now };
-	});
+			.insert(measure)
+			.values({ organizationId: storeId, jobId, draft, version: 1, updatedBy: userId });
+		return { ok: true, version: 1, updatedAt: now };
+	}
+	if (current.version !== baseVersion) return { ok: false, reason: 'conflict', current };
+	const version = current.version + 1;
+	await tx
+		.update(measure)
+		.set({ draft, version, updatedBy: userId, updatedAt: now })
+		.where(and(eq(measure.organizationId, storeId), eq(measure.jobId, jobId)));
+	return { ok: true, version, updatedAt: now };
 }

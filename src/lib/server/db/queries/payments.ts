@@ -1,8 +1,7 @@
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
-import { ledger, refundable, type Ledger } from '../../../payments/ledger';
-import { job, payment, quote, refund, stripeEvent, user } from '../schema';
-import { inStore, type Tx } from '../tenant';
-import { moveIn } from './jobs';
+import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
+import { ledger, type Ledger } from '../../../payments/ledger';
+import { payment, quote, refund, stripeEvent, user } from '../schema';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Payment = typeof payment.$inferSelect;
 export type Refund = typeof refund.$inferSelect;
@@ -11,7 +10,7 @@ export type PaymentMethod = Payment['method'];
 export type RefundReason = Refund['reason'];
 
 /** The accepted quote a job's money is owed on (the newest accepted version). */
-async function acceptedQuote(tx: Tx, storeId: string, jobId: string) {
+async function acceptedQuote(tx: StoreTx, jobId: string) {
 	const [row] = await tx
 		.select({
 			id: quote.id,
@@ -22,7 +21,11 @@ async function acceptedQuote(tx: Tx, storeId: string, jobId: string) {
 		})
 		.from(quote)
 		.where(
-			and(eq(quote.organizationId, storeId), eq(quote.jobId, jobId), eq(quote.status, 'accepted'))
+			and(
+				eq(quote.organizationId, tx.storeId),
+				eq(quote.jobId, jobId),
+				eq(quote.status, 'accepted')
+			)
 		)
 		.orderBy(desc(quote.version))
 		.limit(1);
@@ -37,13 +40,14 @@ export interface JobMoney {
 	currency: string;
 }
 
-export async function moneyIn(tx: Tx, storeId: string, jobId: string): Promise<JobMoney> {
-	const accepted = await acceptedQuote(tx, storeId, jobId);
+/** A job's payments, refunds and balance, from its accepted quote. */
+export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
+	const accepted = await acceptedQuote(tx, jobId);
 	const payments = await tx
 		.select({ ...paymentColumns, recordedByName: user.name })
 		.from(payment)
 		.leftJoin(user, eq(user.id, payment.recordedBy))
-		.where(and(eq(payment.organizationId, storeId), eq(payment.jobId, jobId)))
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.jobId, jobId)))
 		.orderBy(asc(payment.createdAt));
 	const refunds = payments.length
 		? await tx
@@ -51,7 +55,7 @@ export async function moneyIn(tx: Tx, storeId: string, jobId: string): Promise<J
 				.from(refund)
 				.where(
 					and(
-						eq(refund.organizationId, storeId),
+						eq(refund.organizationId, tx.storeId),
 						inArray(
 							refund.paymentId,
 							payments.map((p) => p.id)
@@ -100,114 +104,157 @@ const paymentColumns = {
 	updatedAt: payment.updatedAt
 };
 
-/** A job's payments, refunds and balance, from its accepted quote. */
-export async function moneyFor(storeId: string, jobId: string): Promise<JobMoney> {
-	return inStore(storeId, (tx) => moneyIn(tx, storeId, jobId));
-}
-
-/**
- * A deposit that succeeded moves an accepted job to sold; in the same transaction as the
- * payment, so the two never disagree.
- */
-export async function afterSuccess(
-	tx: Tx,
-	storeId: string,
-	p: Pick<Payment, 'jobId' | 'purpose'>,
-	actorId: string | null
-) {
-	if (p.purpose !== 'deposit') return;
-	const [j] = await tx
-		.select({ status: job.status })
-		.from(job)
-		.where(and(eq(job.organizationId, storeId), eq(job.id, p.jobId)));
-	if (j?.status === 'accepted') await moveIn(tx, storeId, p.jobId, 'sold', actorId, 'Deposit paid');
-}
-
-export type RecordResult =
-	| { ok: true; payment: Payment }
-	| { ok: false; reason: 'not_found' | 'no_accepted_quote' | 'more_than_due' };
-
-/** A payment taken in the store (cash, cheque, card terminal, transfer), with its reference. */
-export async function recordInStore(
-	storeId: string,
-	jobId: string,
-	input: {
-		purpose: PaymentPurpose;
-		method: Exclude<PaymentMethod, 'card'>;
-		amountCents: number;
-		reference: string;
-	},
-	actorId: string
-): Promise<RecordResult> {
-	return inStore(storeId, async (tx) => {
-		const [j] = await tx
-			.select({ id: job.id })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)))
-			.for('update');
-		if (!j) return { ok: false, reason: 'not_found' };
-		const money = await moneyIn(tx, storeId, jobId);
-		if (!money.quote) return { ok: false, reason: 'no_accepted_quote' };
-		if (input.amountCents > money.ledger.balanceDueCents)
-			return { ok: false, reason: 'more_than_due' };
-		const now = new Date();
-		const [row] = await tx
-			.insert(payment)
-			.values({
-				organizationId: storeId,
-				jobId,
-				quoteId: money.quote.id,
-				purpose: input.purpose,
-				method: input.method,
-				status: 'succeeded',
-				currency: money.quote.currency,
-				amountCents: input.amountCents,
-				reference: input.reference,
-				recordedBy: actorId,
-				succeededAt: now
-			})
-			.returning();
-		await afterSuccess(tx, storeId, row, actorId);
-		return { ok: true, payment: row };
-	});
-}
-
-export type RefundCheck =
-	| { ok: true; payment: Payment; refundableCents: number }
-	| { ok: false; reason: 'not_found' | 'nothing_to_refund' | 'more_than_paid' };
-
-/** Locks a payment and checks that `amountCents` can be given back on it. */
-export async function lockForRefund(
-	tx: Tx,
-	storeId: string,
-	paymentId: string,
-	amountCents: number
-): Promise<RefundCheck> {
-	const [p] = await tx
+/** A payment of the store, locked until the transaction ends; undefined when not the store's. */
+export async function lock(tx: StoreWriteTx, id: string): Promise<Payment | undefined> {
+	const [row] = await tx
 		.select()
 		.from(payment)
-		.where(and(eq(payment.organizationId, storeId), eq(payment.id, paymentId)))
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.id, id)))
 		.for('update');
-	if (!p) return { ok: false, reason: 'not_found' };
-	// Refunds still pending at Stripe count as given back, so two refunds cannot overlap.
+	return row;
+}
+
+export async function read(tx: StoreTx, id: string): Promise<Payment | undefined> {
+	const [row] = await tx
+		.select()
+		.from(payment)
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.id, id)));
+	return row;
+}
+
+/** The payment a Checkout Session was made for, by the session's id or our own, locked. */
+export async function lockBySession(tx: StoreWriteTx, sessionId: string, paymentId?: string) {
+	const [row] = await tx
+		.select()
+		.from(payment)
+		.where(
+			and(
+				eq(payment.organizationId, tx.storeId),
+				or(
+					eq(payment.stripeCheckoutSessionId, sessionId),
+					paymentId ? eq(payment.id, paymentId) : undefined
+				)
+			)
+		)
+		.for('update');
+	return row;
+}
+
+/** A payment by our id or by its Stripe PaymentIntent, whichever is known. */
+export async function findByIdOrIntent(
+	tx: StoreTx,
+	by: { id?: string | null; intent?: string | null }
+): Promise<Payment | undefined> {
+	if (!by.id && !by.intent) return undefined;
+	const [row] = await tx
+		.select()
+		.from(payment)
+		.where(
+			and(
+				eq(payment.organizationId, tx.storeId),
+				or(
+					by.id ? eq(payment.id, by.id) : undefined,
+					by.intent ? eq(payment.stripePaymentIntentId, by.intent) : undefined
+				)
+			)
+		);
+	return row;
+}
+
+/** The Checkout Sessions of the store's card payments still pending (the oldest 500). */
+export async function pendingCardSessions(tx: StoreTx): Promise<string[]> {
+	const rows = await tx
+		.select({ session: payment.stripeCheckoutSessionId })
+		.from(payment)
+		.where(
+			and(
+				eq(payment.organizationId, tx.storeId),
+				eq(payment.method, 'card'),
+				eq(payment.status, 'pending'),
+				isNotNull(payment.stripeCheckoutSessionId)
+			)
+		)
+		.orderBy(asc(payment.createdAt))
+		.limit(500);
+	return rows.map((r) => r.session!);
+}
+
+export type NewPayment = Omit<typeof payment.$inferInsert, 'organizationId' | 'id'>;
+
+export async function insert(tx: StoreWriteTx, values: NewPayment): Promise<Payment> {
+	const [row] = await tx
+		.insert(payment)
+		.values({ ...values, organizationId: tx.storeId })
+		.returning();
+	return row;
+}
+
+export async function update(
+	tx: StoreWriteTx,
+	id: string,
+	values: Partial<NewPayment>
+): Promise<Payment | undefined> {
+	const [row] = await tx
+		.update(payment)
+		.set({ ...values, updatedAt: new Date() })
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.id, id)))
+		.returning();
+	return row;
+}
+
+/** What is still pending at Stripe of a payment's refunds: counted as given back. */
+export async function pendingRefundCents(tx: StoreTx, paymentId: string): Promise<number> {
 	const [{ pending }] = await tx
 		.select({ pending: sql<number>`coalesce(sum(${refund.amountCents}), 0)::int` })
 		.from(refund)
 		.where(
 			and(
-				eq(refund.organizationId, storeId),
-				eq(refund.paymentId, p.id),
+				eq(refund.organizationId, tx.storeId),
+				eq(refund.paymentId, paymentId),
 				eq(refund.status, 'pending')
 			)
 		);
-	const left = refundable(p) - pending;
-	if (left <= 0) return { ok: false, reason: 'nothing_to_refund' };
-	if (amountCents > left) return { ok: false, reason: 'more_than_paid' };
-	return { ok: true, payment: p, refundableCents: left };
+	return pending;
+}
+
+export type NewRefund = Omit<typeof refund.$inferInsert, 'organizationId' | 'id'>;
+
+/** The one place a refund row is written, whoever gave the money back (the store, or Stripe). */
+export async function insertRefund(tx: StoreWriteTx, values: NewRefund): Promise<Refund> {
+	const [row] = await tx
+		.insert(refund)
+		.values({ ...values, organizationId: tx.storeId })
+		.returning();
+	return row;
+}
+
+export async function updateRefund(
+	tx: StoreWriteTx,
+	id: string,
+	values: Partial<NewRefund>
+): Promise<void> {
+	await tx
+		.update(refund)
+		.set({ ...values, updatedAt: new Date() })
+		.where(and(eq(refund.organizationId, tx.storeId), eq(refund.id, id)));
+}
+
+/** A refund by its Stripe id, or by our own id when Stripe carries it in its metadata. */
+export async function findRefund(tx: StoreTx, by: { stripeId: string; id?: string | null }) {
+	const [row] = await tx
+		.select({ id: refund.id })
+		.from(refund)
+		.where(
+			and(
+				eq(refund.organizationId, tx.storeId),
+				or(eq(refund.stripeRefundId, by.stripeId), by.id ? eq(refund.id, by.id) : undefined)
+			)
+		);
+	return row;
 }
 
 /** Adds a refund that has happened to its payment's refunded amount (and status). */
-export async function applyRefund(tx: Tx, storeId: string, paymentId: string, amountCents: number) {
+export async function applyRefund(tx: StoreWriteTx, paymentId: string, amountCents: number) {
 	await tx
 		.update(payment)
 		.set({
@@ -215,38 +262,16 @@ export async function applyRefund(tx: Tx, storeId: string, paymentId: string, am
 			status: 'refunded',
 			updatedAt: new Date()
 		})
-		.where(and(eq(payment.organizationId, storeId), eq(payment.id, paymentId)));
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.id, paymentId)));
 }
 
-/** Money given back in the store (cash, cheque) on a payment, never more than is left on it. */
-export async function refundInStore(
-	storeId: string,
-	paymentId: string,
-	input: { amountCents: number; reason: RefundReason; note: string },
-	actorId: string
-): Promise<
-	| { ok: true; refund: Refund }
-	| { ok: false; reason: 'not_found' | 'nothing_to_refund' | 'more_than_paid' | 'card' }
-> {
-	return inStore(storeId, async (tx) => {
-		const check = await lockForRefund(tx, storeId, paymentId, input.amountCents);
-		if (!check.ok) return check;
-		if (check.payment.method === 'card') return { ok: false, reason: 'card' };
-		const [row] = await tx
-			.insert(refund)
-			.values({
-				organizationId: storeId,
-				paymentId,
-				amountCents: input.amountCents,
-				reason: input.reason,
-				note: input.note,
-				status: 'succeeded',
-				createdBy: actorId
-			})
-			.returning();
-		await applyRefund(tx, storeId, paymentId, input.amountCents);
-		return { ok: true, refund: row };
-	});
+/** Whether a Stripe event was already handled in the store. */
+export async function seenEvent(tx: StoreTx, eventId: string): Promise<boolean> {
+	const [row] = await tx
+		.select({ id: stripeEvent.id })
+		.from(stripeEvent)
+		.where(and(eq(stripeEvent.organizationId, tx.storeId), eq(stripeEvent.id, eventId)));
+	return Boolean(row);
 }
 
 /**
@@ -254,8 +279,7 @@ export async function refundInStore(
  * seen: the caller then changes nothing (a redelivery).
  */
 export async function firstSight(
-	tx: Tx,
-	storeId: string,
+	tx: StoreWriteTx,
 	event: { id: string; type: string; objectId: string | null; created: number },
 	outcome = ''
 ): Promise<boolean> {
@@ -263,7 +287,7 @@ export async function firstSight(
 		.insert(stripeEvent)
 		.values({
 			id: event.id,
-			organizationId: storeId,
+			organizationId: tx.storeId,
 			type: event.type,
 			objectId: event.objectId,
 			stripeCreated: new Date(event.created * 1000),
@@ -275,9 +299,9 @@ export async function firstSight(
 }
 
 /** Notes what handling an event did, for the store's records. */
-export async function noteOutcome(tx: Tx, storeId: string, eventId: string, outcome: string) {
+export async function noteOutcome(tx: StoreWriteTx, eventId: string, outcome: string) {
 	await tx
 		.update(stripeEvent)
 		.set({ outcome })
-		.where(and(eq(stripeEvent.organizationId, storeId), eq(stripeEvent.id, eventId)));
+		.where(and(eq(stripeEvent.organizationId, tx.storeId), eq(stripeEvent.id, eventId)));
 }

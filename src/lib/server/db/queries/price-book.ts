@@ -2,7 +2,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import type { PriceBook } from '../../../estimating';
 import { engineItem } from '../../../schemas/price-book';
 import { priceItem } from '../schema';
-import { inStore } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type PriceSection = (typeof priceItem.$inferSelect)['section'];
 export type PriceItem = typeof priceItem.$inferSelect;
@@ -47,57 +47,45 @@ function checked(section: PriceSection, code: string, name: string, data: unknow
 	return r.data;
 }
 
-const isUniqueViolation = (e: unknown) =>
-	typeof e === 'object' &&
-	e !== null &&
-	((e as { code?: string }).code === '23505' ||
-		(e as { cause?: { code?: string } }).cause?.code === '23505');
-
 /** The store's price-book lines, one section or all, by section and name. */
-export async function list(storeId: string, section?: PriceSection): Promise<PriceItem[]> {
-	return inStore(storeId, (tx) =>
-		tx
-			.select()
-			.from(priceItem)
-			.where(
-				and(
-					eq(priceItem.organizationId, storeId),
-					section ? eq(priceItem.section, section) : undefined
-				)
+export async function list(tx: StoreTx, section?: PriceSection): Promise<PriceItem[]> {
+	return tx
+		.select()
+		.from(priceItem)
+		.where(
+			and(
+				eq(priceItem.organizationId, tx.storeId),
+				section ? eq(priceItem.section, section) : undefined
 			)
-			.orderBy(asc(priceItem.section), asc(priceItem.name))
-	);
+		)
+		.orderBy(asc(priceItem.section), asc(priceItem.name));
 }
 
-export async function read(storeId: string, id: string): Promise<PriceItem | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(priceItem)
-			.where(and(eq(priceItem.organizationId, storeId), eq(priceItem.id, id)));
-		return row;
-	});
+export async function read(tx: StoreTx, id: string): Promise<PriceItem | undefined> {
+	const [row] = await tx
+		.select()
+		.from(priceItem)
+		.where(and(eq(priceItem.organizationId, tx.storeId), eq(priceItem.id, id)));
+	return row;
 }
 
 /** The line of a section with this code (a prep kind, existing floor or supply kind), if any. */
 export async function readByCode(
-	storeId: string,
+	tx: StoreTx,
 	section: PriceSection,
 	code: string
 ): Promise<PriceItem | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(priceItem)
-			.where(
-				and(
-					eq(priceItem.organizationId, storeId),
-					eq(priceItem.section, section),
-					eq(priceItem.code, code)
-				)
-			);
-		return row;
-	});
+	const [row] = await tx
+		.select()
+		.from(priceItem)
+		.where(
+			and(
+				eq(priceItem.organizationId, tx.storeId),
+				eq(priceItem.section, section),
+				eq(priceItem.code, code)
+			)
+		);
+	return row;
 }
 
 /**
@@ -105,22 +93,21 @@ export async function readByCode(
  * per kind. The data is checked with the engine's schema first: `InvalidPriceItem` when it does
  * not fit, `DuplicatePriceItem` when the kind already has a line. Nothing is written then.
  */
-export async function create(storeId: string, input: PriceItemInput): Promise<PriceItem> {
+export async function create(tx: StoreWriteTx, input: PriceItemInput): Promise<PriceItem> {
 	const id = crypto.randomUUID();
 	const code = input.section === 'floor' ? id : input.code;
 	const data = checked(input.section, code, input.name, input.data);
-	try {
-		return await inStore(storeId, async (tx) => {
-			const [row] = await tx
-				.insert(priceItem)
-				.values({ ...input, data, id, code, organizationId: storeId })
-				.returning();
-			return row;
-		});
-	} catch (e) {
-		if (isUniqueViolation(e)) throw new DuplicatePriceItem(input.section, code);
-		throw e;
-	}
+	// A second line of a kind is refused without an error inside the transaction, which would
+	// spoil the rest of the caller's work.
+	const [row] = await tx
+		.insert(priceItem)
+		.values({ ...input, data, id, code, organizationId: tx.storeId })
+		.onConflictDoNothing({
+			target: [priceItem.organizationId, priceItem.section, priceItem.code]
+		})
+		.returning();
+	if (!row) throw new DuplicatePriceItem(input.section, code);
+	return row;
 }
 
 /**
@@ -129,40 +116,36 @@ export async function create(storeId: string, input: PriceItemInput): Promise<Pr
  * Quotes keep their own copy of every price: a sent quote never changes.
  */
 export async function update(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string,
 	input: Partial<Omit<PriceItemInput, 'section' | 'code'>>
 ): Promise<PriceItem | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [current] = await tx
-			.select()
-			.from(priceItem)
-			.where(and(eq(priceItem.organizationId, storeId), eq(priceItem.id, id)))
-			.for('update');
-		if (!current) return undefined;
-		const name = input.name ?? current.name;
-		const data = checked(current.section, current.code, name, input.data ?? current.data);
-		const [row] = await tx
-			.update(priceItem)
-			.set({ name, active: input.active, data, updatedAt: new Date() })
-			.where(and(eq(priceItem.organizationId, storeId), eq(priceItem.id, id)))
-			.returning();
-		return row;
-	});
+	const [current] = await tx
+		.select()
+		.from(priceItem)
+		.where(and(eq(priceItem.organizationId, tx.storeId), eq(priceItem.id, id)))
+		.for('update');
+	if (!current) return undefined;
+	const name = input.name ?? current.name;
+	const data = checked(current.section, current.code, name, input.data ?? current.data);
+	const [row] = await tx
+		.update(priceItem)
+		.set({ name, active: input.active, data, updatedAt: new Date() })
+		.where(and(eq(priceItem.organizationId, tx.storeId), eq(priceItem.id, id)))
+		.returning();
+	return row;
 }
 
 /**
  * Removes a line. Quotes keep their own copy of every price, so sent quotes are untouched; a
  * measure naming a removed floor is told to choose another.
  */
-export async function remove(storeId: string, id: string): Promise<boolean> {
-	return inStore(storeId, async (tx) => {
-		const deleted = await tx
-			.delete(priceItem)
-			.where(and(eq(priceItem.organizationId, storeId), eq(priceItem.id, id)))
-			.returning({ id: priceItem.id });
-		return deleted.length > 0;
-	});
+export async function remove(tx: StoreWriteTx, id: string): Promise<boolean> {
+	const deleted = await tx
+		.delete(priceItem)
+		.where(and(eq(priceItem.organizationId, tx.storeId), eq(priceItem.id, id)))
+		.returning({ id: priceItem.id });
+	return deleted.length > 0;
 }
 
 /** The engine's price book from the store's active lines. */
@@ -179,6 +162,6 @@ export function toPriceBook(items: PriceItem[], currency: string): PriceBook {
 }
 
 /** The store's price book as the engine takes it. */
-export async function priceBookFor(storeId: string, currency: string): Promise<PriceBook> {
-	return toPriceBook(await list(storeId), currency);
+export async function priceBookFor(tx: StoreTx, currency: string): Promise<PriceBook> {
+	return toPriceBook(await list(tx), currency);
 }

@@ -1,6 +1,6 @@
 import { and, asc, count, eq, getTableColumns } from 'drizzle-orm';
 import { customer, job, site } from '../schema';
-import { inStore } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Site = typeof site.$inferSelect;
 
@@ -15,134 +15,118 @@ export interface SiteInput {
 }
 
 /** A customer's sites, by label and address. */
-export async function listForCustomer(storeId: string, customerId: string): Promise<Site[]> {
-	return inStore(storeId, (tx) =>
-		tx
-			.select()
-			.from(site)
-			.where(and(eq(site.organizationId, storeId), eq(site.customerId, customerId)))
-			.orderBy(asc(site.label), asc(site.address))
-	);
+export async function listForCustomer(tx: StoreTx, customerId: string): Promise<Site[]> {
+	return tx
+		.select()
+		.from(site)
+		.where(and(eq(site.organizationId, tx.storeId), eq(site.customerId, customerId)))
+		.orderBy(asc(site.label), asc(site.address));
 }
 
 /** A customer's sites with how many jobs are at each (a site with jobs is kept when deleted). */
 export async function listWithJobCounts(
-	storeId: string,
+	tx: StoreTx,
 	customerId: string
 ): Promise<(Site & { jobs: number })[]> {
-	return inStore(storeId, (tx) =>
-		tx
-			.select({ ...getTableColumns(site), jobs: count(job.id) })
-			.from(site)
-			.leftJoin(job, and(eq(job.siteId, site.id), eq(job.organizationId, site.organizationId)))
-			.where(and(eq(site.organizationId, storeId), eq(site.customerId, customerId)))
-			.groupBy(site.id)
-			.orderBy(asc(site.label), asc(site.address))
-	);
+	return tx
+		.select({ ...getTableColumns(site), jobs: count(job.id) })
+		.from(site)
+		.leftJoin(job, and(eq(job.siteId, site.id), eq(job.organizationId, site.organizationId)))
+		.where(and(eq(site.organizationId, tx.storeId), eq(site.customerId, customerId)))
+		.groupBy(site.id)
+		.orderBy(asc(site.label), asc(site.address));
 }
 
 /** The site a job is at (undefined when none, or when the job is not the store's). */
-export async function forJob(storeId: string, jobId: string): Promise<Site | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select(getTableColumns(site))
-			.from(job)
-			.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
-			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)));
-		return row;
-	});
+export async function forJob(tx: StoreTx, jobId: string): Promise<Site | undefined> {
+	const [row] = await tx
+		.select(getTableColumns(site))
+		.from(job)
+		.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
+	return row;
 }
 
-export async function read(storeId: string, id: string): Promise<Site | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(site)
-			.where(and(eq(site.organizationId, storeId), eq(site.id, id)));
-		return row;
-	});
+export async function read(tx: StoreTx, id: string): Promise<Site | undefined> {
+	const [row] = await tx
+		.select()
+		.from(site)
+		.where(and(eq(site.organizationId, tx.storeId), eq(site.id, id)));
+	return row;
 }
 
 /** A new site for a customer of the same store; undefined when the customer is not the store's. */
 export async function create(
-	storeId: string,
+	tx: StoreWriteTx,
 	customerId: string,
 	input: SiteInput
 ): Promise<Site | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [owner] = await tx
-			.select({ id: customer.id })
-			.from(customer)
-			.where(and(eq(customer.organizationId, storeId), eq(customer.id, customerId)));
-		if (!owner) return undefined;
-		const [row] = await tx
-			.insert(site)
-			.values({ ...input, customerId, organizationId: storeId })
-			.returning();
-		return row;
-	});
+	const [owner] = await tx
+		.select({ id: customer.id })
+		.from(customer)
+		.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, customerId)));
+	if (!owner) return undefined;
+	const [row] = await tx
+		.insert(site)
+		.values({ ...input, customerId, organizationId: tx.storeId })
+		.returning();
+	return row;
 }
 
 export async function update(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string,
 	input: Partial<SiteInput>
 ): Promise<Site | undefined> {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.update(site)
-			.set({ ...input, updatedAt: new Date() })
-			.where(and(eq(site.organizationId, storeId), eq(site.id, id)))
-			.returning();
-		return row;
-	});
+	const [row] = await tx
+		.update(site)
+		.set({ ...input, updatedAt: new Date() })
+		.where(and(eq(site.organizationId, tx.storeId), eq(site.id, id)))
+		.returning();
+	return row;
 }
 
 /** Deletes a site no job is at; a site with jobs stays for their history. */
 export async function remove(
-	storeId: string,
+	tx: StoreWriteTx,
 	id: string
 ): Promise<'deleted' | 'not_found' | 'has_jobs'> {
-	return inStore(storeId, async (tx) => {
-		const [{ jobs }] = await tx
-			.select({ jobs: count() })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.siteId, id)));
-		const [exists] = await tx
-			.select({ id: site.id })
-			.from(site)
-			.where(and(eq(site.organizationId, storeId), eq(site.id, id)));
-		if (!exists) return 'not_found';
-		if (jobs > 0) return 'has_jobs';
-		await tx.delete(site).where(and(eq(site.organizationId, storeId), eq(site.id, id)));
-		return 'deleted';
-	});
+	const [{ jobs }] = await tx
+		.select({ jobs: count() })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.siteId, id)));
+	const [exists] = await tx
+		.select({ id: site.id })
+		.from(site)
+		.where(and(eq(site.organizationId, tx.storeId), eq(site.id, id)));
+	if (!exists) return 'not_found';
+	if (jobs > 0) return 'has_jobs';
+	await tx.delete(site).where(and(eq(site.organizationId, tx.storeId), eq(site.id, id)));
+	return 'deleted';
 }
 
 /** Puts a job at one of its customer's sites (or none). */
 export async function setJobSite(
-	storeId: string,
+	tx: StoreWriteTx,
 	jobId: string,
 	siteId: string | null
 ): Promise<'saved' | 'not_found' | 'other_customer'> {
-	return inStore(storeId, async (tx) => {
-		const [j] = await tx
-			.select({ customerId: job.customerId })
-			.from(job)
-			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)));
-		if (!j) return 'not_found';
-		if (siteId) {
-			const [s] = await tx
-				.select({ customerId: site.customerId })
-				.from(site)
-				.where(and(eq(site.organizationId, storeId), eq(site.id, siteId)));
-			if (!s) return 'not_found';
-			if (s.customerId !== j.customerId) return 'other_customer';
-		}
-		await tx
-			.update(job)
-			.set({ siteId, updatedAt: new Date() })
-			.where(and(eq(job.organizationId, storeId), eq(job.id, jobId)));
-		return 'saved';
-	});
+	const [j] = await tx
+		.select({ customerId: job.customerId })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
+	if (!j) return 'not_found';
+	if (siteId) {
+		const [s] = await tx
+			.select({ customerId: site.customerId })
+			.from(site)
+			.where(and(eq(site.organizationId, tx.storeId), eq(site.id, siteId)));
+		if (!s) return 'not_found';
+		if (s.customerId !== j.customerId) return 'other_customer';
+	}
+	await tx
+		.update(job)
+		.set({ siteId, updatedAt: new Date() })
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
+	return 'saved';
 }

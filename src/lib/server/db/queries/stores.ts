@@ -3,7 +3,7 @@ import { isRole, SALES_JOB_SCOPES, type Role, type StoreAccess } from '../../per
 import { timeZoneOr } from '../../../time-zone';
 import { db } from '../index';
 import { invitation, member, organization, session, storeProfile, user } from '../schema';
-import { inStore } from '../tenant';
+import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export interface Membership {
 	memberId: string;
@@ -101,46 +101,47 @@ export async function readMembership(userId: string, storeId: string): Promise<M
 export type StoreProfile = typeof storeProfile.$inferSelect;
 
 /** The store's contact details; empty ones when never saved. */
-export async function readProfile(storeId: string) {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(storeProfile)
-			.where(eq(storeProfile.organizationId, storeId));
-		return (
-			row ?? { organizationId: storeId, address: '', town: '', phone: '', email: '', logoKey: null }
-		);
-	});
+export async function readProfile(tx: StoreTx) {
+	const [row] = await tx
+		.select()
+		.from(storeProfile)
+		.where(eq(storeProfile.organizationId, tx.storeId));
+	return (
+		row ?? {
+			organizationId: tx.storeId,
+			address: '',
+			town: '',
+			phone: '',
+			email: '',
+			logoKey: null
+		}
+	);
 }
 
 /** Sets (or, with null, clears) the storage key of the store's logo. */
-export async function saveLogoKey(storeId: string, logoKey: string | null) {
-	return inStore(storeId, async (tx) => {
-		await tx
-			.insert(storeProfile)
-			.values({ organizationId: storeId, logoKey })
-			.onConflictDoUpdate({
-				target: storeProfile.organizationId,
-				set: { logoKey, updatedAt: new Date() }
-			});
-	});
+export async function saveLogoKey(tx: StoreWriteTx, logoKey: string | null) {
+	await tx
+		.insert(storeProfile)
+		.values({ organizationId: tx.storeId, logoKey })
+		.onConflictDoUpdate({
+			target: storeProfile.organizationId,
+			set: { logoKey, updatedAt: new Date() }
+		});
 }
 
 export async function saveProfile(
-	storeId: string,
+	tx: StoreWriteTx,
 	input: { address: string; town: string; phone: string; email: string }
 ) {
-	return inStore(storeId, async (tx) => {
-		const [row] = await tx
-			.insert(storeProfile)
-			.values({ organizationId: storeId, ...input })
-			.onConflictDoUpdate({
-				target: storeProfile.organizationId,
-				set: { ...input, updatedAt: new Date() }
-			})
-			.returning();
-		return row;
-	});
+	const [row] = await tx
+		.insert(storeProfile)
+		.values({ organizationId: tx.storeId, ...input })
+		.onConflictDoUpdate({
+			target: storeProfile.organizationId,
+			set: { ...input, updatedAt: new Date() }
+		})
+		.returning();
+	return row;
 }
 
 /** An invitation with its store and inviter, for the invitation page (no session needed). */
@@ -186,8 +187,8 @@ export async function listOpenInvitations(email: string) {
 }
 
 /** The store's members with their logins, by name. */
-export async function listMembers(storeId: string) {
-	return db
+export async function listMembers(tx: StoreTx) {
+	return tx
 		.select({
 			memberId: member.id,
 			userId: user.id,
@@ -198,13 +199,13 @@ export async function listMembers(storeId: string) {
 		})
 		.from(member)
 		.innerJoin(user, eq(user.id, member.userId))
-		.where(eq(member.organizationId, storeId))
+		.where(eq(member.organizationId, tx.storeId))
 		.orderBy(asc(user.name));
 }
 
 /** The store's invitations that are still open or lapsed unused, newest first. */
-export async function listInvitations(storeId: string) {
-	return db
+export async function listInvitations(tx: StoreTx) {
+	return tx
 		.select({
 			id: invitation.id,
 			email: invitation.email,
@@ -214,27 +215,37 @@ export async function listInvitations(storeId: string) {
 			createdAt: invitation.createdAt
 		})
 		.from(invitation)
-		.where(and(eq(invitation.organizationId, storeId), eq(invitation.status, 'pending')))
+		.where(and(eq(invitation.organizationId, tx.storeId), eq(invitation.status, 'pending')))
 		.orderBy(desc(invitation.createdAt));
 }
 
-/** A store's public face: its name and logo key (for customer pages, which have no session). */
-export async function readStore(storeId: string) {
-	const [row] = await db
+/** The transaction's store by its name (for customer pages and documents, which have no session). */
+export async function readStore(tx: StoreTx) {
+	const [row] = await tx
 		.select({ id: organization.id, name: organization.name, timeZone: organization.timeZone })
 		.from(organization)
-		.where(eq(organization.id, storeId));
+		.where(eq(organization.id, tx.storeId));
 	return row && { ...row, timeZone: timeZoneOr(row.timeZone) };
 }
 
 /** A login's e-mail (to tell a salesperson what their customer did), or null. */
-export async function emailOf(userId: string | null): Promise<string | null> {
+export async function emailOf(tx: StoreTx, userId: string | null): Promise<string | null> {
 	if (!userId) return null;
-	const [row] = await db.select({ email: user.email }).from(user).where(eq(user.id, userId));
+	const [row] = await tx.select({ email: user.email }).from(user).where(eq(user.id, userId));
 	return row?.email ?? null;
 }
 
 /** Sets the store's time zone (validated by the caller with `timeZoneSchema`). */
-export async function saveTimeZone(storeId: string, timeZone: string) {
-	await db.update(organization).set({ timeZone }).where(eq(organization.id, storeId));
+export async function saveTimeZone(tx: StoreWriteTx, timeZone: string) {
+	await tx.update(organization).set({ timeZone }).where(eq(organization.id, tx.storeId));
+}
+
+/** Every store's id, oldest first, for work done for each store in turn (at most `limit`). */
+export async function listStoreIds(limit = 10_000): Promise<string[]> {
+	const rows = await db
+		.select({ id: organization.id })
+		.from(organization)
+		.orderBy(asc(organization.createdAt))
+		.limit(limit);
+	return rows.map((r) => r.id);
 }

@@ -1,6 +1,8 @@
 import { endpoint, readJson, readQuery } from '$lib/server/api';
-import { create, list } from '$lib/server/db/queries/jobs';
+import { list } from '$lib/server/db/queries/jobs';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
+import { createJob } from '$lib/server/jobs/create';
 import { jobCreateSchema, jobListSchema } from '$lib/schemas/job';
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
@@ -9,15 +11,15 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ url }) => {
 	const { store, scope } = requirePermission({ job: ['read'] }, { assignedJob: ['read'] });
 	const query = readQuery(url, jobListSchema);
-	const { rows, total } = await list(store.id, query, scope);
+	const { rows, total } = await readInStore(store.id, (tx) => list(tx, query, scope));
 	return json({ rows, total, page: query.page, pageSize: query.pageSize });
 });
 
 export const POST: RequestHandler = endpoint(async ({ request }) => {
 	const { store, user } = requirePermission({ job: ['create'] });
 	const input = await readJson(request, jobCreateSchema);
-	const row = await create(store.id, input, user.id);
+	const made = await inStore(store.id, (tx) => createJob(tx, input, { kind: 'none' }, user.id));
 	// Another store's customer id is as unknown here as a made-up one.
-	if (!row) error(404, 'Customer not found');
-	return json(row, { status: 201 });
+	if (!made.ok) error(404, 'Customer not found');
+	return json(made.job, { status: 201 });
 });

@@ -1,5 +1,6 @@
 import { endpoint, readJson, readQuery } from '$lib/server/api';
 import * as priceBook from '$lib/server/db/queries/price-book';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { visiblePriceItem } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { priceItemCreateSchema, PRICE_SECTIONS } from '$lib/schemas/price-book';
@@ -14,7 +15,7 @@ const listQuery = z.object({ section: z.enum(PRICE_SECTIONS).optional() });
 export const GET: RequestHandler = endpoint(async ({ url }) => {
 	const { store, grants } = requirePermission({ priceBook: ['read'] });
 	const { section } = readQuery(url, listQuery);
-	const rows = await priceBook.list(store.id, section);
+	const rows = await readInStore(store.id, (tx) => priceBook.list(tx, section));
 	return json({ rows: rows.map((r) => visiblePriceItem(grants, r)) });
 });
 
@@ -23,7 +24,7 @@ export const POST: RequestHandler = endpoint(async ({ request }) => {
 	const { store } = requirePermission({ priceBook: ['update'] });
 	const input = await readJson(request, priceItemCreateSchema);
 	try {
-		return json(await priceBook.create(store.id, input), { status: 201 });
+		return json(await inStore(store.id, (tx) => priceBook.create(tx, input)), { status: 201 });
 	} catch (e) {
 		return priceItemRefusal(e);
 	}

@@ -1,4 +1,4 @@
-import { handleEvent } from '$lib/server/payments';
+import { handleEvent } from '$lib/server/payments/webhook';
 import { verifiedEvent } from '$lib/server/stripe';
 import { json } from '@sveltejs/kit';
 import Stripe from 'stripe';

@@ -1,8 +1,10 @@
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as sites from '$lib/server/db/queries/sites';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { fieldErrors, parseForm, typedValues } from '$lib/server/forms';
-import { placeJob, readSiteChoice, siteFits } from '$lib/server/job-sites';
+import { createJob } from '$lib/server/jobs/create';
+import { readSiteChoice } from '$lib/server/jobs/sites';
 import { requirePermission } from '$lib/server/guards';
 import { can } from '$lib/server/permissions';
 import { customerSchema } from '$lib/schemas/customer';
@@ -14,21 +16,23 @@ import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, grants, scope } = requirePermission({ customer: ['read'] });
-	const row = await customers.read(store.id, params.id);
-	if (!row) error(404, 'Not found');
-	const { rows: customerJobs } = await jobs.list(
-		store.id,
-		{ customerId: row.id, sort: 'number', dir: 'desc', page: 1, pageSize: 100, q: null },
-		scope
-	);
-	return {
-		customer: row,
-		jobs: customerJobs,
-		sites: await sites.listWithJobCounts(store.id, row.id),
-		canEditSites: can(grants, { customer: ['update'] }),
-		canEdit: can(grants, { customer: ['update'] }),
-		canDelete: can(grants, { customer: ['delete'] })
-	};
+	return readInStore(store.id, async (tx) => {
+		const row = await customers.read(tx, params.id);
+		if (!row) error(404, 'Not found');
+		const { rows: customerJobs } = await jobs.list(
+			tx,
+			{ customerId: row.id, sort: 'number', dir: 'desc', page: 1, pageSize: 100, q: null },
+			scope
+		);
+		return {
+			customer: row,
+			jobs: customerJobs,
+			sites: await sites.listWithJobCounts(tx, row.id),
+			canEditSites: can(grants, { customer: ['update'] }),
+			canEdit: can(grants, { customer: ['update'] }),
+			canDelete: can(grants, { customer: ['delete'] })
+		};
+	});
 };
 
 export const actions: Actions = {
@@ -36,13 +40,13 @@ export const actions: Actions = {
 		const { store } = requirePermission({ customer: ['update'] });
 		const parsed = await parseForm(request, customerSchema);
 		if (!parsed.ok) return parsed.failure;
-		const row = await customers.update(store.id, params.id, parsed.data);
+		const row = await inStore(store.id, (tx) => customers.update(tx, params.id, parsed.data));
 		if (!row) error(404, 'Not found');
 		return { saved: true };
 	},
 	delete: async ({ params }) => {
 		const { store } = requirePermission({ customer: ['delete'] });
-		const result = await customers.remove(store.id, params.id);
+		const result = await inStore(store.id, (tx) => customers.remove(tx, params.id));
 		if (result === 'not_found') error(404, 'Not found');
 		if (result === 'has_jobs') {
 			return fail(409, {
@@ -66,14 +70,14 @@ export const actions: Actions = {
 				...(where.ok ? {} : where.errors)
 			});
 		}
-		if (!(await customers.read(store.id, params.id))) error(404, 'Not found');
-		if (!(await siteFits(store.id, params.id, where.choice))) {
+		const made = await inStore(store.id, (tx) =>
+			createJob(tx, { ...parsed.data, customerId: params.id }, where.choice, user.id)
+		);
+		if (!made.ok && made.reason === 'other_site') {
 			return refuseJob({ siteId: ['Choose one of this customer’s sites'] });
 		}
-		const row = await jobs.create(store.id, { ...parsed.data, customerId: params.id }, user.id);
-		if (!row) error(404, 'Not found');
-		await placeJob(store.id, row, where.choice);
-		redirect(303, `/app/jobs/${row.id}`);
+		if (!made.ok) error(404, 'Not found');
+		redirect(303, `/app/jobs/${made.job.id}`);
 	},
 	addSite: async ({ request, params }) => {
 		const { store } = requirePermission({ customer: ['update'] });
@@ -84,7 +88,7 @@ export const actions: Actions = {
 				site: { id: 'new', values: typedValues(form), errors: fieldErrors(parsed.error) }
 			});
 		}
-		const row = await sites.create(store.id, params.id, parsed.data);
+		const row = await inStore(store.id, (tx) => sites.create(tx, params.id, parsed.data));
 		if (!row) error(404, 'Not found');
 		return { siteSaved: row.id };
 	},
@@ -92,23 +96,30 @@ export const actions: Actions = {
 		const { store } = requirePermission({ customer: ['update'] });
 		const form = await request.formData();
 		const siteId = String(form.get('siteId') ?? '');
-		const current = siteId ? await sites.read(store.id, siteId) : undefined;
-		if (!current || current.customerId !== params.id) error(404, 'Not found');
 		const parsed = siteSchema.safeParse(formFields(form));
+		const saved = await inStore(store.id, async (tx) => {
+			const current = siteId ? await sites.read(tx, siteId) : undefined;
+			if (!current || current.customerId !== params.id) return 'not_found' as const;
+			if (!parsed.success) return 'invalid' as const;
+			await sites.update(tx, siteId, parsed.data);
+			return 'saved' as const;
+		});
+		if (saved === 'not_found') error(404, 'Not found');
 		if (!parsed.success) {
 			return fail(400, {
 				site: { id: siteId, values: typedValues(form), errors: fieldErrors(parsed.error) }
 			});
 		}
-		await sites.update(store.id, siteId, parsed.data);
 		return { siteSaved: siteId };
 	},
 	deleteSite: async ({ request, params }) => {
 		const { store } = requirePermission({ customer: ['update'] });
 		const siteId = String((await request.formData()).get('siteId') ?? '');
-		const current = siteId ? await sites.read(store.id, siteId) : undefined;
-		if (!current || current.customerId !== params.id) error(404, 'Not found');
-		const result = await sites.remove(store.id, siteId);
+		const result = await inStore(store.id, async (tx) => {
+			const current = siteId ? await sites.read(tx, siteId) : undefined;
+			if (!current || current.customerId !== params.id) return 'not_found' as const;
+			return sites.remove(tx, siteId);
+		});
 		if (result === 'not_found') error(404, 'Not found');
 		if (result === 'has_jobs') {
 			return fail(409, {

@@ -1,4 +1,5 @@
 import { create } from '$lib/server/db/queries/customers';
+import { inStore } from '$lib/server/db/tenant';
 import { parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { customerSchema } from '$lib/schemas/customer';
@@ -15,7 +16,7 @@ export const actions: Actions = {
 		const { store } = requirePermission({ customer: ['create'] });
 		const parsed = await parseForm(request, customerSchema);
 		if (!parsed.ok) return parsed.failure;
-		const row = await create(store.id, parsed.data);
+		const row = await inStore(store.id, (tx) => create(tx, parsed.data));
 		redirect(303, `/app/customers/${row.id}`);
 	}
 };

@@ -1,9 +1,10 @@
 import * as customers from '$lib/server/db/queries/customers';
-import * as jobs from '$lib/server/db/queries/jobs';
 import * as sites from '$lib/server/db/queries/sites';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { fieldErrors, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
-import { placeJob, readSiteChoice, siteFits } from '$lib/server/job-sites';
+import { createJob } from '$lib/server/jobs/create';
+import { readSiteChoice } from '$lib/server/jobs/sites';
 import { jobCreateSchema } from '$lib/schemas/job';
 import { redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
@@ -11,20 +12,22 @@ import { formFields } from '$lib/input';
 
 export const load: PageServerLoad = async ({ url }) => {
 	const { store } = requirePermission({ job: ['create'] });
-	const { rows } = await customers.list(store.id, {
-		q: null,
-		sort: 'name',
-		dir: 'asc',
-		page: 1,
-		pageSize: 100
-	});
 	const customerId = url.searchParams.get('customer') ?? '';
-	const known = rows.some((c) => c.id === customerId);
-	return {
-		customers: rows.map((c) => ({ id: c.id, name: c.name })),
-		customerId: known ? customerId : '',
-		sites: known ? await sites.listForCustomer(store.id, customerId) : []
-	};
+	return readInStore(store.id, async (tx) => {
+		const { rows } = await customers.list(tx, {
+			q: null,
+			sort: 'name',
+			dir: 'asc',
+			page: 1,
+			pageSize: 100
+		});
+		const known = rows.some((c) => c.id === customerId);
+		return {
+			customers: rows.map((c) => ({ id: c.id, name: c.name })),
+			customerId: known ? customerId : '',
+			sites: known ? await sites.listForCustomer(tx, customerId) : []
+		};
+	});
 };
 
 export const actions: Actions = {
@@ -39,12 +42,11 @@ export const actions: Actions = {
 				...(where.ok ? {} : where.errors)
 			});
 		}
-		if (!(await siteFits(store.id, parsed.data.customerId, where.choice))) {
+		const made = await inStore(store.id, (tx) => createJob(tx, parsed.data, where.choice, user.id));
+		if (!made.ok && made.reason === 'other_site') {
 			return refuse(form, { siteId: ['Choose one of this customer’s sites, or a new address'] });
 		}
-		const row = await jobs.create(store.id, parsed.data, user.id);
-		if (!row) return refuse(form, { customerId: ['Choose one of the store’s customers'] });
-		await placeJob(store.id, row, where.choice);
-		redirect(303, `/app/jobs/${row.id}`);
+		if (!made.ok) return refuse(form, { customerId: ['Choose one of the store’s customers'] });
+		redirect(303, `/app/jobs/${made.job.id}`);
 	}
 };

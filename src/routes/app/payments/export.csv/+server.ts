@@ -1,15 +1,16 @@
+import { readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
-import { reconcile } from '$lib/server/reconcile';
+import { reconcile } from '$lib/server/payments/reconcile';
 import { majorText } from '$lib/format';
 import { stringify } from 'csv-stringify/sync';
 import type { RequestHandler } from './$types';
 import { periodOf } from '../period';
 
-/** The period's reconciliation as CSV: one line per charge or refund, then the payouts. */
+/** The period's reconciliation as CSV (from the store's tables): each charge or refund, then the payouts. */
 export const GET: RequestHandler = async ({ url }) => {
 	const { store } = requirePermission({ payment: ['reconcile'] });
 	const period = periodOf(url);
-	const report = await reconcile(store.id, period.from, period.to);
+	const report = await readInStore(store.id, (tx) => reconcile(tx, period.from, period.to));
 	const lines = [
 		[
 			'kind',

@@ -1,5 +1,6 @@
 import { estimatePreviewSchema } from '$lib/schemas/preview';
 import { endpoint, readJson } from '$lib/server/api';
+import { readInStore } from '$lib/server/db/tenant';
 import { previewEstimate } from '$lib/server/estimates';
 import { requireMember } from '$lib/server/guards';
 import { json } from '@sveltejs/kit';
@@ -9,5 +10,5 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = endpoint(async ({ request }) => {
 	const { store, grants } = requireMember();
 	const input = await readJson(request, estimatePreviewSchema);
-	return json(await previewEstimate(store.id, grants, input));
+	return json(await readInStore(store.id, (tx) => previewEstimate(tx, grants, input)));
 });

@@ -1,5 +1,6 @@
 import { endpoint, readJson } from '$lib/server/api';
-import { read, remove, update } from '$lib/server/db/queries/jobs';
+import { readForViewer, remove, update } from '$lib/server/db/queries/jobs';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { jobUpdateSchema } from '$lib/schemas/job';
@@ -8,7 +9,7 @@ import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async ({ params }) => {
 	const { store, scope } = requirePermission({ job: ['read'] }, { assignedJob: ['read'] });
-	const row = await read(store.id, params.id, scope);
+	const row = await readInStore(store.id, (tx) => readForViewer(tx, params.id, scope));
 	if (!row) error(404, 'Not found');
 	return json(row);
 });
@@ -18,7 +19,7 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 	await requireJob(member, params.id);
 	const { store } = member;
 	const input = await readJson(request, jobUpdateSchema);
-	const row = await update(store.id, params.id, input);
+	const row = await inStore(store.id, (tx) => update(tx, params.id, input));
 	if (!row) error(404, 'Not found');
 	return json(row);
 });
@@ -27,7 +28,7 @@ export const DELETE: RequestHandler = endpoint(async ({ params }) => {
 	const member = requirePermission({ job: ['delete'] });
 	await requireJob(member, params.id);
 	const { store } = member;
-	const result = await remove(store.id, params.id);
+	const result = await inStore(store.id, (tx) => remove(tx, params.id));
 	if (result === 'not_found') error(404, 'Not found');
 	if (result === 'not_draft') error(409, 'Only draft or cancelled jobs can be deleted');
 	return new Response(null, { status: 204 });

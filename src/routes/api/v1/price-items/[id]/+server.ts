@@ -1,5 +1,6 @@
 import { endpoint, readJson } from '$lib/server/api';
 import * as priceBook from '$lib/server/db/queries/price-book';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { visiblePriceItem } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { priceItemPatchSchema } from '$lib/schemas/price-book';
@@ -9,7 +10,7 @@ import { priceItemRefusal } from '../refusal.server';
 
 export const GET: RequestHandler = endpoint(async ({ params }) => {
 	const { store, grants } = requirePermission({ priceBook: ['read'] });
-	const row = await priceBook.read(store.id, params.id);
+	const row = await readInStore(store.id, (tx) => priceBook.read(tx, params.id));
 	if (!row) error(404, 'Not found');
 	return json(visiblePriceItem(grants, row));
 });
@@ -20,7 +21,7 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 	const input = await readJson(request, priceItemPatchSchema);
 	let row;
 	try {
-		row = await priceBook.update(store.id, params.id, input);
+		row = await inStore(store.id, (tx) => priceBook.update(tx, params.id, input));
 	} catch (e) {
 		return priceItemRefusal(e);
 	}
@@ -30,6 +31,6 @@ export const PATCH: RequestHandler = endpoint(async ({ params, request }) => {
 
 export const DELETE: RequestHandler = endpoint(async ({ params }) => {
 	const { store } = requirePermission({ priceBook: ['update'] });
-	if (!(await priceBook.remove(store.id, params.id))) error(404, 'Not found');
+	if (!(await inStore(store.id, (tx) => priceBook.remove(tx, params.id)))) error(404, 'Not found');
 	return new Response(null, { status: 204 });
 });

@@ -1,4 +1,5 @@
 import { requireMember } from '$lib/server/guards';
+import { readInStore } from '$lib/server/db/tenant';
 import { readLogo } from '$lib/server/logo';
 import { error } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
@@ -6,7 +7,7 @@ import type { RequestHandler } from './$types';
 /** The active store's logo, to its members only (the store comes from the session, never the URL). */
 export const GET: RequestHandler = async () => {
 	const { store } = requireMember();
-	const logo = await readLogo(store.id);
+	const logo = await readInStore(store.id, (tx) => readLogo(tx));
 	if (!logo) error(404, 'Not found');
 	return new Response(new Uint8Array(logo.bytes), {
 		headers: {

@@ -1,9 +1,10 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
 import * as priceBook from '$lib/server/db/queries/price-book';
-import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
 import { visiblePriceBook } from '$lib/server/figures';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import { tradeSettingsFor } from '$lib/server/store-settings';
 import { requirePermission } from '$lib/server/guards';
 import { readJsonText, readNumber } from '$lib/input';
 import { requireJob } from '$lib/server/object-access';
@@ -16,14 +17,17 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const { store, user, grants, scope } = requirePermission({ job: ['update'] });
-	const job = await jobs.read(store.id, params.id, scope);
-	if (!job) error(404, 'Not found');
-	const [stored, trade, items, site] = await Promise.all([
-		measures.read(store.id, job.id),
-		tradeSettings.read(store.id),
-		priceBook.list(store.id),
-		sites.forJob(store.id, job.id)
-	]);
+	const { job, stored, trade, items, site } = await readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, scope);
+		if (!job) error(404, 'Not found');
+		return {
+			job,
+			stored: await measures.read(tx, job.id),
+			trade: await tradeSettingsFor(tx),
+			items: await priceBook.list(tx),
+			site: await sites.forJob(tx, job.id)
+		};
+	});
 	const book = priceBook.toPriceBook(items, trade.currency);
 	const builtYear = site?.builtYear ? String(site.builtYear) : '';
 	return {
@@ -123,10 +127,15 @@ export const actions: Actions = {
 		}
 		const saved = sameDraft(drawn, draft)
 			? { ok: true as const }
-			: await measures.save(store.id, params.id, checked.data, baseVersion, user.id);
+			: await inStore(store.id, async (tx) => {
+					const result = await measures.save(tx, params.id, checked.data, baseVersion, user.id);
+					if (result.ok || result.reason === 'conflict') return result;
+					const job = await jobs.readForViewer(tx, params.id, scope);
+					return job ? result : ({ ok: false, reason: 'no_job' } as const);
+				});
 		if (!saved.ok) {
 			if (saved.reason === 'conflict') return conflictOf(saved.current, draft, baseVersion, drawn);
-			if (!(await jobs.read(store.id, params.id, scope))) error(404, 'Not found');
+			if (saved.reason === 'no_job') error(404, 'Not found');
 			return conflictOf(undefined, draft, baseVersion, drawn);
 		}
 		const query = new URLSearchParams();
@@ -147,26 +156,30 @@ export const actions: Actions = {
 		if (!mine || theirVersion === undefined) {
 			return fail(400, { message: 'The form was not sent whole: reload the page and try again.' });
 		}
-		const current = await measures.read(store.id, params.id);
-		if (!current && !(await jobs.read(store.id, params.id, scope))) error(404, 'Not found');
-		const theirs = current ?? { draft: emptyMeasure(), version: 0 };
-		// Someone saved again while this one was choosing: choose again against the newest.
-		if (theirs.version !== theirVersion) return conflictOf(current, mine, mineVersion);
 		const all = form.get('all');
 		const side = (v: FormDataEntryValue | null): Side => (v === 'theirs' ? 'theirs' : 'mine');
-		const rooms: Record<string, Side> = {};
-		for (const r of [...theirs.draft.rooms, ...mine.rooms])
-			rooms[r.id] = all ? side(all) : side(form.get(`pick.${r.id}`));
-		const merged = mergeMeasures(theirs.draft, mine, {
-			rooms,
-			builtYear: all ? side(all) : side(form.get('pick.builtYear'))
+		const outcome = await inStore(store.id, async (tx) => {
+			const current = await measures.read(tx, params.id);
+			if (!current && !(await jobs.readForViewer(tx, params.id, scope)))
+				return { kind: 'no_job' } as const;
+			const theirs = current ?? { draft: emptyMeasure(), version: 0 };
+			// Someone saved again while this one was choosing: choose again against the newest.
+			if (theirs.version !== theirVersion) return { kind: 'conflict', current } as const;
+			const rooms: Record<string, Side> = {};
+			for (const r of [...theirs.draft.rooms, ...mine.rooms])
+				rooms[r.id] = all ? side(all) : side(form.get(`pick.${r.id}`));
+			const merged = mergeMeasures(theirs.draft, mine, {
+				rooms,
+				builtYear: all ? side(all) : side(form.get('pick.builtYear'))
+			});
+			if (sameDraft(theirs.draft, merged)) return { kind: 'saved' } as const;
+			const saved = await measures.save(tx, params.id, merged, theirs.version, user.id);
+			if (saved.ok) return { kind: 'saved' } as const;
+			if (saved.reason === 'conflict') return { kind: 'conflict', current: saved.current } as const;
+			return { kind: 'no_job' } as const;
 		});
-		if (!sameDraft(theirs.draft, merged)) {
-			const saved = await measures.save(store.id, params.id, merged, theirs.version, user.id);
-			if (!saved.ok && saved.reason === 'conflict')
-				return conflictOf(saved.current, mine, mineVersion);
-			if (!saved.ok) error(404, 'Not found');
-		}
+		if (outcome.kind === 'no_job') error(404, 'Not found');
+		if (outcome.kind === 'conflict') return conflictOf(outcome.current, mine, mineVersion);
 		redirect(303, url.pathname);
 	}
 };

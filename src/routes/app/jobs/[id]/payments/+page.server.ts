@@ -1,11 +1,13 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
 import { seesCardFees, visibleMoney } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob, requireObjects } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
-import { refundCard } from '$lib/server/payments';
+import { recordInStore } from '$lib/server/payments/record';
+import { refundCard, refundInStore } from '$lib/server/payments/refunds';
 import { formFields, moneyField } from '$lib/input';
 import { formatMoney } from '$lib/format';
 import { error, fail } from '@sveltejs/kit';
@@ -40,9 +42,11 @@ const refundSchema = (currency: string) =>
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, grants, scope } = requirePermission({ payment: ['read'] });
-	const job = await jobs.read(store.id, params.id, scope);
-	if (!job) error(404, 'Not found');
-	const money = await payments.moneyFor(store.id, job.id);
+	const { job, money } = await readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, scope);
+		if (!job) error(404, 'Not found');
+		return { job, money: await payments.moneyFor(tx, job.id) };
+	});
 	return {
 		job,
 		money: visibleMoney(grants, money),
@@ -57,22 +61,21 @@ export const actions: Actions = {
 		const member = requirePermission({ payment: ['record'] });
 		await requireJob(member, params.id);
 		const { store, user } = member;
-		const { currency } = await payments.moneyFor(store.id, params.id);
+		const { currency } = await readInStore(store.id, (tx) => payments.moneyFor(tx, params.id));
 		const parsed = await parseForm(request, recordSchema(currency));
 		if (!parsed.ok) return parsed.failure;
 		const { form } = parsed;
 		const { amount, ...input } = parsed.data;
-		const result = await payments.recordInStore(
-			store.id,
-			params.id,
-			{ ...input, amountCents: amount },
-			user.id
-		);
+		const { result, money } = await inStore(store.id, async (tx) => {
+			const result = await recordInStore(tx, params.id, { ...input, amountCents: amount }, user.id);
+			// What is due, for the refusal, as this same transaction saw it.
+			const tooMuch = !result.ok && result.reason === 'more_than_due';
+			return { result, money: tooMuch ? await payments.moneyFor(tx, params.id) : null };
+		});
 		if (!result.ok) {
 			if (result.reason === 'not_found') error(404, 'Not found');
-			if (result.reason === 'no_accepted_quote')
+			if (result.reason === 'no_accepted_quote' || !money)
 				return refuse(form, {}, 'The job has no accepted quote to pay yet.', 409);
-			const money = await payments.moneyFor(store.id, params.id);
 			return refuse(form, {
 				amount: [`More than is due: ${formatMoney(money.ledger.balanceDueCents, money.currency)}`]
 			});
@@ -88,7 +91,7 @@ export const actions: Actions = {
 		const refundFor = fields.paymentId ?? '';
 		const values = { amount: fields.amount ?? '', note: fields.note ?? '' };
 		// The amount is typed in the payment's own currency.
-		const money = await payments.moneyFor(store.id, params.id);
+		const money = await readInStore(store.id, (tx) => payments.moneyFor(tx, params.id));
 		const currency = money.payments.find((p) => p.id === refundFor)?.currency ?? money.currency;
 		const parsed = refundSchema(currency).safeParse(fields);
 		if (!parsed.success) return fail(400, { refundFor, values, errors: fieldErrors(parsed.error) });
@@ -100,13 +103,12 @@ export const actions: Actions = {
 		};
 		const refused = (status: number, message: string) =>
 			fail(status, { refundFor, values, errors: { amount: [message] } });
-		const inStore = await payments.refundInStore(store.id, parsed.data.paymentId, input, user.id);
-		if (inStore.ok) return { refunded: true };
+		const { paymentId } = parsed.data;
+		const byHand = await inStore(store.id, (tx) => refundInStore(tx, paymentId, input, user.id));
+		if (byHand.ok) return { refunded: true };
 		// A card payment goes back through Stripe, to the card it came from.
 		const result =
-			inStore.reason === 'card'
-				? await refundCard(store.id, parsed.data.paymentId, input, user.id)
-				: inStore;
+			byHand.reason === 'card' ? await refundCard(store.id, paymentId, input, user.id) : byHand;
 		if (result.ok) return { refunded: true };
 		switch (result.reason) {
 			case 'not_found':

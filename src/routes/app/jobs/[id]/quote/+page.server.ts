@@ -1,15 +1,19 @@
-import { log } from '$lib/server/log';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import { customerLink } from '$lib/server/customer-page';
 import { parseForm, refuse } from '$lib/server/forms';
 import { seesCosts } from '$lib/server/figures';
+import { SETTINGS_NOT_VALID } from '$lib/server/store-settings';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob, requireObjects } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
-import { customerLink, mailQuote } from '$lib/server/quote-service';
+import { buildQuote } from '$lib/server/quotes/build';
+import { resendQuoteLink, sendQuote } from '$lib/server/quotes/send';
+import { canQuote } from '$lib/jobs/status';
 import { diffLines } from '$lib/quote-diff';
 import { quoteView } from '$lib/quote-view';
 import { email } from '$lib/schemas/fields';
@@ -22,24 +26,31 @@ const sendSchema = z.object({ quoteId: z.string().min(1), to: email });
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const { store, grants, scope } = requirePermission({ quote: ['read'] });
-	const job = await jobs.read(store.id, params.id, scope);
-	if (!job) error(404, 'Not found');
-	const [versions, measure, customer, trade] = await Promise.all([
-		quotes.list(store.id, job.id),
-		measures.read(store.id, job.id),
-		customers.read(store.id, job.customerId),
-		tradeSettings.read(store.id)
-	]);
 	const asked = url.searchParams.get('v');
-	const read = asked ? readNumber(asked, QUOTE_VERSION) : undefined;
-	const wanted = read ? (read.ok ? read.value : undefined) : versions[0]?.version;
-	const current = wanted ? await quotes.readVersion(store.id, job.id, wanted) : undefined;
-	if (asked && !current) error(404, 'Not found');
-	const previous =
-		current && current.version > 1
-			? await quotes.readVersion(store.id, job.id, current.version - 1)
-			: undefined;
-	const metric = trade.settings.units.system === 'metric';
+	const found = await readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, scope);
+		if (!job) error(404, 'Not found');
+		const versions = await quotes.list(tx, job.id);
+		const read = asked ? readNumber(asked, QUOTE_VERSION) : undefined;
+		const wanted = read ? (read.ok ? read.value : undefined) : versions[0]?.version;
+		const current = wanted ? await quotes.readVersion(tx, job.id, wanted) : undefined;
+		if (asked && !current) error(404, 'Not found');
+		const previous =
+			current && current.version > 1
+				? await quotes.readVersion(tx, job.id, current.version - 1)
+				: undefined;
+		return {
+			job,
+			versions,
+			current,
+			previous,
+			measure: await measures.read(tx, job.id),
+			customer: await customers.read(tx, job.customerId)
+		};
+	});
+	const { job, versions, current, previous, measure, customer } = found;
+	// Each version shows in the units it was built in, as stored with it.
+	const metric = current?.input.settings.units.system === 'metric';
 	return {
 		job,
 		versions,
@@ -74,7 +85,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		customerEmail: customer?.email ?? '',
 		canBuild: can(grants, { quote: ['create'] }),
 		canSend: can(grants, { quote: ['send'] }),
-		jobOpen: job.status === 'draft' || job.status === 'quoted',
+		jobOpen: canQuote(job.status),
 		link: current && current.status !== 'draft' ? customerLink(store.id, job.id) : null
 	};
 };
@@ -84,12 +95,14 @@ export const actions: Actions = {
 		const member = requirePermission({ quote: ['create'] });
 		await requireJob(member, params.id);
 		const { store, user } = member;
-		const built = await quotes.build(store.id, params.id, user.id);
+		const built = await inStore(store.id, (tx) => buildQuote(tx, params.id, user.id));
 		if (!built.ok) {
 			if (built.reason === 'invalid') return fail(400, { buildErrors: built.errors });
 			if (built.reason === 'not_found') error(404, 'Not found');
 			if (built.reason === 'no_measure')
 				return fail(400, { buildErrors: [{ path: '', message: 'Measure the rooms first.' }] });
+			if (built.reason === 'settings')
+				return fail(409, { buildErrors: [{ path: '', message: SETTINGS_NOT_VALID }] });
 			return fail(409, {
 				buildErrors: [
 					{ path: '', message: 'This job is past quoting: its quote can no longer change.' }
@@ -105,11 +118,10 @@ export const actions: Actions = {
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
 		await requireObjects(member, 'quote', [parsed.data.quoteId]);
-		const trade = await tradeSettings.read(store.id);
-		const sent = await quotes.send(store.id, parsed.data.quoteId, {
-			to: parsed.data.to,
-			validDays: trade.quoteValidDays,
-			actorId: user.id
+		const { quoteId, to } = parsed.data;
+		const sent = await inStore(store.id, async (tx) => {
+			const { quoteValidDays } = await tradeSettings.termsOf(tx);
+			return sendQuote(tx, quoteId, { to, validDays: quoteValidDays, actorId: user.id });
 		});
 		if (!sent.ok) {
 			if (sent.reason === 'not_found') error(404, 'Not found');
@@ -122,26 +134,20 @@ export const actions: Actions = {
 				409
 			);
 		}
-		try {
-			await mailQuote(store, sent.quote, parsed.data.to);
-		} catch (e) {
-			log.error({ err: e, quoteId: sent.quote.id }, 'The quote e-mail failed');
-			return fail(502, {
-				mailFailed: `The quote is sent and frozen, but the e-mail to ${parsed.data.to} failed. Send the link again.`
-			});
-		}
 		redirect(303, `/app/jobs/${params.id}/quote?v=${sent.quote.version}&sent=1`);
 	},
 	resend: async ({ request, params }) => {
 		const member = requirePermission({ quote: ['send'] });
 		await requireJob(member, params.id);
-		const { store } = member;
+		const { store, user } = member;
 		const parsed = await parseForm(request, sendSchema);
 		if (!parsed.ok) return parsed.failure;
-		const quote = await quotes.read(store.id, parsed.data.quoteId);
-		if (!quote || quote.jobId !== params.id) error(404, 'Not found');
-		if (quote.status === 'draft') return refuse(parsed.form, {}, 'Send the quote first.', 409);
-		await mailQuote(store, quote, parsed.data.to);
-		return { resent: parsed.data.to };
+		const { quoteId, to } = parsed.data;
+		const queued = await inStore(store.id, (tx) =>
+			resendQuoteLink(tx, params.id, quoteId, to, user.id)
+		);
+		if (queued === 'not_found') error(404, 'Not found');
+		if (queued === 'draft') return refuse(parsed.form, {}, 'Send the quote first.', 409);
+		return { resent: to };
 	}
 };

@@ -1,6 +1,7 @@
 import { endpoint, readJson } from '$lib/server/api';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as measures from '$lib/server/db/queries/measures';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { emptyMeasure } from '$lib/measure/draft';
@@ -8,15 +9,22 @@ import { measureSaveSchema } from '$lib/schemas/measure';
 import { error, json } from '@sveltejs/kit';
 import type { RequestHandler } from './$types';
 
+const nothingSaved = () => ({
+	draft: emptyMeasure(),
+	version: 0,
+	updatedAt: null,
+	updatedByName: null
+});
+
 /** The stored measure, or an empty one at version 0 when nothing was saved yet. */
 export const GET: RequestHandler = endpoint(async ({ params }) => {
 	const { store, scope } = requirePermission({ job: ['read'] });
-	const job = await jobs.read(store.id, params.id, scope);
-	if (!job) error(404, 'Not found');
-	const stored = await measures.read(store.id, job.id);
-	return json(
-		stored ?? { draft: emptyMeasure(), version: 0, updatedAt: null, updatedByName: null }
-	);
+	const found = await readInStore(store.id, async (tx) => {
+		const job = await jobs.readForViewer(tx, params.id, scope);
+		return job && ((await measures.read(tx, job.id)) ?? nothingSaved());
+	});
+	if (!found) error(404, 'Not found');
+	return json(found);
 });
 
 /**
@@ -28,22 +36,29 @@ export const PUT: RequestHandler = endpoint(async ({ params, request }) => {
 	await requireJob(member, params.id);
 	const { store, user, scope } = member;
 	const body = await readJson(request, measureSaveSchema);
-	const saved = await measures.save(store.id, params.id, body.draft, body.baseVersion, user.id);
-	if (saved.ok) return json({ version: saved.version, updatedAt: saved.updatedAt });
-	if (saved.reason === 'conflict') {
-		const by = saved.current.updatedByName ?? 'Someone';
+	const saved = await inStore(store.id, async (tx) => {
+		const result = await measures.save(tx, params.id, body.draft, body.baseVersion, user.id);
+		// No measure to save on top of: either the job is not the store's, or the version named is gone.
+		const known =
+			result.ok || result.reason === 'conflict'
+				? true
+				: Boolean(await jobs.readForViewer(tx, params.id, scope));
+		return { result, known };
+	});
+	const { result } = saved;
+	if (result.ok) return json({ version: result.version, updatedAt: result.updatedAt });
+	if (result.reason === 'conflict') {
+		const by = result.current.updatedByName ?? 'Someone';
 		return json(
-			{ message: `${by} saved this measure while you were editing`, current: saved.current },
+			{ message: `${by} saved this measure while you were editing`, current: result.current },
 			{ status: 409 }
 		);
 	}
-	// No measure to save on top of: either the job is not the store's, or the version named is gone.
-	const job = await jobs.read(store.id, params.id, scope);
-	if (!job) error(404, 'Not found');
+	if (!saved.known) error(404, 'Not found');
 	return json(
 		{
 			message: 'The measure these changes were made on is no longer stored',
-			current: { draft: emptyMeasure(), version: 0, updatedAt: null, updatedByName: null }
+			current: nothingSaved()
 		},
 		{ status: 409 }
 	);

@@ -1,5 +1,6 @@
 import { endpoint, readJson } from '$lib/server/api';
 import { move } from '$lib/server/db/queries/jobs';
+import { inStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { jobMoveSchema } from '$lib/schemas/job';
@@ -12,7 +13,9 @@ export const POST: RequestHandler = endpoint(async ({ params, request }) => {
 	await requireJob(member, params.id);
 	const { store, user } = member;
 	const input = await readJson(request, jobMoveSchema);
-	const result = await move(store.id, params.id, input.to, user.id, input.note);
+	const result = await inStore(store.id, (tx) =>
+		move(tx, params.id, input.to, user.id, input.note)
+	);
 	if (!result.ok && result.reason === 'not_found') error(404, 'Not found');
 	if (!result.ok)
 		error(

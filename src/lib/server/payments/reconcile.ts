@@ -1,11 +1,10 @@
-import { and, eq, gte, inArray, lte } from 'drizzle-orm';
-import type Stripe from 'stripe';
-import { formatMoney } from '../format';
-import { jobLabel } from '../jobs/status';
-import { read as readSettings, stripeAccount } from './db/queries/settings';
-import { job, payment, refund } from './db/schema';
-import { inStore } from './db/tenant';
-import { stripe as appStripe, idOf } from './stripe';
+import { and, eq, gte, lte } from 'drizzle-orm';
+import { formatMoney } from '$lib/format';
+import { jobLabel } from '$lib/jobs/status';
+import { stripeAccount, termsOf } from '../db/queries/settings';
+import * as activity from '../db/queries/stripe-activity';
+import { job, payment, refund } from '../db/schema';
+import type { StoreTx } from '../db/tenant';
 
 /**
  * The manager's week-end check: what Stripe says happened in the store's account over a period
@@ -53,34 +52,41 @@ export interface Reconciliation {
 	currency: string;
 }
 
-/** Every item of a Stripe list across its pages (the SDK's auto-pagination), up to a bound. */
-async function all<T>(list: Stripe.ApiListPromise<T>, max = 10_000): Promise<T[]> {
-	const items: T[] = [];
-	for await (const item of list) {
-		items.push(item);
-		if (items.length >= max) break;
-	}
-	return items;
+const iso = (d: Date) => d.toISOString();
+
+/** Where the store's Stripe figures come from: the tables, as of their last sync. */
+export interface SyncStatus {
+	/** Stripe's activity created before this is all in the tables; webhooks add what follows. */
+	syncedUntil: string | null;
+	lastRunAt: string | null;
+	lastError: string | null;
 }
 
-const seconds = (d: Date) => Math.floor(d.getTime() / 1000);
-const iso = (unix: number) => new Date(unix * 1000).toISOString();
-
-/** Matches the store's Stripe activity between two dates (inclusive) with its ledger. */
+/**
+ * Matches the store's Stripe activity between two dates (inclusive) with its ledger, both read
+ * from the store's own tables in the caller's transaction: Stripe itself is not asked here (see
+ * ./stripe-activity.ts for how the tables are kept).
+ */
 export async function reconcile(
-	storeId: string,
+	tx: StoreTx,
 	from: Date,
-	to: Date,
-	client: Stripe = appStripe
-): Promise<Reconciliation> {
+	to: Date
+): Promise<Reconciliation & { sync: SyncStatus }> {
 	const empty = { matched: 0, stripe_only: 0, ledger_only: 0, amount_differs: 0 };
 	const base = { from: from.toISOString(), to: to.toISOString() };
-	const [account, trade] = await Promise.all([stripeAccount(storeId), readSettings(storeId)]);
-	const currency = trade.currency;
+	const account = await stripeAccount(tx);
+	const { currency } = await termsOf(tx);
+	const state = await activity.readSync(tx);
+	const sync: SyncStatus = {
+		syncedUntil: state?.syncedUntil?.toISOString() ?? null,
+		lastRunAt: state?.lastRunAt?.toISOString() ?? null,
+		lastError: state?.lastError ?? null
+	};
 	if (!account) {
 		return {
 			...base,
 			currency,
+			sync,
 			rows: [],
 			payouts: [],
 			counts: empty,
@@ -88,42 +94,31 @@ export async function reconcile(
 			connected: false
 		};
 	}
-	const on = { stripeAccount: account };
-	const created = { gte: seconds(from), lte: seconds(to) };
-	const [charges, refunds, payouts] = await Promise.all([
-		all(client.charges.list({ created, limit: 100, expand: ['data.balance_transaction'] }, on)),
-		all(client.refunds.list({ created, limit: 100 }, on)),
-		all(client.payouts.list({ created, limit: 100 }, on))
-	]);
+	const charges = await activity.chargesIn(tx, from, to);
+	const refunds = await activity.refundsIn(tx, from, to);
+	const payouts = await activity.payoutsIn(tx, from, to);
 	const succeeded = charges.filter((c) => c.status === 'succeeded');
-
-	const ledger = await inStore(storeId, async (tx) => {
-		const cardPayments = await tx
-			.select({ p: payment, number: job.number })
-			.from(payment)
-			.innerJoin(
-				job,
-				and(eq(job.id, payment.jobId), eq(job.organizationId, payment.organizationId))
+	const cardPayments = await tx
+		.select({ p: payment, number: job.number })
+		.from(payment)
+		.innerJoin(job, and(eq(job.id, payment.jobId), eq(job.organizationId, payment.organizationId)))
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.method, 'card')));
+	const cardRefunds = await tx
+		.select({ r: refund })
+		.from(refund)
+		.innerJoin(
+			payment,
+			and(eq(payment.id, refund.paymentId), eq(payment.organizationId, refund.organizationId))
+		)
+		.where(
+			and(
+				eq(refund.organizationId, tx.storeId),
+				eq(payment.method, 'card'),
+				gte(refund.createdAt, from),
+				lte(refund.createdAt, to)
 			)
-			.where(and(eq(payment.organizationId, storeId), eq(payment.method, 'card')));
-		const cardRefunds = cardPayments.length
-			? await tx
-					.select()
-					.from(refund)
-					.where(
-						and(
-							eq(refund.organizationId, storeId),
-							inArray(
-								refund.paymentId,
-								cardPayments.map((r) => r.p.id)
-							),
-							gte(refund.createdAt, from),
-							lte(refund.createdAt, to)
-						)
-					)
-			: [];
-		return { cardPayments, cardRefunds };
-	});
+		);
+	const ledger = { cardPayments, cardRefunds: cardRefunds.map((row) => row.r) };
 	const byCharge = new Map(
 		ledger.cardPayments.filter((r) => r.p.stripeChargeId).map((r) => [r.p.stripeChargeId!, r])
 	);
@@ -137,25 +132,22 @@ export async function reconcile(
 	const seenPayments = new Set<string>();
 
 	for (const c of succeeded) {
-		const txn = typeof c.balance_transaction === 'object' ? c.balance_transaction : null;
 		const found =
-			byCharge.get(c.id) ??
-			byIntent.get(idOf(c.payment_intent) ?? '') ??
-			byId.get(c.metadata?.payment_id ?? '');
+			byCharge.get(c.id) ?? byIntent.get(c.paymentIntentId ?? '') ?? byId.get(c.paymentId ?? '');
 		const common = {
 			kind: 'charge' as const,
-			at: iso(c.created),
+			at: iso(c.stripeCreated),
 			stripeId: c.id,
-			stripeCents: c.amount,
-			stripeFeeCents: txn?.fee ?? null,
-			currency: c.currency.toUpperCase()
+			stripeCents: c.amountCents,
+			stripeFeeCents: c.feeCents,
+			currency: c.currency
 		};
 		if (!found || (found.p.status !== 'succeeded' && found.p.status !== 'refunded')) {
 			rows.push({
 				...common,
 				status: 'stripe_only',
 				paymentId: found?.p.id ?? null,
-				jobId: found?.p.jobId ?? c.metadata?.job_id ?? null,
+				jobId: found?.p.jobId ?? c.jobId ?? null,
 				jobLabel: found ? jobLabel(found.number) : null,
 				ledgerCents: null,
 				ledgerFeeCents: null,
@@ -166,8 +158,9 @@ export async function reconcile(
 			continue;
 		}
 		seenPayments.add(found.p.id);
-		const differs = found.p.amountCents !== c.amount;
-		const feeDiffers = txn && found.p.feeCents !== null && found.p.feeCents !== txn.fee;
+		const differs = found.p.amountCents !== c.amountCents;
+		const feeDiffers =
+			c.feeCents !== null && found.p.feeCents !== null && found.p.feeCents !== c.feeCents;
 		rows.push({
 			...common,
 			status: differs ? 'amount_differs' : 'matched',
@@ -177,9 +170,9 @@ export async function reconcile(
 			ledgerCents: found.p.amountCents,
 			ledgerFeeCents: found.p.feeCents,
 			note: differs
-				? `Stripe charged ${formatMoney(c.amount, c.currency.toUpperCase())}, the ledger has ${formatMoney(found.p.amountCents, found.p.currency)}`
+				? `Stripe charged ${formatMoney(c.amountCents, c.currency)}, the ledger has ${formatMoney(found.p.amountCents, found.p.currency)}`
 				: feeDiffers
-					? `Fee differs: Stripe ${formatMoney(txn.fee, c.currency.toUpperCase())}, the ledger ${formatMoney(found.p.feeCents ?? 0, found.p.currency)}`
+					? `Fee differs: Stripe ${formatMoney(c.feeCents ?? 0, c.currency)}, the ledger ${formatMoney(found.p.feeCents ?? 0, found.p.currency)}`
 					: ''
 		});
 	}
@@ -211,18 +204,18 @@ export async function reconcile(
 	const seenRefunds = new Set<string>();
 	for (const s of refunds) {
 		const ours = refundByStripe.get(s.id);
-		const paid = ours ? byId.get(ours.paymentId) : byIntent.get(idOf(s.payment_intent) ?? '');
+		const paid = ours ? byId.get(ours.paymentId) : byIntent.get(s.paymentIntentId ?? '');
 		const common = {
 			kind: 'refund' as const,
-			at: iso(s.created),
+			at: iso(s.stripeCreated),
 			stripeId: s.id,
 			paymentId: paid?.p.id ?? null,
 			jobId: paid?.p.jobId ?? null,
 			jobLabel: paid ? jobLabel(paid.number) : null,
-			stripeCents: -s.amount,
+			stripeCents: -s.amountCents,
 			stripeFeeCents: null,
 			ledgerFeeCents: null,
-			currency: s.currency.toUpperCase()
+			currency: s.currency
 		};
 		if (!ours) {
 			rows.push({
@@ -234,13 +227,13 @@ export async function reconcile(
 			continue;
 		}
 		seenRefunds.add(ours.id);
-		const differs = ours.amountCents !== s.amount;
+		const differs = ours.amountCents !== s.amountCents;
 		rows.push({
 			...common,
 			status: differs ? 'amount_differs' : 'matched',
 			ledgerCents: -ours.amountCents,
 			note: differs
-				? `Stripe refunded ${formatMoney(s.amount, s.currency.toUpperCase())}, the ledger has ${formatMoney(ours.amountCents, s.currency.toUpperCase())}`
+				? `Stripe refunded ${formatMoney(s.amountCents, s.currency)}, the ledger has ${formatMoney(ours.amountCents, s.currency)}`
 				: ''
 		});
 	}
@@ -265,22 +258,17 @@ export async function reconcile(
 	}
 	rows.sort((a, b) => a.at.localeCompare(b.at));
 
-	const payoutRows: PayoutRow[] = [];
-	for (const po of payouts) {
-		const txns = await all(client.balanceTransactions.list({ payout: po.id, limit: 100 }, on));
-		const moving = txns.filter((t) => t.type !== 'payout');
-		payoutRows.push({
-			id: po.id,
-			arrival: iso(po.arrival_date),
-			status: po.status,
-			currency: po.currency.toUpperCase(),
-			netCents: po.amount,
-			grossCents: moving.filter((t) => t.amount > 0).reduce((s, t) => s + t.amount, 0),
-			feeCents: moving.reduce((s, t) => s + t.fee, 0),
-			refundCents: -moving.filter((t) => t.amount < 0).reduce((s, t) => s + t.amount, 0),
-			transactions: moving.length
-		});
-	}
+	const payoutRows: PayoutRow[] = payouts.map((po) => ({
+		id: po.id,
+		arrival: iso(po.arrivalDate),
+		status: po.status,
+		currency: po.currency,
+		netCents: po.amountCents,
+		grossCents: po.grossCents,
+		feeCents: po.feeCents,
+		refundCents: po.refundCents,
+		transactions: po.transactions
+	}));
 
 	const counts = { ...empty };
 	for (const r of rows) counts[r.status] += 1;
@@ -291,15 +279,12 @@ export async function reconcile(
 		counts,
 		connected: true,
 		currency,
+		sync,
 		totals: {
-			chargedCents: succeeded.reduce((s, c) => s + c.amount, 0),
-			refundedCents: refunds.reduce((s, r) => s + r.amount, 0),
-			feeCents: succeeded.reduce(
-				(s, c) =>
-					s + (typeof c.balance_transaction === 'object' ? (c.balance_transaction?.fee ?? 0) : 0),
-				0
-			),
-			paidOutCents: payouts.reduce((s, p) => s + p.amount, 0)
+			chargedCents: succeeded.reduce((s, c) => s + c.amountCents, 0),
+			refundedCents: refunds.reduce((s, r) => s + r.amountCents, 0),
+			feeCents: succeeded.reduce((s, c) => s + (c.feeCents ?? 0), 0),
+			paidOutCents: payouts.reduce((s, p) => s + p.amountCents, 0)
 		}
 	};
 }

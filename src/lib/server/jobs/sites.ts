@@ -1,6 +1,7 @@
-import * as sites from './db/queries/sites';
-import { fieldErrors, type FieldErrors } from './forms';
 import { siteSchema, type SiteFormInput } from '$lib/schemas/site';
+import * as sites from '../db/queries/sites';
+import type { StoreTx, StoreWriteTx } from '../db/tenant';
+import { fieldErrors, type FieldErrors } from '../forms';
 
 /** Where a new job goes: nowhere yet, one of the customer's sites, or a new address. */
 export type SiteChoice =
@@ -31,15 +32,15 @@ export function readSiteChoice(
 }
 
 /** Whether an existing site may hold a job of this customer (same store, same customer). */
-export async function siteFits(storeId: string, customerId: string, choice: SiteChoice) {
+export async function siteFits(tx: StoreTx, customerId: string, choice: SiteChoice) {
 	if (choice.kind !== 'existing') return true;
-	const site = await sites.read(storeId, choice.siteId);
+	const site = await sites.read(tx, choice.siteId);
 	return !!site && site.customerId === customerId;
 }
 
 /** Puts a just-created job at the chosen site, creating the site first when it is new. */
 export async function placeJob(
-	storeId: string,
+	tx: StoreWriteTx,
 	job: { id: string; customerId: string },
 	choice: SiteChoice
 ) {
@@ -47,6 +48,6 @@ export async function placeJob(
 	const siteId =
 		choice.kind === 'existing'
 			? choice.siteId
-			: (await sites.create(storeId, job.customerId, choice.input))?.id;
-	if (siteId) await sites.setJobSite(storeId, job.id, siteId);
+			: (await sites.create(tx, job.customerId, choice.input))?.id;
+	if (siteId) await sites.setJobSite(tx, job.id, siteId);
 }
