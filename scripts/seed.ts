@@ -315,14 +315,12 @@ export async function seedDemo() {
 	await inStore(second.id, (tx) =>
 		saveProfile(tx, { address: '7 Weir Lane', town: 'Hollin Vale', phone: '555-0200', email: '' })
 	);
-	await inStore(store.id, (tx) =>
-		seedJobs(tx, {
-			floor,
-			sellers: [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!],
-			managerId: ids.get('manager@tallowcreek.example')!,
-			installerOf: (n) => ids.get(DEMO_PEOPLE[n].email)!
-		})
-	);
+	await seedJobs(store.id, {
+		floor,
+		sellers: [ids.get('sales@tallowcreek.example')!, ids.get('jonah@tallowcreek.example')!],
+		managerId: ids.get('manager@tallowcreek.example')!,
+		installerOf: (n) => ids.get(DEMO_PEOPLE[n].email)!
+	});
 	await inStore(second.id, (tx) =>
 		seedSecondStore(tx, {
 			ownerId: ids.get(SECOND_STORE.owner.email)!,
@@ -332,9 +330,13 @@ export async function seedDemo() {
 	return { storeId: store.id, secondStoreId: second.id };
 }
 
-/** The demo store's customers, their homes and their jobs, each walked as far as its path goes. */
+/**
+ * The demo store's customers, their homes and their jobs, each walked as far as its path goes.
+ * Each customer and each job is its own transaction, as the product makes them, so that each has
+ * its own time (a transaction's rows all carry its start time) and "newest first" means something.
+ */
 async function seedJobs(
-	tx: StoreWriteTx,
+	storeId: string,
 	people: {
 		floor: (name: string) => string;
 		sellers: string[];
@@ -343,40 +345,45 @@ async function seedJobs(
 	}
 ) {
 	const { floor, sellers, managerId } = people;
-	const customerRows = [];
-	for (const c of CUSTOMERS) customerRows.push(await customers.create(tx, c));
+	const customerRows: Awaited<ReturnType<typeof customers.create>>[] = [];
+	for (const c of CUSTOMERS)
+		customerRows.push(await inStore(storeId, (tx) => customers.create(tx, c)));
 	const siteIds: string[] = [];
 	for (const [i, place] of SITES.entries()) {
-		const row = await sites.create(tx, customerRows[i].id, {
-			label: 'Home',
-			address: place.address,
-			town: 'Bramblefield',
-			postcode: '',
-			builtYear: place.builtYear,
-			subfloor: place.subfloor,
-			notes: ''
-		});
+		const row = await inStore(storeId, (tx) =>
+			sites.create(tx, customerRows[i].id, {
+				label: 'Home',
+				address: place.address,
+				town: 'Bramblefield',
+				postcode: '',
+				builtYear: place.builtYear,
+				subfloor: place.subfloor,
+				notes: ''
+			})
+		);
 		siteIds.push(row!.id);
 	}
 	for (const [n, j] of JOBS.entries()) {
 		const seller = sellers[n % 2];
 		const customer = customerRows[j.customer];
-		const job = await jobs.create(tx, { customerId: customer.id, title: j.title }, seller);
-		if (!job) throw new Error(`Demo job ${j.title} was not created`);
-		await sites.setJobSite(tx, job.id, siteIds[j.customer]);
-		const saved = await measures.save(tx, job.id, demoMeasure(j.title, floor), 0, seller);
-		if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
-		await walkJob(
-			tx,
-			{ id: job.id, title: j.title, customer },
-			j.path,
-			{
-				seller,
-				manager: managerId,
-				installer: j.installer === undefined ? undefined : people.installerOf(j.installer)
-			},
-			n
-		);
+		await inStore(storeId, async (tx) => {
+			const job = await jobs.create(tx, { customerId: customer.id, title: j.title }, seller);
+			if (!job) throw new Error(`Demo job ${j.title} was not created`);
+			await sites.setJobSite(tx, job.id, siteIds[j.customer]);
+			const saved = await measures.save(tx, job.id, demoMeasure(j.title, floor), 0, seller);
+			if (!saved.ok) throw new Error(`Demo measure of ${j.title} was not saved`);
+			await walkJob(
+				tx,
+				{ id: job.id, title: j.title, customer },
+				j.path,
+				{
+					seller,
+					manager: managerId,
+					installer: j.installer === undefined ? undefined : people.installerOf(j.installer)
+				},
+				n
+			);
+		});
 	}
 }
 

@@ -32,12 +32,21 @@ export const bounded = (what: string, min: number, max: number, unit = '') => {
 		.min(min, `${what}: at least ${grouped(min)}${u}`)
 		.max(max, `${what}: at most ${grouped(max)}${u}`);
 };
+/** A number above 0 up to `max` (finite): one message for a value at or below 0, not two. */
+const aboveZero = (what: string, max: number, unit = '') => {
+	const u = unit ? ` ${unit}` : '';
+	return z
+		.number()
+		.finite()
+		.positive(`${what}: more than 0${u}`)
+		.max(max, `${what}: at most ${grouped(max)}${u}`);
+};
 /** A length in inches, 0 up to `max` (500 ft unless said). */
 export const inches = (what: string, max: number = LIMITS.lengthIn) =>
 	bounded(what, 0, max, 'in').describe(`${what}, in`);
 /** A length in inches above 0, up to `max` (500 ft unless said). */
 export const positiveIn = (what: string, max: number = LIMITS.lengthIn) =>
-	bounded(what, 0, max, 'in').positive(`${what}: more than 0 in`).describe(`${what}, in`);
+	aboveZero(what, max, 'in').describe(`${what}, in`);
 /** Integer cents from 0 to $1,000,000 a unit. */
 const cents = (what: string) =>
 	bounded(what, 0, LIMITS.unitCents, 'cents').int().describe(`${what}, integer cents`);
@@ -45,9 +54,7 @@ const cents = (what: string) =>
 export const pct = (what: string) => bounded(what, 0, LIMITS.pct, '%').describe(`${what}, %`);
 /** An area above 0 ft², up to a 500 × 500 ft room. */
 export const areaSqFt = (what: string) =>
-	bounded(what, 0, LIMITS.areaSqFt, 'ft²')
-		.positive(`${what}: more than 0 ft²`)
-		.describe(`${what}, ft²`);
+	aboveZero(what, LIMITS.areaSqFt, 'ft²').describe(`${what}, ft²`);
 /** A list of at most `max` items. */
 export const list = <T extends z.ZodType>(item: T, what: string, max: number) =>
 	z.array(item).max(max, `At most ${grouped(max)} ${what}`);
@@ -57,8 +64,7 @@ const text = (max = 200) => z.string().max(max, `At most ${max} characters`);
 const coordinate = (what: string) =>
 	bounded(what, -LIMITS.coordinateIn, LIMITS.coordinateIn, 'in').describe(`${what}, in`);
 /** A number up to `max`, above 0. */
-const positive = (what: string, max: number, unit = '') =>
-	bounded(what, 0, max, unit).positive(`${what}: more than 0${unit ? ` ${unit}` : ''}`);
+const positive = (what: string, max: number, unit = '') => aboveZero(what, max, unit);
 
 export const floorKindT = z
 	.enum(FLOOR_KINDS as [string, ...string[]])
