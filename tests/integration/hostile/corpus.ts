@@ -5,8 +5,11 @@
 export interface Variant {
 	/** What the variant tries, for the failure messages and the counts. */
 	name: string;
-	/** Only the heavy ones (100,000 items, 5 MB) are sent as fewer roles. */
-	heavy?: boolean;
+	/**
+	 * Sent as every role and as nobody; the rest of the corpus goes as the owner, who reaches the
+	 * deepest code (the other roles are refused at the guard, after the same edge checks).
+	 */
+	everyone?: boolean;
 	contentType?: string;
 	body?: string | Uint8Array;
 	/** Route parameters replaced (the other store's rows, odd ids). */
@@ -23,28 +26,21 @@ export const HOSTILE_VALUES: [string, string][] = [
 	['a word where a number goes', 'abc'],
 	['NaN', 'NaN'],
 	['Infinity', 'Infinity'],
-	['-Infinity', '-Infinity'],
 	['1e308', '1e308'],
-	['-1e308', '-1e308'],
 	['a negative', '-1'],
-	['a hex number', '0x1F'],
-	['empty', ''],
 	['NUL', 'a\u0000b'],
 	['control characters', 'a\u0007\u001b[2Jb'],
 	['SQL', "' OR '1'='1'; DROP TABLE job; --"],
 	['script', '"><script>alert(1)</script>'],
 	['__proto__ as a value', '__proto__'],
-	['constructor as a value', 'constructor'],
 	['a long string', 'x'.repeat(20_000)]
 ];
 
 /** Route parameters that are not ids of ours. */
 export const HOSTILE_PARAMS: [string, string][] = [
 	['__proto__ as an id', '__proto__'],
-	['constructor as an id', 'constructor'],
 	['SQL as an id', "1' OR '1'='1"],
 	['NUL in an id', '%00'],
-	['script as an id', '%3Cscript%3E'],
 	['a long id', 'a'.repeat(3000)]
 ];
 
@@ -93,7 +89,7 @@ export function formVariants(
 	hasParams: boolean
 ): Variant[] {
 	const out: Variant[] = [
-		{ name: 'the form as drawn', contentType: FORM, body: form(base) },
+		{ name: 'the form as drawn', contentType: FORM, body: form(base), everyone: true },
 		{ name: 'no fields', contentType: FORM, body: '' },
 		{
 			name: 'unknown fields',
@@ -109,6 +105,7 @@ export function formVariants(
 		});
 	out.push({
 		name: '__proto__ and constructor field names',
+		everyone: true,
 		contentType: FORM,
 		body: form([
 			...base,
@@ -130,7 +127,6 @@ export function formVariants(
 			},
 			{
 				name: 'JSON fields with 100,000 items',
-				heavy: true,
 				contentType: FORM,
 				body: form(swap(`{"rooms":[${Array(MANY).fill('{}').join(',')}]}`))
 			}
@@ -143,13 +139,11 @@ export function formVariants(
 	out.push(
 		{
 			name: 'a list of 100,000 items',
-			heavy: true,
 			contentType: FORM,
 			body: form([...base, ...many])
 		},
 		{
 			name: 'one field 100,000 times',
-			heavy: true,
 			contentType: FORM,
 			body: form([
 				...base,
@@ -158,7 +152,6 @@ export function formVariants(
 		},
 		{
 			name: 'a 5 MB body',
-			heavy: true,
 			contentType: FORM,
 			body: form([...base, [base[0]?.[0] ?? 'name', 'a'.repeat(FIVE_MB)]])
 		},
@@ -174,7 +167,13 @@ export function formVariants(
 		},
 		{ name: 'multipart without a boundary', contentType: 'multipart/form-data', body: 'x' },
 		{ name: 'JSON to a form action', contentType: JSON_TYPE, body: '{"name":' },
-		{ name: "another store's ids", contentType: FORM, body: form(swapIds(base)), params: 'other' }
+		{
+			name: "another store's ids",
+			everyone: true,
+			contentType: FORM,
+			body: form(swapIds(base)),
+			params: 'other'
+		}
 	);
 	if (hasParams)
 		for (const [name, value] of HOSTILE_PARAMS)
@@ -246,25 +245,26 @@ export function jsonVariants(
 	});
 	const out: Variant[] = [];
 	if (method === 'GET' || method === 'DELETE') {
-		out.push({ name: 'as documented' }, { name: "another store's ids", params: 'other' });
+		out.push(
+			{ name: 'as documented', everyone: true },
+			{ name: "another store's ids", params: 'other', everyone: true }
+		);
 		for (const [name, query] of HOSTILE_QUERIES) out.push({ name, query });
 		out.push(raw('a body on a GET or DELETE', PROTO_JSON));
 	} else {
 		const body = base ?? {};
 		const baseText = JSON.stringify(body);
 		out.push(
-			send('as documented', body),
+			send('as documented', body, { everyone: true }),
 			raw('malformed JSON', '{"name":'),
 			raw('JSON with trailing garbage', `${baseText}garbage`),
 			raw('not JSON at all', 'name=x&<script>'),
 			raw('an empty body', ''),
 			raw('the JSON literal 1e999', baseText.replace(/:(-?\d+(\.\d+)?)/g, ':1e999')),
 			raw('JSON sent as text/plain', baseText, 'text/plain'),
-			raw('JSON sent as a form', baseText, FORM),
 			send('an array instead of an object', [body]),
 			send('a string instead of an object', 'body'),
 			send('null', null),
-			send('a number', 42),
 			send('wrong types for every member', wrongTypes(body)),
 			send(
 				'numbers as "NaN"',
@@ -310,7 +310,7 @@ export function jsonVariants(
 				'unknown members everywhere',
 				mapObjects(body, (o) => ({ ...o, zzUnknown: 1 }))
 			),
-			raw('__proto__ and constructor keys', PROTO_JSON),
+			raw('__proto__ and constructor keys', PROTO_JSON, JSON_TYPE, { everyone: true }),
 			raw(
 				'__proto__ keys beside the members',
 				baseText.replace(
@@ -325,11 +325,10 @@ export function jsonVariants(
 			send(
 				'every list 100,000 items long',
 				mapArrays(body, (items) => Array(MANY).fill(items[0] ?? 0)),
-				{ heavy: true }
+				{}
 			),
-			send('a list of 100,000 items', Array(MANY).fill(body), { heavy: true }),
-			send('a 5 MB body', { ...(body as object), padding: 'a'.repeat(FIVE_MB) }, { heavy: true }),
-			send("another store's ids", swapIds(body), { params: 'other' })
+			send('a 5 MB body', { ...(body as object), padding: 'a'.repeat(FIVE_MB) }),
+			send("another store's ids", swapIds(body), { params: 'other', everyone: true })
 		);
 	}
 	if (hasParams)
@@ -346,7 +345,10 @@ export function jsonVariants(
 
 /** Page loads: the page's data as a browser asks for it, with odd queries and ids. */
 export function loadVariants(hasParams: boolean): Variant[] {
-	const out: Variant[] = [{ name: 'as linked' }, { name: "another store's ids", params: 'other' }];
+	const out: Variant[] = [
+		{ name: 'as linked', everyone: true },
+		{ name: "another store's ids", params: 'other', everyone: true }
+	];
 	for (const [name, query] of HOSTILE_QUERIES) out.push({ name, query });
 	if (hasParams) for (const [name, value] of HOSTILE_PARAMS) out.push({ name, params: value });
 	return out;
