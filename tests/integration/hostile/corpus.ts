@@ -191,10 +191,17 @@ function mapLeaves(value: Json, pick: (v: Json) => boolean, to: (v: Json) => Jso
 	return pick(value) ? to(value) : value;
 }
 
-function mapArrays(value: Json, to: (items: Json[]) => Json[]): Json {
-	if (Array.isArray(value)) return to(value.map((v) => mapArrays(v, to)));
+/**
+ * A copy with each outermost list made 100,000 items long (inner lists left as they are). An
+ * item too large to repeat 100,000 times in a test body becomes a 0.
+ */
+function longLists(value: Json): Json {
+	if (Array.isArray(value)) {
+		const first = value[0] ?? 0;
+		return Array(MANY).fill(JSON.stringify(first).length > 64 ? 0 : first);
+	}
 	if (value && typeof value === 'object')
-		return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, mapArrays(v, to)]));
+		return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, longLists(v)]));
 	return value;
 }
 
@@ -322,11 +329,7 @@ export function jsonVariants(
 				'__proto__ as member names everywhere',
 				mapObjects(body, (o) => ({ ...o, prototype: { polluted: 'yes' } }))
 			),
-			send(
-				'every list 100,000 items long',
-				mapArrays(body, (items) => Array(MANY).fill(items[0] ?? 0)),
-				{}
-			),
+			send('every list 100,000 items long', longLists(body), {}),
 			send('a 5 MB body', { ...(body as object), padding: 'a'.repeat(FIVE_MB) }),
 			send("another store's ids", swapIds(body), { params: 'other', everyone: true })
 		);
