@@ -391,7 +391,9 @@ async function send(target: Target, variant: Variant, who: Who, base: string) {
 	if (status >= 500) findings.push(`${label}: ${status} ${text.slice(0, 300)}`);
 	if (text.includes(MARKER)) findings.push(`${label}: the other store's row is in the answer`);
 	const pattern = HIDDEN_FROM[who];
-	if (pattern && status < 300) {
+	// The OpenAPI document's examples are the invented sample price book, the same for everyone.
+	const describesTheApi = target.route === '/api/v1/openapi.json';
+	if (pattern && status < 300 && !describesTheApi) {
 		const keys = hiddenFigures(decoded(text, type), pattern);
 		if (keys.length) findings.push(`${label}: shows ${[...new Set(keys)].join(', ')}`);
 		else if (!type.includes('json') && HIDDEN_IN_TEXT[who]!.test(text))
