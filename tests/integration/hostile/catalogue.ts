@@ -67,7 +67,6 @@ const customer = { id: 'customer' } as const;
 const token = { token: 'token' } as const;
 
 const loads: LoadTarget[] = [
-	{ kind: 'load', route: '/forgot-password' },
 	{ kind: 'load', route: '/reset-password' },
 	{ kind: 'load', route: '/sign-in' },
 	{ kind: 'load', route: '/sign-up' },
