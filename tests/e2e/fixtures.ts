@@ -12,12 +12,17 @@
 // out, switch their store or change the demo stores' data. A test that writes makes its own
 // store and people (./factories.ts); their sessions are made in this process, once per worker.
 // Only tests about signing in use the form (`signIn` in ./helpers.ts).
+//
+// Every page a test opens (its own `page`, and those of `newPage`/`pageAs`) is watched for
+// Content-Security-Policy violations: the DOM's `securitypolicyviolation` event and Chromium's
+// console report. Any violation fails the test when it ends.
 import {
 	test as base,
 	expect,
 	type Browser,
 	type BrowserContext,
 	type BrowserContextOptions,
+	type Page,
 	type PlaywrightWorkerArgs
 } from '@playwright/test';
 import { pool } from '../../src/lib/server/db';
@@ -52,6 +57,34 @@ export function stateOf(who: Who): Promise<SignedIn> {
 	return made;
 }
 
+/** CSP violations seen by the current test's pages. */
+const violations: string[] = [];
+
+function watchPage(page: Page) {
+	page.on('console', (message) => {
+		const text = message.text();
+		if (/Content Security Policy|CSP violation/i.test(text))
+			violations.push(`${page.url()}: ${text}`);
+	});
+	page.on('pageerror', (error) => {
+		if (/Content Security Policy/i.test(error.message))
+			violations.push(`${page.url()}: ${error.message}`);
+	});
+}
+
+/** Watches every page of a context for CSP violations (the DOM event is logged to the console). */
+export async function watchCsp(context: BrowserContext) {
+	await context.addInitScript(() => {
+		document.addEventListener('securitypolicyviolation', (e) => {
+			console.error(
+				`CSP violation: ${e.violatedDirective} blocked ${e.blockedURI || 'inline'} at ${e.sourceFile}:${e.lineNumber}`
+			);
+		});
+	});
+	context.on('page', watchPage);
+	for (const page of context.pages()) watchPage(page);
+}
+
 /** Signs a browser context in (its pages and `context.request` share the session). */
 export async function signInAs(context: BrowserContext, who: Who) {
 	await context.addCookies((await stateOf(who)).cookies);
@@ -61,6 +94,7 @@ export async function signInAs(context: BrowserContext, who: Who) {
 export async function newPage(browser: Browser, options: BrowserContextOptions = {}) {
 	const context = await browser.newContext(options);
 	opened.add(context);
+	await watchCsp(context);
 	return context.newPage();
 }
 
@@ -75,7 +109,7 @@ export async function requestAs(playwright: PlaywrightWorkerArgs['playwright'], 
 }
 
 export const test = base.extend<
-	{ signedInAs: DemoLogin | undefined; closeOpened: void },
+	{ signedInAs: DemoLogin | undefined; closeOpened: void; cspViolations: string[] },
 	{ database: void }
 >({
 	/** `test.use({ signedInAs: 'manager' })`: the test's browser starts signed in as that login. */
@@ -83,6 +117,16 @@ export const test = base.extend<
 	storageState: async ({ signedInAs, storageState }, use) => {
 		await use(signedInAs ? demoStatePath(signedInAs) : storageState);
 	},
+	/** Fails the test on any CSP violation in any page it opened (`context` is the test's own). */
+	cspViolations: [
+		async ({ context }, use) => {
+			violations.length = 0;
+			await watchCsp(context);
+			await use(violations);
+			expect(violations, 'Content-Security-Policy violations').toEqual([]);
+		},
+		{ auto: true }
+	],
 	closeOpened: [
 		// eslint-disable-next-line no-empty-pattern
 		async ({}, use) => {

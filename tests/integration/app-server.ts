@@ -23,6 +23,8 @@ export type PageData =
 	| { kind: 'error'; status: number; message: string };
 
 export interface Visitor {
+	/** The session cookie it sends (empty for someone signed out). */
+	cookie: string;
 	/** The page's `__data.json`, decoded. */
 	page(pathname: string): Promise<PageData>;
 	request(pathname: string, init?: RequestInit): Promise<Answer>;
@@ -36,6 +38,8 @@ export interface App {
 	anonymous: Visitor;
 	/** A visitor signed in with the app's own session cookie. */
 	signIn(email: string, password?: string): Promise<Visitor>;
+	/** A module of the app as the server runs it (the same instance its routes use). */
+	module(id: string): Promise<Record<string, unknown>>;
 	close(): Promise<void>;
 }
 
@@ -80,6 +84,7 @@ export async function startApp(): Promise<App> {
 			return { status: response.status, text, json: () => JSON.parse(text) };
 		};
 		return {
+			cookie,
 			request,
 			async page(pathname) {
 				const [route, query = ''] = pathname.split('?');
@@ -141,6 +146,7 @@ export async function startApp(): Promise<App> {
 			if (!cookie) throw new Error(`${email} could not sign in`);
 			return visitor(cookie);
 		},
+		module: (id) => server.ssrLoadModule(id),
 		async close() {
 			const db = await server.ssrLoadModule('/src/lib/server/db/index.ts');
 			await server.close();
