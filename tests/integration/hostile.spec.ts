@@ -52,13 +52,15 @@ async function seed(store: TestStore, marker: string): Promise<Rows> {
 	const doomedCustomer = await makeCustomer(store.id, `Doomed ${marker}`);
 	const doomedJob = await makeJob(store.id, store.owner.id, paid.customer.id);
 	const doomedSite = await makeSite(store.id, paid.customer.id);
-	const items = await priceBook.list(store.id, 'floor');
-	const doomedItem = await priceBook.create(store.id, {
-		section: 'floor',
-		code: '',
-		name: `Doomed ${marker}`,
-		data: items[0].data
-	});
+	const items = await inStore(store.id, (tx) => priceBook.list(tx, 'floor'));
+	const doomedItem = await inStore(store.id, (tx) =>
+		priceBook.create(tx, {
+			section: 'floor',
+			code: '',
+			name: `Doomed ${marker}`,
+			data: items[0].data
+		})
+	);
 	const member = await addMember(store.id, 'installer', `Spare ${marker}`);
 	const members = await auth.api.listMembers({
 		headers: await sessionOf(store.owner.email),
@@ -88,8 +90,10 @@ async function seed(store: TestStore, marker: string): Promise<Rows> {
 				.set({ address: `1 ${marker} Lane`, notes: marker })
 				.where(eq(site.organizationId, store.id));
 		});
-		for (const item of await priceBook.list(store.id))
-			await priceBook.update(store.id, item.id, { name: `${item.name} ${marker}` });
+		await inStore(store.id, async (tx) => {
+			for (const item of await priceBook.list(tx))
+				await priceBook.update(tx, item.id, { name: `${item.name} ${marker}` });
+		});
 	}
 	return {
 		store: store.id,
