@@ -307,6 +307,9 @@ const actions: ActionTarget[] = [
 	})),
 	{ kind: 'action', route: '/app/jobs/new', name: 'default' },
 	{ kind: 'action', route: '/app/payments', name: 'catchUp' },
+	{ kind: 'action', route: '/app/payments', name: 'sync' },
+	// The Desk's "send again" form shows only beside an e-mail that failed: an id of none here.
+	{ kind: 'action', route: '/app', name: 'resend', fields: { taskId: 'no-such-task' } },
 	{
 		kind: 'action',
 		route: '/app/price-book',
@@ -331,11 +334,13 @@ const actions: ActionTarget[] = [
 		name: 'default',
 		params: { section: { fixed: 'prep' } }
 	},
-	...['stripe', 'profile', 'trade', 'logo', 'removeLogo'].map((name): ActionTarget => ({
-		kind: 'action',
-		route: '/app/settings',
-		name
-	})),
+	...['stripe', 'profile', 'trade', 'restoreDefaults', 'logo', 'removeLogo'].map(
+		(name): ActionTarget => ({
+			kind: 'action',
+			route: '/app/settings',
+			name
+		})
+	),
 	// The access form left with its checkboxes off: the suite checks that salespeople see no
 	// costs, and turns the setting back off after every target in case a variant turned it on.
 	{ kind: 'action', route: '/app/settings', name: 'access', fields: { salesJobs: 'all' } },
