@@ -80,13 +80,22 @@ describe('coverTakeoff', () => {
 	});
 
 	it('lays panels where a resilient floor’s hole repair calls for them', () => {
-		const ctx = contextFor({ ...plankRoom, underlayment: false });
+		// A floor that does not call for panels by itself (the store's default for it is off).
+		const ctx = { ...contextFor(plankRoom), newUnderlayment: false };
 		expect(coverTakeoff(ctx, []).underlayment).toBeUndefined();
 		const hole = { ignored: false, needsUnderlayment: true } as const;
-		const t = coverTakeoff(ctx, [
-			{ ...hole, method: 'blocking_underlayment', pieces: [], rule: '', source: '' }
-		]);
+		const repair = {
+			...hole,
+			method: 'blocking_underlayment',
+			pieces: [],
+			rule: '',
+			source: ''
+		} as const;
+		const t = coverTakeoff(ctx, [repair]);
 		expect(t.underlayment?.panels).toBe(5);
+		// Issue 12 item 8 (common practice): an underlayment the customer declined is never added back.
+		const declined = contextFor({ ...plankRoom, underlayment: false });
+		expect(coverTakeoff(declined, [repair]).underlayment).toBeUndefined();
 	});
 });
 
