@@ -663,7 +663,15 @@ export function forCustomer(r: EstimateResult) {
 		),
 		lines: r.lines,
 		totals: r.totals,
-		schedule: { days: r.schedule.days },
+		// The order of work and its waits (tests, cures, acclimation): no hours of labour or pay.
+		schedule: {
+			days: r.schedule.days,
+			steps: r.schedule.steps.map((s) => ({
+				key: s.key,
+				label: s.label,
+				...(s.cureHours ? { waitHours: s.cureHours } : {})
+			}))
+		},
 		cautions: r.cautions.map((c) => c.text)
 	};
 }

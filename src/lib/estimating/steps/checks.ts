@@ -6,6 +6,7 @@
 import { cautionTexts } from '../cautions';
 import type { RoomShape } from '../geometry';
 import { countWithin, LIMITS } from '../limits';
+import { formatLength } from '../units';
 import type { FloorProduct } from '../pricing';
 import type { Measures } from '../prep';
 import type { FloorKind, StoreSettings } from '../settings';
@@ -89,6 +90,19 @@ export function checksStep(ctx: RoomContext): Checks {
 		for (const p of c.suggestedPrep) need(p.kind, measure(p), f);
 	};
 
+	// Bad input the schema lets through: said plainly, naming the limit (IRC Table R502.3.1(2),
+	// published, prints spacings of 12, 16, 19.2 and 24 in; its longest spans are about 26 ft, memory).
+	if (room.joists && wood) {
+		const { spacingIn, spanIn } = room.joists;
+		if (spacingIn < 12 || spacingIn > 24)
+			out.warnings.push(
+				`Joist spacing ${spacingIn} in is outside 12–24 in, the spacings the IRC span tables print: check the measure`
+			);
+		if (spanIn > 26 * 12)
+			out.warnings.push(
+				`A joist span of ${formatLength(spanIn)} is beyond any span the IRC table prints (about 26 ft): check the measure and have a licensed professional confirm`
+			);
+	}
 	if (room.joists?.iJoist && wood) {
 		const jm = room.joists;
 		const ratio =

@@ -1,3 +1,4 @@
+import type { HoleRepair } from '../takeoff';
 import { describe, expect, it } from 'vitest';
 import { PriceIndex } from '../pricing';
 import { samplePriceBook } from '../sample';
@@ -84,13 +85,13 @@ describe('coverTakeoff', () => {
 		const ctx = { ...contextFor(plankRoom), newUnderlayment: false };
 		expect(coverTakeoff(ctx, []).underlayment).toBeUndefined();
 		const hole = { ignored: false, needsUnderlayment: true } as const;
-		const repair = {
+		const repair: HoleRepair = {
 			...hole,
 			method: 'blocking_underlayment',
 			pieces: [],
 			rule: '',
 			source: ''
-		} as const;
+		};
 		const t = coverTakeoff(ctx, [repair]);
 		expect(t.underlayment?.panels).toBe(5);
 		// Issue 12 item 8 (common practice): an underlayment the customer declined is never added back.
