@@ -351,6 +351,22 @@ describe('9. sheet goods and roll goods', () => {
 		// the other way: ⌈196 ÷ 72⌉ = 3 drops, 2 seams across the hall
 		expect(t.other.seams).toBe(2);
 	});
+
+	it('follows the direction chosen on the measure and draws the seams', () => {
+		// 13 × 20 ft in 12 ft carpet: one seam either way; drops along x stack in y, seam at 12 ft
+		const carpet = (rollDirection?: 'x' | 'y') =>
+			run([
+				room({
+					shape: { kind: 'rect', widthIn: 240, lengthIn: 156 },
+					floor: { productId: 'carpet-12', layout: 'straight', rollDirection }
+				})
+			]).rooms[0];
+		const x = carpet('x');
+		expect(x.floor?.roll?.direction).toBe('x');
+		expect(x.outline?.seams).toEqual([{ x1: 0, y1: 144, x2: 240, y2: 144 }]);
+		const y = carpet('y');
+		expect(y.outline?.seams).toEqual([{ x1: 144, y1: 0, x2: 144, y2: 156 }]);
+	});
 });
 
 describe('10. prep that new underlayment covers', () => {
