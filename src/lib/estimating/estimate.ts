@@ -8,7 +8,7 @@
 import { CAUTION_KINDS, CAUTIONS, type CautionKind } from './cautions';
 import { cornersOf, roomOutline, roomShape, type RoomShape } from './geometry';
 import { countWithin, LIMITS, LimitError, placed } from './limits';
-import { PREP } from './prep';
+import { OPTIONAL_PREP, PREP, type PrepKind } from './prep';
 import {
 	margin,
 	PriceIndex,
@@ -315,7 +315,9 @@ function roomSteps(
 	});
 	const hours: HoursEntry[] = [];
 	append(hours, floor.hours);
-	append(hours, prep.hours);
+	// Work the store has switched off (no price-book line) takes no time on its schedule.
+	for (const h of prep.hours)
+		if (!(OPTIONAL_PREP.has(h[0] as PrepKind) && !index.prep.has(h[0] as PrepKind))) hours.push(h);
 	append(hours, extras.hours);
 	const cautions: CautionEvent[] = [];
 	append(cautions, repairs.cautions);

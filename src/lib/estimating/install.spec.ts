@@ -465,6 +465,11 @@ describe('items on a whole install, each from the price book', () => {
 		expect(r.warnings.map((w) => w.message).join('\n')).toContain(
 			'Not on the quote: pull and reset toilets in Room A'
 		);
+		// and takes no time on the schedule: moving and fixtures have no toilet hours in them
+		const on = run([room({ toilets: 1 })]);
+		const moving = (x: typeof r) => x.schedule.steps.find((st) => st.key === 'moving')?.hours;
+		expect(moving(r)).toBeUndefined();
+		expect(moving(on)).toBe(1);
 	});
 
 	it('pours leveller within the data sheet’s depths, refusing what is too deep', () => {
