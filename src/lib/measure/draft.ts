@@ -133,7 +133,11 @@ export const roomDraftSchema = z.object({
 			size: z.enum(JOIST_SIZES),
 			species: z.enum(SPECIES),
 			spacing: text(),
-			span: text()
+			span: text(),
+			/** I-joists: size and species are then not used; EI comes from the maker's data. */
+			iJoist: z.boolean().optional(),
+			/** EI, millions of lb·in² (the maker's tables). */
+			ei: z.string().max(12).optional()
 		})
 		.nullable()
 		.default(null),
@@ -418,8 +422,24 @@ export function toEngine(
 				'small'
 			);
 			const spanIn = r.positive(room.joists.span, `${at}.joists.span`, 'joist span', 'room');
+			const ei = room.joists.iJoist
+				? r.number(
+						room.joists.ei ?? '',
+						`${at}.joists.ei`,
+						'EI (millions of lb·in²)',
+						1,
+						100_000,
+						true
+					)
+				: undefined;
 			if (spacingIn && spanIn)
-				joists = { size: room.joists.size, species: room.joists.species, spacingIn, spanIn };
+				joists = {
+					size: room.joists.size,
+					species: room.joists.species,
+					spacingIn,
+					spanIn,
+					...(room.joists.iJoist ? { iJoist: ei ? { eiLbIn2: ei * 1e6 } : {} } : {})
+				};
 		}
 
 		const ins = room.install ?? structuredClone(INSTALL_DEFAULT);

@@ -215,7 +215,14 @@ export function applyOp(draft: MeasureDraft, op: string, newId = newRoomId): OpR
 		if (!room) return {};
 		if (verb === 'joists-off') room.joists = null;
 		else if (!room.joists) {
-			room.joists = { size: JOIST_SIZES[2], species: SPECIES[0], spacing: '', span: '' };
+			room.joists = {
+				size: JOIST_SIZES[2],
+				species: SPECIES[0],
+				spacing: '',
+				span: '',
+				iJoist: false,
+				ei: ''
+			};
 			return { focus: `rooms.${arg}.joists.spacing` };
 		}
 		return {};
