@@ -33,7 +33,8 @@ export interface QuoteViewData {
 	}[];
 	totals: Totals;
 	cautions: string[];
-	schedule: { days: number };
+	/** The order of work with the waits that hold the next step (stored quotes may lack steps). */
+	schedule: { days: number; steps?: { key: string; label: string; waitHours?: number }[] };
 	/** Installer pay per line: store staff with the permission only. */
 	pay?: PayLine[];
 	margin?: Margin;

@@ -146,7 +146,11 @@ describe('estimate', () => {
 		]);
 		const noSeamPrice = estimate({
 			...input([
-				{ ...bedroom, repairs: { seams: [{ lengthIn: 48, widthIn: 0.25, depthIn: 0.25 }] } }
+				{
+					...bedroom,
+					underlayment: false,
+					repairs: { seams: [{ lengthIn: 48, widthIn: 0.25, depthIn: 0.25 }] }
+				}
 			]),
 			priceBook: {
 				...samplePriceBook,

@@ -8,9 +8,11 @@
 import { CAUTION_KINDS, CAUTIONS, type CautionKind } from './cautions';
 import { cornersOf, roomOutline, roomShape, type RoomShape } from './geometry';
 import { countWithin, LIMITS, LimitError, placed } from './limits';
+import { OPTIONAL_PREP, PREP, type PrepKind } from './prep';
 import {
 	margin,
 	PriceIndex,
+	priceQty,
 	totals,
 	type FloorProduct,
 	type PayLine,
@@ -29,7 +31,11 @@ import {
 	type WorkItem
 } from './steps/room';
 import { hoursByKey, scheduleStep } from './steps/schedule';
-import { coverTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
+import { coverTakeoff, extrasTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
+import { prepHours } from './steps/schedule';
+import { slabTestChecks } from './substrate';
+import { formatLength } from './units';
+import { cautionTexts } from './cautions';
 import type {
 	CautionNote,
 	EstimateError,
@@ -53,6 +59,7 @@ interface RoomOutcome {
 	priced?: Priced;
 	hours: HoursEntry[];
 	cautions: CautionEvent[];
+	slabReadings?: { rh: number; cc: number };
 	order?: {
 		productId: string;
 		cartonSqFt?: number;
@@ -183,7 +190,58 @@ function readyRoom(
 			roomId: room.id,
 			message: `${label}: floor "${room.floor.productId}" is not in the price book`
 		};
+	// Nails need wood to hold: solid hardwood is not nailed to a slab (NWFA installation
+	// guidelines, memory); it is glued, floated, or laid over a nailable panel subfloor first.
+	if (
+		product.kind === 'hardwood' &&
+		(product.fastening ?? 'nailed') === 'nailed' &&
+		room.subfloor.kind === 'concrete'
+	)
+		return {
+			path: `${path}.floor.productId`,
+			roomId: room.id,
+			message: `${label}: nailed solid hardwood cannot be fastened to a concrete slab; choose a glued or floating floor, or lay a nailable plywood subfloor over the slab first and measure the room as plywood`
+		};
+	if (shape.areaSqFt < 4)
+		result.warnings.push(
+			`The room measures ${shape.areaSqFt.toFixed(2)} ft²: check the measure (rooms under 4 ft² are usually a typing slip)`
+		);
 	return { shape, product };
+}
+
+/**
+ * Leveller pours against the product's data sheet: a low spot shallower than its minimum is
+ * poured at the minimum (and so counted); one deeper than its maximum is refused, naming the
+ * limit, never silently priced.
+ */
+function pourDepths(
+	ctx: RoomContext,
+	areas: { areaSqFt: number; depthIn: number }[],
+	index: PriceIndex
+): { error?: EstimateError; warnings: string[] } {
+	const supply = index.supplies.get('leveller');
+	const warnings: string[] = [];
+	if (!supply || areas.length === 0) return { warnings };
+	const min = supply.minDepthIn;
+	const max = supply.maxDepthIn;
+	for (const a of areas) {
+		if (max !== undefined && a.depthIn > max + 1e-9)
+			return {
+				warnings,
+				error: {
+					path: `${ctx.path}.readings.flatness`,
+					roomId: ctx.room.id,
+					message: `${ctx.room.name}: a low spot needs a pour about ${formatLength(a.depthIn, 'in')} deep; ${supply.name} allows at most ${formatLength(max, 'in')} a pour (its data sheet). Build it up in lifts or with another product, and measure again.`
+				}
+			};
+		if (min !== undefined && a.depthIn < min - 1e-9) {
+			warnings.push(
+				`A low spot of about ${formatLength(a.depthIn, 'in')} is poured at ${supply.name}'s minimum ${formatLength(min, 'in')} (its data sheet)`
+			);
+			a.depthIn = min;
+		}
+	}
+	return { warnings };
 }
 
 /** One room through its steps: takeoff, repairs, checks, cover, supplies and pricing. */
@@ -196,13 +254,35 @@ function roomSteps(
 	const floor = floorTakeoff(ctx);
 	if (!floor.ok) return { result, errors: [floor.error], findings: [], hours: [], cautions: [] };
 	result.floor = floor.floor;
+	const roll = floor.floor.roll;
+	if (roll && result.outline && roll.seams > 0) {
+		// Strips of the roll's width stack across the drops' run: a seam where each next one starts.
+		const b = result.outline.bbox;
+		const seams: NonNullable<typeof result.outline.seams> = [];
+		const across = roll.direction === 'x' ? b.lengthIn : b.widthIn;
+		for (let k = 1; k * roll.rollWidthIn < across - 1e-9; k++) {
+			const at = k * roll.rollWidthIn;
+			seams.push(
+				roll.direction === 'x'
+					? { x1: b.minX, y1: b.minY + at, x2: b.maxX, y2: b.minY + at }
+					: { x1: b.minX + at, y1: b.minY, x2: b.minX + at, y2: b.maxY }
+			);
+		}
+		result.outline = { ...result.outline, seams };
+	}
 	const repairs = repairsStep(ctx);
 	result.holes = repairs.holes;
+	append(result.warnings, repairs.warnings);
 	const checks = checksStep(ctx);
 	for (const f of checks.findings) result.findingIds.push(f.id);
 	append(result.warnings, checks.warnings);
+	const pour = pourDepths(ctx, checks.levelAreas, index);
+	if (pour.error) return { result, errors: [pour.error], findings: [], hours: [], cautions: [] };
+	append(result.warnings, pour.warnings);
 	const cover = coverTakeoff(ctx, repairs.holes);
 	if (cover.underlayment) result.underlayment = cover.underlayment;
+	const extras = extrasTakeoff(ctx, floor.floor.roll);
+	append(result.warnings, extras.warnings);
 	const supplies = supplyTakeoff(repairs.voids, checks.levelAreas, index, ctx);
 	if (supplies.patch) result.patch = supplies.patch;
 	if (supplies.leveller) result.leveller = supplies.leveller;
@@ -211,6 +291,14 @@ function roomSteps(
 	append(events, repairs.needs);
 	append(events, checks.needs);
 	append(events, cover.needs);
+	// Primer goes on before any leveller is poured (the leveller's data sheet governs).
+	if (checks.levelAreas.length > 0)
+		events.push({
+			kind: 'primer',
+			measures: { sqft: checks.levelAreas.reduce((t, a) => t + a.areaSqFt, 0), room: 1 },
+			findings: []
+		});
+	append(events, extras.needs);
 	const needs = mergeNeeds(events);
 	const prep = prepItems(needs, ctx);
 	result.prep = prep.prep;
@@ -219,6 +307,7 @@ function roomSteps(
 	append(items, prep.requests);
 	const priced = priceItems(items, index, ctx.settings, roomName);
 	result.ok = priced.errors.length === 0;
+	for (const k of priced.skipped) result.warnings.push(k.message);
 	// Tie each finding to the prep lines it called for.
 	needs.forEach((need, k) => {
 		const line = priced.itemLines[floor.requests.length + k];
@@ -226,7 +315,10 @@ function roomSteps(
 	});
 	const hours: HoursEntry[] = [];
 	append(hours, floor.hours);
-	append(hours, prep.hours);
+	// Work the store has switched off (no price-book line) takes no time on its schedule.
+	for (const h of prep.hours)
+		if (!(OPTIONAL_PREP.has(h[0] as PrepKind) && !index.prep.has(h[0] as PrepKind))) hours.push(h);
+	append(hours, extras.hours);
 	const cautions: CautionEvent[] = [];
 	append(cautions, repairs.cautions);
 	append(cautions, checks.cautions);
@@ -238,6 +330,7 @@ function roomSteps(
 		priced,
 		hours,
 		cautions,
+		slabReadings: checks.slabReadings,
 		order: {
 			productId: floor.order.productId,
 			cartonSqFt: floor.order.cartonSqFt,
@@ -269,6 +362,97 @@ function cautionNotes(events: readonly CautionEvent[]): CautionNote[] {
 	}));
 }
 
+/**
+ * Each slab's tests counted once for its whole area (ASTM F2170 §10.1, F1869: secondary), listed
+ * with its first room: the finding, the tests still needed and the waits before they are read.
+ */
+function slabsStep(so: JobSoFar, s: EstimateInput['settings'], index: PriceIndex): void {
+	const waits = s.schedule.testWaitHours ?? { rh: 24, calciumChloride: 72 };
+	for (const slab of so.slabs.values()) {
+		const checks = slabTestChecks(slab, s.moisture, waits);
+		if (checks.length === 0) continue;
+		const room = so.rooms[slab.roomIndex];
+		let missing = 0;
+		const findings: Finding[] = [];
+		checks.forEach((c, n) => {
+			const f: Finding = {
+				...c,
+				id: `${slab.roomId}:${c.check}:slab${n}`,
+				roomId: slab.roomId,
+				lineIds: [],
+				cautionTexts: cautionTexts(c.cautions)
+			};
+			so.findings.push(f);
+			room.findingIds.push(f.id);
+			findings.push(f);
+			for (const k of c.cautions) so.cautions.push({ kind: k, roomId: slab.roomId });
+			if (!c.pass) {
+				missing += c.limit - c.measured;
+				so.hours.push([
+					`wait:${c.check === 'moisture_rh_tests' ? 'rh' : 'calciumChloride'}`,
+					c.check === 'moisture_rh_tests' ? waits.rh : waits.calciumChloride
+				]);
+			}
+		});
+		if (missing <= 0) continue;
+		const measures = { each: missing, room: 1, hour: 0 };
+		measures.hour = prepHours('moisture_test', measures, s);
+		so.hours.push(['moisture_test', measures.hour]);
+		const p = priceItems(
+			[
+				{
+					ref: { type: 'prep', kind: 'moisture_test' },
+					roomId: slab.roomId,
+					qty: 0,
+					description: `${PREP.moisture_test.label} — ${slab.label}`,
+					findingIds: findings.filter((f) => !f.pass).map((f) => f.id),
+					path: 'priceBook.prep',
+					measures
+				}
+			],
+			index,
+			s,
+			() => room.name
+		);
+		const line = p.itemLines[0];
+		if (line) for (const f of findings) if (!f.pass) f.lineIds.push(line.id);
+		room.prep.push({ kind: 'moisture_test', qty: measures });
+		so.priced.push(p);
+		append(so.errors, p.errors);
+	}
+}
+
+/**
+ * The store's minimum job charge: when the lines come to less, a line for the difference (a
+ * price-book item the store may switch off or reprice; common practice).
+ */
+function minimumCharge(priced: Priced[], index: PriceIndex, s: EstimateInput['settings']): void {
+	const min = index.prep.get('minimum_job');
+	if (!min || min.priceCents <= 0) return;
+	let sum = 0;
+	for (const p of priced) for (const l of p.lines) sum += l.amountCents;
+	if (sum >= min.priceCents) return;
+	const shortfall = min.priceCents - sum;
+	const out = priceItems([], index, s, () => undefined);
+	const r = priceQty(
+		{
+			ref: { type: 'prep', kind: 'minimum_job' },
+			qty: 1,
+			description: `${PREP.minimum_job.label} (the job comes to less than the store's minimum)`
+		},
+		{
+			group: 'prep',
+			name: PREP.minimum_job.label,
+			basis: 'each',
+			unitCents: shortfall,
+			payCents: 0
+		},
+		s
+	);
+	out.lines.push(r.line);
+	priced.push(out);
+}
+
 /** The rooms once each is through its steps, with what they add to the job. */
 interface JobSoFar {
 	errors: EstimateError[];
@@ -280,6 +464,20 @@ interface JobSoFar {
 	order: JobOrder;
 	/** Roll drops laid out in every room, both ways. */
 	drops: number;
+	/** Concrete slabs, by id: the rooms on each and the tests taken on it. */
+	slabs: Map<string, SlabSoFar>;
+}
+
+interface SlabSoFar {
+	label: string;
+	/** The first room on the slab: the slab's findings and tests are listed with it. */
+	roomId: string;
+	roomIndex: number;
+	areaSqFt: number;
+	rh: number;
+	cc: number;
+	thicknessIn?: number;
+	drying?: 'top' | 'both';
 }
 
 /**
@@ -299,7 +497,8 @@ function roomsStep(input: EstimateInput, index: PriceIndex): JobSoFar {
 		hours: [],
 		cautions: [{ kind: 'planning_aid' }],
 		order: { cartonSqFt: new Map(), rollCutIn: new Map(), panelSqFt: 0, voids: [], levelAreas: [] },
-		drops: 0
+		drops: 0,
+		slabs: new Map()
 	};
 	const seen = new Set<string>();
 	job.rooms.forEach((room, i) => {
@@ -337,6 +536,27 @@ function roomsStep(input: EstimateInput, index: PriceIndex): JobSoFar {
 		append(so.hours, out.hours);
 		append(so.cautions, out.cautions);
 		if (out.priced) so.priced.push(out.priced);
+		if (out.slabReadings) {
+			const slab = room.subfloor.slab ?? {};
+			const key = slab.id !== undefined ? `slab:${slab.id}` : `room:${room.id}`;
+			let had = so.slabs.get(key);
+			if (!had) {
+				had = {
+					label: slab.id !== undefined ? `Slab ${slab.id}` : room.name,
+					roomId: room.id,
+					roomIndex: i,
+					areaSqFt: 0,
+					rh: 0,
+					cc: 0
+				};
+				so.slabs.set(key, had);
+			}
+			had.areaSqFt += out.result.areaSqFt;
+			had.rh += out.slabReadings.rh;
+			had.cc += out.slabReadings.cc;
+			had.thicknessIn ??= slab.thicknessIn;
+			had.drying ??= slab.drying;
+		}
 		const o = out.order;
 		if (o) {
 			const { cartonSqFt, rollCutIn } = so.order;
@@ -366,11 +586,22 @@ function jobStep(so: JobSoFar, input: EstimateInput, index: PriceIndex): Estimat
 				LIMITS.jobDrops,
 				`The rooms' roll goods come to ${so.drops} drops; the engine lays out up to ${LIMITS.jobDrops} a job`
 			);
+		slabsStep(so, s, index);
 		const materials = materialItems(so.order, index, s);
-		const jobPriced = priceItems(materials.items, index, s, () => undefined);
+		const jobItems = materials.items;
+		// A trip charge once a job, where the store's price book has one (it may switch it off).
+		if (index.prep.has('trip_charge'))
+			jobItems.push({
+				ref: { type: 'prep', kind: 'trip_charge' },
+				qty: 1,
+				description: PREP.trip_charge.label,
+				path: 'priceBook.prep'
+			});
+		const jobPriced = priceItems(jobItems, index, s, () => undefined);
 		priced.push(jobPriced);
 		append(errors, jobPriced.errors);
 		append(cautions, materials.cautions);
+		minimumCharge(priced, index, s);
 		const lines: PriceLine[] = [];
 		const pay: PayLine[] = [];
 		let costCents = 0;
@@ -450,7 +681,15 @@ export function forCustomer(r: EstimateResult) {
 		),
 		lines: r.lines,
 		totals: r.totals,
-		schedule: { days: r.schedule.days },
+		// The order of work and its waits (tests, cures, acclimation): no hours of labour or pay.
+		schedule: {
+			days: r.schedule.days,
+			steps: r.schedule.steps.map((s) => ({
+				key: s.key,
+				label: s.label,
+				...(s.cureHours ? { waitHours: s.cureHours } : {})
+			}))
+		},
 		cautions: r.cautions.map((c) => c.text)
 	};
 }

@@ -508,6 +508,8 @@ export interface Outline {
 	bbox: BBox;
 	/** `minX minY width length`; flip y (scale(1,-1)) to draw +y up. */
 	viewBox: string;
+	/** Roll goods: where the seams between drops run, across the room's box (clip to the room). */
+	seams?: { x1: number; y1: number; x2: number; y2: number }[];
 }
 
 /** Drawable outline of a valid room, so the UI can draw it as SVG. */

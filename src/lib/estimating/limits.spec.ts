@@ -189,8 +189,14 @@ describe('estimate refuses a job beyond its limits, naming the field and the lim
 		});
 		const book = structuredClone(samplePriceBook);
 		book.floors.push({ ...book.floors[3], id: 'narrow', rollWidthIn: 12 });
+		// Seaming 1 ft rolls by the foot would pass the hours' limit first: not what this checks.
+		const s = structuredClone(defaultSettings);
+		for (const k of ['carpet_seam', 'carpet_pad', 'tack_strip']) s.schedule.prepHoursPerUnit[k] = 0;
 		const input = (n: number) => ({
-			...job(Array.from({ length: n }, (_, i) => big(i))),
+			...job(
+				Array.from({ length: n }, (_, i) => big(i)),
+				s
+			),
 			priceBook: book
 		});
 		expect(estimate(input(10)).ok).toBe(true);

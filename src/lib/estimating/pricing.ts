@@ -68,6 +68,8 @@ export interface FloorProduct {
 	tileEdgesIn?: number[];
 	/** Board width, in (wood moisture rule). */
 	boardWidthIn?: number;
+	/** Thickness of the floor as laid, in (floor height at doorways). */
+	thicknessIn?: number;
 	/** Material price per sellable unit; `sqft` prices whole cartons by their coverage. */
 	material: {
 		basis: 'carton' | 'sqft' | 'roll_sqyd' | 'roll_linft';
@@ -84,6 +86,8 @@ export interface FloorProduct {
 		mverLimit?: number;
 		flatness?: FlatnessRule[];
 		underlayment?: boolean;
+		/** A separate underlay under this floating floor (false when a pad is attached). */
+		underlay?: boolean;
 	};
 }
 
@@ -118,6 +122,9 @@ export interface SupplyPrice {
 	container?: PatchContainer;
 	/** Leveller bag yield, ft³ (basis `bag`). */
 	bagYieldCuFt?: number;
+	/** Leveller pour depth the data sheet allows, in: thinner pours are poured at the minimum. */
+	minDepthIn?: number;
+	maxDepthIn?: number;
 }
 
 /** The store's price book. Every price is integer cents per unit of its basis. */

@@ -15,6 +15,7 @@ export const samplePriceBook: PriceBook = {
 			fastening: 'nailed',
 			cartonSqFt: 20.5,
 			boardWidthIn: 7,
+			thicknessIn: 0.75,
 			material: { basis: 'carton', priceCents: 10_250, costCents: 6_150 },
 			labourCentsPerSqFt: 350,
 			payCentsPerSqFt: 225
@@ -24,6 +25,7 @@ export const samplePriceBook: PriceBook = {
 			name: 'Grey vinyl plank',
 			kind: 'vinyl_plank',
 			cartonSqFt: 23.64,
+			thicknessIn: 0.25,
 			material: { basis: 'sqft', priceCents: 329, costCents: 190 },
 			labourCentsPerSqFt: 200,
 			payCentsPerSqFt: 130
@@ -34,6 +36,7 @@ export const samplePriceBook: PriceBook = {
 			kind: 'ceramic_tile',
 			cartonSqFt: 15.5,
 			tileEdgesIn: [12, 24],
+			thicknessIn: 0.625,
 			material: { basis: 'carton', priceCents: 4_650, costCents: 2_800 },
 			labourCentsPerSqFt: 650,
 			payCentsPerSqFt: 420
@@ -72,7 +75,30 @@ export const samplePriceBook: PriceBook = {
 		{ kind: 'moisture_retest', basis: 'each', priceCents: 7_500, payCents: 4_000 },
 		{ kind: 'moisture_test', basis: 'each', priceCents: 3_500, payCents: 2_000 },
 		{ kind: 'trim', basis: 'linft', priceCents: 275, payCents: 150 },
-		{ kind: 'transition', basis: 'each', priceCents: 2_500, payCents: 1_500 }
+		{ kind: 'transition', basis: 'each', priceCents: 2_500, payCents: 1_500 },
+		{ kind: 'underlayment_skim', basis: 'sqft', priceCents: 40, payCents: 25 },
+		{ kind: 'primer', basis: 'sqft', priceCents: 35, payCents: 15, costCents: 10 },
+		{ kind: 'tile_backer', basis: 'sqft', priceCents: 225, payCents: 110, costCents: 95 },
+		{ kind: 'tile_setting', basis: 'sqft', priceCents: 120, payCents: 0, costCents: 55 },
+		{ kind: 'underlay', basis: 'sqft', priceCents: 45, payCents: 15, costCents: 20 },
+		{ kind: 'vapour_retarder', basis: 'sqft', priceCents: 25, payCents: 10, costCents: 8 },
+		{ kind: 'felt_paper', basis: 'sqft', priceCents: 20, payCents: 8, costCents: 7 },
+		{ kind: 'carpet_pad', basis: 'sqft', priceCents: 65, payCents: 10, costCents: 30 },
+		{ kind: 'tack_strip', basis: 'linft', priceCents: 60, payCents: 30, costCents: 15 },
+		{ kind: 'carpet_seam', basis: 'linft', priceCents: 300, payCents: 180 },
+		{ kind: 'base_reset', basis: 'linft', priceCents: 225, payCents: 140 },
+		{ kind: 'base_new', basis: 'linft', priceCents: 550, payCents: 200, costCents: 180 },
+		{ kind: 'shoe_new', basis: 'linft', priceCents: 275, payCents: 110, costCents: 70 },
+		{ kind: 'reducer', basis: 'each', priceCents: 3_500, payCents: 1_800 },
+		{ kind: 'threshold', basis: 'each', priceCents: 6_500, payCents: 3_000 },
+		{ kind: 'door_undercut', basis: 'each', priceCents: 4_500, payCents: 2_500 },
+		{ kind: 'furniture', basis: 'room', priceCents: 7_500, payCents: 4_500 },
+		{ kind: 'appliance_reset', basis: 'each', priceCents: 6_000, payCents: 3_500 },
+		{ kind: 'toilet_reset', basis: 'each', priceCents: 12_500, payCents: 7_500 },
+		{ kind: 'stairs', basis: 'each', priceCents: 9_500, payCents: 5_500 },
+		{ kind: 'haul_away', basis: 'sqft', priceCents: 30, payCents: 10 },
+		{ kind: 'trip_charge', basis: 'each', priceCents: 7_500, payCents: 2_500 },
+		{ kind: 'minimum_job', basis: 'each', priceCents: 50_000, payCents: 0 }
 	],
 	removal: [
 		{ existing: 'carpet', basis: 'sqft', priceCents: 60, payCents: 40 },
@@ -113,6 +139,9 @@ export const samplePriceBook: PriceBook = {
 			name: 'Self-levelling underlayment, 50 lb bag',
 			basis: 'bag',
 			bagYieldCuFt: 0.45,
+			// the invented product's data sheet: 1/8 in to 1 1/2 in a pour
+			minDepthIn: 0.125,
+			maxDepthIn: 1.5,
 			priceCents: 4_200,
 			costCents: 2_600
 		}
@@ -194,7 +223,12 @@ export function sampleRoom(i: number): RoomMeasure {
 					dents: [{ lengthIn: 3, widthIn: 2, depthIn: 0.0625 }]
 				},
 				readings: { flatness: [{ spanIn: 72, gapIn: 0.25, areaSqFt: 12 }] },
-				transitions: 2
+				doorways: [
+					{ widthIn: 32, door: true, nextFloorIn: 0.75 },
+					{ widthIn: 36, nextFloorIn: 0.5 }
+				],
+				base: { baseboard: 'reset', shoe: 'new' },
+				appliances: 1
 			};
 		case 2:
 			return {
@@ -215,6 +249,7 @@ export function sampleRoom(i: number): RoomMeasure {
 				remove: ['vinyl_tile'],
 				subfloor: { kind: 'plywood', thicknessIn: 0.75 },
 				joists: { size: '2x10', species: 'spruce_pine_fir', spacingIn: 16, spanIn: 168 },
+				toilets: 1,
 				readings: {
 					flatness: [
 						{ spanIn: 120, gapIn: 0.125 },
@@ -254,7 +289,7 @@ export function sampleRoom(i: number): RoomMeasure {
 					{ name: 'Post', shape: { kind: 'rect', xIn: 60, yIn: 60, widthIn: 8, lengthIn: 8 } }
 				],
 				floor: { productId: 'lvp-grey', layout: 'straight' },
-				subfloor: { kind: 'concrete' },
+				subfloor: { kind: 'concrete', slab: { id: 'main', thicknessIn: 4, drying: 'top' } },
 				readings: {
 					rhPct: [78, 72, 74],
 					calciumChloride: [{ gainGrams: 13, areaSqFt: 0.25, hours: 72 }],

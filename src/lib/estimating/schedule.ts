@@ -10,6 +10,8 @@ export interface WorkStep {
 	hours: number;
 	/** Clock hours the next step must wait (a patch before traffic; the label governs). */
 	cureHours?: number;
+	/** Clock hours from the start of the job before this step may begin (acclimation). */
+	notBeforeHours?: number;
 }
 
 export interface TimePoint {
@@ -72,6 +74,19 @@ export function schedule(
 			day += 1;
 			into = 0;
 		}
+		const notBefore = step.notBeforeHours ?? 0;
+		within(notBefore, 'notBeforeHours', 'A wait', LIMITS.cureHours, 'h', 0);
+		if (day * 24 + into < notBefore) {
+			// the wait runs on the clock from the start of day 0's working window
+			let d = Math.floor(notBefore / 24);
+			let h = notBefore - d * 24;
+			if (h >= H) {
+				d += 1;
+				h = 0;
+			}
+			day = d;
+			into = h;
+		}
 		const start = point(day, into);
 		let left = step.hours;
 		while (left > 1e-9 && passes-- > 0) {
@@ -107,6 +122,7 @@ export function schedule(
 			label: step.label,
 			hours: step.hours,
 			cureHours: step.cureHours,
+			...(step.notBeforeHours ? { notBeforeHours: step.notBeforeHours } : {}),
 			start,
 			end,
 			readyAt

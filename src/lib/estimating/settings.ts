@@ -130,6 +130,8 @@ export interface StoreSettings {
 		schedules: Record<string, FasteningSchedule>;
 		/** Floors that get new underlayment panels over a wood subfloor unless a room says otherwise. */
 		requiredFor: FloorKind[];
+		/** Floors whose new underlayment has its seams and fastener heads skimmed (thin resilient). */
+		skimFor?: FloorKind[];
 	};
 	repairs: {
 		/** Holes smaller than this across need no patch under a new underlayment panel. */
@@ -167,6 +169,8 @@ export interface StoreSettings {
 		lumber: Record<Species, LumberValues>;
 		/** L/Δ required under each floor; others use `defaultRatio`. */
 		ratio: Partial<Record<FloorKind, number>>;
+		/** L/Δ required of I-joists under each floor; others use `ratio`, then `defaultRatio`. */
+		iJoistRatio?: Partial<Record<FloorKind, number>>;
 		defaultRatio: number;
 		/** How the longest passing span is rounded to the inch. */
 		spanRounding: 'down' | 'nearest';
@@ -202,7 +206,18 @@ export interface StoreSettings {
 		woodDiffStripPct: number;
 		woodDiffWidePct: number;
 		wideFromIn: number;
+		/** F2170 probe depth, % of the slab's thickness: drying from the top only, and both ways. */
+		probeDepthPct?: { top: number; both: number };
 	};
+	/** Tile and stone over a wood subfloor. */
+	tile?: {
+		/** A single panel layer at least this thick takes ceramic tile over a backer or membrane. */
+		singleLayerMinIn: number;
+		/** Panel layers natural stone needs. */
+		stoneLayers: number;
+	};
+	/** Floor height at doorways: a step up to `flushMaxIn` needs no bevel; to `bevelMaxIn` a reducer. */
+	doorways?: { flushMaxIn: number; bevelMaxIn: number };
 	schedule: {
 		workdayHours: number;
 		dayStartHour: number;
@@ -214,6 +229,10 @@ export interface StoreSettings {
 		prepHoursPerUnit: Record<string, number>;
 		/** Cure before the next step, hours; the product label governs. */
 		cureHours: Record<string, number>;
+		/** Waits before a reading, hours: RH probes equilibrate, calcium chloride dishes stay out. */
+		testWaitHours?: { rh: number; calciumChloride: number };
+		/** Flooring acclimates on site before it is laid, hours, by floor (the maker's time governs). */
+		acclimationHours?: Partial<Record<FloorKind, number>>;
 	};
 	/** Taxes, each computed once on the subtotal of its taxable groups. */
 	taxes: {
@@ -275,7 +294,9 @@ export const defaultSettings: StoreSettings = {
 				source: 'common practice'
 			}
 		},
-		requiredFor: ['vinyl_plank', 'sheet_vinyl']
+		requiredFor: ['vinyl_plank', 'sheet_vinyl'],
+		// TRADE.md "Subfloor repairs" (common practice): resilient floors telegraph seams and heads
+		skimFor: ['sheet_vinyl']
 	},
 	repairs: {
 		// common practice: holes under about 1 in need no patch under new underlayment
@@ -349,6 +370,8 @@ export const defaultSettings: StoreSettings = {
 		},
 		// NTCA Reference Manual (published): L/360 ceramic tile; Natural Stone Institute via NTCA: L/720
 		ratio: { ceramic_tile: 360, stone_tile: 720 },
+		// NTCA Reference Manual (published): I-joists under ceramic tile L/480; stone keeps L/720
+		iJoistRatio: { ceramic_tile: 480, stone_tile: 720 },
 		// IRC Table R301.7 (published): floors L/360
 		defaultRatio: 360,
 		spanRounding: 'down'
@@ -413,8 +436,15 @@ export const defaultSettings: StoreSettings = {
 		woodSubfloorMaxPct: 12,
 		woodDiffStripPct: 4,
 		woodDiffWidePct: 2,
-		wideFromIn: 3
+		wideFromIn: 3,
+		// ASTM F2170 §10.2 (secondary): 40 % drying from the top only, 20 % drying both ways
+		probeDepthPct: { top: 40, both: 20 }
 	},
+	// TCNA Handbook floor methods (memory): ceramic over one layer of at least 5/8 in (19/32 in
+	// actual) with a backer or membrane; natural stone over two layers
+	tile: { singleLayerMinIn: 19 / 32, stoneLayers: 2 },
+	// 2010 ADA Standards §303.2–303.3 (memory): up to 1/4 in vertical; 1/4–1/2 in bevelled 1:2
+	doorways: { flushMaxIn: 0.25, bevelMaxIn: 0.5 },
 	schedule: {
 		workdayHours: 8,
 		dayStartHour: 8,
@@ -445,11 +475,46 @@ export const defaultSettings: StoreSettings = {
 			moisture_retest: 0.25,
 			moisture_test: 0.25,
 			trim: 0.05,
-			transition: 0.25
+			transition: 0.25,
+			underlayment_skim: 0.01,
+			primer: 0.005,
+			tile_backer: 0.03,
+			tile_setting: 0,
+			underlay: 0.005,
+			vapour_retarder: 0.003,
+			felt_paper: 0.003,
+			carpet_pad: 0.005,
+			tack_strip: 0.02,
+			carpet_seam: 0.1,
+			base_reset: 0.06,
+			base_new: 0.05,
+			shoe_new: 0.03,
+			reducer: 0.25,
+			threshold: 0.5,
+			door_undercut: 0.5,
+			furniture: 1,
+			appliance_reset: 0.75,
+			toilet_reset: 1,
+			stairs: 0.75,
+			haul_away: 0.002,
+			trip_charge: 0,
+			minimum_job: 0
 		},
 		// common practice: pre-mixed patch about 4 h before traffic; the product label governs.
 		// Leveller 16 h and barrier 12 h are from memory: the product label governs.
-		cureHours: { seam_patch: 4, dent_patch: 4, level: 16, moisture_barrier: 12 }
+		cureHours: {
+			seam_patch: 4,
+			dent_patch: 4,
+			level: 16,
+			moisture_barrier: 12,
+			underlayment_skim: 4,
+			// memory: primers dry in a few hours; the product label governs
+			primer: 3
+		},
+		// ASTM F2170 (secondary): probes equilibrate 24 h; ASTM F1869 (secondary): 60–72 h exposure
+		testWaitHours: { rh: 24, calciumChloride: 72 },
+		// maker instructions (memory for the range: often 24–72 h for wood)
+		acclimationHours: { hardwood: 72, engineered_wood: 48, laminate: 48, vinyl_plank: 24 }
 	},
 	taxes: [{ name: 'Sales tax', rateBps: 0, groups: ['material'] }],
 	taxRounding: 'half_up',

@@ -22,7 +22,8 @@ export type CheckKind =
 	| 'moisture_mver'
 	| 'moisture_mver_tests'
 	| 'wood_subfloor_mc'
-	| 'wood_mc_difference';
+	| 'wood_mc_difference'
+	| 'tile_subfloor';
 
 export interface SuggestedPrep {
 	kind: PrepKind;
@@ -49,6 +50,66 @@ const atMost = (v: number, limit: number) => v <= limit + AT_LIMIT * Math.max(1,
 const atLeast = (v: number, limit: number) => v >= limit - AT_LIMIT * Math.max(1, Math.abs(limit));
 
 const STRUCTURE: CautionKind[] = ['planning_aid', 'structure'];
+
+/**
+ * Two lengths written so that a reader sees why one fails the other: to 1/16 in, then 1/32 and
+ * 1/64 in, then thousandths, until they no longer look the same (never "3/16 in, allowed
+ * 3/16 in — fails").
+ */
+export function lengthsApart(a: number, b: number): [string, string] {
+	for (const denominator of [16, 32, 64]) {
+		const x = formatLength(a, 'in', { denominator });
+		const y = formatLength(b, 'in', { denominator });
+		if (x !== y || a === b) return [x, y];
+	}
+	for (const digits of [3, 4, 6]) {
+		const x = `${trimDigits(a, digits)} in`;
+		const y = `${trimDigits(b, digits)} in`;
+		if (x !== y) return [x, y];
+	}
+	return [`${a} in`, `${b} in`];
+}
+const trimDigits = (n: number, digits: number) => n.toFixed(digits).replace(/\.?0+$/, '');
+
+// ---------------------------------------------------------------- panel thickness names
+
+/**
+ * What panels are called and what they measure: a Performance Category (the nominal name,
+ * "5/8 in") and its actual thickness (19/32 in). PS 1 / PS 2 Performance Categories
+ * (secondary, TRADE.md "Added for the trade-completeness work").
+ */
+export const PANEL_THICKNESS: readonly { nominalIn: number; actualIn: number; name: string }[] = [
+	{ nominalIn: 1 / 2, actualIn: 15 / 32, name: '1/2' },
+	{ nominalIn: 5 / 8, actualIn: 19 / 32, name: '5/8' },
+	{ nominalIn: 3 / 4, actualIn: 23 / 32, name: '3/4' },
+	{ nominalIn: 7 / 8, actualIn: 27 / 32, name: '7/8' }
+];
+const sameIn = (a: number, b: number) => Math.abs(a - b) < 1e-6;
+
+/** The Performance Category a thickness names or measures (nominal or actual), if any. */
+export function panelCategory(thicknessIn: number) {
+	return PANEL_THICKNESS.find(
+		(r) => sameIn(r.nominalIn, thicknessIn) || sameIn(r.actualIn, thicknessIn)
+	);
+}
+
+/**
+ * The least actual thickness that meets a minimum stated either way: a minimum of "5/8 in" is
+ * met by a 19/32 in panel (its actual); a minimum stated as an actual (23/32 in) is itself.
+ */
+export function panelMinimumIn(minIn: number): number {
+	return panelCategory(minIn)?.actualIn ?? minIn;
+}
+
+/** "19/32 in (5/8 Performance Category)", or the plain length when no category fits. */
+export function panelText(thicknessIn: number): string {
+	const c = panelCategory(thicknessIn);
+	const t = formatLength(thicknessIn, 'in', { denominator: 32 });
+	if (!c) return t;
+	return sameIn(c.actualIn, thicknessIn)
+		? `${t} (${c.name} in Performance Category)`
+		: `${t} nominal (${formatLength(c.actualIn, 'in', { denominator: 32 })} actual)`;
+}
 
 /** The highest of readings, at most `LIMITS.listItems` of them (no list spread into a call). */
 function highest(xs: readonly number[], path: string): number {
@@ -87,6 +148,8 @@ export interface JoistResult {
 	liveLbPerIn: number;
 	totalLbPerIn: number;
 	liveDeflectionIn: number;
+	/** The deflection the ratio allows at this span, in (L ÷ ratio). */
+	allowedDeflectionIn: number;
 	/** Span over live-load deflection. */
 	lOverDelta: number;
 	bendingStressPsi: number;
@@ -132,8 +195,12 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 		settings.spanRounding === 'nearest' ? Math.round(maxSpanIn) : floorUnits(maxSpanIn);
 	const maxSpanText = formatLength(maxSpanRoundedIn);
 	const what = `${plies > 1 ? `${plies}-ply ` : ''}${input.size} ${lumber.label} at ${input.spacingIn} in o.c.`;
-	const deflectionPass = atLeast(lOverDelta, input.ratio);
-	const bendingPass = atMost(bendingStressPsi, fbAllowedPsi);
+	// Span tables (IRC Table R502.3.1(2), published) print the longest span to the inch; a joist
+	// at a printed span must not fail by the fraction the print rounded away. Each check passes up
+	// to its own longest span rounded to the nearest inch.
+	const deflectionPass = atLeast(lOverDelta, input.ratio) || atMost(L, Math.round(deflectionSpan));
+	const bendingPass = atMost(bendingStressPsi, fbAllowedPsi) || atMost(L, Math.round(bendingSpan));
+	const allowedDeflectionIn = L / input.ratio;
 	const fix = (pass: boolean): SuggestedPrep[] => {
 		if (pass) return [];
 		if (plies === 1) {
@@ -164,6 +231,7 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 		liveLbPerIn,
 		totalLbPerIn,
 		liveDeflectionIn,
+		allowedDeflectionIn,
 		lOverDelta,
 		bendingStressPsi,
 		maxSpanIn,
@@ -177,7 +245,7 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 				measured: lOverDelta,
 				limit: input.ratio,
 				unit: 'L/Δ',
-				message: `${what} spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} under ${live} psf live load; the floor needs L/${input.ratio}. Longest span that passes: ${maxSpanText}.`,
+				message: `${what} spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} (${liveDeflectionIn.toFixed(3)} in) under ${live} psf live load; the floor needs L/${input.ratio} (at most ${allowedDeflectionIn.toFixed(3)} in). Longest span that passes: ${maxSpanText}.`,
 				rule: `δ = 5wL⁴/(384EI) ≤ L/${input.ratio}`,
 				source,
 				suggestedPrep: fix(deflectionPass),
@@ -199,6 +267,45 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 	};
 }
 
+/**
+ * An I-joist under live load, from the stiffness EI its maker publishes (lb·in²): the same
+ * simple-span formula δ = 5wL⁴/(384EI) (AISC Manual Table 3-23, case 1) against the floor's
+ * ratio for I-joists (L/480 under ceramic tile: NTCA Reference Manual, published). Bending and
+ * shear are the maker's allowable values: a planning aid, confirm with the maker's tables.
+ */
+export function iJoistCheck(
+	input: { eiLbIn2: number; spacingIn: number; spanIn: number; ratio: number; label?: string },
+	settings: Pick<StoreSettings['joists'], 'livePsf'>
+): Check {
+	const live = settings.livePsf;
+	const w = (live * input.spacingIn) / 144;
+	const L = input.spanIn;
+	const delta = (5 * w * L ** 4) / (384 * input.eiLbIn2);
+	const lOverDelta = L / delta;
+	const maxSpan = Math.cbrt((384 * input.eiLbIn2) / (5 * w * input.ratio));
+	const pass = atLeast(lOverDelta, input.ratio) || atMost(L, Math.round(maxSpan));
+	return {
+		check: 'joist_deflection',
+		pass,
+		measured: lOverDelta,
+		limit: input.ratio,
+		unit: 'L/Δ',
+		message: `${input.label ?? 'I-joists'} at ${input.spacingIn} in o.c. spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} (${delta.toFixed(3)} in) under ${live} psf live load; the floor needs L/${input.ratio} (at most ${(L / input.ratio).toFixed(3)} in). Longest span that passes: ${formatLength(floorUnits(maxSpan))}. Bending and shear: the maker's tables.`,
+		rule: `δ = 5wL⁴/(384·EI) ≤ L/${input.ratio}, EI from the maker's data`,
+		source:
+			"AISC Manual Table 3-23 case 1; NTCA Reference Manual (published) for L/480 under tile; EI from the maker's published data",
+		suggestedPrep: pass
+			? []
+			: [
+					{
+						kind: 'structural_consult',
+						note: "I-joists are not sistered like lumber: ask the maker's tables or a licensed professional for blocking, a mid-span support or a stiffer floor."
+					}
+				],
+		cautions: STRUCTURE
+	};
+}
+
 // ---------------------------------------------------------------- sheathing
 
 export interface SheathingInput {
@@ -207,6 +314,8 @@ export interface SheathingInput {
 	/** Panel span rating stamped on the panel, e.g. `32/16`, `24 oc`. */
 	spanRating?: string;
 	joistSpacingIn: number;
+	/** The spacing is the store's assumption, not measured. */
+	spacingAssumed?: boolean;
 	floorKind?: FloorKind;
 }
 
@@ -235,7 +344,7 @@ export function sheathingChecks(
 			limit: need,
 			unit: 'in',
 			message: row
-				? `Board sheathing ${formatLength(input.thicknessIn, 'in')} over joists at ${spacing} in; needs ${formatLength(need, 'in')}.`
+				? `Board sheathing ${formatLength(input.thicknessIn, 'in')} over joists at ${spacing} in${input.spacingAssumed ? ' (assumed: joists not measured)' : ''}; needs ${formatLength(need, 'in')}.`
 				: `No board sheathing rule for joists wider apart than ${settings.boardMinIn.at(-1)?.maxSpacingIn} in.`,
 			rule: 'lumber sheathing thickness by joist spacing (perpendicular to joists)',
 			source: 'IRC Table R503.1 (published)',
@@ -266,7 +375,11 @@ export function sheathingChecks(
 	if (floorRows && input.kind !== 'board') {
 		const row = floorRows.find((r) => spacing <= r.maxSpacingIn);
 		const need = row ? (input.kind === 'osb' ? row.osbIn : row.plywoodIn) : Infinity;
-		const pass = row !== undefined && atLeast(input.thicknessIn, need);
+		// Panels are named by Performance Category and measure less (PS 1 / PS 2, secondary):
+		// a 19/32 in panel is a "5/8 in" panel and meets a 5/8 in minimum.
+		const needActual = panelMinimumIn(need);
+		const measuredActual = panelMinimumIn(input.thicknessIn);
+		const pass = row !== undefined && atLeast(measuredActual, needActual);
 		checks.push({
 			check: 'sheathing_floor_minimum',
 			pass,
@@ -274,9 +387,9 @@ export function sheathingChecks(
 			limit: need,
 			unit: 'in',
 			message: row
-				? `${input.kind === 'osb' ? 'OSB' : 'Plywood'} ${formatLength(input.thicknessIn, 'in')} over joists at ${spacing} in; this floor needs ${formatLength(need, 'in')}.`
+				? `${input.kind === 'osb' ? 'OSB' : 'Plywood'} ${panelText(input.thicknessIn)} over joists at ${spacing} in${input.spacingAssumed ? ' (assumed: joists not measured)' : ''}; this floor needs ${panelText(need)} or thicker (compared by actual thickness).`
 				: `No panel rule for this floor over joists wider apart than ${floorRows.at(-1)?.maxSpacingIn} in.`,
-			rule: 'subfloor panel thickness under nailed wood flooring by joist spacing',
+			rule: 'subfloor panel thickness under nailed wood flooring by joist spacing; nominal and actual compared by Performance Category (PS 1 / PS 2, secondary)',
 			source: 'NWFA guidance in Wood Floor Business (published)',
 			suggestedPrep: pass ? [] : overlay(row ? need : input.thicknessIn),
 			cautions: ['planning_aid', 'maker_instructions']
@@ -317,16 +430,36 @@ export interface FlatnessReading {
 }
 
 /**
- * A straightedge reading against the rules: it is held to the rule with the shortest span at
- * least as long as the straightedge (a reading longer than every rule is held to the longest
- * rule, unscaled). A gap exactly at the tolerance passes.
+ * The rule whose straightedge length matches a reading's: the nearest by ratio (a 2 ft
+ * straightedge under tile is held to 1/16 in in 12 in, not to 1/4 in in 10 ft; a 6 ft one to
+ * the 10 ft rule); on a tie, the shorter (stricter) rule. Common practice: a tolerance is
+ * stated for a straightedge length, and a reading is held to the one it was taken for.
+ */
+export function flatnessRuleFor(spanIn: number, rules: readonly FlatnessRule[]): FlatnessRule {
+	countWithin(rules.length, 'rules', 'flatness rules', LIMITS.settingsRows);
+	let best = rules[0];
+	let bestGap = Infinity;
+	for (const r of rules) {
+		const gap = Math.abs(Math.log(r.overIn / spanIn));
+		if (gap < bestGap - 1e-12 || (Math.abs(gap - bestGap) <= 1e-12 && r.overIn < best.overIn)) {
+			best = r;
+			bestGap = gap;
+		}
+	}
+	return best;
+}
+
+/**
+ * A straightedge reading against the rule for its length (`flatnessRuleFor`). A gap exactly at
+ * the tolerance passes; the exact values are compared, and a message shows enough precision
+ * to tell them apart.
  */
 export function flatnessCheck(reading: FlatnessReading, rules: readonly FlatnessRule[]): Check {
-	countWithin(rules.length, 'rules', 'flatness rules', LIMITS.settingsRows);
-	const inOrder = rules.every((r, i) => i === 0 || rules[i - 1].overIn <= r.overIn);
-	const sorted = inOrder ? rules : [...rules].sort((a, b) => a.overIn - b.overIn);
-	const rule = sorted.find((r) => atLeast(r.overIn, reading.spanIn)) ?? sorted[sorted.length - 1];
+	const rule = flatnessRuleFor(reading.spanIn, rules);
 	const pass = atMost(reading.gapIn, rule.gapIn);
+	const [gapText, allowedText] = pass
+		? [formatLength(reading.gapIn, 'in'), formatLength(rule.gapIn, 'in')]
+		: lengthsApart(reading.gapIn, rule.gapIn);
 	const high = reading.kind === 'high';
 	return {
 		check: 'flatness',
@@ -334,7 +467,7 @@ export function flatnessCheck(reading: FlatnessReading, rules: readonly Flatness
 		measured: reading.gapIn,
 		limit: rule.gapIn,
 		unit: 'in',
-		message: `${high ? 'High spot' : 'Gap'} of ${formatLength(reading.gapIn, 'in')} under a ${formatLength(reading.spanIn)} straightedge; allowed ${formatLength(rule.gapIn, 'in')} in ${formatLength(rule.overIn)}.`,
+		message: `${high ? 'High spot' : 'Gap'} of ${gapText} under a ${formatLength(reading.spanIn)} straightedge; allowed ${allowedText} in ${formatLength(rule.overIn)}${pass ? '' : ': fails'}.`,
 		rule: `${formatLength(rule.gapIn, 'in')} in ${formatLength(rule.overIn)}`,
 		source: rule.source,
 		suggestedPrep: pass
@@ -376,6 +509,83 @@ function countCheck(
 		suggestedPrep: pass ? [] : [{ kind: 'moisture_test', note: `Take ${need - have} more tests.` }],
 		cautions: ['moisture']
 	};
+}
+
+/** Where F2170's probes go: a share of the slab's thickness by how it dries (§10.2, secondary). */
+export function probeDepthIn(
+	thicknessIn: number,
+	drying: 'top' | 'both',
+	pct: { top: number; both: number } = { top: 40, both: 20 }
+): number {
+	return (thicknessIn * (drying === 'both' ? pct.both : pct.top)) / 100;
+}
+
+/**
+ * How many tests a slab needs for its tested area, counted once for the slab whatever rooms it
+ * runs under (ASTM F2170 §10.1, F1869: secondary), with where the probes go and how long each
+ * test waits before it is read.
+ */
+export function slabTestChecks(
+	slab: {
+		label: string;
+		areaSqFt: number;
+		rh: number;
+		cc: number;
+		thicknessIn?: number;
+		drying?: 'top' | 'both';
+	},
+	settings: StoreSettings['moisture'],
+	waits: { rh: number; calciumChloride: number }
+): Check[] {
+	const checks: Check[] = [];
+	const depth =
+		slab.thicknessIn === undefined
+			? 'measure the slab’s thickness to set the probe depth (40 % drying from the top only, 20 % drying both ways)'
+			: `probes ${formatLength(probeDepthIn(slab.thicknessIn, slab.drying ?? 'top', settings.probeDepthPct), 'in', { denominator: 8 })} deep (${slab.drying === 'both' ? (settings.probeDepthPct?.both ?? 20) : (settings.probeDepthPct?.top ?? 40)} % of a ${formatLength(slab.thicknessIn, 'in')} slab drying ${slab.drying === 'both' ? 'both ways' : 'from the top only'})`;
+	const one = (
+		check: CheckKind,
+		have: number,
+		rule: { first: number; firstSqFt: number; perSqFt: number },
+		what: string,
+		wait: string,
+		source: string
+	) => {
+		const need = testsNeeded(slab.areaSqFt, rule);
+		const pass = have >= need;
+		checks.push({
+			check,
+			pass,
+			measured: have,
+			limit: need,
+			unit: 'tests',
+			message: `${slab.label}: ${have} of ${need} ${what} for ${Math.round(slab.areaSqFt)} ft² of slab; ${wait}.`,
+			rule: `${rule.first} tests for the first ${rule.firstSqFt} ft² of the slab, one more for each further ${rule.perSqFt} ft² or part`,
+			source,
+			suggestedPrep: pass
+				? []
+				: [{ kind: 'moisture_test', note: `Take ${need - have} more ${what} on this slab.` }],
+			cautions: ['moisture']
+		});
+	};
+	if (slab.rh > 0)
+		one(
+			'moisture_rh_tests',
+			slab.rh,
+			settings.rhTests,
+			'RH probes',
+			`${depth}; read ${waits.rh} h after the probes are set`,
+			'ASTM F2170 §10.1–10.2 (secondary)'
+		);
+	if (slab.cc > 0)
+		one(
+			'moisture_mver_tests',
+			slab.cc,
+			settings.mverTests,
+			'calcium chloride tests',
+			`dishes stay sealed ${waits.calciumChloride} h before weighing`,
+			'ASTM F1869 (secondary)'
+		);
+	return checks;
 }
 
 const concreteFix: SuggestedPrep[] = [

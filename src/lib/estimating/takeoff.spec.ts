@@ -179,7 +179,9 @@ describe('rollTakeoff (common practice; 1 yd² = 9 ft²)', () => {
 					const t = roll({ kind: 'rect', widthIn: w, lengthIn: l }, rw);
 					expect(t.orderSqFt * 144).toBeGreaterThanOrEqual(w * l);
 					expect(t.orderLengthIn % 12).toBe(0);
-					expect(t.orderSqFt).toBeLessThanOrEqual(t.other.orderSqFt);
+					// fewest seams first, then less material (issue 12 item 9, common practice)
+					expect(t.seams).toBeLessThanOrEqual(t.other.seams);
+					if (t.seams === t.other.seams) expect(t.orderSqFt).toBeLessThanOrEqual(t.other.orderSqFt);
 				}
 			)
 		);
@@ -331,10 +333,15 @@ describe('holeRepair (common practice, TRADE.md "Subfloor repairs")', () => {
 
 	it('backs a hole under nailed hardwood for a nailing surface', () => {
 		const r = holeRepair({ ...base, widthIn: 6, lengthIn: 4, method: 'backing' });
-		expect(r.pieces.map((p) => [p.name, p.lengthIn, p.widthIn])).toEqual([
-			['backing', 8, 10],
-			['infill', 4, 6]
+		// Issue 12 item 5: backing fits the clear bay between joists, 16 − 1.5 = 14.5 in
+		// (arithmetic, TRADE.md), and laps the hole 2 in at each end along the joists: 4 + 4 = 8 in
+		expect(r.pieces.map((p) => [p.name, p.count, p.lengthIn, p.widthIn])).toEqual([
+			['backing', 1, 8, 14.5],
+			['infill', 1, 4, 6]
 		]);
+		// 20 in across joists at 16 in o.c.: ⌈20 ÷ 16⌉ = 2 bays, a backing piece in each
+		const wide = holeRepair({ ...base, widthIn: 20, lengthIn: 4, method: 'backing' });
+		expect(wide.pieces[0]).toMatchObject({ name: 'backing', count: 2, widthIn: 14.5 });
 	});
 
 	it('ignores holes under 1 in under new underlayment; exactly 1 in is repaired', () => {
@@ -342,9 +349,10 @@ describe('holeRepair (common practice, TRADE.md "Subfloor repairs")', () => {
 		const small = { ...base, newUnderlayment: true, method: 'blocking_underlayment' as const };
 		expect(holeRepair({ ...small, widthIn: 0.75, lengthIn: 0.5 }).ignored).toBe(true);
 		expect(holeRepair({ ...small, widthIn: 1, lengthIn: 0.5 }).ignored).toBe(false);
-		expect(
-			holeRepair({ ...small, widthIn: 0.75, lengthIn: 0.5, newUnderlayment: false }).ignored
-		).toBe(false);
+		// Issue 12 item 8 (common practice): with nothing over it, a small hole is filled with
+		// patch, never blocked
+		const bare = holeRepair({ ...small, widthIn: 0.75, lengthIn: 0.5, newUnderlayment: false });
+		expect(bare).toMatchObject({ ignored: false, patched: true, pieces: [] });
 		expect(holeRepair({ ...small, widthIn: 4, lengthIn: 4 }).needsUnderlayment).toBe(true);
 	});
 

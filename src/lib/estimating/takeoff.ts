@@ -241,7 +241,8 @@ function layout(
 /**
  * Roll goods (sheet vinyl, carpet): drops at the roll width across the room, each cut to the
  * room's length in its strip plus trim at both ends; seams where strips meet. Both directions
- * are tried and the one using less material is kept (fewer seams on a tie).
+ * are tried and the one with fewer seams is kept (less material on a tie), unless the measure
+ * chose the direction.
  */
 export function rollTakeoff(input: {
 	polygon: Polygon;
@@ -276,9 +277,12 @@ export function rollTakeoff(input: {
 	const y = layout(input.polygon, !!input.isRect, 'y', ...args);
 	let pick: RollLayout;
 	if (input.direction) pick = input.direction === 'x' ? x : y;
+	// Fewest seams first (a run that fits in one piece is never cut across), then less material
+	// (common practice, TRADE.md "sheet goods seams"); the salesperson may choose the direction
+	// so seams run along the light and out of traffic.
+	else if (y.seams !== x.seams) pick = y.seams < x.seams ? y : x;
 	else if (y.orderLengthIn < x.orderLengthIn - 1e-9) pick = y;
-	else if (x.orderLengthIn < y.orderLengthIn - 1e-9) pick = x;
-	else pick = y.seams < x.seams ? y : x;
+	else pick = x;
 	return {
 		direction: pick.direction,
 		drops: pick.drops,
@@ -292,7 +296,9 @@ export function rollTakeoff(input: {
 		other: pick === x ? y : x,
 		rollWidthIn: input.rollWidthIn,
 		trimPerEndIn: input.trimPerEndIn,
-		rule: 'drops at the roll width; each cut = run + trim per end; less material of the two directions; 1 yd² = 9 ft²',
+		rule: input.direction
+			? 'drops at the roll width in the direction chosen on the measure; each cut = run + trim per end; 1 yd² = 9 ft²'
+			: 'drops at the roll width; each cut = run + trim per end; fewest seams of the two directions, then less material; 1 yd² = 9 ft²',
 		source: 'common practice; roll widths and trim per end are store settings'
 	};
 }
@@ -455,6 +461,8 @@ export interface RepairPiece {
 
 export interface HoleRepair extends Rule {
 	ignored: boolean;
+	/** A small hole with nothing over it: filled with patch (a void), no pieces. */
+	patched?: boolean;
 	method: HoleMethod;
 	pieces: RepairPiece[];
 	/** New underlayment must go over the repair. */
@@ -478,19 +486,33 @@ export function holeRepair(input: {
 	joistThicknessIn: number;
 	backingLapIn: number;
 	roughCutAllowanceIn: number;
+	/** The customer declined new underlayment over this room. */
+	underlaymentDeclined?: boolean;
 }): HoleRepair {
 	const size = Math.max(input.widthIn, input.lengthIn);
 	const source = 'common practice (TRADE.md "Subfloor repairs")';
-	const needsUnderlayment = input.method === 'blocking_underlayment';
-	if (input.newUnderlayment && size < input.ignoreUnderIn)
-		return {
-			ignored: true,
-			method: input.method,
-			pieces: [],
-			needsUnderlayment,
-			rule: `holes under ${input.ignoreUnderIn} in need no patch under new underlayment`,
-			source
-		};
+	// A declined underlayment is never put back by a repair: the infill is skimmed instead.
+	const needsUnderlayment =
+		input.method === 'blocking_underlayment' && input.underlaymentDeclined !== true;
+	if (size < input.ignoreUnderIn)
+		return input.newUnderlayment
+			? {
+					ignored: true,
+					method: input.method,
+					pieces: [],
+					needsUnderlayment: false,
+					rule: `holes under ${input.ignoreUnderIn} in need no patch under new underlayment`,
+					source
+				}
+			: {
+					ignored: false,
+					patched: true,
+					method: input.method,
+					pieces: [],
+					needsUnderlayment: false,
+					rule: `holes under ${input.ignoreUnderIn} in with no new underlayment over them are filled with patch, not blocked`,
+					source
+				};
 	const a = input.roughCutAllowanceIn;
 	const piece = (
 		name: RepairPiece['name'],
@@ -509,15 +531,17 @@ export function holeRepair(input: {
 	});
 	const infill = piece('infill', 1, input.lengthIn, input.widthIn, input.subfloorThicknessIn);
 	const pieces: RepairPiece[] = [];
+	// Blocking and backing fit between the joists: cut to the clear bay (spacing less the joist's
+	// thickness: 14.5 in at 16 in o.c., arithmetic), one piece (or pair) for each bay the hole spans.
+	const bays = Math.max(1, ceilUnits(input.widthIn / input.joistSpacingIn));
+	const clear = input.joistSpacingIn - input.joistThicknessIn;
 	if (input.method === 'backing') {
 		const lap = 2 * input.backingLapIn;
 		pieces.push(
-			piece('backing', 1, input.lengthIn + lap, input.widthIn + lap, input.subfloorThicknessIn),
+			piece('backing', bays, input.lengthIn + lap, clear, input.subfloorThicknessIn),
 			infill
 		);
 	} else {
-		const bays = Math.max(1, ceilUnits(input.widthIn / input.joistSpacingIn));
-		const clear = input.joistSpacingIn - input.joistThicknessIn;
 		// 2x4 blocking, dressed 1.5 × 3.5 in: NDS Supplement Table 1B (published)
 		pieces.push(piece('blocking', 2 * bays, clear, 3.5, 1.5), infill);
 	}

@@ -61,8 +61,20 @@ export interface RoomMeasure {
 	underlayment?: boolean;
 	/** Trim along the walls and cut-outs (priced per linear foot of perimeter). */
 	trim?: boolean;
-	/** Transition strips at doorways. */
+	/** Transition strips at doorways (a count; `doorways` says more). */
 	transitions?: number;
+	/** Doorways out of the room: trim stops at them, each gets a transition, reducer or threshold. */
+	doorways?: DoorwayMeasure[];
+	/** Baseboard and shoe (or quarter-round): removed and put back, or new. */
+	base?: { baseboard?: 'reset' | 'new'; shoe?: 'reset' | 'new' };
+	/** Furniture to move out and back. */
+	furniture?: boolean;
+	/** Appliances to disconnect and reset (dishwasher, range, fridge water line). */
+	appliances?: number;
+	/** Toilets to pull and reset. */
+	toilets?: number;
+	/** Steps of a stair covered in this room's floor (tread, riser, nosing each). */
+	stairs?: number;
 	repairs?: RepairsMeasure;
 	/** Joists under the room; needed for tile and stone. */
 	joists?: JoistMeasure;
@@ -77,8 +89,29 @@ export interface RoomFloor {
 	rollDirection?: RollDirection;
 }
 
+/** A doorway: its width, whether a door swings in it, and the next room's floor height. */
+export interface DoorwayMeasure {
+	widthIn: number;
+	door?: boolean;
+	/** Height of the next room's finished floor above this room's subfloor, in. */
+	nextFloorIn?: number;
+}
+
+/** The slab a concrete room is on: tests are counted for the slab, not the room. */
+export interface SlabMeasure {
+	/** Rooms with the same id share one slab; default: the room is its own slab. */
+	id?: string;
+	thicknessIn?: number;
+	/** How the slab dries: from the top only (on grade, on a vapour retarder) or both ways. */
+	drying?: 'top' | 'both';
+}
+
 export interface SubfloorMeasure {
 	kind: SubfloorKind;
+	/** Panel layers of a wood subfloor (default 1). */
+	layers?: number;
+	/** A concrete subfloor's slab. */
+	slab?: SlabMeasure;
 	/** Thickness, in (wood subfloors). */
 	thicknessIn?: number;
 	/** Panel span rating stamped on the panel, e.g. `32/16`. */
@@ -104,6 +137,8 @@ export interface JoistMeasure {
 	spanIn: number;
 	/** Axis the joists run along (x or y of the outline); default: the shorter side. */
 	runs?: 'x' | 'y';
+	/** I-joists instead of sawn lumber (`size` and `species` are then not used). */
+	iJoist?: { eiLbIn2?: number; label?: string };
 }
 
 export interface FlatnessMeasure extends FlatnessReading {

@@ -196,3 +196,74 @@ describe('new rooms', () => {
 		expect(b.readings.rh).toEqual([]);
 	});
 });
+
+describe('the install details (issue 12)', () => {
+	it('reads the slab, doorways, trim, fixtures, stairs, drop direction and I-joists', () => {
+		const base = emptyRoom('r1', 'Basement');
+		const draft = {
+			builtYear: '',
+			rooms: [
+				{
+					...base,
+					shape: { kind: 'rect' as const, width: '20', length: '15' },
+					floor: { productId: 'sheet-6', layout: 'straight' as const },
+					subfloor: { kind: 'concrete' as const, thickness: '', spanRating: '' },
+					install: {
+						...base.install,
+						rollDirection: 'y' as const,
+						slabId: ' Basement ',
+						slabThickness: '4',
+						slabDrying: 'both' as const,
+						doorways: [{ width: '32', door: true, nextFloor: '1/2' }],
+						baseboard: 'reset' as const,
+						shoe: 'new' as const,
+						furniture: true,
+						appliances: '1',
+						toilets: '2',
+						stairs: '13'
+					}
+				},
+				{
+					...emptyRoom('r2', 'Bath'),
+					shape: { kind: 'rect' as const, width: '6', length: '8' },
+					joists: {
+						size: '2x10' as const,
+						species: 'hem_fir' as const,
+						spacing: '16',
+						span: '14',
+						iJoist: true,
+						ei: '300'
+					}
+				}
+			]
+		};
+		const { job, errors } = toEngine(draft, defaultSettings);
+		expect(errors).toEqual([]);
+		const [b, bath] = job.rooms;
+		expect(b.floor).toEqual({ productId: 'sheet-6', layout: 'straight', rollDirection: 'y' });
+		expect(b.subfloor.slab).toEqual({ id: 'Basement', thicknessIn: 4, drying: 'both' });
+		expect(b.doorways).toEqual([{ widthIn: 32, door: true, nextFloorIn: 0.5 }]);
+		expect(b.base).toEqual({ baseboard: 'reset', shoe: 'new' });
+		expect(b).toMatchObject({ furniture: true, appliances: 1, toilets: 2, stairs: 13 });
+		// EI typed in millions of lb·in²
+		expect(bath.joists?.iJoist).toEqual({ eiLbIn2: 300e6 });
+	});
+
+	it('names the field of a count it cannot read', () => {
+		const r = emptyRoom('r1', 'Hall');
+		const { errors } = toEngine(
+			{
+				builtYear: '',
+				rooms: [
+					{
+						...r,
+						shape: { kind: 'rect', width: '4', length: '12' },
+						install: { ...r.install, toilets: '2.5' }
+					}
+				]
+			},
+			defaultSettings
+		);
+		expect(errors.map((e) => e.path)).toEqual(['rooms.0.install.toilets']);
+	});
+});

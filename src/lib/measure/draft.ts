@@ -40,6 +40,41 @@ export type ShapeDraft = z.infer<typeof shapeDraft>;
 
 const voidDraft = z.object({ length: text(), width: text(), depth: text() });
 
+const INSTALL_DEFAULT = {
+	rollDirection: 'auto' as const,
+	layers: '1' as const,
+	slabId: '',
+	slabThickness: '',
+	slabDrying: 'top' as const,
+	doorways: [],
+	baseboard: 'none' as const,
+	shoe: 'none' as const,
+	furniture: false,
+	appliances: '',
+	toilets: '',
+	stairs: ''
+};
+/** The rest of a real install (issue 12): seams, slab, doorways, trim, fixtures, stairs. */
+const installDraft = z
+	.object({
+		rollDirection: z.enum(['auto', 'x', 'y']).default('auto'),
+		layers: z.enum(['1', '2']).default('1'),
+		slabId: text(40),
+		slabThickness: text(),
+		slabDrying: z.enum(['top', 'both']).default('top'),
+		doorways: z
+			.array(z.object({ width: text(), door: z.boolean().default(false), nextFloor: text() }))
+			.max(20)
+			.default([]),
+		baseboard: z.enum(['none', 'reset', 'new']).default('none'),
+		shoe: z.enum(['none', 'reset', 'new']).default('none'),
+		furniture: z.boolean().default(false),
+		appliances: text(4),
+		toilets: text(4),
+		stairs: text(4)
+	})
+	.default(() => structuredClone(INSTALL_DEFAULT));
+
 export const roomDraftSchema = z.object({
 	id: z.string().min(1).max(64),
 	name: z.string().max(80).default(''),
@@ -92,12 +127,17 @@ export const roomDraftSchema = z.object({
 			woodFlooring: z.array(text(8)).max(50).default([])
 		})
 		.default({ flatness: [], rh: [], calciumChloride: [], woodSubfloor: [], woodFlooring: [] }),
+	install: installDraft,
 	joists: z
 		.object({
 			size: z.enum(JOIST_SIZES),
 			species: z.enum(SPECIES),
 			spacing: text(),
-			span: text()
+			span: text(),
+			/** I-joists: size and species are then not used; EI comes from the maker's data. */
+			iJoist: z.boolean().optional(),
+			/** EI, millions of lb·in² (the maker's tables). */
+			ei: z.string().max(12).optional()
 		})
 		.nullable()
 		.default(null),
@@ -382,29 +422,119 @@ export function toEngine(
 				'small'
 			);
 			const spanIn = r.positive(room.joists.span, `${at}.joists.span`, 'joist span', 'room');
+			const ei = room.joists.iJoist
+				? r.number(
+						room.joists.ei ?? '',
+						`${at}.joists.ei`,
+						'EI (millions of lb·in²)',
+						1,
+						100_000,
+						true
+					)
+				: undefined;
 			if (spacingIn && spanIn)
-				joists = { size: room.joists.size, species: room.joists.species, spacingIn, spanIn };
+				joists = {
+					size: room.joists.size,
+					species: room.joists.species,
+					spacingIn,
+					spanIn,
+					...(room.joists.iJoist ? { iJoist: ei ? { eiLbIn2: ei * 1e6 } : {} } : {})
+				};
 		}
+
+		const ins = room.install ?? structuredClone(INSTALL_DEFAULT);
+		const count = (
+			value: string,
+			key: 'appliances' | 'toilets' | 'stairs',
+			label: string,
+			max: number
+		) => r.number(value, `${at}.install.${key}`, label, 0, max, true, true);
+		const appliances = count(ins.appliances, 'appliances', 'number of appliances', 20);
+		const toilets = count(ins.toilets, 'toilets', 'number of toilets', 20);
+		const stairs = count(ins.stairs, 'stairs', 'number of steps', 100);
+		const slabThicknessIn = r.positive(
+			ins.slabThickness,
+			`${at}.install.slabThickness`,
+			'slab thickness',
+			'small',
+			true
+		);
+		if (slabThicknessIn !== undefined && slabThicknessIn > LIMITS.depthIn)
+			r.fail(
+				`${at}.install.slabThickness`,
+				`The slab thickness can be at most ${LIMITS.depthIn} in`
+			);
+		const doorways = ins.doorways.map((d, j) => {
+			const p = `${at}.install.doorways.${j}`;
+			const widthIn = r.positive(d.width, `${p}.width`, 'doorway width', 'small');
+			const nextFloorIn = r.length(
+				d.nextFloor,
+				`${p}.nextFloor`,
+				"next room's floor height",
+				'small',
+				true
+			);
+			if (nextFloorIn !== undefined && nextFloorIn > LIMITS.depthIn)
+				r.fail(
+					`${p}.nextFloor`,
+					`The next room's floor height can be at most ${LIMITS.depthIn} in`
+				);
+			return widthIn
+				? {
+						widthIn,
+						...(d.door ? { door: true } : {}),
+						...(nextFloorIn !== undefined ? { nextFloorIn } : {})
+					}
+				: undefined;
+		});
+		const concrete = room.subfloor.kind === 'concrete';
+		const slabId = ins.slabId.trim();
 
 		if (r.errors.length > before || !shape) return;
 		const defined = <T>(xs: (T | undefined)[]) => xs as T[];
+		const base = {
+			...(ins.baseboard !== 'none' ? { baseboard: ins.baseboard } : {}),
+			...(ins.shoe !== 'none' ? { shoe: ins.shoe } : {})
+		};
 		rooms.push({
 			id: room.id,
 			name,
 			shape,
 			...(cutouts.length ? { cutouts } : {}),
 			...(room.floor.productId
-				? { floor: { productId: room.floor.productId, layout: room.floor.layout } }
+				? {
+						floor: {
+							productId: room.floor.productId,
+							layout: room.floor.layout,
+							...(ins.rollDirection !== 'auto' ? { rollDirection: ins.rollDirection } : {})
+						}
+					}
 				: {}),
 			...(room.remove.length ? { remove: room.remove } : {}),
 			subfloor: {
 				kind: room.subfloor.kind,
 				...(thicknessIn ? { thicknessIn } : {}),
-				...(room.subfloor.spanRating.trim() ? { spanRating: room.subfloor.spanRating.trim() } : {})
+				...(room.subfloor.spanRating.trim() ? { spanRating: room.subfloor.spanRating.trim() } : {}),
+				...(!concrete && ins.layers === '2' ? { layers: 2 } : {}),
+				...(concrete && (slabId || slabThicknessIn)
+					? {
+							slab: {
+								...(slabId ? { id: slabId } : {}),
+								...(slabThicknessIn ? { thicknessIn: slabThicknessIn } : {}),
+								drying: ins.slabDrying
+							}
+						}
+					: {})
 			},
 			...(room.underlayment !== 'auto' ? { underlayment: room.underlayment === 'yes' } : {}),
 			...(room.trim ? { trim: true } : {}),
 			...(transitions ? { transitions } : {}),
+			...(doorways.length ? { doorways: defined(doorways) } : {}),
+			...(Object.keys(base).length ? { base } : {}),
+			...(ins.furniture ? { furniture: true } : {}),
+			...(appliances ? { appliances } : {}),
+			...(toilets ? { toilets } : {}),
+			...(stairs ? { stairs } : {}),
 			repairs: {
 				holes: defined(holes),
 				seams: defined(seams),

@@ -21,7 +21,8 @@ export const LIST_LIMITS: Record<string, number> = {
 	rh: 50,
 	calciumChloride: 20,
 	woodSubfloor: 50,
-	woodFlooring: 50
+	woodFlooring: 50,
+	doorways: 20
 };
 
 /** What a new entry of each list starts as. */
@@ -37,7 +38,8 @@ const NEW_ENTRY: Record<string, () => unknown> = {
 	rh: () => '',
 	calciumChloride: () => ({ gain: '', area: '', hours: '' }),
 	woodSubfloor: () => '',
-	woodFlooring: () => ''
+	woodFlooring: () => '',
+	doorways: () => ({ width: '', door: false, nextFloor: '' })
 };
 
 /** The first field of a new entry, to put the cursor in. */
@@ -49,7 +51,8 @@ const FIRST_FIELD: Record<string, string | undefined> = {
 	seams: 'length',
 	dents: 'length',
 	flatness: 'span',
-	calciumChloride: 'gain'
+	calciumChloride: 'gain',
+	doorways: 'width'
 };
 
 export interface OpResult {
@@ -212,7 +215,14 @@ export function applyOp(draft: MeasureDraft, op: string, newId = newRoomId): OpR
 		if (!room) return {};
 		if (verb === 'joists-off') room.joists = null;
 		else if (!room.joists) {
-			room.joists = { size: JOIST_SIZES[2], species: SPECIES[0], spacing: '', span: '' };
+			room.joists = {
+				size: JOIST_SIZES[2],
+				species: SPECIES[0],
+				spacing: '',
+				span: '',
+				iJoist: false,
+				ei: ''
+			};
 			return { focus: `rooms.${arg}.joists.spacing` };
 		}
 		return {};

@@ -237,7 +237,8 @@ export const settingsSchema = z
 			wastePct: pct('Waste'),
 			schedule: text(64),
 			schedules: keyed(fastening),
-			requiredFor: rows(floorKindT)
+			requiredFor: rows(floorKindT),
+			skimFor: rows(floorKindT).optional()
 		}),
 		repairs: z.object({
 			ignoreHoleUnderIn: smallIn('Ignore holes smaller than'),
@@ -267,6 +268,7 @@ export const settingsSchema = z
 				southern_pine: lumber
 			}),
 			ratio: z.partialRecord(floorKindT, ratio('L/Δ')),
+			iJoistRatio: z.partialRecord(floorKindT, ratio('L/Δ')).optional(),
 			defaultRatio: ratio('L/Δ'),
 			spanRounding: z.enum(['down', 'nearest'])
 		}),
@@ -307,15 +309,37 @@ export const settingsSchema = z
 			woodSubfloorMaxPct: pct('Subfloor MC limit'),
 			woodDiffStripPct: pct('Strip MC difference'),
 			woodDiffWidePct: pct('Wide plank MC difference'),
-			wideFromIn: positiveIn('Wide plank from', 24)
+			wideFromIn: positiveIn('Wide plank from', 24),
+			probeDepthPct: z.object({ top: pct('Probe depth'), both: pct('Probe depth') }).optional()
 		}),
+		tile: z
+			.object({
+				singleLayerMinIn: positiveIn('Single layer under tile', LIMITS.depthIn),
+				stoneLayers: bounded('Layers under stone', 1, 4).int()
+			})
+			.optional(),
+		doorways: z
+			.object({
+				flushMaxIn: smallIn('Step with no bevel'),
+				bevelMaxIn: smallIn('Step a reducer takes')
+			})
+			.optional(),
 		schedule: z.object({
 			workdayHours: bounded('Working day', 1, 24, 'h'),
 			dayStartHour: bounded('Start of the day', 0, 23, 'h'),
 			crewSqFtPerDay: byFloor(bounded('Crew output', 1, 100_000, 'ft² a day')),
 			removalSqFtPerHour: bounded('Tear-out', 1, 100_000, 'ft² an hour'),
 			prepHoursPerUnit: keyed(bounded('Hours per unit', 0, 1_000, 'h')),
-			cureHours: keyed(bounded('Cure', 0, LIMITS.cureHours, 'h'))
+			cureHours: keyed(bounded('Cure', 0, LIMITS.cureHours, 'h')),
+			testWaitHours: z
+				.object({
+					rh: bounded('RH probe wait', 0, LIMITS.cureHours, 'h'),
+					calciumChloride: bounded('Calcium chloride exposure', 0, LIMITS.cureHours, 'h')
+				})
+				.optional(),
+			acclimationHours: z
+				.partialRecord(floorKindT, bounded('Acclimation', 0, LIMITS.cureHours, 'h'))
+				.optional()
 		}),
 		taxes: rows(
 			z.object({
@@ -370,6 +394,9 @@ export const floorProductSchema = z.object({
 		.describe('Roll width (roll goods), in: 1–20 ft'),
 	tileEdgesIn: tileEdgesIn.optional(),
 	boardWidthIn: positiveIn('Board width', 24).optional(),
+	thicknessIn: positiveIn('Floor thickness', 4)
+		.optional()
+		.describe('Thickness as laid, in (floor height at doorways)'),
 	material: z.object({
 		basis: z.enum(['carton', 'sqft', 'roll_sqyd', 'roll_linft']),
 		priceCents: cents('Price per unit'),
@@ -383,7 +410,8 @@ export const floorProductSchema = z.object({
 			rhLimitPct: pct('RH limit').optional(),
 			mverLimit: positive('MVER limit', 100, 'lb/1000 ft²/24 h').optional(),
 			flatness: rows(rule).optional(),
-			underlayment: z.boolean().optional()
+			underlayment: z.boolean().optional(),
+			underlay: z.boolean().optional()
 		})
 		.optional()
 		.describe("What this floor needs, overriding the store's defaults (maker's instructions)")
@@ -422,7 +450,9 @@ export const priceBookSchema = z
 				costCents: cents('Store cost per unit').optional(),
 				perBox: bounded('Per box', 1, 1_000_000).int().optional(),
 				container: containerSchema.optional(),
-				bagYieldCuFt: bagYieldCuFt.optional()
+				bagYieldCuFt: bagYieldCuFt.optional(),
+				minDepthIn: smallIn('Least pour (data sheet)').optional(),
+				maxDepthIn: positiveIn('Deepest pour (data sheet)', LIMITS.depthIn).optional()
 			})
 		)
 	})
@@ -442,6 +472,16 @@ export const calciumChlorideSchema = z.object({
 	hours: positive('Exposure', 1_000, 'h').describe('Exposure, h')
 });
 const repairs = <T extends z.ZodType>(item: T, what: string) => list(item, what, LIMITS.listItems);
+export const slabSchema = z.object({
+	id: text(40).optional().describe('Rooms with the same slab id share one slab'),
+	thicknessIn: positiveIn('Slab thickness', LIMITS.depthIn).optional(),
+	drying: z.enum(['top', 'both']).optional()
+});
+export const doorwaySchema = z.object({
+	widthIn: positiveIn('Doorway width', 240),
+	door: z.boolean().optional(),
+	nextFloorIn: smallIn("Next room's floor height").optional()
+});
 
 export const roomSchema = z.object({
 	id: z.string().min(1).max(64),
@@ -462,11 +502,25 @@ export const roomSchema = z.object({
 	subfloor: z.object({
 		kind: subfloorKind,
 		thicknessIn: positiveIn('Subfloor thickness', LIMITS.depthIn).optional(),
-		spanRating: text(12).optional().describe('Panel span rating, e.g. 32/16')
+		spanRating: text(12).optional().describe('Panel span rating, e.g. 32/16'),
+		layers: bounded('Panel layers', 1, 4).int().optional(),
+		slab: slabSchema.optional()
 	}),
 	underlayment: z.boolean().optional(),
 	trim: z.boolean().optional(),
 	transitions: bounded('Transitions', 0, 100).int().optional(),
+	doorways: list(doorwaySchema, 'doorways', 20).optional(),
+	base: z
+		.object({
+			baseboard: z.enum(['reset', 'new']).optional(),
+			shoe: z.enum(['reset', 'new']).optional()
+		})
+		.optional()
+		.describe('Baseboard and shoe: removed and put back, or new'),
+	furniture: z.boolean().optional(),
+	appliances: bounded('Appliances', 0, 20).int().optional(),
+	toilets: bounded('Toilets', 0, 20).int().optional(),
+	stairs: bounded('Steps', 0, 100).int().optional(),
 	repairs: z
 		.object({
 			holes: repairs(
@@ -489,7 +543,13 @@ export const roomSchema = z.object({
 			species,
 			spacingIn: spacingIn('On-centre spacing'),
 			spanIn: positiveIn('Span'),
-			runs: z.enum(['x', 'y']).optional()
+			runs: z.enum(['x', 'y']).optional(),
+			iJoist: z
+				.object({
+					eiLbIn2: positive('EI', 1e11, 'lb·in²').optional().describe("EI from the maker's data"),
+					label: text(80).optional()
+				})
+				.optional()
 		})
 		.optional(),
 	readings: z

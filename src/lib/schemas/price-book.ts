@@ -260,6 +260,7 @@ const FLOOR_FIELDS: Record<string, string> = {
 	rollWidthIn: 'rollWidth',
 	tileEdgesIn: 'tileEdges',
 	boardWidthIn: 'boardWidth',
+	thicknessIn: 'thickness',
 	material: 'materialPrice',
 	labourCentsPerSqFt: 'labourPrice',
 	payCentsPerSqFt: 'payPrice',
@@ -276,6 +277,7 @@ export const floorForm = (currency: string) =>
 			rollWidth: optionalLength('Roll width'),
 			tileEdges: optionalTileEdges,
 			boardWidth: optionalLength('Board width'),
+			thickness: optionalLength('Thickness'),
 			materialBasis: enumField(MATERIAL_BASES, 'Choose how the material is priced'),
 			materialPrice: priceField('the material price', currency),
 			materialCost: optionalPriceField('the store cost', currency),
@@ -316,6 +318,7 @@ export const floorForm = (currency: string) =>
 				...(roll ? { rollWidthIn: f.rollWidth } : { cartonSqFt: f.cartonSqFt }),
 				...(isTileKind(f.kind) && f.tileEdges && { tileEdgesIn: f.tileEdges }),
 				...(isWoodKind(f.kind) && f.boardWidth !== undefined && { boardWidthIn: f.boardWidth }),
+				...(f.thickness !== undefined && { thicknessIn: f.thickness }),
 				material: {
 					basis: f.materialBasis,
 					priceCents: f.materialPrice,
@@ -345,6 +348,8 @@ export function floorToForm(name: string, d: FloorData, currency: string): Recor
 		rollWidth: d.rollWidthIn !== undefined ? formatLength(d.rollWidthIn) : '',
 		tileEdges: d.tileEdgesIn?.map((e) => formatLength(e, 'in')).join(' x ') ?? '',
 		boardWidth: d.boardWidthIn !== undefined ? formatLength(d.boardWidthIn, 'in') : '',
+		thickness:
+			d.thicknessIn !== undefined ? formatLength(d.thicknessIn, 'in', { denominator: 32 }) : '',
 		materialBasis: d.material.basis,
 		materialPrice: moneyToInput(d.material.priceCents, currency),
 		materialCost: moneyToInput(d.material.costCents, currency),
@@ -477,7 +482,9 @@ export const supplyForm = (currency: string) =>
 			patchVolume: optionalVolumeField,
 			patchCoverage: optionalNumber('The coverage', 10_000),
 			patchDepth: optionalLength('The depth'),
-			bagYield: optionalNumber('The bag yield', 100)
+			bagYield: optionalNumber('The bag yield', 100),
+			minDepth: optionalLength('The least pour'),
+			maxDepth: optionalLength('The deepest pour')
 		})
 		.transform((f, ctx) => {
 			const issue = refuser(ctx);
@@ -511,6 +518,14 @@ export const supplyForm = (currency: string) =>
 			if (f.kind === 'leveller' && f.bagYield === undefined) {
 				issue('bagYield', 'Enter the bag yield in ft³ (on the data sheet)');
 			}
+			if (
+				f.kind === 'leveller' &&
+				f.minDepth !== undefined &&
+				f.maxDepth !== undefined &&
+				f.minDepth > f.maxDepth
+			) {
+				issue('maxDepth', 'The deepest pour must be at least the least pour');
+			}
 			if (issue.count) return z.NEVER;
 			const data: SupplyData = {
 				basis: f.basis,
@@ -518,14 +533,18 @@ export const supplyForm = (currency: string) =>
 				...(f.cost !== undefined && { costCents: f.cost }),
 				...(f.kind === 'fastener' && f.perBox !== undefined && { perBox: f.perBox }),
 				...(container && { container }),
-				...(f.kind === 'leveller' && { bagYieldCuFt: f.bagYield })
+				...(f.kind === 'leveller' && { bagYieldCuFt: f.bagYield }),
+				...(f.kind === 'leveller' && f.minDepth !== undefined && { minDepthIn: f.minDepth }),
+				...(f.kind === 'leveller' && f.maxDepth !== undefined && { maxDepthIn: f.maxDepth })
 			};
 			const fields: Record<string, string> = {
 				priceCents: 'price',
 				costCents: 'cost',
 				perBox: 'perBox',
 				container: 'patchVolume',
-				bagYieldCuFt: 'bagYield'
+				bagYieldCuFt: 'bagYield',
+				minDepthIn: 'minDepth',
+				maxDepthIn: 'maxDepth'
 			};
 			const checked = engineCheck(
 				supplyItemSchema,
@@ -555,7 +574,9 @@ export function supplyToForm(
 		patchVolume: c && 'volumeCuIn' in c ? volumeText(c.volumeCuIn) : '',
 		patchCoverage: c && 'coverageSqFt' in c ? String(c.coverageSqFt) : '',
 		patchDepth: c && 'atDepthIn' in c ? formatLength(c.atDepthIn, 'in') : '',
-		bagYield: d.bagYieldCuFt !== undefined ? String(d.bagYieldCuFt) : ''
+		bagYield: d.bagYieldCuFt !== undefined ? String(d.bagYieldCuFt) : '',
+		minDepth: d.minDepthIn !== undefined ? formatLength(d.minDepthIn, 'in') : '',
+		maxDepth: d.maxDepthIn !== undefined ? formatLength(d.maxDepthIn, 'in') : ''
 	};
 }
 

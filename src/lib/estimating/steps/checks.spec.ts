@@ -49,15 +49,16 @@ describe('checksStep', () => {
 			})
 		);
 		// 12 × 24 in tile is large-format: 1/8 in in 10 ft (ANSI A108.02, secondary)
-		expect(r.findings.map((f) => f.pass)).toEqual([false, false, true]);
+		const flat = r.findings.filter((f) => f.check === 'flatness');
+		expect(flat.map((f) => f.pass)).toEqual([false, false, true]);
 		// average depth half the gap (store setting): 1/8 in over 10 ft² = 10 ft²-per-1/8-in
 		expect(r.needs).toEqual([
 			{
 				kind: 'level',
 				measures: { sqft: 10, sqft_per_eighth_in: 10, each: 1, room: 1 },
-				findings: [r.findings[0]]
+				findings: [flat[0]]
 			},
-			{ kind: 'grind', measures: { each: 1, room: 1 }, findings: [r.findings[1]] }
+			{ kind: 'grind', measures: { each: 1, room: 1 }, findings: [flat[1]] }
 		]);
 		expect(r.levelAreas).toEqual([{ areaSqFt: 10, depthIn: 0.125 }]);
 	});
@@ -66,14 +67,12 @@ describe('checksStep', () => {
 		const slab = { ...plankRoom, id: 'bsmt', subfloor: { kind: 'concrete' as const } };
 		const r = checksStep(contextFor({ ...slab, readings: { rhPct: [78, 72] } }));
 		// 78 % > 75 % (ASTM F710 / F2170, secondary): a barrier over the room
-		expect(r.findings.map((f) => [f.check, f.pass])).toEqual([
-			['moisture_rh', false],
-			['moisture_rh_tests', false]
-		]);
-		// 3 tests for the first 1000 ft² (ASTM F2170 §10.1, secondary): 1 more to take
+		expect(r.findings.map((f) => [f.check, f.pass])).toEqual([['moisture_rh', false]]);
+		// How many tests are needed is counted per slab by the estimate (ASTM F2170 §10.1,
+		// secondary); the room reports what was taken on it.
+		expect(r.slabReadings).toEqual({ rh: 2, cc: 0 });
 		expect(r.needs).toEqual([
-			{ kind: 'moisture_barrier', measures: { sqft: 120, room: 1 }, findings: [r.findings[0]] },
-			{ kind: 'moisture_test', measures: { each: 1 }, findings: [r.findings[1]] }
+			{ kind: 'moisture_barrier', measures: { sqft: 120, room: 1 }, findings: [r.findings[0]] }
 		]);
 		expect(checksStep(contextFor(slab)).warnings).toEqual([
 			'No moisture readings for a concrete subfloor'

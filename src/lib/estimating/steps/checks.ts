@@ -6,13 +6,17 @@
 import { cautionTexts } from '../cautions';
 import type { RoomShape } from '../geometry';
 import { countWithin, LIMITS } from '../limits';
+import { formatLength } from '../units';
 import type { FloorProduct } from '../pricing';
 import type { Measures } from '../prep';
 import type { FloorKind, StoreSettings } from '../settings';
 import {
 	flatnessCheck,
 	flatnessRules,
+	iJoistCheck,
 	joistCheck,
+	panelMinimumIn,
+	panelText,
 	mverChecks,
 	rhChecks,
 	sheathingChecks,
@@ -30,6 +34,8 @@ export interface Checks {
 	levelAreas: { areaSqFt: number; depthIn: number }[];
 	warnings: string[];
 	cautions: CautionEvent[];
+	/** Moisture tests taken on this room's part of a slab, by kind. */
+	slabReadings?: { rh: number; cc: number };
 }
 
 function ratioFor(kind: FloorKind, product: FloorProduct, s: StoreSettings): number {
@@ -84,7 +90,36 @@ export function checksStep(ctx: RoomContext): Checks {
 		for (const p of c.suggestedPrep) need(p.kind, measure(p), f);
 	};
 
+	// Bad input the schema lets through: said plainly, naming the limit (IRC Table R502.3.1(2),
+	// published, prints spacings of 12, 16, 19.2 and 24 in; its longest spans are about 26 ft, memory).
 	if (room.joists && wood) {
+		const { spacingIn, spanIn } = room.joists;
+		if (spacingIn < 12 || spacingIn > 24)
+			out.warnings.push(
+				`Joist spacing ${spacingIn} in is outside 12–24 in, the spacings the IRC span tables print: check the measure`
+			);
+		if (spanIn > 26 * 12)
+			out.warnings.push(
+				`A joist span of ${formatLength(spanIn)} is beyond any span the IRC table prints (about 26 ft): check the measure and have a licensed professional confirm`
+			);
+	}
+	if (room.joists?.iJoist && wood) {
+		const jm = room.joists;
+		const ratio =
+			product.needs?.deflectionRatio ?? s.joists.iJoistRatio?.[kind] ?? ratioFor(kind, product, s);
+		const ei = jm.iJoist!.eiLbIn2;
+		if (ei === undefined)
+			out.warnings.push(
+				`I-joists: enter EI from the maker's data to check deflection (L/${ratio} under this floor)`
+			);
+		else {
+			const c = iJoistCheck(
+				{ eiLbIn2: ei, spacingIn: jm.spacingIn, spanIn: jm.spanIn, ratio, label: jm.iJoist!.label },
+				s.joists
+			);
+			fix(c, () => ({ room: 1, each: 1 }));
+		}
+	} else if (room.joists && wood) {
 		const jm = room.joists;
 		const j = joistCheck(
 			{
@@ -116,11 +151,62 @@ export function checksStep(ctx: RoomContext): Checks {
 				thicknessIn: sub.thicknessIn,
 				spanRating: sub.spanRating,
 				joistSpacingIn: ctx.spacingIn,
+				spacingAssumed: ctx.spacingAssumed,
 				floorKind: kind
 			},
 			s.sheathing
 		);
 		for (const c of checks) fix(c, () => ({ sqft: area, room: 1 }));
+	}
+
+	// Tile and stone need their subfloor: ceramic over one layer at least the trade's minimum
+	// (with a backer or membrane, priced with the tile), stone over two layers (TCNA Handbook
+	// floor methods, memory; TRADE.md).
+	const tile = s.tile;
+	if (wood && tile && (kind === 'ceramic_tile' || kind === 'stone_tile') && sub.kind !== 'board') {
+		const layers = sub.layers ?? 1;
+		const stone = kind === 'stone_tile';
+		if (stone || layers < 2) {
+			const thick = sub.thicknessIn;
+			const need = stone ? tile.stoneLayers : 1;
+			const thinSingle =
+				!stone &&
+				thick !== undefined &&
+				panelMinimumIn(thick) < panelMinimumIn(tile.singleLayerMinIn) - 1e-9;
+			const pass = stone ? layers >= need : !thinSingle;
+			if (stone || thick !== undefined)
+				fix(
+					{
+						check: 'tile_subfloor',
+						pass,
+						measured: stone ? layers : thick!,
+						limit: stone ? need : tile.singleLayerMinIn,
+						unit: stone ? 'layers' : 'in',
+						message: stone
+							? `Natural stone over ${layers} panel layer${layers === 1 ? '' : 's'}; stone needs ${need} layers and a backer or membrane.`
+							: `Ceramic tile over a single layer of ${panelText(thick!)}; a single layer needs at least ${panelText(tile.singleLayerMinIn)}${pass ? ', with a backer board or membrane (priced with the tile)' : ': add a second layer, then a backer board or membrane'}.`,
+						rule: stone
+							? `natural stone: ${need} layers of panel subfloor, then backer or membrane`
+							: `ceramic tile: one layer ≥ ${panelText(tile.singleLayerMinIn)} with backer or membrane, or two layers`,
+						source:
+							'TCNA Handbook floor methods (memory); the tile and membrane makers’ instructions govern',
+						suggestedPrep: pass
+							? []
+							: [
+									{
+										kind: 'subfloor_overlay',
+										note: 'Add a second panel layer, glued and screwed, joints offset from the first.'
+									}
+								],
+						cautions: ['planning_aid', 'maker_instructions', 'structure']
+					},
+					() => ({ sqft: area, room: 1 })
+				);
+			else
+				out.warnings.push(
+					'Subfloor thickness not measured: the single-layer check for tile was not run'
+				);
+		}
 	}
 
 	const readings = room.readings ?? {};
@@ -166,18 +252,17 @@ export function checksStep(ctx: RoomContext): Checks {
 	if (!wood) {
 		const rh = readings.rhPct ?? [];
 		const cc = readings.calciumChloride ?? [];
-		// A missing test is counted per test; a barrier covers the room.
-		const concrete = (c: Check) => (p: SuggestedPrep) =>
-			p.kind === 'moisture_test' ? { each: c.limit - c.measured } : { sqft: area, room: 1 };
+		out.slabReadings = { rh: rh.length, cc: cc.length };
+		// A barrier covers the room. How many tests the slab needs is counted for the whole slab,
+		// once, by the estimate (ASTM F2170 §10.1, F1869: per slab, not per room).
+		const barrier = () => ({ sqft: area, room: 1 });
 		if (rh.length > 0) {
 			const limitPct = product.needs?.rhLimitPct ?? s.moisture.rhLimitPct;
-			for (const c of rhChecks({ readingsPct: rh, areaSqFt: area, limitPct }, s.moisture))
-				fix(c, concrete(c));
+			fix(rhChecks({ readingsPct: rh, areaSqFt: area, limitPct }, s.moisture)[0], barrier);
 		}
 		if (cc.length > 0) {
 			const limit = product.needs?.mverLimit ?? s.moisture.mverLimit;
-			for (const c of mverChecks({ tests: cc, areaSqFt: area, limit }, s.moisture))
-				fix(c, concrete(c));
+			fix(mverChecks({ tests: cc, areaSqFt: area, limit }, s.moisture)[0], barrier);
 		}
 		if (rh.length === 0 && cc.length === 0 && kind !== 'carpet')
 			out.warnings.push('No moisture readings for a concrete subfloor');

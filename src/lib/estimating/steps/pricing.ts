@@ -7,7 +7,7 @@
  */
 import { LimitError } from '../limits';
 import { ceilUnits } from '../math';
-import { PREP } from '../prep';
+import { OPTIONAL_PREP, PREP } from '../prep';
 import { priceQty, type PayLine, type PriceIndex, type PriceLine } from '../pricing';
 import type { StoreSettings } from '../settings';
 import { levellerTakeoff, patchTakeoff, underlaymentTakeoff, type Void } from '../takeoff';
@@ -34,6 +34,8 @@ export interface Priced {
 	cautions: CautionEvent[];
 	/** The line each item became, by the item's place in the list (none for an error). */
 	itemLines: (PriceLine | undefined)[];
+	/** Items the store has switched off (no price-book line): named, never priced. */
+	skipped: { roomId?: string; message: string }[];
 }
 
 /**
@@ -53,7 +55,8 @@ export function priceItems(
 		costComplete: true,
 		errors: [],
 		cautions: [],
-		itemLines: []
+		itemLines: [],
+		skipped: []
 	};
 	for (const item of items) {
 		if ('error' in item) {
@@ -77,6 +80,14 @@ function priceOne(
 	out: Priced
 ): PriceLine | undefined {
 	const price = index.resolve(item.ref);
+	if (typeof price === 'string' && item.ref.type === 'prep' && OPTIONAL_PREP.has(item.ref.kind)) {
+		const name = item.roomId ? roomName(item.roomId) : undefined;
+		out.skipped.push({
+			roomId: item.roomId,
+			message: `Not on the quote: ${PREP[item.ref.kind].label.toLowerCase()}${name !== undefined ? ` in ${name}` : ''} (the price book has no line for "${item.ref.kind}")`
+		});
+		return undefined;
+	}
 	if (typeof price === 'string') {
 		const name = item.roomId ? roomName(item.roomId) : undefined;
 		out.errors.push({

@@ -47,8 +47,13 @@ describe('repairsStep', () => {
 	it('patches seams by their length and dents by their count, seams first', () => {
 		const seam = { lengthIn: 96, widthIn: 0.25, depthIn: 0.125 };
 		const dent = { lengthIn: 3, widthIn: 2, depthIn: 0.0625 };
+		// Straight onto the old subfloor (underlayment declined): seams and dents are filled.
 		const r = repairsStep(
-			contextFor({ ...plankRoom, repairs: { seams: [seam, seam], dents: [dent] } })
+			contextFor({
+				...plankRoom,
+				underlayment: false,
+				repairs: { seams: [seam, seam], dents: [dent] }
+			})
 		);
 		expect(r.needs).toEqual([
 			// 2 × 96 in = 16 ft of seam
@@ -57,5 +62,13 @@ describe('repairsStep', () => {
 			{ kind: 'dent_patch', measures: { each: 1, sqft: 6 / 144, room: 1 }, findings: [] }
 		]);
 		expect(r.voids).toEqual([seam, seam, dent]);
+		// Issue 12 item 10 (common practice, TRADE.md "Subfloor repairs"): under new underlayment
+		// the old subfloor's seams and dents are covered, not filled and not charged.
+		const covered = repairsStep(
+			contextFor({ ...plankRoom, repairs: { seams: [seam], dents: [dent] } })
+		);
+		expect(covered.needs).toEqual([]);
+		expect(covered.voids).toEqual([]);
+		expect(covered.warnings[0]).toMatch(/covered by the new underlayment: not filled, not charged/);
 	});
 });

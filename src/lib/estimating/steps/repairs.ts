@@ -12,6 +12,7 @@ export interface Repairs {
 	voids: Void[];
 	needs: NeedEvent[];
 	cautions: CautionEvent[];
+	warnings: string[];
 }
 
 /**
@@ -28,6 +29,11 @@ export function repairsStep(ctx: RoomContext): Repairs {
 		countWithin(rep[list]?.length ?? 0, `${ctx.path}.repairs.${list}`, list, LIMITS.listItems);
 	const needs: NeedEvent[] = [];
 	const cautions: CautionEvent[] = [];
+	const warnings: string[] = [];
+	const declined = room.underlayment === false;
+	const subfloorIn = room.subfloor.thicknessIn ?? s.repairs.defaultSubfloorIn;
+	/** Small holes filled with patch, and the joints of infills no underlayment covers. */
+	const patchVoids: Void[] = [];
 
 	if (rep.fasteners) {
 		const a = rep.fasteners === true ? area : Math.min(area, rep.fasteners.areaSqFt);
@@ -47,22 +53,51 @@ export function repairsStep(ctx: RoomContext): Repairs {
 			method,
 			newUnderlayment: ctx.newUnderlayment,
 			ignoreUnderIn: s.repairs.ignoreHoleUnderIn,
-			subfloorThicknessIn: room.subfloor.thicknessIn ?? s.repairs.defaultSubfloorIn,
+			// An infill is cut from subfloor-thickness plywood, never from the underlayment.
+			subfloorThicknessIn: subfloorIn,
 			joistSpacingIn: ctx.spacingIn,
 			joistThicknessIn: s.repairs.joistThicknessIn,
 			backingLapIn: s.repairs.backingLapIn,
-			roughCutAllowanceIn: s.repairs.roughCutAllowanceIn
+			roughCutAllowanceIn: s.repairs.roughCutAllowanceIn,
+			underlaymentDeclined: declined
 		});
 		holes.push(r);
-		if (!r.ignored) repaired++;
+		if (r.patched)
+			patchVoids.push({ lengthIn: h.lengthIn, widthIn: h.widthIn, depthIn: subfloorIn });
+		else if (!r.ignored) {
+			repaired++;
+			// Under a floor that wanted underlayment the customer declined, the infill's joints are
+			// skimmed flush instead (TRADE.md: resilient floors telegraph open seams).
+			if (declined && r.method === 'blocking_underlayment')
+				patchVoids.push({
+					lengthIn: 2 * (h.widthIn + h.lengthIn),
+					widthIn: 0.125,
+					depthIn: 0.0625
+				});
+		}
 	}
 	if (repaired > 0) {
 		needs.push({ kind: 'hole_repair', measures: { each: repaired, room: 1 }, findings: [] });
 		cautions.push({ kind: 'dust_tools', roomId: room.id });
+		if (ctx.spacingAssumed)
+			warnings.push(
+				`Joists were not measured: blocking and backing are cut for ${ctx.spacingIn} in o.c. (assumed, not found); confirm on site`
+			);
 	}
+	if (declined && holes.some((h) => !h.ignored && h.method === 'blocking_underlayment'))
+		warnings.push(
+			'Underlayment declined: holes are blocked with a flush infill and its joints skimmed; no underlayment is added'
+		);
 
-	const seams = rep.seams ?? [];
-	const dents = rep.dents ?? [];
+	// New underlayment covers open seams and dents in the old subfloor: they are filled only
+	// where the floor goes straight onto it (TRADE.md "Subfloor repairs", common practice).
+	const covered = ctx.newUnderlayment;
+	const seams = covered ? [] : (rep.seams ?? []);
+	const dents = (covered ? [] : (rep.dents ?? [])).concat(patchVoids);
+	if (covered && ((rep.seams?.length ?? 0) > 0 || (rep.dents?.length ?? 0) > 0))
+		warnings.push(
+			'Open seams and dents in the old subfloor are covered by the new underlayment: not filled, not charged'
+		);
 	if (seams.length > 0)
 		needs.push({
 			kind: 'seam_patch',
@@ -83,5 +118,5 @@ export function repairsStep(ctx: RoomContext): Repairs {
 			},
 			findings: []
 		});
-	return { holes, voids: seams.concat(dents), needs, cautions };
+	return { holes, voids: seams.concat(dents), needs, cautions, warnings };
 }

@@ -26,6 +26,8 @@ export interface RoomContext {
 	wood: boolean;
 	/** Joist spacing as measured, or the store's assumption. */
 	spacingIn: number;
+	/** The spacing is the store's assumption: say so, never state it as found. */
+	spacingAssumed: boolean;
 	/** New underlayment panels go over the subfloor (room, floor or store default). */
 	newUnderlayment: boolean;
 }
@@ -51,6 +53,7 @@ export function roomContext(
 		builtYear,
 		wood,
 		spacingIn: room.joists?.spacingIn ?? settings.repairs.defaultJoistSpacingIn,
+		spacingAssumed: room.joists === undefined,
 		newUnderlayment:
 			wood &&
 			(room.underlayment ??

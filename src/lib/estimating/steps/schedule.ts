@@ -7,24 +7,75 @@ import { schedule, type Schedule, type WorkStep } from '../schedule';
 import type { StoreSettings } from '../settings';
 import type { HoursEntry } from './room';
 
-/** Work steps in install order; a step's cure holds the next. */
-export const WORK_STEPS: readonly { key: string; label: string; kinds: readonly string[] }[] = [
-	{ key: 'removal', label: 'Tear out existing floors', kinds: ['removal'] },
+/**
+ * Work steps in the order they are done; a step's cure (or a test's wait, `waits`) holds the
+ * next. On a wet slab: tests first, then the barrier on the bare slab, then primer and leveller,
+ * then the floor (common practice; the products' data sheets govern). Over wood: patch under the
+ * panels before the panels, skim after. Install waits for the flooring's acclimation from the
+ * start of the job (`notBefore`), which runs beside the prep.
+ */
+export const WORK_STEPS: readonly {
+	key: string;
+	label: string;
+	kinds: readonly string[];
+	/** Wait keys (`wait:<key>` hours entries) whose longest wait holds the next step. */
+	waits?: readonly string[];
+	/** A wait key that must have run out, from the start of the job, before this step begins. */
+	notBefore?: string;
+}[] = [
+	{
+		key: 'moving',
+		label: 'Move furniture, disconnect fixtures',
+		kinds: ['furniture', 'appliance_reset', 'toilet_reset']
+	},
+	{ key: 'removal', label: 'Tear out existing floors', kinds: ['removal', 'haul_away'] },
 	{ key: 'fasteners', label: 'Pull fasteners, sweep, vacuum', kinds: ['fastener_removal'] },
+	{
+		key: 'tests',
+		label: 'Moisture tests (probes equilibrate, dishes stay out before reading)',
+		kinds: ['moisture_test', 'moisture_retest'],
+		waits: ['rh', 'calciumChloride']
+	},
 	{ key: 'structure', label: 'Structure', kinds: ['structural_consult', 'joist_sister'] },
 	{ key: 'holes', label: 'Close subfloor holes', kinds: ['hole_repair'] },
 	{ key: 'overlay', label: 'Subfloor overlay', kinds: ['subfloor_overlay'] },
-	{ key: 'underlayment', label: 'Underlayment panels', kinds: ['underlayment'] },
 	{ key: 'grind', label: 'Grind high spots', kinds: ['grind'] },
 	{ key: 'patch', label: 'Patch seams and dents', kinds: ['seam_patch', 'dent_patch'] },
-	{ key: 'level', label: 'Level low spots', kinds: ['level'] },
+	{ key: 'underlayment', label: 'Underlayment panels', kinds: ['underlayment'] },
 	{
-		key: 'moisture',
-		label: 'Moisture',
-		kinds: ['moisture_test', 'moisture_retest', 'moisture_barrier']
+		key: 'skim',
+		label: 'Skim underlayment seams and fastener heads',
+		kinds: ['underlayment_skim']
 	},
-	{ key: 'install', label: 'Install floors', kinds: ['install'] },
-	{ key: 'finish', label: 'Trim and transitions', kinds: ['trim', 'transition'] }
+	{ key: 'barrier', label: 'Moisture barrier on the bare slab', kinds: ['moisture_barrier'] },
+	{ key: 'level', label: 'Prime and level low spots', kinds: ['primer', 'level'] },
+	{
+		key: 'layers',
+		label: 'Backer, membrane, retarder, underlay, pad',
+		kinds: ['tile_backer', 'vapour_retarder', 'underlay', 'felt_paper', 'carpet_pad', 'tack_strip']
+	},
+	{
+		key: 'install',
+		label: 'Install floors',
+		kinds: ['install', 'tile_setting', 'carpet_seam', 'stairs'],
+		notBefore: 'acclimation'
+	},
+	{
+		key: 'finish',
+		label: 'Trim, transitions, doors, reset fixtures',
+		kinds: [
+			'trim',
+			'transition',
+			'reducer',
+			'threshold',
+			'door_undercut',
+			'base_reset',
+			'base_new',
+			'shoe_new'
+		]
+	},
+	// Charges with no work of their own (no hours unless a store gives them some).
+	{ key: 'charges', label: 'Trip and minimum charges', kinds: ['trip_charge', 'minimum_job'] }
 ];
 
 /** Hours of one prep item: the store's hours per unit × its quantity in the prep's own unit. */
@@ -33,12 +84,16 @@ export function prepHours(kind: PrepKind, measures: Measures, s: StoreSettings):
 	return perUnit * (measures[PREP[kind].unit] ?? 0);
 }
 
-/** Adds hours by key, in the order they come (so sums are the same for the same job). */
+/**
+ * Adds hours by key, in the order they come (so sums are the same for the same job). Waits
+ * (`wait:<key>`) are not work: the longest counts.
+ */
 export function hoursByKey(entries: readonly HoursEntry[]): Map<string, number> {
 	const hours = new Map<string, number>();
 	for (let i = 0; i < entries.length; i++) {
 		const e = entries[i];
-		hours.set(e[0], (hours.get(e[0]) ?? 0) + e[1]);
+		const had = hours.get(e[0]) ?? 0;
+		hours.set(e[0], e[0].startsWith('wait:') ? Math.max(had, e[1]) : had + e[1]);
 	}
 	return hours;
 }
@@ -55,7 +110,14 @@ export function scheduleStep(hours: ReadonlyMap<string, number>, s: StoreSetting
 			if (kh > 0) cure = Math.max(cure, s.schedule.cureHours[k] ?? 0);
 		}
 		if (h <= 0) continue;
-		steps.push({ key: st.key, label: st.label, hours: h, cureHours: cure || undefined });
+		for (const w of st.waits ?? []) cure = Math.max(cure, hours.get(`wait:${w}`) ?? 0);
+		const step: WorkStep = { key: st.key, label: st.label, hours: h, cureHours: cure || undefined };
+		const notBefore = st.notBefore ? (hours.get(`wait:${st.notBefore}`) ?? 0) : 0;
+		if (notBefore > 0) {
+			step.notBeforeHours = notBefore;
+			step.label = `${st.label} (after ${notBefore} h acclimation on site)`;
+		}
+		steps.push(step);
 	}
 	return schedule(steps, s.schedule);
 }

@@ -1,3 +1,4 @@
+import type { HoleRepair } from '../takeoff';
 import { describe, expect, it } from 'vitest';
 import { PriceIndex } from '../pricing';
 import { samplePriceBook } from '../sample';
@@ -80,13 +81,22 @@ describe('coverTakeoff', () => {
 	});
 
 	it('lays panels where a resilient floor’s hole repair calls for them', () => {
-		const ctx = contextFor({ ...plankRoom, underlayment: false });
+		// A floor that does not call for panels by itself (the store's default for it is off).
+		const ctx = { ...contextFor(plankRoom), newUnderlayment: false };
 		expect(coverTakeoff(ctx, []).underlayment).toBeUndefined();
 		const hole = { ignored: false, needsUnderlayment: true } as const;
-		const t = coverTakeoff(ctx, [
-			{ ...hole, method: 'blocking_underlayment', pieces: [], rule: '', source: '' }
-		]);
+		const repair: HoleRepair = {
+			...hole,
+			method: 'blocking_underlayment',
+			pieces: [],
+			rule: '',
+			source: ''
+		};
+		const t = coverTakeoff(ctx, [repair]);
 		expect(t.underlayment?.panels).toBe(5);
+		// Issue 12 item 8 (common practice): an underlayment the customer declined is never added back.
+		const declined = contextFor({ ...plankRoom, underlayment: false });
+		expect(coverTakeoff(declined, [repair]).underlayment).toBeUndefined();
 	});
 });
 

@@ -4,10 +4,11 @@
  * work to price. Rounding to whole cartons, rolls, panels and bags happens once for the job in
  * the pricing step; a room's own figures here are for its page.
  */
-import { placed } from '../limits';
+import { countWithin, LIMITS, placed } from '../limits';
 import { ceilUnits } from '../math';
 import type { PriceIndex } from '../pricing';
 import { ROLL_KINDS } from '../settings';
+import { formatLength } from '../units';
 import {
 	cartonTakeoff,
 	levellerTakeoff,
@@ -17,6 +18,7 @@ import {
 	type HoleRepair,
 	type LevellerTakeoff,
 	type PatchTakeoff,
+	type RollTakeoff,
 	type UnderlaymentTakeoff,
 	type Void
 } from '../takeoff';
@@ -141,7 +143,8 @@ export function coverTakeoff(
 	let underlayment: UnderlaymentTakeoff | undefined;
 	let panelSqFt = 0;
 	const underlay =
-		ctx.newUnderlayment || holes.some((h) => !h.ignored && h.needsUnderlayment && wood);
+		ctx.newUnderlayment ||
+		(room.underlayment !== false && holes.some((h) => !h.ignored && h.needsUnderlayment && wood));
 	if (underlay) {
 		underlayment = underlaymentTakeoff({
 			areaSqFt: area,
@@ -162,9 +165,115 @@ export function coverTakeoff(
 			measures: { linft: ceilUnits(shape.perimeterIn / 12), room: 1 },
 			findings: []
 		});
-	if (room.transitions && room.transitions > 0)
+	// A bare count of transitions (doorways measured one by one are priced with the extras).
+	if (room.transitions && room.transitions > 0 && !(room.doorways && room.doorways.length > 0))
 		needs.push({ kind: 'transition', measures: { each: room.transitions }, findings: [] });
 	return { underlayment, panelSqFt, needs };
+}
+
+const floating = (ctx: RoomContext) =>
+	(ctx.product.fastening ??
+		(ctx.product.kind === 'hardwood'
+			? 'nailed'
+			: ctx.product.kind === 'engineered_wood' || ctx.product.kind === 'laminate'
+				? 'floating'
+				: 'glued')) as 'nailed' | 'glued' | 'floating';
+
+/**
+ * The rest of a real install, each a price-book item the store may switch off: baseboard and
+ * shoe along the walls less doorways; a transition, reducer or threshold per doorway by the
+ * step in floor height (2010 ADA Standards §303, memory: up to 1/4 in vertical, to 1/2 in
+ * bevelled) and door undercuts; furniture, appliances, toilets; underlay under floating floors,
+ * a 6-mil vapour retarder on slabs, felt or paper under nailed wood; carpet pad, tack strip and
+ * seams; tile setting materials and a backer or membrane over wood; stairs per step; haul-away
+ * by the area torn out; and the flooring's acclimation wait (common practice unless named).
+ */
+export function extrasTakeoff(
+	ctx: RoomContext,
+	roll: RollTakeoff | undefined
+): { needs: NeedEvent[]; hours: HoursEntry[]; warnings: string[] } {
+	const { room, product, settings: s, shape, wood } = ctx;
+	const kind = product.kind;
+	const area = shape.areaSqFt;
+	const needs: NeedEvent[] = [];
+	const hours: HoursEntry[] = [];
+	const warnings: string[] = [];
+	const add = (k: NeedEvent['kind'], measures: NeedEvent['measures']) => {
+		if (Object.values(measures).some((v) => v !== undefined && v > 0))
+			needs.push({ kind: k, measures, findings: [] });
+	};
+	const doorways = room.doorways ?? [];
+	countWithin(doorways.length, `${ctx.path}.doorways`, 'doorways', LIMITS.listItems);
+	let doorsIn = 0;
+	for (const d of doorways) doorsIn += d.widthIn;
+	const wallLinFt = ceilUnits(Math.max(0, shape.wallPerimeterIn - doorsIn) / 12);
+
+	const base = room.base ?? {};
+	if (base.baseboard === 'reset' || base.shoe === 'reset')
+		add('base_reset', { linft: wallLinFt, room: 1 });
+	if (base.baseboard === 'new') add('base_new', { linft: wallLinFt, room: 1 });
+	if (base.shoe === 'new') add('shoe_new', { linft: wallLinFt, room: 1 });
+
+	// Floor height at each doorway: the new floor's build-up against the next room's floor.
+	const rules = s.doorways ?? { flushMaxIn: 0.25, bevelMaxIn: 0.5 };
+	const buildUpIn =
+		product.thicknessIn === undefined
+			? undefined
+			: product.thicknessIn + (ctx.newUnderlayment ? 0.25 : 0);
+	let transitions = 0;
+	let reducers = 0;
+	let thresholds = 0;
+	let undercuts = 0;
+	doorways.forEach((d, k) => {
+		if (buildUpIn === undefined || d.nextFloorIn === undefined) {
+			transitions++;
+			return;
+		}
+		const step = buildUpIn - d.nextFloorIn;
+		const rise = Math.abs(step);
+		if (rise <= rules.flushMaxIn + 1e-9) transitions++;
+		else if (rise <= rules.bevelMaxIn + 1e-9) reducers++;
+		else {
+			thresholds++;
+			warnings.push(
+				`Doorway ${k + 1}: the new floor is ${formatLength(rise, 'in')} ${step > 0 ? 'above' : 'below'} the next room's; more than ${formatLength(rules.bevelMaxIn, 'in')} needs a ramped threshold (2010 ADA Standards §303.4, memory)`
+			);
+		}
+		if (d.door && step > 1e-9) undercuts++;
+	});
+	add('transition', { each: transitions });
+	add('reducer', { each: reducers });
+	add('threshold', { each: thresholds });
+	add('door_undercut', { each: undercuts });
+	if (room.furniture) add('furniture', { room: 1, each: 1 });
+	add('appliance_reset', { each: room.appliances ?? 0 });
+	add('toilet_reset', { each: room.toilets ?? 0 });
+	add('stairs', { each: room.stairs ?? 0 });
+
+	// What goes under and with the floor.
+	const fastening = floating(ctx);
+	if (kind === 'ceramic_tile' || kind === 'stone_tile') {
+		add('tile_setting', { sqft: area, room: 1 });
+		if (wood) add('tile_backer', { sqft: area, room: 1 });
+	}
+	const underlay = product.needs?.underlay ?? (fastening === 'floating' && kind !== 'vinyl_plank');
+	if (underlay) add('underlay', { sqft: area, room: 1 });
+	if (!wood && fastening === 'floating' && kind !== 'carpet' && kind !== 'sheet_vinyl')
+		add('vapour_retarder', { sqft: area, room: 1 });
+	if (wood && fastening === 'nailed') add('felt_paper', { sqft: area, room: 1 });
+	if (kind === 'carpet') {
+		add('carpet_pad', { sqft: area, room: 1 });
+		add('tack_strip', { linft: wallLinFt, room: 1 });
+		if (roll && roll.seamLengthIn > 0)
+			add('carpet_seam', { linft: roll.seamLengthIn / 12, each: roll.seams, room: 1 });
+	}
+	if (ctx.newUnderlayment && (s.underlayment.skimFor ?? []).includes(kind))
+		add('underlayment_skim', { sqft: area, room: 1 });
+	const layers = room.remove?.length ?? 0;
+	if (layers > 0) add('haul_away', { sqft: area * layers, room: 1 });
+	const acclimation = s.schedule.acclimationHours?.[kind] ?? 0;
+	if (acclimation > 0) hours.push(['wait:acclimation', acclimation]);
+	return { needs, hours, warnings };
 }
 
 /** The room's own patch and leveller, when the price book says what a container or bag holds. */
