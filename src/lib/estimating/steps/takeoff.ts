@@ -198,9 +198,14 @@ export function extrasTakeoff(
 	const needs: NeedEvent[] = [];
 	const hours: HoursEntry[] = [];
 	const warnings: string[] = [];
+	const none: readonly never[] = [];
+	/** An item with its first measure above zero (no list built per call: the engine is hot). */
 	const add = (k: NeedEvent['kind'], measures: NeedEvent['measures']) => {
-		if (Object.values(measures).some((v) => v !== undefined && v > 0))
-			needs.push({ kind: k, measures, findings: [] });
+		for (const b in measures) {
+			if ((measures[b as keyof typeof measures] ?? 0) > 0)
+				needs.push({ kind: k, measures, findings: none });
+			return;
+		}
 	};
 	const doorways = room.doorways ?? [];
 	countWithin(doorways.length, `${ctx.path}.doorways`, 'doorways', LIMITS.listItems);
