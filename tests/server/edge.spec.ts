@@ -2,6 +2,7 @@
 // characters, bodies and ids refused at the edge (9.8), same-origin redirects (9.6), sign-in
 // limits per account and per client address (9.5), the session token kept out of JSON (9.7),
 // `__Secure-` cookies and HSTS on https (9.7), and structured logs with request ids (8.8).
+import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { form, jsonBody, portFor, serve, type Served } from './serve';
 
@@ -17,6 +18,14 @@ let https: Served;
 let proxied: Served;
 
 beforeAll(async () => {
+	// The limits count per client address in the shared database: start from none, whatever
+	// signed in from 127.0.0.1 before (the integration suites use the same test database).
+	const owner = new pg.Client({
+		connectionString: process.env.DATABASE_OWNER_URL ?? process.env.DATABASE_URL
+	});
+	await owner.connect();
+	await owner.query('delete from auth_limit');
+	await owner.end();
 	[server, https, proxied] = await Promise.all([
 		serve(3, LIMITS),
 		serve(4, { ORIGIN: `https://127.0.0.1:${portFor(4)}` }),
