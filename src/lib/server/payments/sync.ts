@@ -12,7 +12,21 @@ import { paymentSucceeded } from './succeeded';
  * page runs the same sync for anything a missed webhook left pending.
  */
 
-export type SyncOutcome = 'succeeded' | 'failed' | 'pending' | 'unchanged' | 'unknown';
+export type SyncOutcome = 'succeeded' | 'failed' | 'pending' | 'unchanged' | 'unknown' | 'mismatch';
+
+/**
+ * Why a paid session does not pay this payment (its amount or currency is not the payment's), or
+ * null when it does. A session carries our payment's id in its metadata, which alone proves
+ * nothing: the money must be the payment's too.
+ */
+export function sessionMismatch(
+	session: Pick<Stripe.Checkout.Session, 'id' | 'amount_total' | 'currency'>,
+	p: Pick<payments.Payment, 'amountCents' | 'currency'>
+): string | null {
+	const currency = (session.currency ?? '').toUpperCase();
+	if (session.amount_total === p.amountCents && currency === p.currency.toUpperCase()) return null;
+	return `Checkout ${session.id} was paid ${session.amount_total ?? '?'} ${currency || '?'} (smallest unit); this payment is ${p.amountCents} ${p.currency.toUpperCase()}. Not taken as paid.`;
+}
 
 /** A store and its Stripe account, looked up once by whoever syncs several things. */
 export interface StoreAccount {
@@ -62,6 +76,12 @@ export async function syncSessionIn(
 			return { outcome: 'unchanged' as const };
 		}
 		if (session.payment_status === 'paid') {
+			const mismatch = sessionMismatch(session, p);
+			if (mismatch) {
+				// Stored and flagged on the reconciliation page; nothing is marked paid.
+				await payments.update(tx, p.id, { mismatch });
+				return { outcome: 'mismatch' as const };
+			}
 			const row = await payments.update(tx, p.id, {
 				status: 'succeeded',
 				stripeCheckoutSessionId: session.id,

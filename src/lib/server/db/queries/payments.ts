@@ -91,6 +91,7 @@ const paymentColumns = {
 	feeCents: payment.feeCents,
 	reference: payment.reference,
 	failureMessage: payment.failureMessage,
+	mismatch: payment.mismatch,
 	stripeCheckoutSessionId: payment.stripeCheckoutSessionId,
 	stripePaymentIntentId: payment.stripePaymentIntentId,
 	stripeChargeId: payment.stripeChargeId,
