@@ -1,9 +1,10 @@
+import { statusAfterRefunds } from '$lib/payments/ledger';
 import type Stripe from 'stripe';
 import * as payments from '../db/queries/payments';
 import { stripeAccount } from '../db/queries/settings';
 import { inStore, readInStore } from '../db/tenant';
 import { stripe as appStripe, idOf } from '../stripe';
-import { announcePayment } from './notices';
+import { announcePayment, announceRefund } from './notices';
 import { paymentSucceeded } from './succeeded';
 
 /**
@@ -145,16 +146,22 @@ export async function syncRefundsIn(
 	const refunds = charge.refunds?.data ?? [];
 	await inStore(storeId, async (tx) => {
 		await payments.lock(tx, p.id);
+		// Refunds that became money given back in this sync: the customer is told of each.
+		const made: Pick<payments.Refund, 'id' | 'amountCents' | 'reason' | 'stripeRefundId'>[] = [];
 		for (const r of refunds) {
 			const status = REFUND_STATUS(r.status);
 			const existing = await payments.findRefund(tx, {
 				stripeId: r.id,
-				id: r.metadata?.refund_id
+				id: typeof r.metadata?.refund_id === 'string' ? r.metadata.refund_id : null
 			});
 			if (existing) {
 				await payments.updateRefund(tx, existing.id, { status, stripeRefundId: r.id });
+				if (status === 'succeeded' && existing.status !== 'succeeded') {
+					const row = await payments.readRefund(tx, existing.id);
+					if (row) made.push(row);
+				}
 			} else {
-				await payments.insertRefund(tx, {
+				const row = await payments.insertRefund(tx, {
 					paymentId: p.id,
 					amountCents: r.amount,
 					reason: 'other',
@@ -162,12 +169,14 @@ export async function syncRefundsIn(
 					status,
 					stripeRefundId: r.id
 				});
+				if (status === 'succeeded') made.push(row);
 			}
 		}
-		await payments.update(tx, p.id, {
+		const updated = await payments.update(tx, p.id, {
 			refundedCents: charge.amount_refunded,
-			status: charge.amount_refunded > 0 ? 'refunded' : 'succeeded'
+			status: statusAfterRefunds(p.amountCents, charge.amount_refunded)
 		});
+		for (const given of made) await announceRefund(tx, updated!, given);
 	});
 }
 

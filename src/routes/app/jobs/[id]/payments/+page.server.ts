@@ -89,7 +89,11 @@ export const actions: Actions = {
 		const fields = formFields(await request.formData());
 		// Each payment has its own refund form: the answer says which one it is for.
 		const refundFor = fields.paymentId ?? '';
-		const values = { amount: fields.amount ?? '', note: fields.note ?? '' };
+		const values = {
+			amount: fields.amount ?? '',
+			note: fields.note ?? '',
+			reason: fields.reason ?? ''
+		};
 		// The amount is typed in the payment's own currency.
 		const money = await readInStore(store.id, (tx) => payments.moneyFor(tx, params.id));
 		const currency = money.payments.find((p) => p.id === refundFor)?.currency ?? money.currency;
