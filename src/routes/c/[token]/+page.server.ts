@@ -143,6 +143,8 @@ const CHECKOUT_REFUSED = {
 export const actions: Actions = {
 	pay: async ({ params, request }) => {
 		const link = openLink(params.token);
+		// A link the store has withdrawn pays nothing (410, as its page says).
+		await readInStore(link.storeId, (tx) => linkedJob(tx, link));
 		const form = await request.formData();
 		const purpose = form.get('purpose') === 'balance' ? 'balance' : 'deposit';
 		const started = await startCheckout({
