@@ -1,7 +1,7 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import { inStore, readInStore } from '$lib/server/db/tenant';
-import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
+import { fieldErrors, parseForm, refuse, type FieldErrors } from '$lib/server/forms';
 import { seesCardFees, visibleMoney } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob, requireObjects } from '$lib/server/object-access';
@@ -106,7 +106,7 @@ export const actions: Actions = {
 			note: parsed.data.note
 		};
 		const refused = (status: number, message: string) =>
-			fail(status, { refundFor, values, errors: { amount: [message] } });
+			fail(status, { refundFor, values, errors: { amount: [message] } as FieldErrors });
 		const { paymentId } = parsed.data;
 		const byHand = await inStore(store.id, (tx) => refundInStore(tx, paymentId, input, user.id));
 		if (byHand.ok) return { refunded: true };
