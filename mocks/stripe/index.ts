@@ -4,6 +4,7 @@ import Stripe from 'stripe';
 import { CHECKOUT_CARDS, checkoutView, type CheckoutView } from './checkout';
 import { Payments, TEST_CARDS, type PayResult, type TestCardName } from './payments';
 import { stripeHandlers } from './routes';
+import { newId } from './ids';
 import { Store, type Delivery } from './store';
 import { signatureHeader, Webhooks, type DeliverOptions } from './webhooks';
 
@@ -117,7 +118,15 @@ export function createStripeFake(options: StripeFakeOptions): StripeFake {
 		lists.flat().sort((a, b) => b.created - a.created);
 
 	return {
-		handlers: stripeHandlers(account, Stripe.API_VERSION),
+		handlers: stripeHandlers(account, Stripe.API_VERSION, {
+			// An account the fake has (used, saved by an earlier run, or made through the API).
+			has: (id) => accounts.has(id),
+			create: () => {
+				const id = newId('acct_');
+				account(id).store.save();
+				return id;
+			}
+		}),
 		store: platform.store,
 		account: (id) => account(id).store,
 		options,

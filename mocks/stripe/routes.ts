@@ -261,6 +261,17 @@ function authenticate(header: string | null) {
 	}
 }
 
+/** Stripe's 401 for a request without a test key, or null when its key is one. */
+function refusedKey(request: Request) {
+	try {
+		authenticate(request.headers.get('authorization'));
+		return null;
+	} catch (e) {
+		if (e instanceof StripeFakeError) return HttpResponse.json(e.toJSON(), { status: e.status });
+		throw e;
+	}
+}
+
 /** Whether Stripe keeps a response for its idempotency key: not for refused parameters or auth. */
 const keepsResult = (status: number) => status < 400 || status === 402 || status >= 500;
 
@@ -270,9 +281,46 @@ const keepsResult = (status: number) => status < 400 || status === 402 || status
  */
 export function stripeHandlers(
 	accountFor: (id: string | null) => { store: Store; payments: Payments },
-	apiVersion: string
+	apiVersion: string,
+	connected: { has: (id: string) => boolean; create: () => string } = {
+		has: () => false,
+		create: () => newId('acct_')
+	}
 ) {
+	const noAccess = (id: string) =>
+		HttpResponse.json(
+			{
+				error: {
+					type: 'invalid_request_error',
+					message: `The provided key does not have access to account '${id}' (or that account does not exist).`
+				}
+			},
+			{ status: 403 }
+		);
+	const account = (id: string) => ({
+		id,
+		object: 'account',
+		type: 'standard',
+		charges_enabled: true,
+		payouts_enabled: true,
+		details_submitted: true,
+		livemode: false
+	});
 	return [
+		// Connected accounts, asked for with the platform's key: one the fake has is answered, any
+		// other is refused as Stripe refuses an account not connected to the platform.
+		http.get(`${BASE}/v1/accounts/:id`, ({ request, params }) => {
+			const refused = refusedKey(request);
+			if (refused) return refused;
+			const id = String(params.id);
+			if (request.headers.get('stripe-account') !== null) return noAccess(id);
+			return connected.has(id) ? HttpResponse.json(account(id)) : noAccess(id);
+		}),
+		http.post(`${BASE}/v1/accounts`, ({ request }) => {
+			const refused = refusedKey(request);
+			if (refused) return refused;
+			return HttpResponse.json(account(connected.create()));
+		}),
 		http.all(`${BASE}/*`, async ({ request }) => {
 			const header = request.headers.get('stripe-account');
 			if (header !== null && !/^acct_[A-Za-z0-9]{6,}$/.test(header)) {

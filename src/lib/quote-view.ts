@@ -14,7 +14,8 @@ export const QUOTE_STATUS_LABELS = {
 	sent: 'Sent to the customer',
 	accepted: 'Accepted by the customer',
 	changes_requested: 'Customer asked for changes',
-	superseded: 'Replaced by a newer version'
+	superseded: 'Replaced by a newer version',
+	withdrawn: 'Withdrawn by the store'
 } as const satisfies Record<string, string>;
 
 /** A quote as the customer may see it, with the store-only figures when the viewer may. */

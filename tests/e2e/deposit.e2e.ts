@@ -111,12 +111,16 @@ test('the manager records a cheque and refunds part of it, never more than was p
 	const cheque = page.locator('details').filter({ hasText: /\$25\.00 left/ });
 	await cheque.locator('summary').click();
 	await cheque.getByLabel('Amount ($)').fill('30');
+	await cheque.getByLabel('Reason').selectOption('overcharge');
 	await cheque.getByRole('button', { name: 'Record the refund' }).click();
 	await expect(page.getByText('More than is left on this payment.')).toBeVisible();
 	await cheque.getByLabel('Amount ($)').fill('10');
 	await cheque.getByRole('button', { name: 'Record the refund' }).click();
 	await expect(page.getByText('Refund made.')).toBeVisible();
 	await expect(page.getByText('−$10.00 refunded')).toBeVisible();
+	// An overcharge refund is a credit line: the balance due did not move, and the cheque is partly refunded.
+	await expect(page.getByText('Partly refunded')).toBeVisible();
+	await expect(page.getByTestId('ledger-credits')).toHaveText('$10.00');
 });
 
 test('the reconciliation flags a mismatch of each kind, and exports the period', async ({

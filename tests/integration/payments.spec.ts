@@ -3,7 +3,6 @@
 // webhook the app never got.
 import { inStore } from '$lib/server/db/tenant';
 import { LOCAL_STRIPE_WEBHOOK_SECRET } from '$lib/server/config';
-import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
@@ -24,6 +23,7 @@ import path from 'node:path';
 import type Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeQuotedJob, makeStore, sendAndAccept, unique, type TestStore } from './factories';
+import { acceptedJob, depositSession, eventsFor as eventsForIn } from './card-jobs';
 import { eventually, startTestWorker } from './task-worker';
 import type { TaskWorker } from '$lib/server/tasks/worker';
 import { jobScope } from '$lib/server/object-access';
@@ -45,36 +45,8 @@ afterAll(async () => {
 
 const owner = (store: TestStore) => jobScope(grantsOf('owner'), store.owner.id);
 
-/** A store with its own Stripe account and an accepted quote, ready for the deposit. */
-async function acceptedJob(name = 'Card Floors') {
-	const store = await makeStore(name);
-	const account = `acct_${unique('s').replace(/[^a-z0-9]/gi, '')}`;
-	await inStore(store.id, (tx) => saveStripeAccount(tx, account));
-	const made = await makeQuotedJob(store);
-	await inStore(store.id, (tx) =>
-		customers.update(tx, made.customer.id, { email: 'customer@test.example' })
-	);
-	await sendAndAccept(store, made, 'customer@test.example');
-	return { store, account, ...made };
-}
-
-const sessionOf = (url: string) => /\/dev\/checkout\/(cs_[\w]+)/.exec(url)![1];
-async function deposit(store: TestStore, jobId: string) {
-	const started = await startCheckout(
-		{ storeId: store.id, jobId, purpose: 'deposit', linkToken: 'tok' },
-		t.stripe
-	);
-	if (!started.ok) throw new Error(`checkout: ${started.reason}`);
-	return sessionOf(started.url);
-}
-
-/** The events Stripe made for a payment, oldest first (as delivered), from the fake's record. */
-function eventsFor(account: string, after: number) {
-	return t.fake
-		.events()
-		.filter((e) => e.account === account && e.created >= after)
-		.reverse();
-}
+const deposit = (store: TestStore, jobId: string) => depositSession(t, store, jobId);
+const eventsFor = (account: string, after: number) => eventsForIn(t, account, after);
 
 describe('a deposit by card', () => {
 	it('is recorded once from its webhooks, with its fee; the job becomes sold and the customer gets a receipt', async () => {
@@ -194,7 +166,8 @@ describe('webhook signatures', () => {
 		id: 'evt_test',
 		object: 'event',
 		type: 'charge.succeeded',
-		data: { object: {} }
+		created: 1_700_000_000,
+		data: { object: { id: 'ch_test', object: 'charge' } }
 	});
 
 	it('admits a body signed with the endpoint secret', async () => {

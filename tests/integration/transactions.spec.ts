@@ -3,6 +3,7 @@ import { grantsOf } from '$lib/server/permissions';
 // every query of their load on one connection, between one BEGIN and one COMMIT. Counted at the
 // pg driver, below Drizzle, so nothing the app does can hide a statement.
 import { customerLink } from '$lib/server/customer-page';
+import { readInStore } from '$lib/server/db/tenant';
 import { isHttpError, type RequestEvent } from '@sveltejs/kit';
 import pg from 'pg';
 import { afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
@@ -108,7 +109,8 @@ describe('one transaction per request', () => {
 	});
 
 	it("for the customer's page, with the store, quote, money and site", async () => {
-		const token = new URL(customerLink(store.id, made.job.id)).pathname.split('/').at(-1)!;
+		const link = await readInStore(store.id, (tx) => customerLink(tx, made.job.id));
+		const token = new URL(link).pathname.split('/').at(-1)!;
 		const url = new URL(`http://127.0.0.1:4173/c/${token}`);
 		let data: Record<string, unknown> = {};
 		const statements = await statementsOf(async () => {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+	handMove,
 	canBook,
 	canCheckIn,
 	canComplete,
@@ -104,5 +105,40 @@ describe('job status', () => {
 
 	it('deletes only jobs never sold, or given up', () => {
 		expect(JOB_STATUSES.filter(canDelete)).toEqual(['draft', 'cancelled']);
+	});
+});
+
+describe('moves by hand (issue 9, item 9)', () => {
+	const none = {
+		quoteSent: false,
+		quoteAccepted: false,
+		depositDue: true,
+		balanceDue: true,
+		booked: false
+	};
+
+	it('need what each step stands for, and skip none', () => {
+		expect(handMove('draft', 'quoted', none).ok).toBe(false);
+		expect(handMove('draft', 'quoted', { ...none, quoteSent: true }).ok).toBe(true);
+		expect(handMove('draft', 'sold', { ...none, quoteAccepted: true, depositDue: false })).toEqual({
+			ok: false,
+			message: 'A draft job cannot become sold.'
+		});
+		expect(handMove('quoted', 'accepted', { ...none, quoteSent: true }).ok).toBe(false);
+		expect(handMove('accepted', 'sold', { ...none, quoteAccepted: true }).ok).toBe(false);
+		expect(
+			handMove('accepted', 'sold', { ...none, quoteAccepted: true, depositDue: false }).ok
+		).toBe(true);
+		expect(handMove('sold', 'scheduled', none).ok).toBe(false);
+		expect(handMove('sold', 'scheduled', { ...none, booked: true }).ok).toBe(true);
+		expect(handMove('scheduled', 'sold', { ...none, booked: true }).ok).toBe(false);
+		expect(handMove('completed', 'closed', none).ok).toBe(false);
+		expect(handMove('completed', 'closed', { ...none, balanceDue: false }).ok).toBe(true);
+	});
+
+	it('let any job before completion be cancelled, and none after', () => {
+		for (const s of JOB_STATUSES) {
+			expect(handMove(s, 'cancelled', none).ok).toBe(canMove(s, 'cancelled'));
+		}
 	});
 });

@@ -58,6 +58,65 @@ export function canMove(from: JobStatus, to: JobStatus): boolean {
 	return nextStatuses(from).includes(to);
 }
 
+/** What a move by hand needs to know about the job beyond its state. */
+export interface MoveFacts {
+	/** A version of its quote is sent and waiting for the customer's answer. */
+	quoteSent: boolean;
+	/** The customer accepted a version. */
+	quoteAccepted: boolean;
+	/** Deposit still to pay (from the ledger). */
+	depositDue: boolean;
+	/** Balance still to pay (from the ledger). */
+	balanceDue: boolean;
+	/** A live booking on the schedule. */
+	booked: boolean;
+}
+
+export type HandMoveCheck = { ok: true } | { ok: false; message: string };
+
+const label = (s: JobStatus) => JOB_STATUS_LABELS[s].toLowerCase();
+
+/**
+ * Whether staff may move a job from `from` to `to` by hand, and why not. A move by hand takes the
+ * same steps as the product's own workflows and may skip none: a job becomes quoted only with a
+ * sent quote, accepted only by the customer's acceptance, sold only once the deposit is in,
+ * scheduled only with a booking, closed only when nothing is left to pay. Cancelling is allowed
+ * before completion (it withdraws any open quote).
+ */
+export function handMove(from: JobStatus, to: JobStatus, facts: MoveFacts): HandMoveCheck {
+	if (!canMove(from, to)) {
+		return { ok: false, message: `A ${label(from)} job cannot become ${label(to)}.` };
+	}
+	const refuse = (message: string) => ({ ok: false, message }) as const;
+	switch (to) {
+		case 'quoted':
+			return facts.quoteSent
+				? { ok: true }
+				: refuse('Send the quote first: sending it makes the job quoted.');
+		case 'accepted':
+			return facts.quoteAccepted
+				? { ok: true }
+				: refuse('The customer accepts the quote from their link; that makes the job accepted.');
+		case 'sold':
+			if (from === 'scheduled' && facts.booked) {
+				return refuse('Cancel the booking on the schedule; that returns the job to sold.');
+			}
+			return facts.quoteAccepted && !facts.depositDue
+				? { ok: true }
+				: refuse('Record the deposit first: a paid deposit makes the job sold.');
+		case 'scheduled':
+			return facts.booked
+				? { ok: true }
+				: refuse('Book an installer on the schedule; the booking makes the job scheduled.');
+		case 'closed':
+			return facts.balanceDue
+				? refuse('Something is still to pay: record the balance before closing the job.')
+				: { ok: true };
+		default:
+			return { ok: true };
+	}
+}
+
 /** A job whose quote may still be built, changed and sent: the customer has not accepted yet. */
 export function canQuote(status: JobStatus): boolean {
 	return status === 'draft' || status === 'quoted';

@@ -28,4 +28,11 @@ describe('customer links', () => {
 		expect(verifyLink('not-a-token', secret)).toEqual({ ok: false, reason: 'malformed' });
 		expect(verifyLink('a.b.c', secret)).toEqual({ ok: false, reason: 'malformed' });
 	});
+
+	it('carry the job’s link version (1 unless given)', () => {
+		const v3 = signLink({ storeId: 's1', jobId: 'j1', expiresAt: later, version: 3 }, secret);
+		expect(verifyLink(v3, secret)).toMatchObject({ ok: true, version: 3 });
+		const signed = signLink({ storeId: 's1', jobId: 'j1', expiresAt: later }, secret);
+		expect(verifyLink(signed, secret)).toMatchObject({ ok: true, version: 1 });
+	});
 });

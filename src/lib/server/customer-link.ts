@@ -9,6 +9,11 @@ export interface LinkClaims {
 	storeId: string;
 	jobId: string;
 	expiresAt: Date;
+	/**
+	 * The job's link version when the link was made (`job.link_version`); staff revoking the link
+	 * raise the job's, and older links then stop working. Links made before versions carry none: 1.
+	 */
+	version?: number;
 }
 
 export type LinkCheck =
@@ -27,7 +32,8 @@ export function signLink(claims: LinkClaims, secret: string): string {
 		JSON.stringify({
 			s: claims.storeId,
 			j: claims.jobId,
-			e: Math.floor(claims.expiresAt.getTime() / 1000)
+			e: Math.floor(claims.expiresAt.getTime() / 1000),
+			v: claims.version ?? 1
 		})
 	).toString('base64url');
 	return `${payload}.${mac(payload, secret)}`;
@@ -43,7 +49,7 @@ export function verifyLink(token: string, secret: string, now = new Date()): Lin
 	if (expected.length !== given.length || !timingSafeEqual(expected, given)) {
 		return { ok: false, reason: 'forged' };
 	}
-	let claims: { s?: unknown; j?: unknown; e?: unknown };
+	let claims: { s?: unknown; j?: unknown; e?: unknown; v?: unknown };
 	try {
 		claims = JSON.parse(Buffer.from(payload, 'base64url').toString('utf8'));
 	} catch {
@@ -52,11 +58,13 @@ export function verifyLink(token: string, secret: string, now = new Date()): Lin
 	if (
 		typeof claims.s !== 'string' ||
 		typeof claims.j !== 'string' ||
-		typeof claims.e !== 'number'
+		typeof claims.e !== 'number' ||
+		(claims.v !== undefined && !(Number.isSafeInteger(claims.v) && (claims.v as number) >= 1))
 	) {
 		return { ok: false, reason: 'malformed' };
 	}
 	const expiresAt = new Date(claims.e * 1000);
 	if (expiresAt <= now) return { ok: false, reason: 'expired' };
-	return { ok: true, storeId: claims.s, jobId: claims.j, expiresAt };
+	const version = (claims.v as number | undefined) ?? 1;
+	return { ok: true, storeId: claims.s, jobId: claims.j, expiresAt, version };
 }

@@ -4,7 +4,17 @@ import { describe, expect, it } from 'vitest';
 import { config } from './config';
 import { verifiedEvent } from './stripe';
 
-const payload = JSON.stringify({ id: 'evt_test_1', object: 'event', type: 'payout.paid' }, null, 2);
+const payload = JSON.stringify(
+	{
+		id: 'evt_test_1',
+		object: 'event',
+		type: 'payout.paid',
+		created: 1_700_000_000,
+		data: { object: { id: 'po_test_1', object: 'payout' } }
+	},
+	null,
+	2
+);
 const post = (signature: string | null, body = payload) =>
 	new Request('http://127.0.0.1/api/webhooks/stripe', {
 		method: 'POST',

@@ -211,6 +211,11 @@ export const job = pgTable(
 		salespersonId: text('salesperson_id').references(() => user.id, { onDelete: 'set null' }),
 		installerId: text('installer_id').references(() => user.id, { onDelete: 'set null' }),
 		notes: text('notes').notNull().default(''),
+		/**
+		 * The customer's link version: signed into every link; staff revoking the link raises it, and
+		 * a link of an older version then answers that it was replaced or withdrawn.
+		 */
+		linkVersion: integer('link_version').notNull().default(1),
 		statusChangedAt: timestamp('status_changed_at', { withTimezone: true }).defaultNow().notNull(),
 		...timestamps
 	},
@@ -294,7 +299,9 @@ export const QUOTE_STATUSES = [
 	'sent',
 	'accepted',
 	'changes_requested',
-	'superseded'
+	'superseded',
+	// The store took it back (the job was cancelled): the customer can no longer answer it.
+	'withdrawn'
 ] as const;
 export const quoteStatus = pgEnum('quote_status', QUOTE_STATUSES);
 
@@ -379,6 +386,11 @@ export const payment = pgTable(
 		/** Cheque number, terminal slip, transfer reference: what the store wrote down. */
 		reference: text('reference').notNull().default(''),
 		failureMessage: text('failure_message'),
+		/**
+		 * Why a paid Checkout Session naming this payment was not taken as paying it (its amount or
+		 * currency differs); flagged on the reconciliation page. The payment stays unpaid.
+		 */
+		mismatch: text('mismatch'),
 		stripeCheckoutSessionId: text('stripe_checkout_session_id').unique(),
 		stripePaymentIntentId: text('stripe_payment_intent_id').unique(),
 		stripeChargeId: text('stripe_charge_id').unique(),

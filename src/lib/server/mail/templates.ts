@@ -158,39 +158,81 @@ export function customerAnswerMail(input: {
 	};
 }
 
-/** The customer's receipt for a payment, from the store. */
-export function receiptMail(input: {
+/** What the customer's money e-mails (a receipt, a refund) say of the store, the job and the money. */
+export interface MoneyMailInput {
 	to: string;
 	storeName: string;
 	storePhone: string;
 	customerName: string;
 	jobLabel: string;
 	jobTitle: string;
-	what: string;
 	amount: string;
 	balance: string;
-	paidAt: Date;
 	reference: string;
 	url: string;
 	/** The store's time zone. */
 	timeZone: string;
-}): Mail {
-	const when = `${formatDateTime(input.paidAt, input.timeZone, 'long')} ${zoneName(input.paidAt, input.timeZone)}`;
+}
+
+function moneyMail(
+	input: MoneyMailInput,
+	at: Date,
+	parts: {
+		subject: string;
+		heading: string;
+		happened: (when: string) => string;
+		note?: string;
+		footer: string;
+	}
+): Mail {
+	const when = `${formatDateTime(at, input.timeZone, 'long')} ${zoneName(at, input.timeZone)}`;
 	return {
 		to: input.to,
 		fromName: input.storeName,
-		subject: `Receipt from ${input.storeName}: ${input.amount} for ${input.jobTitle}`,
+		subject: `${parts.subject} from ${input.storeName}: ${input.amount} for ${input.jobTitle}`,
 		...layout({
-			heading: `Thank you, ${input.customerName}`,
+			heading: parts.heading,
 			paragraphs: [
-				`${input.storeName} received ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle} on ${when}.`,
+				parts.happened(when),
 				`Reference: ${input.reference}. Still to pay: ${input.balance}.`,
+				parts.note ?? '',
 				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
 			].filter(Boolean),
 			action: { label: 'See your job', url: input.url },
-			footer: `Keep this e-mail as your receipt. Sent by ${input.storeName}.`
+			footer: parts.footer
 		})
 	};
+}
+
+/** The customer's receipt for a payment, from the store. */
+export function receiptMail(input: MoneyMailInput & { what: string; paidAt: Date }): Mail {
+	return moneyMail(input, input.paidAt, {
+		subject: 'Receipt',
+		heading: `Thank you, ${input.customerName}`,
+		happened: (when) =>
+			`${input.storeName} received ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle} on ${when}.`,
+		footer: `Keep this e-mail as your receipt. Sent by ${input.storeName}.`
+	});
+}
+
+/** Tells the customer money was given back, why, and where their job's money now stands. */
+export function refundMail(
+	input: MoneyMailInput & {
+		/** Why, in the customer's words. */
+		why: string;
+		/** Where it goes: "to the card you paid with". */
+		where: string;
+		refundedAt: Date;
+	}
+): Mail {
+	return moneyMail(input, input.refundedAt, {
+		subject: 'Refund',
+		heading: `${input.customerName}, we have refunded ${input.amount}`,
+		happened: (when) =>
+			`${input.storeName} refunded ${input.amount} for ${input.jobLabel} ${input.jobTitle} on ${when}, for ${input.why}, ${input.where}.`,
+		note: 'A card refund can take several business days to show on your statement.',
+		footer: `Keep this e-mail for your records. Sent by ${input.storeName}.`
+	});
 }
 
 /** Tells the salesperson the customer paid. */

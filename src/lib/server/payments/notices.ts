@@ -8,7 +8,7 @@ import * as payments from '../db/queries/payments';
 import { emailOf, readProfile, readStore } from '../db/queries/stores';
 import type { StoreWriteTx } from '../db/tenant';
 import { queueMail } from '../mail/queue';
-import { paidNoticeMail, receiptMail } from '../mail/templates';
+import { paidNoticeMail, receiptMail, refundMail, type MoneyMailInput } from '../mail/templates';
 
 const PURPOSE_WORDS: Record<payments.Payment['purpose'], string> = {
 	deposit: 'deposit',
@@ -17,38 +17,52 @@ const PURPOSE_WORDS: Record<payments.Payment['purpose'], string> = {
 };
 
 /**
+ * The job of a payment and what the customer's money e-mails say of it (the balance as the ledger
+ * has it now, in this transaction); `to` is empty when the customer has no address.
+ */
+async function moneyMailOf(tx: StoreWriteTx, paid: payments.Payment, amountCents: number) {
+	const store = await readStore(tx);
+	const job = await jobs.readForStore(tx, paid.jobId);
+	if (!store || !job) return null;
+	const profile = await readProfile(tx);
+	const money = await payments.moneyFor(tx, paid.jobId);
+	const customer = await customers.read(tx, job.customerId);
+	const mail: MoneyMailInput = {
+		to: customer?.email ?? '',
+		storeName: store.name,
+		storePhone: profile.phone,
+		customerName: customer?.name ?? job.customerName,
+		jobLabel: jobLabel(job.number),
+		jobTitle: job.title,
+		amount: formatMoney(amountCents, paid.currency),
+		balance: formatMoney(money.ledger.balanceDueCents, money.currency),
+		reference: '',
+		url: await customerLink(tx, job.id),
+		timeZone: store.timeZone
+	};
+	return { store, job, mail };
+}
+
+/**
  * Queues the customer's receipt and the salesperson's notice of a payment (to those with an
  * address), in the transaction that recorded it.
  */
 export async function announcePayment(tx: StoreWriteTx, paid: payments.Payment) {
-	const store = await readStore(tx);
-	const job = await jobs.readForStore(tx, paid.jobId);
-	if (!store || !job) return;
-	const profile = await readProfile(tx);
-	const money = await payments.moneyFor(tx, paid.jobId);
-	const customer = await customers.read(tx, job.customerId);
+	const found = await moneyMailOf(tx, paid, paid.amountCents);
+	if (!found) return;
+	const { store, job, mail } = found;
 	const seller = await emailOf(tx, job.salespersonId);
-	const amount = formatMoney(paid.amountCents, paid.currency);
 	const what = PURPOSE_WORDS[paid.purpose];
 	const about = { jobId: job.id };
-	if (customer?.email) {
+	if (mail.to) {
 		await queueMail(
 			tx,
 			'receipt',
 			receiptMail({
-				to: customer.email,
-				storeName: store.name,
-				storePhone: profile.phone,
-				customerName: customer.name,
-				jobLabel: jobLabel(job.number),
-				jobTitle: job.title,
+				...mail,
 				what,
-				amount,
-				balance: formatMoney(money.ledger.balanceDueCents, money.currency),
 				paidAt: paid.succeededAt ?? new Date(),
-				reference: paid.stripeChargeId ?? paid.id,
-				url: customerLink(tx.storeId, job.id),
-				timeZone: store.timeZone
+				reference: paid.stripeChargeId ?? paid.id
 			}),
 			about
 		);
@@ -61,13 +75,45 @@ export async function announcePayment(tx: StoreWriteTx, paid: payments.Payment) 
 				to: seller,
 				storeName: store.name,
 				customerName: job.customerName,
-				jobLabel: jobLabel(job.number),
+				jobLabel: mail.jobLabel,
 				jobTitle: job.title,
 				what,
-				amount,
+				amount: mail.amount,
 				url: `${config.origin}/app/jobs/${job.id}/payments`
 			}),
 			about
 		);
 	}
+}
+
+const REFUND_WHY: Record<payments.RefundReason, string> = {
+	overcharge: 'an overcharge (what you owe is lowered by the same amount)',
+	cancellation: 'the cancelled job',
+	other: 'money given back'
+};
+
+/**
+ * Queues the customer's notice of a refund that has been made (to a customer with an address), in
+ * the transaction that recorded it: every refund, whatever its reason or where it was made.
+ */
+export async function announceRefund(
+	tx: StoreWriteTx,
+	paid: payments.Payment,
+	given: Pick<payments.Refund, 'id' | 'amountCents' | 'reason' | 'stripeRefundId'>
+) {
+	const found = await moneyMailOf(tx, paid, given.amountCents);
+	if (!found?.mail.to) return;
+	await queueMail(
+		tx,
+		'refund',
+		refundMail({
+			...found.mail,
+			why: REFUND_WHY[given.reason],
+			where:
+				paid.method === 'card' ? 'to the card you paid with' : 'as the store arranged with you',
+			refundedAt: new Date(),
+			reference: given.stripeRefundId ?? given.id
+		}),
+		{ jobId: found.job.id }
+	);
 }

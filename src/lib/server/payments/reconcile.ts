@@ -1,4 +1,4 @@
-import { and, eq, gte, lte } from 'drizzle-orm';
+import { and, eq, gte, isNotNull, lte } from 'drizzle-orm';
 import { formatMoney } from '$lib/format';
 import { jobLabel } from '$lib/jobs/status';
 import { stripeAccount, termsOf } from '../db/queries/settings';
@@ -48,6 +48,8 @@ export interface Reconciliation {
 	counts: Record<MatchStatus, number>;
 	totals: { chargedCents: number; refundedCents: number; feeCents: number; paidOutCents: number };
 	connected: boolean;
+	/** Paid checkouts that named a payment but did not pay its amount or currency: never taken as paid. */
+	mismatches: { paymentId: string; jobId: string; jobLabel: string; note: string }[];
 	/** The store's currency, for the totals. */
 	currency: string;
 }
@@ -82,9 +84,27 @@ export async function reconcile(
 		lastRunAt: state?.lastRunAt?.toISOString() ?? null,
 		lastError: state?.lastError ?? null
 	};
+	const mismatches = (
+		await tx
+			.select({ id: payment.id, jobId: payment.jobId, number: job.number, note: payment.mismatch })
+			.from(payment)
+			.innerJoin(
+				job,
+				and(eq(job.id, payment.jobId), eq(job.organizationId, payment.organizationId))
+			)
+			.where(and(eq(payment.organizationId, tx.storeId), isNotNull(payment.mismatch)))
+			.orderBy(payment.updatedAt)
+			.limit(200)
+	).map((m) => ({
+		paymentId: m.id,
+		jobId: m.jobId,
+		jobLabel: jobLabel(m.number),
+		note: m.note ?? ''
+	}));
 	if (!account) {
 		return {
 			...base,
+			mismatches,
 			currency,
 			sync,
 			rows: [],
@@ -278,6 +298,7 @@ export async function reconcile(
 		payouts: payoutRows,
 		counts,
 		connected: true,
+		mismatches,
 		currency,
 		sync,
 		totals: {

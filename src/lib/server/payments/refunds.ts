@@ -3,6 +3,7 @@ import type Stripe from 'stripe';
 import * as payments from '../db/queries/payments';
 import { inStore, type StoreWriteTx } from '../db/tenant';
 import { stripe as appStripe } from '../stripe';
+import { announceRefund } from './notices';
 import { storeAccount, syncRefundsIn } from './sync';
 
 export type RefundInput = { amountCents: number; reason: payments.RefundReason; note: string };
@@ -46,6 +47,7 @@ export async function refundInStore(
 		createdBy: actorId
 	});
 	await payments.applyRefund(tx, paymentId, input.amountCents);
+	await announceRefund(tx, (await payments.read(tx, paymentId))!, row);
 	return { ok: true, refund: row };
 }
 

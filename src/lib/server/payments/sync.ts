@@ -1,9 +1,10 @@
+import { statusAfterRefunds } from '$lib/payments/ledger';
 import type Stripe from 'stripe';
 import * as payments from '../db/queries/payments';
 import { stripeAccount } from '../db/queries/settings';
 import { inStore, readInStore } from '../db/tenant';
 import { stripe as appStripe, idOf } from '../stripe';
-import { announcePayment } from './notices';
+import { announcePayment, announceRefund } from './notices';
 import { paymentSucceeded } from './succeeded';
 
 /**
@@ -12,7 +13,21 @@ import { paymentSucceeded } from './succeeded';
  * page runs the same sync for anything a missed webhook left pending.
  */
 
-export type SyncOutcome = 'succeeded' | 'failed' | 'pending' | 'unchanged' | 'unknown';
+export type SyncOutcome = 'succeeded' | 'failed' | 'pending' | 'unchanged' | 'unknown' | 'mismatch';
+
+/**
+ * Why a paid session does not pay this payment (its amount or currency is not the payment's), or
+ * null when it does. A session carries our payment's id in its metadata, which alone proves
+ * nothing: the money must be the payment's too.
+ */
+export function sessionMismatch(
+	session: Pick<Stripe.Checkout.Session, 'id' | 'amount_total' | 'currency'>,
+	p: Pick<payments.Payment, 'amountCents' | 'currency'>
+): string | null {
+	const currency = (session.currency ?? '').toUpperCase();
+	if (session.amount_total === p.amountCents && currency === p.currency.toUpperCase()) return null;
+	return `Checkout ${session.id} was paid ${session.amount_total ?? '?'} ${currency || '?'} (smallest unit); this payment is ${p.amountCents} ${p.currency.toUpperCase()}. Not taken as paid.`;
+}
 
 /** A store and its Stripe account, looked up once by whoever syncs several things. */
 export interface StoreAccount {
@@ -62,6 +77,12 @@ export async function syncSessionIn(
 			return { outcome: 'unchanged' as const };
 		}
 		if (session.payment_status === 'paid') {
+			const mismatch = sessionMismatch(session, p);
+			if (mismatch) {
+				// Stored and flagged on the reconciliation page; nothing is marked paid.
+				await payments.update(tx, p.id, { mismatch });
+				return { outcome: 'mismatch' as const };
+			}
 			const row = await payments.update(tx, p.id, {
 				status: 'succeeded',
 				stripeCheckoutSessionId: session.id,
@@ -125,16 +146,22 @@ export async function syncRefundsIn(
 	const refunds = charge.refunds?.data ?? [];
 	await inStore(storeId, async (tx) => {
 		await payments.lock(tx, p.id);
+		// Refunds that became money given back in this sync: the customer is told of each.
+		const made: Pick<payments.Refund, 'id' | 'amountCents' | 'reason' | 'stripeRefundId'>[] = [];
 		for (const r of refunds) {
 			const status = REFUND_STATUS(r.status);
 			const existing = await payments.findRefund(tx, {
 				stripeId: r.id,
-				id: r.metadata?.refund_id
+				id: typeof r.metadata?.refund_id === 'string' ? r.metadata.refund_id : null
 			});
 			if (existing) {
 				await payments.updateRefund(tx, existing.id, { status, stripeRefundId: r.id });
+				if (status === 'succeeded' && existing.status !== 'succeeded') {
+					const row = await payments.readRefund(tx, existing.id);
+					if (row) made.push(row);
+				}
 			} else {
-				await payments.insertRefund(tx, {
+				const row = await payments.insertRefund(tx, {
 					paymentId: p.id,
 					amountCents: r.amount,
 					reason: 'other',
@@ -142,12 +169,14 @@ export async function syncRefundsIn(
 					status,
 					stripeRefundId: r.id
 				});
+				if (status === 'succeeded') made.push(row);
 			}
 		}
-		await payments.update(tx, p.id, {
+		const updated = await payments.update(tx, p.id, {
 			refundedCents: charge.amount_refunded,
-			status: charge.amount_refunded > 0 ? 'refunded' : 'succeeded'
+			status: statusAfterRefunds(p.amountCents, charge.amount_refunded)
 		});
+		for (const given of made) await announceRefund(tx, updated!, given);
 	});
 }
 

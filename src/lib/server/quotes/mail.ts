@@ -25,7 +25,7 @@ export async function quoteMailFor(tx: StoreTx, quote: quotes.Quote, to: string)
 		deposit: formatMoney(quote.depositCents, quote.currency),
 		validUntil: quote.validUntil ?? new Date(),
 		timeZone: store.timeZone,
-		url: customerLink(tx.storeId, job.id)
+		url: await customerLink(tx, job.id)
 	});
 }
 

@@ -18,6 +18,7 @@ export const MAIL_PURPOSES = {
 	'customer-answer': 'Customer’s answer, to the salesperson',
 	receipt: 'Receipt',
 	'paid-notice': 'Payment notice, to the salesperson',
+	refund: 'Refund notice',
 	invitation: 'Invitation',
 	'password-reset': 'Password reset'
 } as const;

@@ -19,6 +19,7 @@ import { defaultSettings, type StoreSettings } from '$lib/estimating';
 import { settingsSchema } from '$lib/schemas/estimate';
 import { restoreDefaultsWhereInvalid } from '$lib/server/store-settings';
 import { log } from '$lib/server/log';
+import { connectStripeAccount } from '$lib/server/payments/connect';
 import { fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -63,6 +64,12 @@ export const load: PageServerLoad = async () => {
 	};
 };
 
+const CONNECT_REFUSED = {
+	unknown:
+		'This account cannot be connected: Stripe does not have it as an account connected to Flushline, or it is not free to use. Check the id in your Stripe dashboard.',
+	stripe: 'Stripe could not be reached to check the account. Try again in a minute.'
+} as const;
+
 /** A refused trade form: what was typed and each field's message, kept apart from the other forms. */
 function refuseTrade(form: FormData, errors: Record<string, string[]>) {
 	return fail(400, { trade: { values: typedValues(form), errors } });
@@ -74,20 +81,16 @@ export const actions: Actions = {
 		const { store } = requirePermission({ store: ['update'] });
 		const form = await request.formData();
 		const account = String(form.get('account') ?? '').trim();
-		if (account && !/^acct_[A-Za-z0-9]{6,}$/.test(account)) {
+		if (account && !/^acct_[A-Za-z0-9]{6,64}$/.test(account)) {
 			return fail(400, {
 				stripe: { value: account, error: 'A Stripe account id looks like acct_1A2b3C4d5E6f' }
 			});
 		}
-		try {
-			await inStore(store.id, (tx) => tradeSettings.saveStripeAccount(tx, account || null));
-		} catch (e) {
-			if ((e as { cause?: { code?: string } }).cause?.code === '23505') {
-				return fail(409, {
-					stripe: { value: account, error: 'That Stripe account is connected to another store.' }
-				});
-			}
-			throw e;
+		const connected = await connectStripeAccount(store.id, account || null);
+		if (!connected.ok) {
+			return fail(connected.reason === 'stripe' ? 502 : 400, {
+				stripe: { value: account, error: CONNECT_REFUSED[connected.reason] }
+			});
 		}
 		return { stripeSaved: true };
 	},

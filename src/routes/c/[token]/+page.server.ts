@@ -67,6 +67,7 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			depositDueCents: money.ledger.depositDueCents,
 			balanceDueCents: money.ledger.balanceDueCents,
 			netPaidCents: money.ledger.netPaidCents,
+			creditsCents: money.ledger.creditsCents,
 			canPayByCard: Boolean(account),
 			payable:
 				(due === 'deposit' && money.ledger.depositDueCents > 0) ||
@@ -127,7 +128,8 @@ const REFUSED = {
 	not_found: 'This quote is not the one this link is for.',
 	not_open:
 		'This version of the quote can no longer be answered: the store has a newer one, or it was already answered.',
-	expired: 'This quote has expired. Ask the store for an up-to-date one.'
+	expired: 'This quote has expired. Ask the store for an up-to-date one.',
+	withdrawn: 'The store withdrew this quote, so it can no longer be accepted or changed.'
 } as const;
 
 const CHECKOUT_REFUSED = {
@@ -141,6 +143,8 @@ const CHECKOUT_REFUSED = {
 export const actions: Actions = {
 	pay: async ({ params, request }) => {
 		const link = openLink(params.token);
+		// A link the store has withdrawn pays nothing (410, as its page says).
+		await readInStore(link.storeId, (tx) => linkedJob(tx, link));
 		const form = await request.formData();
 		const purpose = form.get('purpose') === 'balance' ? 'balance' : 'deposit';
 		const started = await startCheckout({

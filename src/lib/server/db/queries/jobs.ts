@@ -3,7 +3,7 @@ import { alias } from 'drizzle-orm/pg-core';
 import { canDelete, canMove, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
 import { rolesThatCan } from '../../permissions';
-import { customer, job, jobEvent, member, quote, user } from '../schema';
+import { booking, customer, job, jobEvent, member, quote, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
@@ -116,6 +116,41 @@ export async function readForViewer(tx: StoreTx, id: string, viewer: JobViewer) 
 export async function readForStore(tx: StoreTx, id: string) {
 	const [row] = await selectJobs(tx).where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)));
 	return row;
+}
+
+/** The version the job's customer links are signed with (see `job.link_version`). */
+export async function linkVersion(tx: StoreTx, id: string): Promise<number | undefined> {
+	const [row] = await tx
+		.select({ v: job.linkVersion })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)));
+	return row?.v;
+}
+
+/** Raises the job's link version: every customer link made before stops working. */
+export async function raiseLinkVersion(tx: StoreWriteTx, id: string): Promise<number | undefined> {
+	const [row] = await tx
+		.update(job)
+		.set({ linkVersion: sql`${job.linkVersion} + 1`, updatedAt: new Date() })
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)))
+		.returning({ v: job.linkVersion });
+	return row?.v;
+}
+
+/** Whether the job has a live (not cancelled) booking on the schedule. */
+export async function isBooked(tx: StoreTx, id: string): Promise<boolean> {
+	const [row] = await tx
+		.select({ id: booking.id })
+		.from(booking)
+		.where(
+			and(
+				eq(booking.organizationId, tx.storeId),
+				eq(booking.jobId, id),
+				sql`${booking.cancelledAt} is null`
+			)
+		)
+		.limit(1);
+	return Boolean(row);
 }
 
 /** Counts of the viewer's jobs per status. */

@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import { ledger, type Ledger } from '../../../payments/ledger';
-import { payment, quote, refund, stripeEvent, user } from '../schema';
+import { job, payment, quote, refund, stripeEvent, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Payment = typeof payment.$inferSelect;
@@ -43,6 +43,10 @@ export interface JobMoney {
 /** A job's payments, refunds and balance, from its accepted quote. */
 export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 	const accepted = await acceptedQuote(tx, jobId);
+	const [status] = await tx
+		.select({ status: job.status })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
 	const payments = await tx
 		.select({ ...paymentColumns, recordedByName: user.name })
 		.from(payment)
@@ -72,7 +76,9 @@ export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 		ledger: ledger({
 			quoteTotalCents: accepted?.totalCents ?? 0,
 			depositCents: accepted?.depositCents ?? 0,
-			payments
+			payments,
+			refunds,
+			cancelled: status?.status === 'cancelled'
 		})
 	};
 }
@@ -91,6 +97,7 @@ const paymentColumns = {
 	feeCents: payment.feeCents,
 	reference: payment.reference,
 	failureMessage: payment.failureMessage,
+	mismatch: payment.mismatch,
 	stripeCheckoutSessionId: payment.stripeCheckoutSessionId,
 	stripePaymentIntentId: payment.stripePaymentIntentId,
 	stripeChargeId: payment.stripeChargeId,
@@ -239,10 +246,18 @@ export async function updateRefund(
 		.where(and(eq(refund.organizationId, tx.storeId), eq(refund.id, id)));
 }
 
+export async function readRefund(tx: StoreTx, id: string): Promise<Refund | undefined> {
+	const [row] = await tx
+		.select()
+		.from(refund)
+		.where(and(eq(refund.organizationId, tx.storeId), eq(refund.id, id)));
+	return row;
+}
+
 /** A refund by its Stripe id, or by our own id when Stripe carries it in its metadata. */
 export async function findRefund(tx: StoreTx, by: { stripeId: string; id?: string | null }) {
 	const [row] = await tx
-		.select({ id: refund.id })
+		.select({ id: refund.id, status: refund.status })
 		.from(refund)
 		.where(
 			and(
@@ -259,7 +274,8 @@ export async function applyRefund(tx: StoreWriteTx, paymentId: string, amountCen
 		.update(payment)
 		.set({
 			refundedCents: sql`${payment.refundedCents} + ${amountCents}`,
-			status: 'refunded',
+			// Refunded only when nothing is left on it (see `statusAfterRefunds`).
+			status: sql`case when ${payment.refundedCents} + ${amountCents} >= ${payment.amountCents} then 'refunded' else 'succeeded' end::payment_status`,
 			updatedAt: new Date()
 		})
 		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.id, paymentId)));

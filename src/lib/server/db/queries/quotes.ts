@@ -147,3 +147,25 @@ export async function supersedeOthers(tx: StoreWriteTx, jobId: string, keepId: s
 			)
 		);
 }
+
+/** Withdraws the job's versions still before the customer (sent): they can no longer be answered. */
+export async function withdrawOpen(tx: StoreWriteTx, jobId: string) {
+	await tx
+		.update(quote)
+		.set({ status: 'withdrawn', updatedAt: new Date() })
+		.where(
+			and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, jobId), eq(quote.status, 'sent'))
+		);
+}
+
+/** Whether the job has a version sent and waiting, and one accepted. */
+export async function standing(tx: StoreTx, jobId: string) {
+	const rows = await tx
+		.select({ status: quote.status })
+		.from(quote)
+		.where(and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, jobId)));
+	return {
+		sent: rows.some((r) => r.status === 'sent'),
+		accepted: rows.some((r) => r.status === 'accepted')
+	};
+}

@@ -1,18 +1,26 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
-import { inStore, readInStore } from '$lib/server/db/tenant';
+import { inStore, readInStore, type StoreTx } from '$lib/server/db/tenant';
+import type { JobStatus } from '$lib/jobs/status';
 import { parseForm } from '$lib/server/forms';
 import { measureSummary } from '$lib/server/jobs/measure-summary';
 import { visibleLedger } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
-import { canDelete, nextStatuses, JOB_STATUS_LABELS } from '$lib/jobs/status';
+import { canDelete, handMove, nextStatuses } from '$lib/jobs/status';
+import { moveByHand, moveFacts } from '$lib/server/jobs/move';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
 import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 import { loadJobSite, siteAction } from './site.server';
+
+/** The moves staff can make by hand now, with what the job has. */
+async function movesByHand(tx: StoreTx, jobId: string, from: JobStatus) {
+	const facts = await moveFacts(tx, jobId);
+	return nextStatuses(from).filter((to) => handMove(from, to, facts).ok);
+}
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, grants, scope } = requirePermission({ job: ['read'] });
@@ -34,7 +42,7 @@ export const load: PageServerLoad = async ({ params }) => {
 				ledger: visibleLedger(grants, money.ledger),
 				count: money.payments.length
 			},
-			moves: can(grants, { job: ['schedule'] }) ? nextStatuses(job.status) : [],
+			moves: can(grants, { job: ['schedule'] }) ? await movesByHand(tx, job.id, job.status) : [],
 			canAssign,
 			site: await loadJobSite(tx, job, grants),
 			measure: await measureSummary(tx, job.id),
@@ -63,13 +71,10 @@ export const actions: Actions = {
 		const parsed = await parseForm(request, jobMoveSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { to, note } = parsed.data;
-		const result = await inStore(store.id, (tx) => jobs.move(tx, params.id, to, user.id, note));
+		const result = await inStore(store.id, (tx) => moveByHand(tx, params.id, to, user.id, note));
 		if (!result.ok && result.reason === 'not_found') error(404, 'Not found');
-		if (!result.ok && result.reason === 'not_allowed') {
-			return fail(409, {
-				moveError: `A ${JOB_STATUS_LABELS[result.from].toLowerCase()} job cannot become ${JOB_STATUS_LABELS[to].toLowerCase()}. The page shows the moves it allows.`
-			});
-		}
+		if (!result.ok)
+			return fail(409, { moveError: `${result.message} The page shows the moves it allows.` });
 		return { moved: true };
 	},
 	assign: async ({ request, params }) => {

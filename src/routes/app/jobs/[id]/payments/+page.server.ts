@@ -1,7 +1,7 @@
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import { inStore, readInStore } from '$lib/server/db/tenant';
-import { fieldErrors, parseForm, refuse } from '$lib/server/forms';
+import { fieldErrors, parseForm, refuse, type FieldErrors } from '$lib/server/forms';
 import { seesCardFees, visibleMoney } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob, requireObjects } from '$lib/server/object-access';
@@ -89,7 +89,11 @@ export const actions: Actions = {
 		const fields = formFields(await request.formData());
 		// Each payment has its own refund form: the answer says which one it is for.
 		const refundFor = fields.paymentId ?? '';
-		const values = { amount: fields.amount ?? '', note: fields.note ?? '' };
+		const values = {
+			amount: fields.amount ?? '',
+			note: fields.note ?? '',
+			reason: fields.reason ?? ''
+		};
 		// The amount is typed in the payment's own currency.
 		const money = await readInStore(store.id, (tx) => payments.moneyFor(tx, params.id));
 		const currency = money.payments.find((p) => p.id === refundFor)?.currency ?? money.currency;
@@ -102,7 +106,7 @@ export const actions: Actions = {
 			note: parsed.data.note
 		};
 		const refused = (status: number, message: string) =>
-			fail(status, { refundFor, values, errors: { amount: [message] } });
+			fail(status, { refundFor, values, errors: { amount: [message] } as FieldErrors });
 		const { paymentId } = parsed.data;
 		const byHand = await inStore(store.id, (tx) => refundInStore(tx, paymentId, input, user.id));
 		if (byHand.ok) return { refunded: true };

@@ -45,10 +45,11 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			current,
 			previous,
 			measure: await measures.read(tx, job.id),
-			customer: await customers.read(tx, job.customerId)
+			customer: await customers.read(tx, job.customerId),
+			link: await customerLink(tx, job.id)
 		};
 	});
-	const { job, versions, current, previous, measure, customer } = found;
+	const { job, versions, current, previous, measure, customer, link } = found;
 	// Each version shows in the units it was built in, as stored with it.
 	const metric = current?.input.settings.units.system === 'metric';
 	return {
@@ -86,7 +87,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		canBuild: can(grants, { quote: ['create'] }),
 		canSend: can(grants, { quote: ['send'] }),
 		jobOpen: canQuote(job.status),
-		link: current && current.status !== 'draft' ? customerLink(store.id, job.id) : null
+		link: current && current.status !== 'draft' ? link : null
 	};
 };
 
@@ -135,6 +136,17 @@ export const actions: Actions = {
 			);
 		}
 		redirect(303, `/app/jobs/${params.id}/quote?v=${sent.quote.version}&sent=1`);
+	},
+	/**
+	 * Withdraws the customer's link: every link made so far (e-mailed, copied) stops working and
+	 * says so; the page then shows the new one, which "E-mail it again" sends.
+	 */
+	revokeLink: async ({ params }) => {
+		const member = requirePermission({ quote: ['send'] });
+		await requireJob(member, params.id);
+		const version = await inStore(member.store.id, (tx) => jobs.raiseLinkVersion(tx, params.id));
+		if (version === undefined) error(404, 'Not found');
+		return { linkRevoked: true };
 	},
 	resend: async ({ request, params }) => {
 		const member = requirePermission({ quote: ['send'] });
