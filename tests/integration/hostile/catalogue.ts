@@ -299,7 +299,7 @@ const actions: ActionTarget[] = [
 		name,
 		params: job
 	})),
-	...['build', 'send', 'resend'].map((name): ActionTarget => ({
+	...['build', 'send', 'resend', 'revokeLink'].map((name): ActionTarget => ({
 		kind: 'action',
 		route: '/app/jobs/[id]/quote',
 		name,
