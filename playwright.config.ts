@@ -35,7 +35,8 @@ export default defineConfig({
 	expect: { timeout: 10_000 },
 	use: { baseURL, trace: 'retain-on-failure', screenshot: 'only-on-failure' },
 	projects: [
-		{ name: 'setup', testMatch: 'global.setup.ts' },
+		// Debian's Chromium here too: the CSP watcher (tests/e2e/fixtures.ts) opens a context for every test.
+		{ name: 'setup', testMatch: 'global.setup.ts', use: { launchOptions } },
 		{
 			name: 'desktop',
 			testIgnore: '**/*.phone.e2e.ts',
