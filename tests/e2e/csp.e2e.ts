@@ -50,7 +50,6 @@ test('public pages', async ({ page }) => {
 async function walkDesk(page: Page, more: string[]) {
 	const job = await jobIdOf(page, 'Living room oak');
 	const customer = await firstCustomerOf(page);
-	const item = await firstPriceItemOf(page);
 	for (const path of [
 		'/app',
 		'/app/jobs',
@@ -63,7 +62,6 @@ async function walkDesk(page: Page, more: string[]) {
 		'/app/customers/new',
 		`/app/customers/${customer}`,
 		'/app/price-book',
-		`/app/price-book/${item}`,
 		'/app/calculators',
 		'/stores',
 		...more
@@ -76,6 +74,7 @@ test.describe('the owner', () => {
 	test.use({ signedInAs: 'owner' });
 	test('every desk page, the measure drawing, settings and team', async ({ page }) => {
 		const job = await walkDesk(page, [
+			`/app/price-book/${await firstPriceItemOf(page)}`,
 			'/app/payments',
 			'/app/settings',
 			'/app/team',
@@ -90,7 +89,11 @@ test.describe('the owner', () => {
 test.describe('the manager', () => {
 	test.use({ signedInAs: 'manager' });
 	test('every desk page and the reconciliation', async ({ page }) => {
-		await walkDesk(page, ['/app/payments', '/app/price-book/new/floor']);
+		await walkDesk(page, [
+			`/app/price-book/${await firstPriceItemOf(page)}`,
+			'/app/payments',
+			'/app/price-book/new/floor'
+		]);
 	});
 });
 
