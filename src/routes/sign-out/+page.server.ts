@@ -1,4 +1,5 @@
 import { auth } from '$lib/server/auth';
+import { log } from '$lib/server/log';
 import { redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -7,7 +8,13 @@ export const load: PageServerLoad = async () => redirect(303, '/');
 
 export const actions: Actions = {
 	default: async ({ request }) => {
-		await auth.api.signOut({ headers: request.headers });
+		try {
+			await auth.api.signOut({ headers: request.headers });
+		} catch (e) {
+			// A session already ended (signed out in another tab at the same moment) is signed out:
+			// going on to the sign-in page is the answer, never a 500.
+			log.warn({ err: e }, 'Sign-out found no session to end');
+		}
 		redirect(303, '/sign-in');
 	}
 };
