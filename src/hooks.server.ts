@@ -19,6 +19,7 @@ import {
 	type ServerInit
 } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
+import { APIError } from 'better-auth/api';
 import { svelteKitHandler } from 'better-auth/svelte-kit';
 
 export const init: ServerInit = async () => {
@@ -74,10 +75,20 @@ const handleStore: Handle = async ({ event, resolve }) => {
 	if (!membership) {
 		membership = await defaultMembership(user.id);
 		if (membership) {
-			await auth.api.setActiveOrganization({
-				headers: event.request.headers,
-				body: { organizationId: membership.store.id }
-			});
+			try {
+				await auth.api.setActiveOrganization({
+					headers: event.request.headers,
+					body: { organizationId: membership.store.id }
+				});
+			} catch (e) {
+				// The session ended between reading it and choosing its store (signed out in another
+				// tab at the same moment): this request goes on as nobody's, never as a 500.
+				if (!(e instanceof APIError)) throw e;
+				log.warn({ err: e }, 'Session ended before its store was chosen');
+				event.locals.user = null;
+				event.locals.session = null;
+				return resolve(event);
+			}
 		}
 	}
 	if (membership) {
