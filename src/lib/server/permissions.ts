@@ -25,6 +25,10 @@ export const statement = {
 	payment: ['read', 'record', 'refund', 'reconcile'],
 	changeOrder: ['review', 'approve'],
 	report: ['read'],
+	/** The store's installers: their profiles, pay rates and days away. */
+	installer: ['read', 'update'],
+	/** Installer statements: making them, adding chargebacks, marking them paid. */
+	statement: ['read', 'create', 'pay'],
 	/** An installer's own pay on the jobs assigned to them. */
 	installerPay: ['read'],
 	/** The trade calculators (no prices in them). */
@@ -46,6 +50,8 @@ const manager = ac.newRole({
 	payment: ['read', 'record', 'refund', 'reconcile'],
 	changeOrder: ['review', 'approve'],
 	report: ['read'],
+	installer: ['read', 'update'],
+	statement: ['read', 'create', 'pay'],
 	installerPay: ['read'],
 	calculator: ['use'],
 	outbox: ['read', 'resend'],
