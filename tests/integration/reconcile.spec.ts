@@ -138,6 +138,14 @@ describe('reconciliation', () => {
 			ledger_only: 1
 		});
 
+		// The ledger's side of the totals, from the one ledger function: the charges it has (the
+		// differing one at its own amount, the ghost too), none of Stripe's dashboard refund.
+		expect(report.ledgerTotals).toEqual({
+			receivedCents: matched.amountCents + differing.amountCents - 500 + 7_000,
+			refundedCents: 0,
+			feeCents: (matched.feeCents ?? 0) + (differing.feeCents ?? 0)
+		});
+
 		// The matched charge's fee is in the ledger as Stripe has it.
 		expect(find('matched')[0].stripeFeeCents).toBe(matched.feeCents);
 		// The payout netted the charges less their fees and the refund.

@@ -91,6 +91,20 @@ describe('a job’s ledger', () => {
 		);
 	});
 
+	it('counts every refund line given, never one refused', () => {
+		const l = ledger({
+			quoteTotalCents: 10_000,
+			depositCents: 0,
+			payments: [pay(10_000, { refundedCents: 3_000 })],
+			refunds: [
+				{ amountCents: 1_000, reason: 'other', status: 'succeeded' },
+				{ amountCents: 2_000, reason: 'overcharge', status: 'pending' },
+				{ amountCents: 9_000, reason: 'other', status: 'failed' }
+			]
+		});
+		expect(l.refundLinesCents).toBe(3_000);
+	});
+
 	it('has nothing to refund on a pending or failed payment', () => {
 		expect(refundable(pay(5_000, { status: 'pending' }))).toBe(0);
 		expect(refundable(pay(5_000, { status: 'failed' }))).toBe(0);

@@ -56,6 +56,8 @@ export interface Ledger {
 	closed: boolean;
 	feesCents: number;
 	pendingCents: number;
+	/** The refund lines given (those not refused), whatever their reason. */
+	refundLinesCents: number;
 }
 
 const received = (p: Pick<LedgerPayment, 'status'>) =>
@@ -130,7 +132,8 @@ export function ledger(input: {
 		pendingCents: sum(
 			input.payments.filter((p) => p.status === 'pending'),
 			(p) => p.amountCents
-		)
+		),
+		refundLinesCents: sum(refunds.filter(live), (r) => r.amountCents)
 	};
 }
 

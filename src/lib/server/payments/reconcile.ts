@@ -1,6 +1,7 @@
 import { and, eq, gte, isNotNull, lte } from 'drizzle-orm';
 import { formatMoney } from '$lib/format';
 import { jobLabel } from '$lib/jobs/status';
+import { ledger as ledgerOf } from '$lib/payments/ledger';
 import { stripeAccount, termsOf } from '../db/queries/settings';
 import * as activity from '../db/queries/stripe-activity';
 import { job, payment, refund } from '../db/schema';
@@ -47,6 +48,11 @@ export interface Reconciliation {
 	payouts: PayoutRow[];
 	counts: Record<MatchStatus, number>;
 	totals: { chargedCents: number; refundedCents: number; feeCents: number; paidOutCents: number };
+	/**
+	 * The same figures from the ledger's side, worked out by the one ledger function over the
+	 * card payments received and the card refunds made in the period.
+	 */
+	ledgerTotals: { receivedCents: number; refundedCents: number; feeCents: number };
 	connected: boolean;
 	/** Paid checkouts that named a payment but did not pay its amount or currency: never taken as paid. */
 	mismatches: { paymentId: string; jobId: string; jobLabel: string; note: string }[];
@@ -111,6 +117,7 @@ export async function reconcile(
 			payouts: [],
 			counts: empty,
 			totals: { chargedCents: 0, refundedCents: 0, feeCents: 0, paidOutCents: 0 },
+			ledgerTotals: { receivedCents: 0, refundedCents: 0, feeCents: 0 },
 			connected: false
 		};
 	}
@@ -290,6 +297,13 @@ export async function reconcile(
 		transactions: po.transactions
 	}));
 
+	const inPeriodLedger = ledgerOf({
+		quoteTotalCents: 0,
+		depositCents: 0,
+		payments: ledger.cardPayments.filter((r) => inPeriod(r.p.succeededAt)).map((r) => r.p),
+		refunds: ledger.cardRefunds
+	});
+
 	const counts = { ...empty };
 	for (const r of rows) counts[r.status] += 1;
 	return {
@@ -306,6 +320,11 @@ export async function reconcile(
 			refundedCents: refunds.reduce((s, r) => s + r.amountCents, 0),
 			feeCents: succeeded.reduce((s, c) => s + (c.feeCents ?? 0), 0),
 			paidOutCents: payouts.reduce((s, p) => s + p.amountCents, 0)
+		},
+		ledgerTotals: {
+			receivedCents: inPeriodLedger.receivedCents,
+			refundedCents: inPeriodLedger.refundLinesCents,
+			feeCents: inPeriodLedger.feesCents
 		}
 	};
 }
