@@ -1,6 +1,6 @@
 /**
  * Benchmark: a 60-room job of mixed shapes, floors and repairs through the whole engine.
- * Prints the median and p95 time per estimate and the peak heap. Run: npm run bench:estimate
+ * Prints the median and p95 time per estimate and the peak heap. Run: npm run bench:estimate (bench/run.js bundles it as the server ships it)
  */
 import { getHeapStatistics } from 'node:v8';
 import { defaultSettings, estimate, type EstimateInput } from '../src/lib/estimating/index';
