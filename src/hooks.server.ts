@@ -19,7 +19,6 @@ import {
 	type ServerInit
 } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { APIError } from 'better-auth/api';
 import { svelteKitHandler } from 'better-auth/svelte-kit';
 
 export const init: ServerInit = async () => {
@@ -82,8 +81,10 @@ const handleStore: Handle = async ({ event, resolve }) => {
 				});
 			} catch (e) {
 				// The session ended between reading it and choosing its store (signed out in another
-				// tab at the same moment): this request goes on as nobody's, never as a 500.
-				if (!(e instanceof APIError)) throw e;
+				// tab at the same moment; better-auth then throws, not always an APIError): this
+				// request goes on as nobody's, never as a 500. Any other failure is a real one.
+				const still = await auth.api.getSession({ headers: event.request.headers });
+				if (still) throw e;
 				log.warn({ err: e }, 'Session ended before its store was chosen');
 				event.locals.user = null;
 				event.locals.session = null;
