@@ -112,6 +112,21 @@ async function seed(store: TestStore, marker: string): Promise<Rows> {
 	};
 }
 
+/**
+ * The page a form is taken from. A GET that meets a connection reset (a kept-alive socket the
+ * loaded server closed as it was reused) is asked again once: drawing the form is the harness's
+ * own step, not a request under test.
+ */
+async function drawPage(url: string, cookie: Record<string, string>): Promise<Response> {
+	const ask = () => fetch(url, { headers: { ...cookie, accept: 'text/html' }, redirect: 'manual' });
+	try {
+		return await ask();
+	} catch (e) {
+		if ((e as { cause?: { code?: string } }).cause?.code !== 'ECONNRESET') throw e;
+		return ask();
+	}
+}
+
 async function signInEveryone() {
 	const signed = await Promise.all(ROLES.map((r) => app.signIn(people[r])));
 	visitors = {
@@ -468,8 +483,8 @@ describe('the hostile-input suite', () => {
 			const swap = swapper();
 			const only = process.env.HOSTILE_ONLY;
 			const started = Date.now();
-			for (const target of CATALOGUE) {
-				if (only && !keyOf(target).includes(only)) continue;
+			for (const [targetIndex, target] of CATALOGUE.entries()) {
+				if (only && !new RegExp(only).test(keyOf(target))) continue;
 				const before = sent.length;
 				const t0 = Date.now();
 				const base = resolve(target, mine);
@@ -480,10 +495,7 @@ describe('the hostile-input suite', () => {
 					variants = jsonVariants(body, swap.json, Boolean(target.params), target.method);
 				} else {
 					const drawnBy = target.drawnBy ?? 'owner';
-					const page = await fetch(`${app.origin}${target.page ?? base}`, {
-						headers: { ...cookieOf(drawnBy), accept: 'text/html' },
-						redirect: 'manual'
-					});
+					const page = await drawPage(`${app.origin}${target.page ?? base}`, cookieOf(drawnBy));
 					const drawn = harvest(await page.text(), target.name);
 					const fields = new Map(drawn);
 					for (const [k, v] of Object.entries(target.fields ?? {}))
@@ -491,8 +503,16 @@ describe('the hostile-input suite', () => {
 					if (!fields.size) fields.set('name', 'Sample');
 					variants = formVariants([...fields], swap.fields, Boolean(target.params));
 				}
+				// The owner gets the whole corpus; every other role and nobody get the variants marked
+				// for everyone, and each other variant goes to one of them in turn as well, so across
+				// the catalogue each role is sent every kind of hostile input without sending the
+				// whole corpus five times over.
+				const others = WHO.filter((w) => w !== 'owner');
+				const alsoTo = (i: number) => others[(i + targetIndex) % others.length];
 				const jobs = WHO.flatMap((who) =>
-					variants.filter((v) => v.everyone || who === 'owner').map((v) => ({ who, v }))
+					variants
+						.filter((v, i) => v.everyone || who === 'owner' || who === alsoTo(i))
+						.map((v) => ({ who, v }))
 				);
 				await pool(jobs, ({ who, v }) => send(target, v, who, base));
 				if (process.env.HOSTILE_LOG)
