@@ -3,7 +3,14 @@ import { inStore } from '$lib/server/db/tenant';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { addMember, makeCustomer, makeJob, makeStore, type TestStore } from './factories';
+import {
+	addMember,
+	makeCustomer,
+	makeJob,
+	makeQuotedJob,
+	makeStore,
+	type TestStore
+} from './factories';
 import { jobScope } from '$lib/server/object-access';
 import { grantsOf } from '$lib/server/permissions';
 
@@ -110,6 +117,16 @@ describe('jobs across stores', () => {
 		expect([first.number, second.number]).toEqual([1001, 1002]);
 	});
 
+	// Issue 11, rough edges: a job number was given again after a job was deleted.
+	it('never gives a number twice, even after the last job is deleted', async () => {
+		const store = await makeStore('Forgetful Floors');
+		await makeJob(store.id, store.owner.id);
+		const second = await makeJob(store.id, store.owner.id);
+		expect(await inStore(store.id, (tx) => jobs.remove(tx, second.id))).toBe('deleted');
+		const third = await makeJob(store.id, store.owner.id);
+		expect(third.number).toBe(1003);
+	});
+
 	it('gives concurrent creates distinct numbers', async () => {
 		const store = await makeStore('Busy Floors');
 		const c = await makeCustomer(store.id);
@@ -195,5 +212,14 @@ describe('job moves', () => {
 		expect(await inStore(store.id, (tx) => jobs.remove(tx, job.id))).toBe('not_draft');
 		await inStore(store.id, (tx) => jobs.move(tx, job.id, 'cancelled', store.owner.id));
 		expect(await inStore(store.id, (tx) => jobs.remove(tx, job.id))).toBe('deleted');
+	});
+
+	it('keep a job with a quote, even a draft one: it is cancelled instead', async () => {
+		const store = await makeStore('Keep Floors');
+		const made = await makeQuotedJob(store);
+		expect(made.quote.status).toBe('draft');
+		expect(await inStore(store.id, (tx) => jobs.remove(tx, made.job.id))).toBe('not_draft');
+		await inStore(store.id, (tx) => jobs.move(tx, made.job.id, 'cancelled', store.owner.id));
+		expect(await inStore(store.id, (tx) => jobs.remove(tx, made.job.id))).toBe('not_draft');
 	});
 });

@@ -240,6 +240,21 @@ export const job = pgTable(
 	]
 ).enableRLS();
 
+/**
+ * The last job number a store gave. Numbers are never given twice, even after a job is deleted:
+ * the next job takes this plus one (the row lock serialises two people creating at once).
+ */
+export const jobNumberCounter = pgTable(
+	'job_number_counter',
+	{
+		organizationId: text('organization_id')
+			.primaryKey()
+			.references(() => organization.id, { onDelete: 'cascade' }),
+		lastNumber: integer('last_number').notNull()
+	},
+	(t) => [check('job_number_counter_positive', sql`${t.lastNumber} >= 1`), storeIsolation]
+).enableRLS();
+
 /** What happened to a job and who did it: every status change, kept for good. */
 export const jobEvent = pgTable(
 	'job_event',

@@ -1,9 +1,19 @@
-import { and, asc, count, desc, eq, ilike, inArray, max, ne, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { canDelete, canMove, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
 import { rolesThatCan } from '../../permissions';
-import { booking, customer, job, jobEvent, member, quote, user } from '../schema';
+import {
+	booking,
+	customer,
+	job,
+	jobEvent,
+	jobNumberCounter,
+	member,
+	payment,
+	quote,
+	user
+} from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
@@ -163,10 +173,12 @@ export async function countByStatus(tx: StoreTx, viewer: JobViewer) {
 	return Object.fromEntries(rows.map((r) => [r.status, r.n])) as Partial<Record<JobStatus, number>>;
 }
 
+/** The first number a store gives (shown as J-1001). */
+const FIRST_JOB_NUMBER = 1001;
+
 /**
  * Creates a draft job for a customer of the same store. Returns undefined when the customer is
- * not the store's. Numbers are per store: a transaction lock on the store serialises concurrent
- * creates, so two people never get the same number.
+ * not the store's. Numbers are per store and never given twice (see `jobNumberCounter`).
  */
 export async function create(
 	tx: StoreWriteTx,
@@ -178,16 +190,21 @@ export async function create(
 		.from(customer)
 		.where(and(eq(customer.organizationId, tx.storeId), eq(customer.id, input.customerId)));
 	if (!owner) return undefined;
-	await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`job-number:${tx.storeId}`}))`);
-	const [{ last }] = await tx
-		.select({ last: max(job.number) })
-		.from(job)
-		.where(eq(job.organizationId, tx.storeId));
+	// The store's counter row, locked by the upsert until this transaction ends: never a number
+	// given before, even to a job since deleted.
+	const [{ number }] = await tx
+		.insert(jobNumberCounter)
+		.values({ organizationId: tx.storeId, lastNumber: FIRST_JOB_NUMBER })
+		.onConflictDoUpdate({
+			target: jobNumberCounter.organizationId,
+			set: { lastNumber: sql`${jobNumberCounter.lastNumber} + 1` }
+		})
+		.returning({ number: jobNumberCounter.lastNumber });
 	const [row] = await tx
 		.insert(job)
 		.values({
 			organizationId: tx.storeId,
-			number: (last ?? 1000) + 1,
+			number,
 			customerId: input.customerId,
 			title: input.title,
 			notes: input.notes ?? '',
@@ -309,8 +326,8 @@ export async function assign(
 }
 
 /**
- * Deletes a job that may still be deleted (see `canDelete`) and never had a quote sent; others
- * are kept for their history (sent quotes are kept for good).
+ * Deletes a job that may still be deleted (see `canDelete`) and has no quote and no money on it;
+ * others are kept for their history and are cancelled instead (sent quotes are kept for good).
  */
 export async function remove(
 	tx: StoreWriteTx,
@@ -319,13 +336,15 @@ export async function remove(
 	const status = await lockStatus(tx, id);
 	if (!status) return 'not_found';
 	if (!canDelete(status)) return 'not_draft';
-	const [{ sent }] = await tx
-		.select({ sent: count() })
+	const [{ quotes }] = await tx
+		.select({ quotes: count() })
 		.from(quote)
-		.where(
-			and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, id), ne(quote.status, 'draft'))
-		);
-	if (sent > 0) return 'not_draft';
+		.where(and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, id)));
+	const [{ payments }] = await tx
+		.select({ payments: count() })
+		.from(payment)
+		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.jobId, id)));
+	if (quotes > 0 || payments > 0) return 'not_draft';
 	await tx.delete(job).where(and(eq(job.organizationId, tx.storeId), eq(job.id, id)));
 	return 'deleted';
 }

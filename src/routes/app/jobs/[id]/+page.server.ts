@@ -102,7 +102,7 @@ export const actions: Actions = {
 		if (result === 'not_draft') {
 			return fail(409, {
 				deleteError:
-					'Only draft or cancelled jobs that never had a quote sent can be deleted; others keep their history.'
+					'Only a draft or cancelled job with no quote and no payment can be deleted; cancel this one instead, so its history is kept.'
 			});
 		}
 		redirect(303, '/app/jobs');
