@@ -313,4 +313,10 @@ describe("an invitation's page", { timeout: 60_000 }, () => {
 			state: 'open'
 		});
 	});
+
+	// Issue 11, rough edges: installers were offered "Start a store".
+	it('offers starting a store to staff, never to someone who only installs', async () => {
+		expect(dataOf(await people.installer.page('/stores')).offerNewStore).toBe(false);
+		expect(dataOf(await people.sales.page('/stores')).offerNewStore).toBe(true);
+	});
 });

@@ -22,6 +22,8 @@ export const load: PageServerLoad = async ({ locals }) => {
 	]);
 	return {
 		activeStoreId: locals.store?.id ?? null,
+		// Someone who only installs for stores is not offered to start one (a new sign-up is).
+		offerNewStore: memberships.length === 0 || memberships.some((m) => m.role !== 'installer'),
 		memberships: memberships.map((m) => ({ store: m.store, roleLabel: ROLE_LABELS[m.role] })),
 		invitations: invitations.map((i) => ({
 			...i,
