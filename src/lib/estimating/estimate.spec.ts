@@ -35,6 +35,23 @@ describe('estimate', () => {
 		expect(new Set(a.lines.map((l) => l.id)).size).toBe(a.lines.length);
 	});
 
+	// Issue 11, rough edges: sheet goods were offered herringbone and diagonal layouts. Roll
+	// goods are laid in drops along the room (common practice), so only straight is allowed.
+	it('refuses a diagonal or herringbone layout for roll goods, at the layout field', () => {
+		for (const productId of ['sheet-6', 'carpet-12'])
+			for (const layout of ['diagonal', 'herringbone'] as const) {
+				const r = estimate(input([{ ...bedroom, floor: { productId, layout } }]));
+				expect(r.ok).toBe(false);
+				expect(r.errors).toEqual([
+					expect.objectContaining({ path: 'job.rooms.0.floor.layout', roomId: 'bed' })
+				]);
+			}
+		const straight = estimate(
+			input([{ ...bedroom, floor: { productId: 'sheet-6', layout: 'straight' } }])
+		);
+		expect(straight.errors).toEqual([]);
+	});
+
 	it('takes off a plank room: cartons, install, underlayment and fasteners', () => {
 		// 120 ft² × 1.10 ÷ 23.64 = 5.58 → 6 cartons, priced per ft² of whole cartons: 141.84 ft²
 		const r = estimate(input([bedroom]));

@@ -33,6 +33,7 @@ import {
 import { hoursByKey, scheduleStep } from './steps/schedule';
 import { coverTakeoff, extrasTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
 import { prepHours } from './steps/schedule';
+import { layoutsFor } from './settings';
 import { slabTestChecks } from './substrate';
 import { formatLength } from './units';
 import { cautionTexts } from './cautions';
@@ -189,6 +190,12 @@ function readyRoom(
 			path: `${path}.floor.productId`,
 			roomId: room.id,
 			message: `${label}: floor "${room.floor.productId}" is not in the price book`
+		};
+	if (!layoutsFor(product.kind).includes(room.floor.layout))
+		return {
+			path: `${path}.floor.layout`,
+			roomId: room.id,
+			message: `${label}: ${product.kind === 'carpet' ? 'carpet' : 'sheet vinyl'} is laid straight, in drops from the roll; choose the straight layout`
 		};
 	// Nails need wood to hold: solid hardwood is not nailed to a slab (NWFA installation
 	// guidelines, memory); it is glued, floated, or laid over a nailable panel subfloor first.

@@ -33,6 +33,15 @@ export const ROLL_KINDS: readonly FloorKind[] = ['sheet_vinyl', 'carpet'];
 export type Layout = 'straight' | 'diagonal' | 'herringbone';
 export const LAYOUTS: readonly Layout[] = ['straight', 'diagonal', 'herringbone'];
 
+/**
+ * The layouts a floor kind can be laid in. Roll goods (sheet vinyl, carpet) are laid in drops
+ * along the room, seamed side by side: there is no diagonal or herringbone pattern to cut
+ * (common practice). Planks and tiles can be laid in any of the three.
+ */
+export function layoutsFor(kind: FloorKind): readonly Layout[] {
+	return ROLL_KINDS.includes(kind) ? ['straight'] : LAYOUTS;
+}
+
 /** How the floor is held down; decides how a subfloor hole is closed. */
 export type Fastening = 'nailed' | 'glued' | 'floating';
 
