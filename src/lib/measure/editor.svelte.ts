@@ -4,6 +4,7 @@
  * then saved to the server; a save made on a version someone else has saved over stops and
  * shows both inputs. Nothing typed is dropped on the way.
  */
+import { afterPointer } from './pointer';
 import { untrack } from 'svelte';
 import { SvelteSet } from 'svelte/reactivity';
 import { estimate, type EstimateResult, type PriceBook, type StoreSettings } from '$lib/estimating';
@@ -371,7 +372,8 @@ export class MeasureEditor {
 	}
 
 	touch(path: string): void {
-		this.touched.add(path);
+		// A field left by pressing a button shows its message once the press has landed.
+		afterPointer(() => this.touched.add(path));
 	}
 
 	/** The message to show by a field: empty fields only once left or after Check. */
