@@ -3,6 +3,7 @@ import {
 	formatDate,
 	formatDateTime,
 	formatMoney,
+	joinParts,
 	formatQty,
 	formatSaved,
 	majorText,
@@ -57,5 +58,13 @@ describe("dates in the store's time zone", () => {
 		const now = new Date('2027-03-03T23:00:00Z'); // 5 PM on 3 March in Chicago, 3 March in UTC
 		expect(formatSaved(lateEvening, 'America/Chicago', now)).toBe('9:30 PM');
 		expect(formatSaved(lateEvening, 'UTC', now)).toBe('Mar 4, 3:30 AM');
+	});
+});
+
+describe('joinParts', () => {
+	it('leaves out empty parts, so no stray commas', () => {
+		expect(joinParts('', '14 Ferrule Lane')).toBe('14 Ferrule Lane');
+		expect(joinParts('Home', ' ', null, 'Ashcombe')).toBe('Home, Ashcombe');
+		expect(joinParts()).toBe('');
 	});
 });

@@ -110,3 +110,11 @@ export function formatSaved(when: Date | string, timeZone: string, now = new Dat
 	if (day.format(d) === day.format(now)) return time;
 	return `${dateFormat(timeZone, { month: 'short', day: 'numeric' }).format(d)}, ${time}`;
 }
+
+/** Parts of a place or a name joined with commas, leaving out the empty ones (no stray commas). */
+export function joinParts(...parts: (string | null | undefined)[]): string {
+	return parts
+		.map((p) => p?.trim() ?? '')
+		.filter(Boolean)
+		.join(', ');
+}
