@@ -1,4 +1,5 @@
-import { countByStatus, list } from '$lib/server/db/queries/jobs';
+import { storeDay } from '$lib/server/desk/day';
+import { list } from '$lib/server/db/queries/jobs';
 import * as tasks from '$lib/server/db/queries/tasks';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
@@ -10,18 +11,18 @@ import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	const { store, scope, grants } = requirePermission({ job: ['read'] });
-	const viewer = scope;
+	const member = requirePermission({ job: ['read'] });
+	const { store, scope, grants } = member;
 	const seesOutbox = can(grants, { outbox: ['read'] });
 	return readInStore(store.id, async (tx) => {
-		const counts = await countByStatus(tx, viewer);
+		const day = await storeDay(tx, member);
 		const recent = await list(
 			tx,
-			{ sort: 'updated', dir: 'desc', page: 1, pageSize: 8, q: null },
-			viewer
+			{ sort: 'updated', dir: 'desc', page: 1, pageSize: 6, q: null },
+			scope
 		);
 		return {
-			counts,
+			day,
 			recent: recent.rows,
 			// E-mail that did not go out (or is being retried), for managers and owners only.
 			outbox: seesOutbox ? await tasks.needingAttention(tx) : null,

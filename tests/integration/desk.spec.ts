@@ -1,0 +1,121 @@
+// The desk as the store's day (issue 11, item 1): each group lists the jobs that need someone
+// now, for the store's office, and only their own for a salesperson.
+import { and, eq } from 'drizzle-orm';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { booking, job as jobTable } from '$lib/server/db/schema';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import { storeDay, todayIn, weekOf, type StoreDay } from '$lib/server/desk/day';
+import * as jobs from '$lib/server/db/queries/jobs';
+import { grantsOf, type Role } from '$lib/server/permissions';
+import {
+	addMember,
+	makeJob,
+	makePaidJob,
+	makeQuotedJob,
+	makeStore,
+	sendAndAccept,
+	type TestStore
+} from './factories';
+import { makeInstaller } from './field-factories';
+
+let store: TestStore;
+let salesId: string;
+const made: Record<string, { id: string; number: number }> = {};
+
+const dayAs = (role: Role, userId: string, now = new Date()) =>
+	readInStore(store.id, (tx) =>
+		storeDay(tx, { grants: grantsOf(role), user: { id: userId }, store: { timeZone: 'UTC' } }, now)
+	);
+
+const group = (day: StoreDay, kind: string) => {
+	const g = day.groups.find((x) => x.kind === kind);
+	if (!g) throw new Error(`no ${kind} group`);
+	return g;
+};
+const numbers = (day: StoreDay, kind: string) =>
+	group(day, kind).lines.map((l) => l.job.split(' · ')[0]);
+
+beforeAll(async () => {
+	store = await makeStore('Larkspur Floors');
+	const sales = await addMember(store.id, 'sales', 'Nell Ashdown');
+	salesId = sales.id;
+	// A job just opened, sold by the salesperson: nothing measured.
+	made.bare = await makeJob(store.id, sales.id);
+	// A measured job with a draft quote (the owner's).
+	made.measured = (await makeQuotedJob(store)).job;
+	// A quote with the customer for ten days.
+	const sent = await makeQuotedJob(store);
+	made.sent = sent.job;
+	await inStore(store.id, (tx) => jobs.move(tx, sent.job.id, 'quoted', store.owner.id));
+	// Accepted: the deposit is due.
+	const accepted = await makeQuotedJob(store);
+	await sendAndAccept(store, accepted);
+	made.accepted = accepted.job;
+	// Sold (deposit in), then another sold and booked this week.
+	const paid = await makePaidJob(store);
+	await inStore(store.id, (tx) => jobs.move(tx, paid.job.id, 'sold', store.owner.id));
+	made.sold = paid.job;
+	const booked = await makePaidJob(store);
+	await inStore(store.id, (tx) => jobs.move(tx, booked.job.id, 'sold', store.owner.id));
+	made.booked = booked.job;
+	const { user: installer } = await makeInstaller(store);
+	await inStore(store.id, async (tx) => {
+		await tx.insert(booking).values({
+			organizationId: store.id,
+			jobId: booked.job.id,
+			installerId: installer.id,
+			startsOn: weekOf(todayIn('UTC')).from,
+			days: 2,
+			proposedDays: 2,
+			proposal: booked.quote.result.schedule,
+			bookedBy: store.owner.id
+		});
+		await tx
+			.update(jobTable)
+			.set({ statusChangedAt: new Date(Date.now() - 10 * 86_400_000) })
+			.where(and(eq(jobTable.organizationId, store.id), eq(jobTable.id, sent.job.id)));
+	});
+}, 240_000);
+
+describe("the desk's day", { timeout: 60_000 }, () => {
+	it("gives the manager the store's day, grouped by who acts next", async () => {
+		const manager = await addMember(store.id, 'manager', 'Ivo Marsh');
+		const day = await dayAs('manager', manager.id);
+		expect(day.wholeStore).toBe(true);
+		const label = (k: string) => `J-${made[k].number}`;
+		expect(numbers(day, 'measure')).toEqual([label('bare')]);
+		expect(numbers(day, 'quote')).toEqual([label('measured')]);
+		expect(numbers(day, 'waiting')).toEqual([label('sent')]);
+		expect(group(day, 'waiting').lines[0]).toMatchObject({ waitingDays: 10 });
+		expect(group(day, 'waiting').lines[0].todo).toMatch(/follow up/);
+		expect(numbers(day, 'deposits')).toEqual([label('accepted')]);
+		// The booked job is not to book again; the other sold one is.
+		expect(numbers(day, 'book')).toEqual([label('sold')]);
+		expect(group(day, 'book').actor).toBe('you');
+		expect(group(day, 'deposits').actor).toBe('customer');
+		expect(day.week?.rows).toEqual([
+			expect.objectContaining({
+				installerName: 'An installer',
+				jobs: [expect.objectContaining({ job: expect.stringContaining(label('booked')) })]
+			})
+		]);
+		for (const g of day.groups) expect(g.total).toBeGreaterThanOrEqual(g.lines.length);
+	});
+
+	it('gives a salesperson only the jobs they sell, and no office groups', async () => {
+		const day = await dayAs('sales', salesId);
+		expect(day.wholeStore).toBe(false);
+		expect(numbers(day, 'measure')).toEqual([`J-${made.bare.number}`]);
+		expect(group(day, 'quote').total).toBe(0);
+		expect(group(day, 'waiting').total).toBe(0);
+		expect(day.groups.map((g) => g.kind)).not.toContain('book');
+		expect(day.groups.map((g) => g.kind)).not.toContain('reconcile');
+		expect(day.week?.rows).toEqual([]);
+	});
+
+	it('works out the week from the store time zone, Monday to Sunday', () => {
+		expect(weekOf('2026-12-02')).toEqual({ from: '2026-11-30', to: '2026-12-06' });
+		expect(weekOf('2026-12-06')).toEqual({ from: '2026-11-30', to: '2026-12-06' });
+		expect(todayIn('Pacific/Auckland', new Date('2026-12-02T12:00:00Z'))).toBe('2026-12-03');
+	});
+});
