@@ -356,6 +356,16 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 		);
 	}
 
+	// The order of work with the waits that hold the next step, as the quote page shows it.
+	if (q.schedule.steps?.length) {
+		w.heading('Order of work');
+		q.schedule.steps.forEach((step, i) => {
+			const wait = step.waitHours ? ` — then wait ${step.waitHours} h` : '';
+			w.paragraph(`${i + 1}. ${step.label}${wait}`, 9, { color: INK });
+			w.y -= 1;
+		});
+	}
+
 	if (q.cautions.length) {
 		w.heading('Cautions');
 		for (const text of q.cautions) {
