@@ -19,6 +19,8 @@ export const MAIL_PURPOSES = {
 	receipt: 'Receipt',
 	'paid-notice': 'Payment notice, to the salesperson',
 	refund: 'Refund notice',
+	'change-order': 'Change order, to the customer',
+	'balance-request': 'Balance due, to the customer',
 	invitation: 'Invitation',
 	'password-reset': 'Password reset'
 } as const;

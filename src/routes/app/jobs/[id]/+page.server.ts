@@ -1,3 +1,4 @@
+import * as changeOrders from '$lib/server/db/queries/change-orders';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
@@ -46,6 +47,15 @@ export const load: PageServerLoad = async ({ params }) => {
 			canAssign,
 			site: await loadJobSite(tx, job, grants),
 			measure: await measureSummary(tx, job.id),
+			changeOrders: can(grants, { changeOrder: ['review'] })
+				? (await changeOrders.listForJob(tx, job.id)).map((c) => ({
+						number: c.number,
+						status: c.status,
+						currency: c.currency,
+						totalCents: c.totalCents,
+						createdAt: c.createdAt
+					}))
+				: null,
 			canEdit: can(grants, { job: ['update'] }),
 			canDelete: can(grants, { job: ['delete'] }) && canDelete(job.status)
 		};
