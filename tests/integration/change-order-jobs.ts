@@ -9,6 +9,7 @@ import * as jobs from '$lib/server/db/queries/jobs';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
 import { fieldItem, fieldPhoto, fieldReport, jobCompletion } from '$lib/server/db/schema';
 import { inStore } from '$lib/server/db/tenant';
+import { storage } from '$lib/server/storage';
 import { newAccount } from './card-jobs';
 import { makePaidJob, makeStore, unique, type TestStore } from './factories';
 import { clientId, makeInstaller } from './field-factories';
@@ -83,12 +84,21 @@ export async function recordFound(
 	);
 }
 
-/** A report photo tied to a found item. */
+/** Bytes standing in for a photo the server re-encoded (the file store checks no content). */
+export const PHOTO_BYTES = Buffer.from([
+	0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46
+]);
+
+/** A photo in the file store and its row: a report photo tied to a found item, or a completion photo. */
 export async function recordPhoto(
 	site: OnSite,
 	item: { clientId: string; roomId: string | null },
 	purpose: 'report' | 'completion' = 'report'
 ) {
+	const fileKey = `${site.store.id}/photos/${unique('p')}.jpg`;
+	const thumbKey = `${site.store.id}/photos/${unique('t')}.jpg`;
+	await storage().put(fileKey, PHOTO_BYTES, 'image/jpeg');
+	await storage().put(thumbKey, PHOTO_BYTES.subarray(0, 4), 'image/jpeg');
 	const [row] = await inStore(site.store.id, (tx) =>
 		tx
 			.insert(fieldPhoto)
@@ -99,8 +109,8 @@ export async function recordPhoto(
 				purpose,
 				roomId: item.roomId,
 				itemClientId: purpose === 'report' ? item.clientId : null,
-				fileKey: `${site.store.id}/photos/${unique('p')}.jpg`,
-				thumbKey: `${site.store.id}/photos/${unique('t')}.jpg`,
+				fileKey,
+				thumbKey,
 				mediaType: 'image/jpeg',
 				byteSize: 1000,
 				width: 40,

@@ -71,8 +71,9 @@ export const managerDeclineSchema = z.object({
 	reason: requiredText('Say why it is declined: the installer and the store will read it', 1000)
 });
 
+/** A typed name: at least two characters, one message when it is missing. */
 const typedName = (message: string) =>
-	requiredText(message, 100).refine((v) => v.length >= 2, message);
+	z.string({ error: message }).trim().min(2, message).max(100, 'Keep it under 100 characters');
 
 export const customerApproveSchema = z.object({
 	changeOrderId: id,
