@@ -2,12 +2,25 @@
 // customer with an address, its job sold (cash deposit, 1.00 refunded as an overcharge), assigned
 // to an installer with their own hole-repair pay, checked in, and the report's rows written as the
 // installer's phone writes them.
-import type { ItemRef } from '$lib/estimating';
-import { refKey } from '$lib/estimating';
+import {
+	changeOrder as priceChangeOrder,
+	refKey,
+	soldQuantities,
+	type EstimateInput,
+	type EstimateResult,
+	type ItemRef
+} from '$lib/estimating';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { saveStripeAccount } from '$lib/server/db/queries/settings';
-import { fieldItem, fieldPhoto, fieldReport, jobCompletion } from '$lib/server/db/schema';
+import {
+	changeOrder,
+	fieldItem,
+	fieldPhoto,
+	fieldReport,
+	jobCompletion,
+	type ChangeOrderInput
+} from '$lib/server/db/schema';
 import { inStore } from '$lib/server/db/tenant';
 import { storage } from '$lib/server/storage';
 import { newAccount } from './card-jobs';
@@ -142,3 +155,55 @@ export async function completeJob(site: OnSite, notes = 'Walked the kitchen with
 }
 
 export type { TestStore };
+
+/**
+ * A change order awaiting review on a sold job (one more subfloor hole than was sold), its rows
+ * written straight in, for suites that only need one to exist (the hostile-input suite).
+ */
+export async function seedChangeOrder(
+	store: TestStore,
+	made: {
+		job: { id: string };
+		quote: { currency: string; input: EstimateInput; result: EstimateResult };
+	}
+) {
+	const sold = soldQuantities(made.quote.result);
+	const found = [
+		...sold,
+		{
+			roomId: made.quote.input.job.rooms[0].id,
+			ref: { type: 'prep', kind: 'hole_repair' } as const,
+			qty: 1
+		}
+	];
+	const input: ChangeOrderInput = {
+		sold,
+		found,
+		priceBook: made.quote.input.priceBook,
+		settings: made.quote.input.settings
+	};
+	const result = priceChangeOrder(input);
+	return inStore(store.id, async (tx) => {
+		const [report] = await tx
+			.insert(fieldReport)
+			.values({ organizationId: store.id, jobId: made.job.id, checkedInAt: new Date() })
+			.returning();
+		const [row] = await tx
+			.insert(changeOrder)
+			.values({
+				organizationId: store.id,
+				jobId: made.job.id,
+				reportId: report.id,
+				number: 1,
+				input,
+				result,
+				currency: made.quote.currency,
+				subtotalCents: result.subtotalCents,
+				taxCents: result.taxCents,
+				totalCents: result.totalCents,
+				payDeltaCents: result.payDeltaCents
+			})
+			.returning();
+		return row;
+	});
+}
