@@ -398,6 +398,12 @@ describe('the customer’s answer', () => {
 			decidedIp: '203.0.113.7',
 			decidedUserAgent: 'Test Browser 1.0'
 		});
+		// The manager who sent it is told.
+		expect(
+			await readInStore(site.store.id, (tx) =>
+				changeOrders.mailQueued(tx, site.job.id, 'change-order-answer')
+			)
+		).toBe(true);
 		// Approved, it is owed: the balance grows by its total.
 		const money = await readInStore(site.store.id, (tx) => payments.moneyFor(tx, site.job.id));
 		expect(money.ledger.owedCents).toBe(site.quote.totalCents + 20_316);

@@ -137,7 +137,7 @@ const balanceMails = (site: OnSite) =>
 
 describe('the balance', () => {
 	it('is the quote and the approved change order less payments net of refunds, to the cent', async () => {
-		const { site } = await withApprovedExtra('Balance Floors');
+		const { site, co } = await withApprovedExtra('Balance Floors');
 		// The deposit paid in cash, then $25.00 of it given back (reason "other": owed again).
 		await inStore(site.store.id, async (tx) => {
 			const given = await refundInStore(
@@ -184,6 +184,18 @@ describe('the balance', () => {
 		expect(retrieved.amount_total).toBe(expected);
 		// Once the job is finished the balance takes the change order in: no separate payment.
 		expect((await customerLoad(token)).changeOrders[0]).toMatchObject({ payable: false });
+		expect(
+			await startCheckout(
+				{
+					storeId: site.store.id,
+					jobId: site.job.id,
+					purpose: 'change_order',
+					changeOrderId: co.id,
+					linkToken: token
+				},
+				t.stripe
+			)
+		).toMatchObject({ ok: false, reason: 'not_payable' });
 		await t.fake.pay(session, 'success');
 		for (const e of eventsFor(t, site.account, since)) await handleEvent(e, t.stripe);
 		const after = await readInStore(site.store.id, (tx) => payments.moneyFor(tx, site.job.id));

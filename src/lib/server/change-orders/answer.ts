@@ -1,5 +1,37 @@
+import { changeOrderLabel } from '$lib/jobs/change-order-status';
+import { jobLabel } from '$lib/jobs/status';
+import { config } from '../config';
 import * as changeOrders from '../db/queries/change-orders';
+import * as jobs from '../db/queries/jobs';
+import { emailOf, readStore } from '../db/queries/stores';
 import type { StoreWriteTx } from '../db/tenant';
+import { queueMail } from '../mail/queue';
+import { changeOrderAnswerMail } from '../mail/templates';
+
+/** Tells the manager who sent it (or else the job's salesperson) what the customer decided. */
+async function tellStore(tx: StoreWriteTx, row: changeOrders.ChangeOrderRow) {
+	const store = await readStore(tx);
+	const job = await jobs.readForStore(tx, row.jobId);
+	if (!store || !job) return;
+	const to = (await emailOf(tx, row.reviewedBy)) ?? (await emailOf(tx, job.salespersonId));
+	if (!to) return;
+	await queueMail(
+		tx,
+		'change-order-answer',
+		changeOrderAnswerMail({
+			to,
+			storeName: store.name,
+			customerName: job.customerName,
+			jobLabel: jobLabel(job.number),
+			jobTitle: job.title,
+			changeLabel: changeOrderLabel(row.number),
+			answer: row.status === 'approved' ? 'approved' : 'declined',
+			reason: row.declineReason || undefined,
+			url: `${config.origin}/app/jobs/${job.id}/change-orders/${row.number}`
+		}),
+		{ jobId: job.id }
+	);
+}
 
 export type CustomerDecision =
 	| { ok: true; changeOrder: changeOrders.ChangeOrderRow }
@@ -38,7 +70,9 @@ export async function approveChangeOrder(
 		decidedIp: signature.ip,
 		decidedUserAgent: signature.userAgent
 	});
-	return row ? { ok: true, changeOrder: row } : { ok: false, reason: 'not_found' };
+	if (!row) return { ok: false, reason: 'not_found' };
+	await tellStore(tx, row);
+	return { ok: true, changeOrder: row };
 }
 
 /** The customer declines a change order sent to them, with a reason if they give one. */
@@ -57,5 +91,7 @@ export async function customerDeclinesChangeOrder(
 		decidedIp: signature.ip,
 		decidedUserAgent: signature.userAgent
 	});
-	return row ? { ok: true, changeOrder: row } : { ok: false, reason: 'not_found' };
+	if (!row) return { ok: false, reason: 'not_found' };
+	await tellStore(tx, row);
+	return { ok: true, changeOrder: row };
 }

@@ -328,3 +328,32 @@ export function balanceMail(input: {
 		})
 	};
 }
+
+/** Tells the manager who sent a change order what the customer did with it. */
+export function changeOrderAnswerMail(input: {
+	to: string;
+	storeName: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	changeLabel: string;
+	answer: 'approved' | 'declined';
+	reason?: string;
+	url: string;
+}): Mail {
+	const approved = input.answer === 'approved';
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		subject: `${input.customerName} ${input.answer} ${input.changeLabel} for ${input.jobLabel}`,
+		...layout({
+			heading: approved ? 'Change order approved' : 'Change order declined',
+			paragraphs: [
+				`${input.customerName} ${input.answer} ${input.changeLabel} for ${input.jobLabel} ${input.jobTitle}.`,
+				...(input.reason ? [`“${input.reason}”`] : [])
+			],
+			action: { label: 'Open the change order', url: input.url },
+			footer: `${input.storeName} · Flushline`
+		})
+	};
+}

@@ -148,7 +148,8 @@ async function prepareChangeOrder(
 ) {
 	const co = await changeOrders.lock(tx, job.id, changeOrderId);
 	if (!co) return { ok: false, reason: 'not_found' } as const;
-	if (co.status !== 'approved' || co.totalCents <= 0) {
+	// A finished job's balance takes in every approved change order: it is paid with that.
+	if (co.status !== 'approved' || co.totalCents <= 0 || payableNow(job.status) === 'balance') {
 		return { ok: false, reason: 'not_payable' } as const;
 	}
 	const made = await changeOrders.paymentsOf(tx, co.id);
