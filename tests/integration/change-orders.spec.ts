@@ -463,6 +463,38 @@ describe('the customer’s answer', () => {
 	});
 });
 
+describe('a report sent after a change order went to the customer', () => {
+	it('leaves it as sent, and after approval prices only what is new (CO-2)', async () => {
+		const { site, co, token } = await sentToCustomer('Second Extra Floors');
+		expect(await fromReport(site)).toEqual({ ok: false, reason: 'with_customer' });
+		await customerAction(token, 'approveChange', { changeOrderId: co.id, name: 'Ivo Marsh' });
+		// Nothing new found since: no second change order.
+		expect(await fromReport(site)).toMatchObject({ ok: true, outcome: 'unchanged' });
+
+		// One more hole again (the report holds the whole amount found: sold + 2).
+		const hole = soldOf(site, HOLE);
+		await inStore(site.store.id, (tx) =>
+			tx
+				.update(fieldItem)
+				.set({ qty: hole.qty + 2, version: 2 })
+				.where(
+					and(
+						eq(fieldItem.organizationId, site.store.id),
+						eq(fieldItem.reportId, site.report.id),
+						eq(fieldItem.refKey, 'prep:hole_repair')
+					)
+				)
+		);
+		const second = await fromReport(site);
+		expect(second.ok && second.outcome).toBe('created');
+		const co2 = second.ok ? second.changeOrder! : undefined;
+		// Only the second hole: $85.00, the installer's $55.00; CO-1's items are not billed again.
+		expect(co2).toMatchObject({ number: 2, subtotalCents: 8_500, taxCents: 0, totalCents: 8_500 });
+		expect(co2!.payDeltaCents).toBe(5_500);
+		expect(co2!.result.lines.map((l) => l.key)).toEqual(['prep:hole_repair']);
+	});
+});
+
 describe('paying a change order', () => {
 	it('goes through Checkout for exactly its total, once', async () => {
 		const { site, co, token } = await sentToCustomer('Paying Floors');
