@@ -56,6 +56,9 @@ export async function sendChangeOrder(
 	if (locked.row.totalCents === 0 && locked.row.payDeltaCents === 0) {
 		return { ok: false, reason: 'nothing_to_send' };
 	}
+	const store = await readStore(tx);
+	const job = await jobs.readForStore(tx, jobId);
+	if (!store || !job) return { ok: false, reason: 'not_found' };
 	const now = new Date();
 	const row = await changeOrders.update(tx, id, {
 		status: 'reviewed',
@@ -65,9 +68,6 @@ export async function sendChangeOrder(
 		sentTo: options.to
 	});
 	if (!row) return { ok: false, reason: 'not_found' };
-	const store = await readStore(tx);
-	const job = await jobs.readForStore(tx, jobId);
-	if (!store || !job) return { ok: false, reason: 'not_found' };
 	const profile = await readProfile(tx);
 	await queueMail(
 		tx,
