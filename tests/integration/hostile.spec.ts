@@ -29,6 +29,7 @@ import {
 	unique,
 	type TestStore
 } from './factories';
+import { seedChangeOrder } from './change-order-jobs';
 import { CATALOGUE, keyOf, type Fixture, type Role, type Target } from './hostile/catalogue';
 import { formVariants, jsonVariants, loadVariants, type Variant } from './hostile/corpus';
 
@@ -49,6 +50,8 @@ let visitors: Record<Who, Visitor>;
 
 async function seed(store: TestStore, marker: string): Promise<Rows> {
 	const paid = await makePaidJob(store);
+	// Change order 1 of the job, awaiting review: the desk's change-order page has its forms.
+	await seedChangeOrder(store, paid);
 	const doomedCustomer = await makeCustomer(store.id, `Doomed ${marker}`);
 	const doomedJob = await makeJob(store.id, store.owner.id, paid.customer.id);
 	const doomedSite = await makeSite(store.id, paid.customer.id);

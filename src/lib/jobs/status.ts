@@ -70,6 +70,11 @@ export interface MoveFacts {
 	balanceDue: boolean;
 	/** A live booking on the schedule. */
 	booked: boolean;
+	/**
+	 * The customer signed off the installer's completion; undefined for a job completed without
+	 * one (before completions were recorded), which is closed on its balance alone.
+	 */
+	signedOff?: boolean;
 }
 
 export type HandMoveCheck = { ok: true } | { ok: false; message: string };
@@ -109,8 +114,11 @@ export function handMove(from: JobStatus, to: JobStatus, facts: MoveFacts): Hand
 				? { ok: true }
 				: refuse('Book an installer on the schedule; the booking makes the job scheduled.');
 		case 'closed':
-			return facts.balanceDue
-				? refuse('Something is still to pay: record the balance before closing the job.')
+			if (facts.balanceDue) {
+				return refuse('Something is still to pay: record the balance before closing the job.');
+			}
+			return facts.signedOff === false
+				? refuse('The customer signs off the finished work from their link before it is closed.')
 				: { ok: true };
 		default:
 			return { ok: true };

@@ -65,6 +65,8 @@ export type Target = ActionTarget | EndpointTarget | LoadTarget;
 const job = { id: 'job' } as const;
 const customer = { id: 'customer' } as const;
 const token = { token: 'token' } as const;
+/** Change order 1 of the job (the suite seeds one awaiting review in each store). */
+const changeOrder = { id: 'job', number: { fixed: '1' } } as const;
 
 const loads: LoadTarget[] = [
 	{ kind: 'load', route: '/reset-password' },
@@ -77,6 +79,7 @@ const loads: LoadTarget[] = [
 	{ kind: 'load', route: '/app/customers/new' },
 	{ kind: 'load', route: '/app/jobs' },
 	{ kind: 'load', route: '/app/jobs/[id]', params: job },
+	{ kind: 'load', route: '/app/jobs/[id]/change-orders/[number]', params: changeOrder },
 	{ kind: 'load', route: '/app/jobs/[id]/measure', params: job },
 	{ kind: 'load', route: '/app/jobs/[id]/payments', params: job },
 	{ kind: 'load', route: '/app/jobs/[id]/quote', params: job },
@@ -215,8 +218,20 @@ const endpoints: EndpointTarget[] = [
 		method: 'GET',
 		params: { id: 'job', version: 'quoteVersion' }
 	},
+	{
+		kind: 'endpoint',
+		route: '/app/jobs/[id]/change-orders/[number]/photos/[photo]',
+		method: 'GET',
+		params: { ...changeOrder, photo: { fixed: 'no-such-photo' } }
+	},
 	{ kind: 'endpoint', route: '/app/payments/export.csv', method: 'GET' },
 	{ kind: 'endpoint', route: '/c/[token]/logo', method: 'GET', params: token },
+	{
+		kind: 'endpoint',
+		route: '/c/[token]/photos/[photo]',
+		method: 'GET',
+		params: { ...token, photo: { fixed: 'no-such-photo' } }
+	},
 	{ kind: 'endpoint', route: '/c/[token]/quote.pdf', method: 'GET', params: token },
 	{
 		kind: 'endpoint',
@@ -287,6 +302,13 @@ const actions: ActionTarget[] = [
 		params: job
 	})),
 	{ kind: 'action', route: '/app/jobs/[id]', name: 'delete', params: { id: 'doomedJob' } },
+	// Adjusted and sent first, so the customer's link then has a change order to answer.
+	...['adjust', 'send', 'decline'].map((name): ActionTarget => ({
+		kind: 'action',
+		route: '/app/jobs/[id]/change-orders/[number]',
+		name,
+		params: changeOrder
+	})),
 	...['save', 'resolve'].map((name): ActionTarget => ({
 		kind: 'action',
 		route: '/app/jobs/[id]/measure',
@@ -372,13 +394,15 @@ const actions: ActionTarget[] = [
 		touchesSessions: true,
 		fields: { memberId: 'member' }
 	},
-	...['pay', 'accept', 'changes'].map((name): ActionTarget => ({
-		kind: 'action',
-		route: '/c/[token]',
-		name,
-		params: token,
-		drawnBy: 'nobody'
-	})),
+	...['pay', 'accept', 'changes', 'approveChange', 'declineChange', 'signOff'].map(
+		(name): ActionTarget => ({
+			kind: 'action',
+			route: '/c/[token]',
+			name,
+			params: token,
+			drawnBy: 'nobody'
+		})
+	),
 	{
 		kind: 'action',
 		route: '/dev/checkout/[id]',

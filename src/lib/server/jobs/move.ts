@@ -1,4 +1,5 @@
 import { handMove, type JobStatus, type MoveFacts } from '$lib/jobs/status';
+import * as completions from '../db/queries/completions';
 import * as jobs from '../db/queries/jobs';
 import * as payments from '../db/queries/payments';
 import * as quotes from '../db/queries/quotes';
@@ -13,12 +14,14 @@ export type HandMoveResult =
 export async function moveFacts(tx: StoreTx, jobId: string): Promise<MoveFacts> {
 	const quote = await quotes.standing(tx, jobId);
 	const { ledger } = await payments.moneyFor(tx, jobId);
+	const completion = await completions.read(tx, jobId);
 	return {
 		quoteSent: quote.sent,
 		quoteAccepted: quote.accepted,
 		depositDue: ledger.depositDueCents > 0,
 		balanceDue: ledger.balanceDueCents > 0,
-		booked: await jobs.isBooked(tx, jobId)
+		booked: await jobs.isBooked(tx, jobId),
+		signedOff: completion ? Boolean(completion.signedAt) : undefined
 	};
 }
 

@@ -260,3 +260,100 @@ export function paidNoticeMail(input: {
 		})
 	};
 }
+
+/** A change order sent to the customer: what was found, its price, and the link to decide. */
+export function changeOrderMail(input: {
+	to: string;
+	storeName: string;
+	storePhone: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	changeLabel: string;
+	/** The signed total: positive to pay, negative for a credit. */
+	totalCents: number;
+	total: string;
+	url: string;
+	replyTo?: string;
+}): Mail {
+	const credit = input.totalCents < 0;
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		replyTo: input.replyTo || undefined,
+		subject: `${input.changeLabel} for ${input.jobTitle}: your approval, please`,
+		...layout({
+			heading: `${input.changeLabel}: what we found on site`,
+			paragraphs: [
+				`Hello ${input.customerName},`,
+				`While working on ${input.jobLabel} ${input.jobTitle}, our installer found the subfloor needed different preparation from what was quoted. We have priced the difference from the same price list as your quote.`,
+				credit
+					? `It comes to a credit of ${input.total}, taken off what you owe once you approve it.`
+					: `It comes to ${input.total}. Open it to see the photos and each item, then approve it by typing your name, or decline it.`,
+				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
+			].filter(Boolean),
+			action: { label: 'See the change order', url: input.url },
+			footer: `Sent by ${input.storeName}. This link is for you: please do not forward it.`
+		})
+	};
+}
+
+/** The job is done: what is still owed, and the link to sign off and pay it. */
+export function balanceMail(input: {
+	to: string;
+	storeName: string;
+	storePhone: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	balance: string;
+	url: string;
+	replyTo?: string;
+}): Mail {
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		replyTo: input.replyTo || undefined,
+		subject: `${input.jobTitle} is finished: ${input.balance} to pay`,
+		...layout({
+			heading: `Your new floor is down`,
+			paragraphs: [
+				`Hello ${input.customerName},`,
+				`We have finished ${input.jobLabel} ${input.jobTitle}. Open your page to see the photos and the walk-through notes, and sign off the work.`,
+				`The balance still to pay is ${input.balance} (your quote and any change orders you approved, less what you have paid). You can pay it by card on the same page.`,
+				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
+			].filter(Boolean),
+			action: { label: 'Sign off and pay', url: input.url },
+			footer: `Sent by ${input.storeName}. This link is for you: please do not forward it.`
+		})
+	};
+}
+
+/** Tells the manager who sent a change order what the customer did with it. */
+export function changeOrderAnswerMail(input: {
+	to: string;
+	storeName: string;
+	customerName: string;
+	jobLabel: string;
+	jobTitle: string;
+	changeLabel: string;
+	answer: 'approved' | 'declined';
+	reason?: string;
+	url: string;
+}): Mail {
+	const approved = input.answer === 'approved';
+	return {
+		to: input.to,
+		fromName: input.storeName,
+		subject: `${input.customerName} ${input.answer} ${input.changeLabel} for ${input.jobLabel}`,
+		...layout({
+			heading: approved ? 'Change order approved' : 'Change order declined',
+			paragraphs: [
+				`${input.customerName} ${input.answer} ${input.changeLabel} for ${input.jobLabel} ${input.jobTitle}.`,
+				...(input.reason ? [`“${input.reason}”`] : [])
+			],
+			action: { label: 'Open the change order', url: input.url },
+			footer: `${input.storeName} · Flushline`
+		})
+	};
+}

@@ -19,6 +19,9 @@ export const MAIL_PURPOSES = {
 	receipt: 'Receipt',
 	'paid-notice': 'Payment notice, to the salesperson',
 	refund: 'Refund notice',
+	'change-order': 'Change order, to the customer',
+	'change-order-answer': 'Customer’s answer to a change order, to the store',
+	'balance-request': 'Balance due, to the customer',
 	invitation: 'Invitation',
 	'password-reset': 'Password reset'
 } as const;

@@ -1,16 +1,31 @@
 import { log } from '$lib/server/log';
 import { linkedJob, openLink } from '$lib/server/customer-page';
+import * as changeOrders from '$lib/server/db/queries/change-orders';
+import * as completions from '$lib/server/db/queries/completions';
 import * as customers from '$lib/server/db/queries/customers';
 import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import * as sites from '$lib/server/db/queries/sites';
 import { readProfile } from '$lib/server/db/queries/stores';
-import { inStore, readInStore } from '$lib/server/db/tenant';
+import { inStore, readInStore, type StoreTx } from '$lib/server/db/tenant';
 import { parseForm } from '$lib/server/forms';
-import { startCheckout } from '$lib/server/payments/checkout';
+import { startCheckout, type CheckoutPurpose } from '$lib/server/payments/checkout';
 import { syncSession } from '$lib/server/payments/sync';
 import { acceptQuote, requestChanges } from '$lib/server/quotes/answer';
+import {
+	approveChangeOrder,
+	customerDeclinesChangeOrder,
+	type CustomerDecision
+} from '$lib/server/change-orders/answer';
+import { customerChangeOrder, photoLines, roomNamesOf } from '$lib/server/change-orders/view';
+import { signOff, type SignOffResult } from '$lib/server/sign-off/sign-off';
+import {
+	customerApproveSchema,
+	customerDeclineSchema,
+	payChangeOrderSchema,
+	signOffSchema
+} from '$lib/schemas/change-order';
 import { jobLabel, payableNow } from '$lib/jobs/status';
 import { quoteView } from '$lib/quote-view';
 import { requiredText } from '$lib/schemas/fields';
@@ -55,11 +70,13 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			customer: await customers.read(tx, job.customerId),
 			site: job.siteId ? await sites.read(tx, job.siteId) : undefined,
 			money: await payments.moneyFor(tx, job.id),
-			account: await tradeSettings.stripeAccount(tx)
+			account: await tradeSettings.stripeAccount(tx),
+			...(await changeOrdersAndCompletion(tx, job))
 		};
 	});
 	const { store, job, profile, quote, customer, site, money, account } = found;
 	const due = payableNow(job.status);
+	const balanceNow = due === 'balance';
 	const lastCard = [...money.payments].reverse().find((p) => p.method === 'card');
 	return {
 		money: {
@@ -104,6 +121,24 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			hasLogo: Boolean(profile.logoKey)
 		},
 		job: { label: jobLabel(job.number), title: job.title, status: job.status },
+		changeOrders: found.changeOrders.map((co) => {
+			const paid = money.payments.some(
+				(p) => p.changeOrderId === co.id && (p.status === 'succeeded' || p.status === 'refunded')
+			);
+			return {
+				...co,
+				paid,
+				// Once the job is finished its balance takes in every approved change order.
+				payable:
+					co.status === 'approved' &&
+					co.totalCents > 0 &&
+					!paid &&
+					!balanceNow &&
+					money.ledger.balanceDueCents >= co.totalCents
+			};
+		}),
+		changePhotos: found.changePhotos,
+		completion: found.completion,
 		customerName: customer?.name ?? job.customerName,
 		site: site ? { address: site.address, town: site.town } : null,
 		quote: quote && {
@@ -122,6 +157,52 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			})
 		}
 	};
+};
+
+/**
+ * What the customer sees of the installer's half: the change orders the store sent them (never
+ * the installer's pay), the report's photos when there is one to show, and the completion with
+ * its photos, notes and sign-off once the job is finished.
+ */
+async function changeOrdersAndCompletion(tx: StoreTx, job: { id: string; status: string }) {
+	const sent = await changeOrders.listSent(tx, job.id);
+	const accepted = sent.length ? await changeOrders.acceptedQuote(tx, job.id) : undefined;
+	const rooms = accepted ? roomNamesOf(accepted) : new Map<string, string>();
+	const changePhotos = sent.length
+		? photoLines(
+				await changeOrders.reportPhotos(tx, job.id),
+				await changeOrders.liveFoundItems(tx, sent[0].reportId)
+			)
+		: [];
+	const done = job.status === 'completed' || job.status === 'closed';
+	const completion = done ? await completions.read(tx, job.id) : undefined;
+	return {
+		changeOrders: sent.map((row) => customerChangeOrder(row, rooms)),
+		changePhotos,
+		completion: completion
+			? {
+					completedAt: completion.completedAt,
+					notes: completion.walkthroughNotes,
+					signedAt: completion.signedAt,
+					signedName: completion.signedName,
+					photos: (await changeOrders.completionPhotos(tx, job.id)).map((p) => ({
+						id: p.id,
+						caption: p.caption
+					}))
+				}
+			: null
+	};
+}
+
+const CHANGE_REFUSED: Record<Exclude<CustomerDecision, { ok: true }>['reason'], string> = {
+	not_found: 'This change order is not one this link is for.',
+	not_open: 'This change order was already answered, so it cannot be answered again.'
+};
+
+const SIGN_OFF_REFUSED: Record<Exclude<SignOffResult, { ok: true }>['reason'], string> = {
+	not_found: 'This link is not valid.',
+	not_completed: 'The work is not marked finished yet, so there is nothing to sign off.',
+	already_signed: 'The work was already signed off.'
 };
 
 const REFUSED = {
@@ -146,12 +227,20 @@ export const actions: Actions = {
 		// A link the store has withdrawn pays nothing (410, as its page says).
 		await readInStore(link.storeId, (tx) => linkedJob(tx, link));
 		const form = await request.formData();
-		const purpose = form.get('purpose') === 'balance' ? 'balance' : 'deposit';
+		const asked = form.get('purpose');
+		let what: CheckoutPurpose;
+		if (asked === 'change_order') {
+			const parsed = payChangeOrderSchema.safeParse({ changeOrderId: form.get('changeOrderId') });
+			if (!parsed.success) return fail(400, { payError: 'Choose the change order to pay.' });
+			what = { purpose: 'change_order', changeOrderId: parsed.data.changeOrderId };
+		} else {
+			what = { purpose: asked === 'balance' ? 'balance' : 'deposit' };
+		}
 		const started = await startCheckout({
 			storeId: link.storeId,
 			jobId: link.jobId,
-			purpose,
-			linkToken: params.token
+			linkToken: params.token,
+			...what
 		});
 		if (!started.ok && started.reason === 'not_found') error(404, CHECKOUT_REFUSED.not_found);
 		if (!started.ok)
@@ -159,6 +248,53 @@ export const actions: Actions = {
 				payError: CHECKOUT_REFUSED[started.reason]
 			});
 		redirect(303, started.url);
+	},
+	approveChange: async ({ params, request, getClientAddress }) => {
+		const link = openLink(params.token);
+		const parsed = await parseForm(request, customerApproveSchema);
+		if (!parsed.ok) return parsed.failure;
+		const signature = {
+			name: parsed.data.name,
+			ip: getClientAddress(),
+			userAgent: request.headers.get('user-agent')
+		};
+		const answer = await inStore(link.storeId, async (tx) => {
+			const { job } = await linkedJob(tx, link);
+			return approveChangeOrder(tx, job.id, parsed.data.changeOrderId, signature);
+		});
+		if (!answer.ok) return fail(409, { changeMessage: CHANGE_REFUSED[answer.reason] });
+		return { changeApproved: true };
+	},
+	declineChange: async ({ params, request, getClientAddress }) => {
+		const link = openLink(params.token);
+		const parsed = await parseForm(request, customerDeclineSchema);
+		if (!parsed.ok) return parsed.failure;
+		const answer = await inStore(link.storeId, async (tx) => {
+			const { job } = await linkedJob(tx, link);
+			return customerDeclinesChangeOrder(tx, job.id, parsed.data.changeOrderId, {
+				reason: parsed.data.reason ?? '',
+				ip: getClientAddress(),
+				userAgent: request.headers.get('user-agent')
+			});
+		});
+		if (!answer.ok) return fail(409, { changeMessage: CHANGE_REFUSED[answer.reason] });
+		return { changeDeclined: true };
+	},
+	signOff: async ({ params, request, getClientAddress }) => {
+		const link = openLink(params.token);
+		const parsed = await parseForm(request, signOffSchema);
+		if (!parsed.ok) return parsed.failure;
+		const signature = {
+			name: parsed.data.name,
+			ip: getClientAddress(),
+			userAgent: request.headers.get('user-agent')
+		};
+		const answer = await inStore(link.storeId, async (tx) => {
+			const { job } = await linkedJob(tx, link);
+			return signOff(tx, job.id, signature);
+		});
+		if (!answer.ok) return fail(409, { signOffMessage: SIGN_OFF_REFUSED[answer.reason] });
+		return { signedOff: true };
 	},
 	accept: async ({ params, request, getClientAddress }) => {
 		const link = openLink(params.token);

@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import { ledger, type Ledger } from '../../../payments/ledger';
-import { job, payment, quote, refund, stripeEvent, user } from '../schema';
+import { changeOrder, job, payment, quote, refund, stripeEvent, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Payment = typeof payment.$inferSelect;
@@ -40,9 +40,28 @@ export interface JobMoney {
 	currency: string;
 }
 
-/** A job's payments, refunds and balance, from its accepted quote. */
+/** The sum of a job's approved change orders, in cents (a credit is negative). */
+async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<number> {
+	const [row] = await tx
+		.select({ total: sql<string | null>`sum(${changeOrder.totalCents})` })
+		.from(changeOrder)
+		.where(
+			and(
+				eq(changeOrder.organizationId, tx.storeId),
+				eq(changeOrder.jobId, jobId),
+				eq(changeOrder.status, 'approved')
+			)
+		);
+	return Number(row?.total ?? 0);
+}
+
+/**
+ * A job's payments, refunds and balance: what it owes is its accepted quote plus the change
+ * orders the customer approved.
+ */
 export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 	const accepted = await acceptedQuote(tx, jobId);
+	const changeOrdersCents = await approvedChangeOrdersCents(tx, jobId);
 	const [status] = await tx
 		.select({ status: job.status })
 		.from(job)
@@ -76,6 +95,7 @@ export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 		ledger: ledger({
 			quoteTotalCents: accepted?.totalCents ?? 0,
 			depositCents: accepted?.depositCents ?? 0,
+			changeOrdersCents,
 			payments,
 			refunds,
 			cancelled: status?.status === 'cancelled'

@@ -1,3 +1,5 @@
+import * as changeOrders from '$lib/server/db/queries/change-orders';
+import * as completions from '$lib/server/db/queries/completions';
 import * as jobs from '$lib/server/db/queries/jobs';
 import * as payments from '$lib/server/db/queries/payments';
 import * as quotes from '$lib/server/db/queries/quotes';
@@ -32,6 +34,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		const installers = canAssign ? await jobs.listInstallers(tx) : [];
 		const quoteVersions = can(grants, { quote: ['read'] }) ? await quotes.list(tx, job.id) : [];
 		const money = can(grants, { payment: ['read'] }) ? await payments.moneyFor(tx, job.id) : null;
+		const completion = await completions.read(tx, job.id);
 		return {
 			job,
 			history,
@@ -46,6 +49,22 @@ export const load: PageServerLoad = async ({ params }) => {
 			canAssign,
 			site: await loadJobSite(tx, job, grants),
 			measure: await measureSummary(tx, job.id),
+			changeOrders: can(grants, { changeOrder: ['review'] })
+				? (await changeOrders.listForJob(tx, job.id)).map((c) => ({
+						number: c.number,
+						status: c.status,
+						currency: c.currency,
+						totalCents: c.totalCents,
+						createdAt: c.createdAt
+					}))
+				: null,
+			completion: completion
+				? {
+						completedAt: completion.completedAt,
+						signedAt: completion.signedAt,
+						signedName: completion.signedName
+					}
+				: null,
 			canEdit: can(grants, { job: ['update'] }),
 			canDelete: can(grants, { job: ['delete'] }) && canDelete(job.status)
 		};
