@@ -463,7 +463,10 @@ export function openApiDocument(): Json {
 						'204': response('Deleted'),
 						...errors,
 						...notFound,
-						'409': response('Only a draft or cancelled job with no quote and no payment can be deleted', ref('Error'))
+						'409': response(
+							'Only a draft or cancelled job with no quote and no payment can be deleted',
+							ref('Error')
+						)
 					}
 				}
 			},

@@ -30,6 +30,10 @@ export const DELETE: RequestHandler = endpoint(async ({ params }) => {
 	const { store } = member;
 	const result = await inStore(store.id, (tx) => remove(tx, params.id));
 	if (result === 'not_found') error(404, 'Not found');
-	if (result === 'not_draft') error(409, 'Only a draft or cancelled job with no quote and no payment can be deleted; cancel it instead');
+	if (result === 'not_draft')
+		error(
+			409,
+			'Only a draft or cancelled job with no quote and no payment can be deleted; cancel it instead'
+		);
 	return new Response(null, { status: 204 });
 });
