@@ -1,29 +1,100 @@
-import { canStartOnSite } from '$lib/jobs/status';
-import * as jobs from '$lib/server/db/queries/jobs';
+import { canCheckIn, canComplete, canReport } from '$lib/jobs/status';
+import { completeSchema } from '$lib/schemas/field';
+import * as field from '$lib/server/db/queries/field';
 import { inStore, readInStore } from '$lib/server/db/tenant';
+import { checkIn, completeJob, phoneItem, submitReport } from '$lib/server/field/report';
+import { readWorkOrder, reportChoices } from '$lib/server/field/work-order';
+import { parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
+import { requireJob } from '$lib/server/object-access';
 import { error, fail } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const { store, scope } = requirePermission({ assignedJob: ['read'] });
-	const job = await readInStore(store.id, (tx) => jobs.readForViewer(tx, params.id, scope));
-	if (!job) error(404, 'Not found');
-	return { job };
+	const found = await readInStore(store.id, async (tx) => {
+		const order = await readWorkOrder(tx, params.id, scope);
+		if (!order) return undefined;
+		const report = await field.readReport(tx, params.id);
+		const choices = await reportChoices(tx, params.id);
+		return {
+			order,
+			report: report
+				? {
+						checkedInAt: report.checkedInAt,
+						submittedAt: report.submittedAt,
+						items: (await field.listItems(tx, report.id)).map(phoneItem)
+					}
+				: null,
+			choices: {
+				rooms: choices.rooms,
+				items: [...choices.items.values()].map((c) => ({
+					refKey: c.refKey,
+					label: c.label,
+					unit: c.unit
+				})),
+				sold: Object.fromEntries(choices.sold)
+			},
+			photos: await field.listPhotos(tx, params.id),
+			completion: await field.readCompletion(tx, params.id)
+		};
+	});
+	if (!found) error(404, 'Not found');
+	const status = found.order.job.status;
+	return {
+		...found,
+		can: {
+			checkIn: canCheckIn(status),
+			report: canReport(status) && Boolean(found.report),
+			complete: canComplete(status)
+		}
+	};
 };
 
 export const actions: Actions = {
-	start: async ({ params }) => {
-		const { store, user, scope } = requirePermission({ assignedJob: ['report'] });
-		const result = await inStore(store.id, async (tx) => {
-			// Only a job assigned to this installer, in this store.
-			const job = await jobs.readForViewer(tx, params.id, scope);
-			if (!job) return null;
-			if (!canStartOnSite(job.status)) return { ok: false } as const;
-			return jobs.move(tx, job.id, 'in_progress', user.id, 'Started on site');
-		});
-		if (!result) error(404, 'Not found');
-		if (!result.ok) return fail(409, { message: 'This job is not booked to start yet.' });
-		return { started: true };
+	checkIn: async ({ params }) => {
+		const member = requirePermission({ assignedJob: ['report'] });
+		await requireJob(member, params.id);
+		const result = await inStore(member.store.id, (tx) => checkIn(tx, params.id, member.user.id));
+		if (!result.ok) {
+			if (result.reason === 'not_found') error(404, 'Not found');
+			return fail(409, { message: 'This job is not booked for work on site yet.' });
+		}
+		return { checkedIn: true };
+	},
+	submit: async ({ params }) => {
+		const member = requirePermission({ assignedJob: ['report'] });
+		await requireJob(member, params.id);
+		const result = await inStore(member.store.id, (tx) =>
+			submitReport(tx, params.id, member.user.id)
+		);
+		if (!result.ok) {
+			if (result.reason === 'not_found') error(404, 'Not found');
+			if (result.reason === 'no_report') return fail(409, { message: 'Check in first.' });
+			return fail(409, { message: 'This job is not under way: the report is closed.' });
+		}
+		return { submitted: true };
+	},
+	complete: async ({ params, request }) => {
+		const member = requirePermission({ assignedJob: ['report'] });
+		await requireJob(member, params.id);
+		const parsed = await parseForm(request, completeSchema);
+		if (!parsed.ok) return parsed.failure;
+		const result = await inStore(member.store.id, (tx) =>
+			completeJob(tx, params.id, member.user.id, parsed.data.walkthroughNotes)
+		);
+		if (!result.ok) {
+			if (result.reason === 'not_found') error(404, 'Not found');
+			const message =
+				result.reason === 'no_photo'
+					? 'Add at least one photo of the finished floor first.'
+					: 'This job cannot be marked complete now.';
+			return fail(409, {
+				message,
+				values: { walkthroughNotes: parsed.data.walkthroughNotes },
+				errors: result.reason === 'no_photo' ? { photo: [message] } : {}
+			});
+		}
+		return { completed: true };
 	}
 };
