@@ -270,6 +270,35 @@ describe('the report from the phone', () => {
 		expect(JSON.stringify(bad.json())).toMatch(/items\.0\.(clientId|qty)/);
 	});
 
+	it('records without JavaScript by form: the same form twice is one edit', async () => {
+		const fields = {
+			clientId: clientId(),
+			roomId: 'r1',
+			refKey: 'prep:hole_repair',
+			amount: '6',
+			note: 'Counted again'
+		};
+		for (let i = 0; i < 2; i++) {
+			const answer = await installer.action(`/field/jobs/${booked.job.id}?/record`, fields);
+			expect(answer.status).toBe(200);
+			expect(answer.text).not.toMatch(/"type":"failure"/);
+		}
+		const live = await readInStore(store.id, (tx) =>
+			tx
+				.select()
+				.from(fieldItem)
+				.where(and(eq(fieldItem.refKey, 'prep:hole_repair'), eq(fieldItem.roomId, 'r1')))
+		);
+		// The amount found already recorded for the room and item is edited, not doubled.
+		expect(live.map((r) => [r.clientId, r.qty])).toEqual([[hole, 6]]);
+		const bad = await installer.action(`/field/jobs/${booked.job.id}?/record`, {
+			...fields,
+			amount: '0,5'
+		});
+		expect(bad.text).toMatch(/"type":"failure","status":400/);
+		expect(bad.text).toMatch(/amount/);
+	});
+
 	it('submits the report once however often it is sent', async () => {
 		for (let i = 0; i < 2; i++) {
 			const answer = await installer.action(`/field/jobs/${booked.job.id}?/submit`, {});

@@ -4,7 +4,7 @@
  * the phone's outbox and the server, so both bound the same things.
  */
 import { z } from 'zod';
-import { textField } from '$lib/input';
+import { numberField, textField } from '$lib/input';
 
 /** An id made on the phone (a UUID, or anything of the same alphabet): 8–64 characters. */
 export const clientIdSchema = z
@@ -135,4 +135,18 @@ export const PHOTO_MAX_BYTES = 2_500_000;
 /** The customer's walk-through notes when the job is marked complete. */
 export const completeSchema = z.object({
 	walkthroughNotes: textField.pipe(z.string().max(4000, 'Keep the notes under 4000 characters'))
+});
+
+/**
+ * What the "What you found" form posts when the page runs without JavaScript: one amount found
+ * for a room and item, under the id the page made for this form (a resubmission is stored once).
+ */
+export const recordFoundSchema = z.object({
+	clientId: clientIdSchema,
+	roomId: textField.pipe(z.string().max(64, 'A room of the job')).transform((v) => v || null),
+	refKey: textField.pipe(
+		z.string().regex(/^[a-z_]+:[A-Za-z0-9_.:-]{1,100}$/, 'Choose what you found')
+	),
+	amount: numberField({ label: 'the amount found', max: 1_000_000 }),
+	note: textField.pipe(z.string().max(2000, 'Keep the note under 2000 characters'))
 });

@@ -424,13 +424,24 @@ const actions: ActionTarget[] = [
 		route: '/dev/stripe',
 		name
 	})),
-	...['checkIn', 'submit', 'complete'].map((name): ActionTarget => ({
+	...['checkIn', 'record', 'submit', 'complete'].map((name): ActionTarget => ({
 		kind: 'action',
 		route: '/field/jobs/[id]',
 		name,
 		params: job,
 		drawnBy: 'installer',
-		...(name === 'complete' ? { fields: { walkthroughNotes: 'Walked the floor together' } } : {})
+		...(name === 'complete' ? { fields: { walkthroughNotes: 'Walked the floor together' } } : {}),
+		...(name === 'record'
+			? {
+					fields: {
+						clientId: 'hostile-form-0001',
+						roomId: 'r1',
+						refKey: 'prep:hole_repair',
+						amount: '2',
+						note: 'Found by the door'
+					}
+				}
+			: {})
 	})),
 	...['accept', 'decline'].map((name): ActionTarget => ({
 		kind: 'action',

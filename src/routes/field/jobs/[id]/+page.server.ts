@@ -1,8 +1,14 @@
 import { canCheckIn, canComplete, canReport } from '$lib/jobs/status';
-import { completeSchema } from '$lib/schemas/field';
+import { completeSchema, recordFoundSchema } from '$lib/schemas/field';
 import * as field from '$lib/server/db/queries/field';
 import { inStore, readInStore } from '$lib/server/db/tenant';
-import { checkIn, completeJob, phoneItem, submitReport } from '$lib/server/field/report';
+import {
+	checkIn,
+	completeJob,
+	phoneItem,
+	recordItems,
+	submitReport
+} from '$lib/server/field/report';
 import { readWorkOrder, reportChoices } from '$lib/server/field/work-order';
 import { parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
@@ -43,6 +49,8 @@ export const load: PageServerLoad = async ({ params }) => {
 	const status = found.order.job.status;
 	return {
 		...found,
+		// The id the "What you found" form carries without JavaScript: a resubmission is one item.
+		formClientId: crypto.randomUUID(),
 		can: {
 			checkIn: canCheckIn(status),
 			report: canReport(status) && Boolean(found.report),
@@ -61,6 +69,52 @@ export const actions: Actions = {
 			return fail(409, { message: 'This job is not booked for work on site yet.' });
 		}
 		return { checkedIn: true };
+	},
+	/**
+	 * One amount found, posted by the page without JavaScript (with it, the phone's outbox sends
+	 * items to /api/v1/field/jobs/[id]/items). An item already recorded for the room is edited on
+	 * top of its current version: this form always starts from what the server has.
+	 */
+	record: async ({ params, request }) => {
+		const member = requirePermission({ assignedJob: ['report'] });
+		await requireJob(member, params.id);
+		const parsed = await parseForm(request, recordFoundSchema);
+		if (!parsed.ok) return parsed.failure;
+		const { clientId, roomId, refKey, amount, note } = parsed.data;
+		const result = await inStore(member.store.id, async (tx) => {
+			const report = await field.readReport(tx, params.id);
+			const live = report ? await field.readLiveFound(tx, report.id, roomId, refKey) : undefined;
+			const mine = await field.readItemByClientId(tx, clientId);
+			const base = mine ?? (live && live.clientId !== clientId ? live : undefined);
+			return recordItems(tx, params.id, member.user.id, [
+				{
+					clientId: base?.clientId ?? clientId,
+					kind: 'found',
+					roomId,
+					refKey,
+					qty: amount,
+					note,
+					deleted: false,
+					recordedAt: new Date().toISOString(),
+					...(base ? { baseVersion: base.version } : {})
+				}
+			]);
+		});
+		if (!result.ok) {
+			if (result.reason === 'not_found') error(404, 'Not found');
+			return fail(409, {
+				message: result.reason === 'no_report' ? 'Check in first.' : 'The report is closed.'
+			});
+		}
+		const [answer] = result.answers;
+		if (answer.status === 'refused' || answer.status === 'conflict') {
+			return fail(409, {
+				message: answer.message,
+				values: { roomId: roomId ?? '', refKey, amount: String(amount), note },
+				errors: {}
+			});
+		}
+		return { recorded: true };
 	},
 	submit: async ({ params }) => {
 		const member = requirePermission({ assignedJob: ['report'] });
