@@ -2,10 +2,10 @@
 // declared type says), within the size limit; turned upright by EXIF orientation and stored with
 // no metadata (no GPS); a resend stored once; served only to members who may see the job.
 import { PHOTO_MAX_BYTES } from '$lib/schemas/field';
-import { fieldPhoto } from '$lib/server/db/schema';
+import { fieldPhoto, jobCompletion } from '$lib/server/db/schema';
 import { readInStore } from '$lib/server/db/tenant';
 import { readPhotoForChangeOrder } from '$lib/server/field/photos';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startApp, type App, type Visitor } from './app-server';
@@ -195,5 +195,46 @@ describe('what is stored', () => {
 			readPhotoForChangeOrder(tx, work.changeOrder.id, photoId)
 		);
 		expect(other).toBeUndefined();
+	});
+});
+
+describe('completion without JavaScript', () => {
+	function complete(bytes: Uint8Array, photoClientId: string, name = 'done.jpg') {
+		const form = new FormData();
+		form.set('walkthroughNotes', 'Walked it with the customer');
+		form.set('photoClientId', photoClientId);
+		form.set('photo', new Blob([new Uint8Array(bytes)], { type: 'image/jpeg' }), name);
+		return installer.request(`/field/jobs/${booked.job.id}?/complete`, {
+			method: 'POST',
+			headers: { accept: 'application/json', 'x-sveltekit-action': 'true' },
+			body: form
+		});
+	}
+
+	it('refuses a photo that is not one, beside the field, and completes nothing', async () => {
+		const answer = await complete(new TextEncoder().encode('not a photo'), clientId(), 'a.jpg');
+		expect(answer.text).toMatch(/"type":"failure","status":415/);
+		expect(answer.text).toMatch(/not a photo we can take/);
+		const rows = await readInStore(store.id, (tx) =>
+			tx.select().from(jobCompletion).where(eq(jobCompletion.jobId, booked.job.id))
+		);
+		expect(rows).toEqual([]);
+	});
+
+	it('takes the photo with the form; sent twice, one photo and one completion', async () => {
+		const id = clientId();
+		for (let i = 0; i < 2; i++) {
+			const answer = await complete(await phoneJpeg(), id);
+			expect(answer.text).toMatch(/"type":"success"/);
+		}
+		const [done, photos] = await readInStore(store.id, async (tx) => [
+			await tx.select().from(jobCompletion).where(eq(jobCompletion.jobId, booked.job.id)),
+			await tx
+				.select()
+				.from(fieldPhoto)
+				.where(and(eq(fieldPhoto.jobId, booked.job.id), eq(fieldPhoto.purpose, 'completion')))
+		]);
+		expect(done).toHaveLength(1);
+		expect(photos.map((p) => [p.clientId, p.width, p.height])).toEqual([[id, 40, 80]]);
 	});
 });

@@ -1,5 +1,6 @@
 import { canCheckIn, canComplete, canReport } from '$lib/jobs/status';
-import { completeSchema, recordFoundSchema } from '$lib/schemas/field';
+import { clientIdSchema, completeSchema, recordFoundSchema } from '$lib/schemas/field';
+import { processPhoto, putPhotoFiles, savePhoto } from '$lib/server/field/photos';
 import * as field from '$lib/server/db/queries/field';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import {
@@ -129,25 +130,64 @@ export const actions: Actions = {
 		}
 		return { submitted: true };
 	},
+	/**
+	 * Marks the job complete. Without JavaScript the finished floor's photo comes with the form
+	 * (multipart, under the id the page made for it); with it, the photo went through the outbox.
+	 */
 	complete: async ({ params, request }) => {
 		const member = requirePermission({ assignedJob: ['report'] });
 		await requireJob(member, params.id);
 		const parsed = await parseForm(request, completeSchema);
 		if (!parsed.ok) return parsed.failure;
-		const result = await inStore(member.store.id, (tx) =>
-			completeJob(tx, params.id, member.user.id, parsed.data.walkthroughNotes)
-		);
-		if (!result.ok) {
-			if (result.reason === 'not_found') error(404, 'Not found');
-			const message =
-				result.reason === 'no_photo'
-					? 'Add at least one photo of the finished floor first.'
-					: 'This job cannot be marked complete now.';
-			return fail(409, {
+		const notes = parsed.data.walkthroughNotes;
+		const refuse = (status: number, message: string, field?: string) =>
+			fail(status, {
 				message,
-				values: { walkthroughNotes: parsed.data.walkthroughNotes },
-				errors: result.reason === 'no_photo' ? { photo: [message] } : {}
+				values: { walkthroughNotes: notes },
+				errors: field ? { [field]: [message] } : {}
 			});
+		const file = parsed.form.get('photo');
+		const photoId = clientIdSchema.safeParse(parsed.form.get('photoClientId'));
+		let files: Awaited<ReturnType<typeof putPhotoFiles>> | undefined;
+		let size = { byteSize: 0, width: 0, height: 0 };
+		if (file instanceof File && file.size > 0) {
+			if (!photoId.success) return refuse(400, 'Reload the page and add the photo again.', 'photo');
+			const processed = await processPhoto(new Uint8Array(await file.arrayBuffer()));
+			if (!processed.ok) return refuse(processed.status, processed.message, 'photo');
+			files = await putPhotoFiles(member.store.id, params.id, processed);
+			size = {
+				byteSize: processed.image.byteLength,
+				width: processed.width,
+				height: processed.height
+			};
+		}
+		const result = await inStore(member.store.id, async (tx) => {
+			if (files && photoId.success) {
+				const saved = await savePhoto(
+					tx,
+					params.id,
+					member.user.id,
+					{
+						clientId: photoId.data,
+						purpose: 'completion',
+						roomId: null,
+						itemClientId: null,
+						caption: '',
+						takenAt: null
+					},
+					{ fileKey: files.fileKey, thumbKey: files.thumbKey, ...size }
+				);
+				if (!saved.ok) return { ok: false, reason: 'not_found' } as const;
+				if (saved.duplicate) await files.forget();
+			}
+			return completeJob(tx, params.id, member.user.id, notes);
+		});
+		if (!result.ok) {
+			await files?.forget();
+			if (result.reason === 'not_found') error(404, 'Not found');
+			return result.reason === 'no_photo'
+				? refuse(409, 'Add at least one photo of the finished floor first.', 'photo')
+				: refuse(409, 'This job cannot be marked complete now.');
 		}
 		return { completed: true };
 	}
