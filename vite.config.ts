@@ -1,9 +1,57 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
+import { SvelteKitPWA } from '@vite-pwa/sveltekit';
 import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
-	plugins: [tailwindcss(), sveltekit()],
+	plugins: [
+		tailwindcss(),
+		sveltekit(),
+		// The installer's screens work with no signal: a service worker scoped to /field keeps the
+		// app's files and, network first, the field pages and their data as last seen; the desk is
+		// outside its scope and never served from it. Drafts live in IndexedDB ($lib/field/outbox).
+		SvelteKitPWA({
+			strategies: 'generateSW',
+			registerType: 'autoUpdate',
+			injectRegister: false,
+			scope: '/field/',
+			manifest: false,
+			workbox: {
+				navigateFallback: undefined,
+				cleanupOutdatedCaches: true,
+				// A new worker takes over open field pages at once (they keep no state in it).
+				clientsClaim: true,
+				skipWaiting: true,
+				// Wakes the open field page to send its outbox (Background Sync, where supported).
+				importScripts: ['/field-sync.js'],
+				runtimeCaching: [
+					{
+						urlPattern: ({ url, request }) =>
+							request.method === 'GET' &&
+							(url.pathname === '/field' || url.pathname.startsWith('/field/')) &&
+							!url.pathname.endsWith('.pdf'),
+						handler: 'NetworkFirst',
+						options: {
+							cacheName: 'field-pages',
+							networkTimeoutSeconds: 6,
+							// The page's data is asked with SvelteKit's `x-sveltekit-invalidated` query.
+							matchOptions: { ignoreSearch: true },
+							expiration: { maxEntries: 200, maxAgeSeconds: 14 * 86_400 }
+						}
+					},
+					{
+						urlPattern: ({ url }) =>
+							/^\/api\/v1\/field\/jobs\/[^/]+\/photos\/[^/]+$/.test(url.pathname),
+						handler: 'CacheFirst',
+						options: {
+							cacheName: 'field-photos',
+							expiration: { maxEntries: 300, maxAgeSeconds: 14 * 86_400 }
+						}
+					}
+				]
+			}
+		})
+	],
 	build: {
 		rollupOptions: {
 			// Vite 8 prints a plugin timing report on every build; it is noise for `npm start`.

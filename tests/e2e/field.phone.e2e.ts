@@ -38,7 +38,7 @@ test('an installer on a phone sees only their jobs, in each of their stores', as
 	expect(box!.height).toBeGreaterThanOrEqual(48);
 	await target.click();
 	await expect(page.getByRole('heading', { name: 'Bathroom tile' })).toBeVisible();
-	await page.getByRole('button', { name: 'Start work on site' }).click();
+	await page.getByRole('button', { name: 'Check in' }).click();
 	await expect(page.getByText('In progress')).toBeVisible();
 
 	await page.getByRole('link', { name: 'Stores' }).click();

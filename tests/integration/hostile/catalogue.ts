@@ -205,6 +205,37 @@ const endpoints: EndpointTarget[] = [
 		body: { label: 'Home', notes: 'Gate code at the office' }
 	},
 	{ kind: 'endpoint', route: '/api/v1/sites/[id]', method: 'DELETE', params: { id: 'doomedSite' } },
+	{
+		kind: 'endpoint',
+		route: '/api/v1/field/jobs/[id]/items',
+		method: 'POST',
+		params: job,
+		body: {
+			items: [
+				{
+					clientId: 'hostile-client-0001',
+					kind: 'found',
+					roomId: 'r1',
+					refKey: 'prep:hole_repair',
+					qty: 1,
+					recordedAt: '2026-12-02T10:00:00Z'
+				}
+			]
+		}
+	},
+	{
+		kind: 'endpoint',
+		route: '/api/v1/field/jobs/[id]/photos',
+		method: 'POST',
+		params: job,
+		body: { clientId: 'hostile-photo-0001', purpose: 'report' }
+	},
+	{
+		kind: 'endpoint',
+		route: '/api/v1/field/jobs/[id]/photos/[photoId]',
+		method: 'GET',
+		params: { id: 'job', photoId: { fixed: 'no-such-photo' } }
+	},
 	{ kind: 'endpoint', route: '/api/v1/store/logo', method: 'GET' },
 	{
 		kind: 'endpoint',
@@ -224,7 +255,9 @@ const endpoints: EndpointTarget[] = [
 		method: 'GET',
 		params: { ...changeOrder, photo: { fixed: 'no-such-photo' } }
 	},
+	{ kind: 'endpoint', route: '/app/jobs/[id]/work-order.pdf', method: 'GET', params: job },
 	{ kind: 'endpoint', route: '/app/payments/export.csv', method: 'GET' },
+	{ kind: 'endpoint', route: '/field/jobs/[id]/work-order.pdf', method: 'GET', params: job },
 	{ kind: 'endpoint', route: '/c/[token]/logo', method: 'GET', params: token },
 	{
 		kind: 'endpoint',
@@ -415,13 +448,25 @@ const actions: ActionTarget[] = [
 		route: '/dev/stripe',
 		name
 	})),
-	{
+	...['checkIn', 'record', 'submit', 'complete'].map((name): ActionTarget => ({
 		kind: 'action',
 		route: '/field/jobs/[id]',
-		name: 'start',
+		name,
 		params: job,
-		drawnBy: 'installer'
-	},
+		drawnBy: 'installer',
+		...(name === 'complete' ? { fields: { walkthroughNotes: 'Walked the floor together' } } : {}),
+		...(name === 'record'
+			? {
+					fields: {
+						clientId: 'hostile-form-0001',
+						roomId: 'r1',
+						refKey: 'prep:hole_repair',
+						amount: '2',
+						note: 'Found by the door'
+					}
+				}
+			: {})
+	})),
 	...['accept', 'decline'].map((name): ActionTarget => ({
 		kind: 'action',
 		route: '/invite/[id]',

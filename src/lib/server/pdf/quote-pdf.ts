@@ -30,12 +30,12 @@ export interface QuotePdfInput {
 }
 
 // Letter, in points; the palette's ink, plank and signal.
-const PAGE = { width: 612, height: 792, margin: 48 };
-const INK = rgb(0x26 / 255, 0x32 / 255, 0x3d / 255);
-const MUTED = rgb(0x56 / 255, 0x68 / 255, 0x79 / 255);
+export const PAGE = { width: 612, height: 792, margin: 48 };
+export const INK = rgb(0x26 / 255, 0x32 / 255, 0x3d / 255);
+export const MUTED = rgb(0x56 / 255, 0x68 / 255, 0x79 / 255);
 const PLANK = rgb(0xa9 / 255, 0x65 / 255, 0x2c / 255);
-const PLANK_LIGHT = rgb(0xf5 / 255, 0xe9 / 255, 0xd7 / 255);
-const SIGNAL = rgb(0xd4 / 255, 0x55 / 255, 0x11 / 255);
+export const PLANK_LIGHT = rgb(0xf5 / 255, 0xe9 / 255, 0xd7 / 255);
+export const SIGNAL = rgb(0xd4 / 255, 0x55 / 255, 0x11 / 255);
 const RULE = rgb(0xeb / 255, 0xe6 / 255, 0xdb / 255);
 
 const require = createRequire(import.meta.url);
@@ -43,7 +43,7 @@ const fontFile = (weight: number) =>
 	require.resolve(`@fontsource/manrope/files/manrope-latin-${weight}-normal.woff`);
 
 let fonts: Promise<[Buffer, Buffer]> | undefined;
-function fontBytes() {
+export function fontBytes() {
 	fonts ??= Promise.all([readFile(fontFile(400)), readFile(fontFile(700))]);
 	return fonts;
 }
@@ -58,7 +58,7 @@ const SPELLED: Record<string, string> = {
 	'≤': '<='
 };
 
-class Writer {
+export class Writer {
 	page!: PDFPage;
 	y = 0;
 	pages: PDFPage[] = [];
@@ -156,7 +156,7 @@ class Writer {
 }
 
 /** An outline as an SVG path in a box of `w` × `h` points (y down), to scale. */
-function outlinePath(outline: Outline, w: number, h: number) {
+export function outlinePath(outline: Outline, w: number, h: number) {
 	const { minX, maxY, widthIn, lengthIn } = outline.bbox;
 	const scale = Math.min(w / widthIn, h / lengthIn);
 	const at = ([x, y]: [number, number]) =>
