@@ -1,8 +1,16 @@
 // The installer's phone, through the app as a browser reaches it: only assigned jobs, a work
 // order with no price in it, check-in, items sent (and resent) by the phone's outbox, two phones
 // merged by item, the report submitted once, and the job marked complete.
-import { fieldItem, fieldPhoto, fieldReport, jobCompletion } from '$lib/server/db/schema';
-import { readInStore } from '$lib/server/db/tenant';
+import {
+	changeOrder,
+	customer,
+	fieldItem,
+	fieldPhoto,
+	fieldReport,
+	jobCompletion,
+	task
+} from '$lib/server/db/schema';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import { readWorkOrder } from '$lib/server/field/work-order';
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
@@ -309,6 +317,21 @@ describe('the report from the phone', () => {
 		);
 		expect(reports).toHaveLength(1);
 		expect(reports[0].submittedAt).not.toBeNull();
+		// What was found beyond what was sold became one change order for the store's review,
+		// in the submission's transaction; sending twice did not make a second.
+		const made = await readInStore(store.id, (tx) =>
+			tx.select().from(changeOrder).where(eq(changeOrder.jobId, booked.job.id))
+		);
+		expect(made.map((c) => [c.number, c.status])).toEqual([[1, 'submitted']]);
+		const page = data(await installer.page(`/field/jobs/${booked.job.id}`));
+		expect(page.decisions).toEqual([expect.objectContaining({ number: 1, status: 'submitted' })]);
+		// The installer's own pay difference, and no price of the change order.
+		expect(Object.keys((page.decisions as object[])[0]).sort()).toEqual([
+			'currency',
+			'number',
+			'payDeltaCents',
+			'status'
+		]);
 	});
 
 	it('marks the job complete only with a completion photo, once', async () => {
@@ -333,6 +356,13 @@ describe('the report from the phone', () => {
 				})
 			).status
 		).toBe(201);
+		// A customer with an e-mail address, to be asked for the balance.
+		await inStore(store.id, (tx) =>
+			tx
+				.update(customer)
+				.set({ email: 'ada.brook@test.example' })
+				.where(eq(customer.id, booked.customer.id))
+		);
 		for (let i = 0; i < 2; i++) {
 			const done = await installer.action(`/field/jobs/${booked.job.id}?/complete`, {
 				walkthroughNotes: 'Customer walked it with me'
@@ -354,6 +384,14 @@ describe('the report from the phone', () => {
 			order: { job: { status: string } };
 		};
 		expect(page.order.job.status).toBe('completed');
+		// The customer was asked for the balance, once, in the completion's transaction.
+		const asked = await readInStore(store.id, (tx) =>
+			tx
+				.select({ payload: task.payload })
+				.from(task)
+				.where(and(eq(task.jobId, booked.job.id), eq(task.kind, 'mail')))
+		);
+		expect(asked.filter((t) => t.payload.purpose === 'balance-request')).toHaveLength(1);
 		// Nothing more is recorded on a completed job.
 		expect((await send(installer, booked.job.id, [note(clientId(), 'late')])).status).toBe(409);
 	});

@@ -1,5 +1,7 @@
 // The installer's report of a job: check in, record what was found (merged item by item when
 // two phones work one job), submit it for the store's review, and mark the job complete.
+import { changeOrderFromReport, type FromReportResult } from '../change-orders/from-report';
+import { requestBalance } from '../sign-off/balance';
 import { canCheckIn, canComplete, canReport, SITE_MOVES } from '$lib/jobs/status';
 import type { FieldItemInput } from '$lib/schemas/field';
 import * as field from '../db/queries/field';
@@ -217,8 +219,19 @@ async function recordOne(
 	return { clientId, status: 'stored', item: phoneItem(row!) };
 }
 
+/** What the installer is told of the change order their report made (never its prices). */
+export type ChangeNote = 'to_review' | 'nothing_differs' | 'with_customer' | 'priced_by_hand';
+
+function changeNote(result: FromReportResult): ChangeNote {
+	if (result.ok)
+		return result.outcome === 'created' || result.outcome === 'updated'
+			? 'to_review'
+			: 'nothing_differs';
+	return result.reason === 'with_customer' ? 'with_customer' : 'priced_by_hand';
+}
+
 export type SubmitResult =
-	| { ok: true; report: field.FieldReport }
+	| { ok: true; report: field.FieldReport; change: ChangeNote }
 	| { ok: false; reason: 'not_found' | 'no_report' | 'not_now' };
 
 /**
@@ -236,10 +249,10 @@ export async function submitReport(
 	if (!report) return { ok: false, reason: 'no_report' };
 	if (!canReport(status)) return { ok: false, reason: 'not_now' };
 	const submitted = await field.markSubmitted(tx, report.id, userId);
-	// MERGE (lead): the change order is made here, in this transaction, by the "change" part:
-	//   await changeOrderFromReport(tx, report.id, userId);
-	// from '$lib/server/change-orders/from-report'.
-	return { ok: true, report: submitted ?? report };
+	// What was found against what was sold, priced into the job's open change order for the
+	// store's review, in the same transaction as the submission.
+	const change = await changeOrderFromReport(tx, report.id, userId);
+	return { ok: true, report: submitted ?? report, change: changeNote(change) };
 }
 
 export type CompleteResult =
@@ -270,6 +283,8 @@ export async function completeJob(
 	if (!row) return { ok: false, reason: 'not_now' };
 	const moved = await moveByHand(tx, jobId, SITE_MOVES.complete.to, userId, 'Marked complete');
 	if (!moved.ok) return { ok: false, reason: 'not_now' };
-	// MERGE (lead): the balance request e-mail is queued here by the "change" part.
+	// The customer is asked for the balance (quote + approved change orders − payments) by
+	// e-mail, queued in this transaction; nothing due, nothing sent.
+	await requestBalance(tx, jobId, userId);
 	return { ok: true, completion: row };
 }

@@ -11,6 +11,7 @@ import {
 	submitReport
 } from '$lib/server/field/report';
 import { readWorkOrder, reportChoices } from '$lib/server/field/work-order';
+import { installerDecisions } from '$lib/server/change-orders/installer';
 import { parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
@@ -43,7 +44,9 @@ export const load: PageServerLoad = async ({ params }) => {
 				sold: Object.fromEntries(choices.sold)
 			},
 			photos: await field.listPhotos(tx, params.id),
-			completion: await field.readCompletion(tx, params.id)
+			completion: await field.readCompletion(tx, params.id),
+			// Where the extras stand, with the installer's own pay difference; never a price.
+			decisions: await installerDecisions(tx, params.id)
 		};
 	});
 	if (!found) error(404, 'Not found');
@@ -128,7 +131,7 @@ export const actions: Actions = {
 			if (result.reason === 'no_report') return fail(409, { message: 'Check in first.' });
 			return fail(409, { message: 'This job is not under way: the report is closed.' });
 		}
-		return { submitted: true };
+		return { submitted: true, change: result.change };
 	},
 	/**
 	 * Marks the job complete. Without JavaScript the finished floor's photo comes with the form
