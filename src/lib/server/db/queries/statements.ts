@@ -55,7 +55,7 @@ export async function read(tx: StoreTx, id: string, installerId?: string) {
 	return row;
 }
 
-/** A statement's lines with their job's number and title, in the order they were written. */
+/** A statement's lines with their job's number and title: install pay, extras, then the rest. */
 export async function lines(tx: StoreTx, statementId: string) {
 	return tx
 		.select({
@@ -84,7 +84,11 @@ export async function lines(tx: StoreTx, statementId: string) {
 				eq(installerStatementLine.statementId, statementId)
 			)
 		)
-		.orderBy(asc(installerStatementLine.createdAt), asc(installerStatementLine.id));
+		.orderBy(
+			asc(installerStatementLine.kind),
+			asc(installerStatementLine.createdAt),
+			asc(job.number)
+		);
 }
 
 export async function insert(
