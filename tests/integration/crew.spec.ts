@@ -111,7 +111,7 @@ describe('booking', () => {
 				crewSize: 1,
 				floorKinds: ['vinyl_plank'],
 				// A crew this slow needs more days than the store's default output.
-				sqFtPerDay: { vinyl_plank: 20, laminate: 20, engineered_wood: 20, solid_wood: 20 },
+				sqFtPerDay: { vinyl_plank: 20, laminate: 20, engineered_wood: 20, hardwood: 20 },
 				payRates: [],
 				daysOff: [],
 				phone: '',
