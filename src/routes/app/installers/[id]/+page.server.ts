@@ -1,6 +1,6 @@
 import * as installers from '$lib/server/db/queries/installers';
 import * as settings from '$lib/server/db/queries/settings';
-import { inStore, readInStore } from '$lib/server/db/tenant';
+import { inStore } from '$lib/server/db/tenant';
 import { parseForm, refuse } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { payItems, profileFromForm } from '$lib/server/installers/profile';
