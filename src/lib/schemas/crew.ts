@@ -64,9 +64,12 @@ export const profileSchema = z.object({
 		.default(''),
 	notes: notes(2000),
 	output: kindsObject(z.string().trim().max(20).optional()).default({} as never),
+	// A row left out of a partial form is a hole in the array: skipped, not refused.
 	rates: z
 		.array(
-			z.object({ key: z.string().trim().max(200), pay: z.string().trim().max(20).default('') })
+			z
+				.object({ key: z.string().trim().max(200), pay: z.string().trim().max(20).default('') })
+				.optional()
 		)
 		.max(500)
 		.default([])

@@ -90,8 +90,8 @@ export function profileFromForm(
 	const payRates: ProfileInput['payRates'] = [];
 	const seen = new Set<string>();
 	form.rates.forEach((row, i) => {
-		const item = byKey.get(row.key);
-		if (!item || !row.pay || seen.has(item.key)) return;
+		const item = row && byKey.get(row.key);
+		if (!row || !item || !row.pay || seen.has(item.key)) return;
 		seen.add(item.key);
 		const r = readMoney(row.pay, currency, { label: 'the pay', max: MAX_RATE_CENTS });
 		if (r.ok) payRates.push({ ref: item.ref, payCents: r.value });
