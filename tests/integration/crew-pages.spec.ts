@@ -97,6 +97,31 @@ describe('the installer’s phone', { timeout: 60_000 }, () => {
 	});
 });
 
+describe('the pages themselves', { timeout: 120_000 }, () => {
+	it('render as HTML for the people they are for', async () => {
+		const html = { headers: { accept: 'text/html' } };
+		for (const path of [
+			'/app/installers',
+			`/app/installers/${ana.user.id}`,
+			'/app/schedule?view=month&from=2027-01-01',
+			`/app/schedule?job=${paid.job.id}`,
+			'/app/statements',
+			`/app/statements/${anaStatement}`,
+			`/app/jobs/${paid.job.id}`
+		]) {
+			const page = await owner.request(path, html);
+			expect(page.status, path).toBe(200);
+			expect(page.text, path).toContain('</html>');
+		}
+		for (const path of ['/field/profile', '/field/statements']) {
+			const page = await anaPhone.request(path, html);
+			expect(page.status, path).toBe(200);
+		}
+		const job = await owner.request(`/app/jobs/${paid.job.id}`, html);
+		expect(job.text).toContain(`/app/schedule?job=${paid.job.id}`);
+	});
+});
+
 describe('the desk', { timeout: 60_000 }, () => {
 	it('answers 404 for another store’s installer and statement', async () => {
 		expect(await otherOwner.page(`/app/installers/${ana.user.id}`)).toMatchObject({

@@ -8,10 +8,18 @@ import * as stores from '$lib/server/db/queries/stores';
 import { booking, customer, task } from '$lib/server/db/schema';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { bookJob, cancelBooking, moveBooking, propose } from '$lib/server/schedule/book';
+import { bookingCalendar } from '$lib/server/schedule/calendar';
+import { attachmentText, readOutbox } from '$mocks/outbox';
+import { resendHandlers } from '$mocks/resend';
 import { and, eq } from 'drizzle-orm';
+import { setupServer } from 'msw/node';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { addMember, makePaidJob, makeStore, type TestStore } from './factories';
 import { makeInstaller } from './field-factories';
+import { testMailer } from './task-worker';
 
 /** RFC 5545 content lines, unfolded, as name (with parameters) → value, for the VEVENT. */
 function parseIcs(text: string) {
@@ -78,6 +86,48 @@ async function soldJob(email = 'ada.customer@test.example') {
 	expect(status).toBe('sold');
 	return made;
 }
+
+describe('the calendar file through the e-mail fake', () => {
+	it('arrives as an attachment the outbox can show', async () => {
+		const dir = mkdtempSync(path.join(tmpdir(), 'crew-outbox-'));
+		const server = setupServer(...resendHandlers(dir));
+		server.listen({ onUnhandledRequest: 'error' });
+		try {
+			const calendar = bookingCalendar({
+				id: 'booking-1',
+				version: 3,
+				startsOn: '2027-01-30',
+				days: 3,
+				title: 'J-1001 Kitchen',
+				description: 'Key with the neighbour',
+				location: '4 Tansy Row, Millbrook',
+				storeName: 'Quillmoor Floors'
+			});
+			await testMailer({
+				to: 'fitter@test.example',
+				subject: 'Booked',
+				html: '<p>Booked</p>',
+				text: 'Booked',
+				attachments: [{ filename: 'install.ics', contentType: 'text/calendar', content: calendar }]
+			});
+			const [sent] = readOutbox(dir);
+			expect(sent.attachments).toHaveLength(1);
+			const file = sent.attachments![0];
+			expect(file).toMatchObject({ filename: 'install.ics', contentType: 'text/calendar' });
+			const { event } = parseIcs(attachmentText(file));
+			// Three days from 30 January: the 30th, 31st and 1 February; DTEND is the day after.
+			expect(event).toMatchObject({
+				UID: 'booking-1',
+				SEQUENCE: '3',
+				'DTSTART;VALUE=DATE': '20270130',
+				'DTEND;VALUE=DATE': '20270202',
+				LOCATION: '4 Tansy Row\\, Millbrook'
+			});
+		} finally {
+			server.close();
+		}
+	});
+});
 
 describe('installer profiles', () => {
 	it('are made for the store’s installers on first open, and only for them', async () => {
