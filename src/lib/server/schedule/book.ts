@@ -2,7 +2,6 @@ import { estimate } from '$lib/estimating';
 import type { Schedule } from '$lib/estimating/schedule';
 import { canBook, jobLabel } from '$lib/jobs/status';
 import { addDays, bookingWarnings, type BookingWarning } from '$lib/schedule/days';
-import { config } from '../config';
 import * as bookings from '../db/queries/bookings';
 import * as installers from '../db/queries/installers';
 import * as jobs from '../db/queries/jobs';
@@ -92,6 +91,8 @@ export type BookingResult =
 interface Actor {
 	id: string;
 	storeName: string;
+	/** The app's origin, for the installer's link to the job (none: the e-mail has no link). */
+	origin?: string;
 }
 
 const refused = (message: string, field?: string): BookingResult => ({
@@ -122,7 +123,7 @@ async function tell(
 	const about = { jobId: row.jobId, createdBy: actor.id };
 	const purpose = change === 'cancelled' ? 'booking-cancelled' : 'booking';
 	if (person?.email) {
-		const url = `${config.origin}/field/jobs/${row.jobId}`;
+		const url = actor.origin ? `${actor.origin}/field/jobs/${row.jobId}` : null;
 		await queueMail(tx, purpose, installerBookingMail(person.email, f, change, url), about);
 	}
 	if (only === 'both' && facts.customerEmail) {
@@ -146,7 +147,9 @@ export async function bookJob(
 	tx: StoreWriteTx,
 	jobId: string,
 	input: BookingInput,
-	actor: Actor
+	actor: Actor,
+	/** `tell: false` books without e-mail: the demo seed's made-up people are sent nothing. */
+	options: { tell?: boolean } = {}
 ): Promise<BookingResult> {
 	const status = await jobs.lockStatus(tx, jobId);
 	if (!status) return { ok: false, reason: 'not_found' };
@@ -178,7 +181,7 @@ export async function bookJob(
 		if (!moved.ok) throw new Error(`Booking could not schedule job ${jobId}`);
 	}
 	await bookings.recordEvent(tx, jobId, actor.id, `Booked from ${row.startsOn}, ${days} day(s)`);
-	await tell(tx, row, 'booked', actor);
+	if (options.tell !== false) await tell(tx, row, 'booked', actor);
 	const warnings = await warningsFor(tx, { jobId, ...input, days });
 	return { ok: true, bookingId: row.id, days, warnings };
 }

@@ -89,7 +89,7 @@ export function installerBookingMail(
 	to: string,
 	f: BookingMailFacts,
 	change: BookingChange,
-	fieldUrl: string
+	fieldUrl: string | null
 ): Mail {
 	const label = `${jobLabel(f.job.number)} ${f.job.title}`;
 	const subject =
@@ -110,7 +110,7 @@ export function installerBookingMail(
 					arrival(f.booking),
 					f.address ? `Site: ${f.address}.` : '',
 					f.booking.notes ? `Notes: ${f.booking.notes}` : '',
-					`The job on your phone: ${fieldUrl}`
+					fieldUrl ? `The job on your phone: ${fieldUrl}` : ''
 				];
 	return mail(to, f.storeName, subject, subject, paragraphs, calendarFor(f, change, 'installer'));
 }

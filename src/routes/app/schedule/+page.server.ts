@@ -135,30 +135,30 @@ function answer(form: FormData, result: BookingResult, done: string) {
 }
 
 export const actions: Actions = {
-	book: async ({ request }) => {
+	book: async ({ request, url }) => {
 		const member = requirePermission({ job: ['schedule'] });
 		const parsed = await parseForm(request, bookSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { jobId, ...input } = parsed.data;
 		await requireJob(member, jobId);
-		const actor = { id: member.user.id, storeName: member.store.name };
+		const actor = { id: member.user.id, storeName: member.store.name, origin: url.origin };
 		const result = await inStore(member.store.id, (tx) => bookJob(tx, jobId, input, actor));
 		return answer(parsed.form, result, 'Booked. The installer and the customer are e-mailed.');
 	},
-	move: async ({ request }) => {
+	move: async ({ request, url }) => {
 		const member = requirePermission({ job: ['schedule'] });
 		const parsed = await parseForm(request, moveSchema);
 		if (!parsed.ok) return parsed.failure;
 		const { bookingId, ...input } = parsed.data;
-		const actor = { id: member.user.id, storeName: member.store.name };
+		const actor = { id: member.user.id, storeName: member.store.name, origin: url.origin };
 		const result = await inStore(member.store.id, (tx) => moveBooking(tx, bookingId, input, actor));
 		return answer(parsed.form, result, 'Moved. The new dates are e-mailed.');
 	},
-	cancel: async ({ request }) => {
+	cancel: async ({ request, url }) => {
 		const member = requirePermission({ job: ['schedule'] });
 		const parsed = await parseForm(request, cancelSchema);
 		if (!parsed.ok) return fail(400, { message: 'Choose a booking to cancel' });
-		const actor = { id: member.user.id, storeName: member.store.name };
+		const actor = { id: member.user.id, storeName: member.store.name, origin: url.origin };
 		const result = await inStore(member.store.id, (tx) =>
 			cancelBooking(tx, parsed.data.bookingId, actor)
 		);
