@@ -13,6 +13,13 @@ export interface OutboxMessage {
 	replyTo: string | null;
 	/** The `Idempotency-Key` it was sent with, if any: the same key sends nothing twice. */
 	idempotencyKey?: string;
+	/** Files sent with it, as Resend takes them (content in base64). */
+	attachments?: { filename: string; contentType: string; content: string }[];
+}
+
+/** An attachment's content as text (calendar files and other text types). */
+export function attachmentText(attachment: { content: string }): string {
+	return Buffer.from(attachment.content, 'base64').toString('utf8');
 }
 
 /** Messages are kept as JSON lines in the data folder, so a restart keeps them. */

@@ -50,6 +50,16 @@ export function resendHandlers(dataDir: string) {
 				}
 				if (first) return HttpResponse.json({ id: first.id });
 			}
+			const attachments = Array.isArray(body.attachments)
+				? (body.attachments as Record<string, unknown>[]).map((a) => ({
+						filename: String(a.filename ?? ''),
+						contentType: String(a.content_type ?? 'application/octet-stream'),
+						content: String(a.content ?? '')
+					}))
+				: [];
+			if (attachments.some((a) => !a.filename || !a.content)) {
+				return failure(422, 'validation_error', 'Each attachment needs a filename and content.');
+			}
 			const id = crypto.randomUUID();
 			recordMessage(dataDir, {
 				id,
@@ -60,7 +70,8 @@ export function resendHandlers(dataDir: string) {
 				html: String(body.html ?? ''),
 				text: String(body.text ?? ''),
 				replyTo: body.reply_to ? asList(body.reply_to).join(', ') : null,
-				...(key ? { idempotencyKey: key } : {})
+				...(key ? { idempotencyKey: key } : {}),
+				...(attachments.length ? { attachments } : {})
 			});
 			return HttpResponse.json({ id });
 		})

@@ -23,6 +23,8 @@ import { recordInStore } from '../src/lib/server/payments/record';
 import { buildQuote } from '../src/lib/server/quotes/build';
 import { freezeQuote } from '../src/lib/server/quotes/freeze';
 import { recordAcceptance } from '../src/lib/server/quotes/record-answer';
+import { bookJob } from '../src/lib/server/schedule/book';
+import { addDays, today } from '../src/lib/schedule/days';
 import { demoMeasure } from './demo-measures';
 import type { JobStatus } from '../src/lib/jobs/status';
 import type { Role } from '../src/lib/server/permissions';
@@ -224,7 +226,24 @@ export async function walkJob(
 			continue;
 		}
 		if (to === 'scheduled' && by.installer) {
-			await jobs.assign(tx, job.id, by.installer, by.manager);
+			// Booked on the schedule as a manager books it (engine's days, assigned, scheduled),
+			// a few days from today; the made-up people are e-mailed nothing.
+			const booked = await bookJob(
+				tx,
+				job.id,
+				{
+					installerId: by.installer,
+					startsOn: addDays(today('UTC'), 2 + n),
+					days: null,
+					arrivesAt: '08:00',
+					notes: ''
+				},
+				{ id: by.manager, storeName: '' },
+				{ tell: false }
+			);
+			if (!booked.ok)
+				throw new Error(`Demo job ${job.title} not booked: ${JSON.stringify(booked)}`);
+			continue;
 		}
 		if (to === 'sold' || to === 'closed') {
 			// The deposit on the store's card terminal (the ledger moves the job to sold); at

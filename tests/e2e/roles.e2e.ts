@@ -8,11 +8,24 @@ const expected = {
 		'Customers',
 		'Price book',
 		'Payments',
+		'Schedule',
+		'Installers',
+		'Statements',
 		'Calculators',
 		'Team',
 		'Store settings'
 	],
-	manager: ['Desk', 'Jobs', 'Customers', 'Price book', 'Payments', 'Calculators'],
+	manager: [
+		'Desk',
+		'Jobs',
+		'Customers',
+		'Price book',
+		'Payments',
+		'Schedule',
+		'Installers',
+		'Statements',
+		'Calculators'
+	],
 	sales: ['Desk', 'Jobs', 'Customers', 'Price book', 'Calculators']
 } as const;
 

@@ -16,6 +16,8 @@ import { saveStoreAccess } from '$lib/server/db/queries/access';
 import * as priceBook from '$lib/server/db/queries/price-book';
 import { customer, job, site } from '$lib/server/db/schema';
 import { inStore } from '$lib/server/db/tenant';
+import { bookJob } from '$lib/server/schedule/book';
+import { makeStatement } from '$lib/server/statements/build';
 import { startApp, type App, type Visitor } from './app-server';
 import {
 	addMember,
@@ -70,6 +72,26 @@ async function seed(store: TestStore, marker: string): Promise<Rows> {
 		query: { organizationId: store.id }
 	});
 	const spare = members.members.find((m) => m.userId === member.id)!;
+	// An installer of the store's own, with a booking and a statement (issue 10's desk half).
+	const crew = await addMember(store.id, 'installer', `Crew ${marker}`);
+	const booked = await makePaidJob(store);
+	const boss = { id: store.owner.id, storeName: store.name };
+	const booking = await inStore(store.id, (tx) =>
+		bookJob(
+			tx,
+			booked.job.id,
+			{ installerId: crew.id, startsOn: '2027-01-11', days: 1, arrivesAt: null, notes: '' },
+			boss
+		)
+	);
+	const statement = await inStore(store.id, (tx) =>
+		makeStatement(
+			tx,
+			{ installerId: crew.id, periodStart: '2026-11-01', periodEnd: '2026-11-30' },
+			{ id: store.owner.id, timeZone: 'UTC' }
+		)
+	);
+	if (!booking.ok || !statement.ok) throw new Error('crew fixtures not made');
 	const invitation = await auth.api.createInvitation({
 		headers: await sessionOf(store.owner.email),
 		body: { email: `${unique('invitee')}@test.example`, role: 'sales', organizationId: store.id }
@@ -111,7 +133,10 @@ async function seed(store: TestStore, marker: string): Promise<Rows> {
 		doomedPriceItem: doomedItem.id,
 		token: '',
 		invitation: invitation.id,
-		member: spare.id
+		member: spare.id,
+		installer: crew.id,
+		booking: booking.bookingId,
+		statement: statement.statementId
 	};
 }
 

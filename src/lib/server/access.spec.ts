@@ -35,10 +35,12 @@ describe('sections by role', () => {
 	it('gives each role its own navigation, built from the same rules', () => {
 		const hrefs = (role: Parameters<typeof navFor>[0]) => navFor(role).map((i) => i.href);
 		const desk = ['/app', '/app/jobs', '/app/customers'];
+		const crew = ['/app/schedule', '/app/installers', '/app/statements'];
 		expect(hrefs('owner')).toEqual([
 			...desk,
 			'/app/price-book',
 			'/app/payments',
+			...crew,
 			'/app/calculators',
 			'/app/team',
 			'/app/settings'
@@ -47,10 +49,16 @@ describe('sections by role', () => {
 			...desk,
 			'/app/price-book',
 			'/app/payments',
+			...crew,
 			'/app/calculators'
 		]);
 		expect(hrefs('sales')).toEqual([...desk, '/app/price-book', '/app/calculators']);
-		expect(hrefs('installer')).toEqual(['/field', '/field/calculators']);
+		expect(hrefs('installer')).toEqual([
+			'/field',
+			'/field/statements',
+			'/field/profile',
+			'/field/calculators'
+		]);
 	});
 
 	it('lands installers on their own screens', () => {

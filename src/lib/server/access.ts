@@ -32,7 +32,8 @@ const SECTIONS: Section[] = [
 	{ prefix: '/app/team', permission: { member: ['update'] }, name: 'The team' },
 	{ prefix: '/app/settings', permission: { store: ['update'] }, name: 'Store settings' },
 	{ prefix: '/field', permission: { assignedJob: ['read'] }, name: 'The installer screens' },
-	{ prefix: '/field/calculators', permission: { calculator: ['use'] }, name: 'The calculators' }
+	{ prefix: '/field/calculators', permission: { calculator: ['use'] }, name: 'The calculators' },
+	{ prefix: '/field/statements', permission: { installerPay: ['read'] }, name: 'Your pay' }
 ];
 
 function under(pathname: string, prefix: string) {
@@ -81,7 +82,12 @@ export type NavIcon =
 	| 'team'
 	| 'settings'
 	| 'calculators'
-	| 'field';
+	| 'field'
+	| 'schedule'
+	| 'installers'
+	| 'statements'
+	| 'profile'
+	| 'pay';
 
 export interface NavItem {
 	href: string;
@@ -96,10 +102,15 @@ const NAV: NavItem[] = [
 	{ href: '/app/customers', label: 'Customers', icon: 'customers' },
 	{ href: '/app/price-book', label: 'Price book', icon: 'priceBook' },
 	{ href: '/app/payments', label: 'Payments', icon: 'payments' },
+	{ href: '/app/schedule', label: 'Schedule', icon: 'schedule' },
+	{ href: '/app/installers', label: 'Installers', icon: 'installers' },
+	{ href: '/app/statements', label: 'Statements', icon: 'statements' },
 	{ href: '/app/calculators', label: 'Calculators', icon: 'calculators' },
 	{ href: '/app/team', label: 'Team', icon: 'team' },
 	{ href: '/app/settings', label: 'Store settings', icon: 'settings' },
 	{ href: '/field', label: 'My jobs', icon: 'field' },
+	{ href: '/field/statements', label: 'My pay', icon: 'pay' },
+	{ href: '/field/profile', label: 'My profile', icon: 'profile' },
 	{ href: '/field/calculators', label: 'Calculators', icon: 'calculators' }
 ];
 

@@ -20,7 +20,10 @@ export type Fixture =
 	| 'doomedPriceItem'
 	| 'token'
 	| 'invitation'
-	| 'member';
+	| 'member'
+	| 'installer'
+	| 'booking'
+	| 'statement';
 
 /** A route parameter: a fixture of the store (swapped for the other store's), or a fixed value. */
 export type Param = Fixture | { fixed: string };
@@ -97,12 +100,25 @@ const loads: LoadTarget[] = [
 	{ kind: 'load', route: '/field' },
 	{ kind: 'load', route: '/field/calculators' },
 	{ kind: 'load', route: '/field/jobs/[id]', params: job },
+	{ kind: 'load', route: '/field/profile' },
+	{ kind: 'load', route: '/field/statements' },
+	{ kind: 'load', route: '/app/installers' },
+	{ kind: 'load', route: '/app/installers/[id]', params: { id: 'installer' } },
+	{ kind: 'load', route: '/app/schedule' },
+	{ kind: 'load', route: '/app/statements' },
+	{ kind: 'load', route: '/app/statements/[id]', params: { id: 'statement' } },
 	{ kind: 'load', route: '/invite/[id]', params: { id: 'invitation' } },
 	{ kind: 'load', route: '/sign-out' },
 	{ kind: 'load', route: '/stores' }
 ];
 
 const endpoints: EndpointTarget[] = [
+	{
+		kind: 'endpoint',
+		route: '/app/statements/[id]/export.csv',
+		method: 'GET',
+		params: { id: 'statement' }
+	},
 	{
 		kind: 'endpoint',
 		route: '/api/v1/calc/[name]',
@@ -285,6 +301,50 @@ const endpoints: EndpointTarget[] = [
 ];
 
 const actions: ActionTarget[] = [
+	// The installers, the schedule and statements (issue 10's desk half).
+	...['save', 'away', 'removeAway'].map((name): ActionTarget => ({
+		kind: 'action',
+		route: '/app/installers/[id]',
+		name,
+		params: { id: 'installer' },
+		fields:
+			name === 'away'
+				? { startsOn: '2027-03-01', endsOn: '2027-03-02', note: 'Away' }
+				: name === 'removeAway'
+					? { timeOffId: 'no-such-entry' }
+					: { crewSize: '2', 'kinds.laminate': 'on', 'output.laminate': '400' }
+	})),
+	{
+		kind: 'action',
+		route: '/app/schedule',
+		name: 'book',
+		fields: { jobId: 'job', installerId: 'installer', startsOn: '2027-01-18', days: '2' }
+	},
+	{
+		kind: 'action',
+		route: '/app/schedule',
+		name: 'move',
+		fields: { bookingId: 'booking', installerId: 'installer', startsOn: '2027-01-25', days: '1' }
+	},
+	{ kind: 'action', route: '/app/schedule', name: 'cancel', fields: { bookingId: 'booking' } },
+	{
+		kind: 'action',
+		route: '/app/statements',
+		name: 'create',
+		fields: { installerId: 'installer', periodStart: '2027-02-01', periodEnd: '2027-02-28' }
+	},
+	...['line', 'refresh', 'pay'].map((name): ActionTarget => ({
+		kind: 'action',
+		route: '/app/statements/[id]',
+		name,
+		params: { id: 'statement' },
+		fields:
+			name === 'line'
+				? { kind: 'chargeback', amount: '12.50', reason: 'Scuffed base' }
+				: name === 'pay'
+					? { reference: 'Transfer 77' }
+					: {}
+	})),
 	{ kind: 'action', route: '/forgot-password', name: 'default', drawnBy: 'nobody' },
 	{ kind: 'action', route: '/reset-password', name: 'default', drawnBy: 'nobody' },
 	{

@@ -31,7 +31,13 @@ export function createMailer(options: { apiKey?: string; from: string }): SendMa
 				subject: mail.subject,
 				html: mail.html,
 				text: mail.text,
-				replyTo: mail.replyTo
+				replyTo: mail.replyTo,
+				// Resend takes a file's content as base64.
+				attachments: mail.attachments?.map((a) => ({
+					filename: a.filename,
+					contentType: a.contentType,
+					content: Buffer.from(a.content, 'utf8').toString('base64')
+				}))
 			},
 			sendOptions.idempotencyKey ? { idempotencyKey: sendOptions.idempotencyKey } : undefined
 		);

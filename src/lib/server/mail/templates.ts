@@ -9,6 +9,15 @@ export interface Mail {
 	/** Display name on the From line: the store's name on anything a store sends. */
 	fromName?: string;
 	replyTo?: string;
+	/** Files sent with it (a calendar file); `content` is the file's text. */
+	attachments?: MailAttachment[];
+}
+
+/** A small text file sent with an e-mail. */
+export interface MailAttachment {
+	filename: string;
+	contentType: string;
+	content: string;
 }
 
 const escapes: Record<string, string> = {

@@ -23,6 +23,8 @@ export const MAIL_PURPOSES = {
 	'change-order-answer': 'Customer’s answer to a change order, to the store',
 	'balance-request': 'Balance due, to the customer',
 	invitation: 'Invitation',
+	booking: 'Install dates',
+	'booking-cancelled': 'Install dates cancelled',
 	'password-reset': 'Password reset'
 } as const;
 export type MailPurpose = keyof typeof MAIL_PURPOSES;
@@ -38,7 +40,17 @@ export const mailPayload = z.object({
 		html: text(200_000),
 		text: text(100_000),
 		fromName: text(200).optional(),
-		replyTo: text(320).optional()
+		replyTo: text(320).optional(),
+		attachments: z
+			.array(
+				z.object({
+					filename: text(200).min(1),
+					contentType: text(100).min(1),
+					content: text(100_000)
+				})
+			)
+			.max(5)
+			.optional()
 	})
 });
 

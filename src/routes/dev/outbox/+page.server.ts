@@ -1,5 +1,5 @@
 import { config } from '$lib/server/config';
-import { linksOf, readOutbox } from '$mocks/outbox';
+import { attachmentText, linksOf, readOutbox } from '$mocks/outbox';
 import { error } from '@sveltejs/kit';
 import type { PageServerLoad } from './$types';
 
@@ -7,6 +7,16 @@ import type { PageServerLoad } from './$types';
 export const load: PageServerLoad = async () => {
 	if (!config.fakeMail) error(404, 'Not found');
 	return {
-		messages: readOutbox(config.dataDir).map((m) => ({ ...m, links: linksOf(m) }))
+		messages: readOutbox(config.dataDir).map((m) => ({
+			...m,
+			links: linksOf(m),
+			// Files are shown as text (calendar files), with a link that downloads them.
+			attachments: (m.attachments ?? []).map((a) => ({
+				filename: a.filename,
+				contentType: a.contentType,
+				text: a.contentType.startsWith('text/') ? attachmentText(a) : null,
+				href: `data:${a.contentType};base64,${a.content}`
+			}))
+		}))
 	};
 };

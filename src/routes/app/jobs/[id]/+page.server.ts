@@ -11,7 +11,7 @@ import { visibleLedger } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
-import { canDelete, handMove, nextStatuses } from '$lib/jobs/status';
+import { canBook, canDelete, handMove, nextStatuses } from '$lib/jobs/status';
 import { moveByHand, moveFacts } from '$lib/server/jobs/move';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
 import { error, fail, redirect } from '@sveltejs/kit';
@@ -47,6 +47,8 @@ export const load: PageServerLoad = async ({ params }) => {
 			},
 			moves: can(grants, { job: ['schedule'] }) ? await movesByHand(tx, job.id, job.status) : [],
 			canAssign,
+			// The schedule books it (and moves a booking); the page links there.
+			canBook: can(grants, { job: ['schedule'] }) && canBook(job.status),
 			site: await loadJobSite(tx, job, grants),
 			measure: await measureSummary(tx, job.id),
 			changeOrders: can(grants, { changeOrder: ['review'] })
