@@ -102,6 +102,8 @@ export async function makeStatement(
 		return refused('This installer already has a statement starting that day.', 'periodStart');
 	const { currency } = await settings.termsOf(tx);
 	const row = await statements.insert(tx, { ...input, currency });
+	if (!row)
+		return refused('This installer already has a statement starting that day.', 'periodStart');
 	const added = await collectLines(tx, row, actor.id, actor.timeZone);
 	return { ok: true, statementId: row.id, added };
 }

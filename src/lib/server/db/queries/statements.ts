@@ -95,11 +95,19 @@ export async function insert(
 	tx: StoreWriteTx,
 	input: { installerId: string; periodStart: string; periodEnd: string; currency: string }
 ) {
+	// Two managers (or two taps) making the same statement at once: the second is told it exists.
 	const [row] = await tx
 		.insert(installerStatement)
 		.values({ organizationId: tx.storeId, ...input })
+		.onConflictDoNothing({
+			target: [
+				installerStatement.organizationId,
+				installerStatement.installerId,
+				installerStatement.periodStart
+			]
+		})
 		.returning();
-	return row;
+	return row as typeof row | undefined;
 }
 
 export async function insertLine(
