@@ -104,6 +104,9 @@ test('a sold job booked, reported from the phone offline, changed, paid, signed 
 		.getByLabel('Photo')
 		.setInputFiles({ name: 'hole.jpg', mimeType: 'image/jpeg', buffer: await photo('#6b3f1d') });
 	await found.getByRole('button', { name: 'Save' }).click();
+	// The item and its photo are on the phone (and the form cleared) before the next one.
+	await expect(wren.getByTestId('waiting')).toHaveText('2 waiting to send');
+	await expect(found.getByLabel(/Amount found/)).toHaveValue('');
 	await found.getByLabel('Item').selectOption({ label: 'Install underlayment panels' });
 	const sold = Number(
 		/Sold: ([\d.,]+)/.exec(await found.getByText(/^Sold:/).innerText())![1].replace(/,/g, '')
