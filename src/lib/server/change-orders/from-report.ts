@@ -14,6 +14,7 @@ import * as jobs from '../db/queries/jobs';
 import { priceBookFor } from '../db/queries/price-book';
 import * as tradeSettings from '../db/queries/settings';
 import { InvalidStoreSettings } from '../db/queries/settings';
+import * as quotes from '../db/queries/quotes';
 import type { ChangeOrderInput, InstallerPayRate } from '../db/schema';
 import type { StoreWriteTx } from '../db/tenant';
 import { changeOrderFigures } from './figures';
@@ -113,7 +114,7 @@ export async function changeOrderFromReport(
 	const job = status ? await jobs.readForStore(tx, report.jobId) : undefined;
 	if (!status || !job) return { ok: false, reason: 'not_found' };
 	if (!canRaiseChangeOrder(status)) return { ok: false, reason: 'not_open' };
-	const quote = await changeOrders.acceptedQuote(tx, job.id);
+	const quote = await quotes.accepted(tx, job.id);
 	if (!quote) return { ok: false, reason: 'no_quote' };
 
 	let trade: tradeSettings.StoreTradeSettings;

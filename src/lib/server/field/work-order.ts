@@ -4,10 +4,9 @@
 import { PREP, refKey, type Basis, type ItemRef, type Outline } from '$lib/estimating';
 import { WORK_STEPS } from '$lib/estimating/steps/schedule';
 import { jobLabel, type JobStatus } from '$lib/jobs/status';
-import { and, desc, eq } from 'drizzle-orm';
 import * as field from '../db/queries/field';
 import * as jobs from '../db/queries/jobs';
-import { quote } from '../db/schema';
+import * as quotes from '../db/queries/quotes';
 import type { StoreTx } from '../db/tenant';
 
 /**
@@ -99,23 +98,6 @@ export interface WorkOrder {
 	cautions: string[];
 }
 
-/** The job's accepted quote version (the one the work is sold on), whole. */
-async function acceptedQuote(tx: StoreTx, jobId: string) {
-	const [row] = await tx
-		.select()
-		.from(quote)
-		.where(
-			and(
-				eq(quote.organizationId, tx.storeId),
-				eq(quote.jobId, jobId),
-				eq(quote.status, 'accepted')
-			)
-		)
-		.orderBy(desc(quote.version))
-		.limit(1);
-	return row;
-}
-
 /** Which quote line a prep or removal ref belongs to in the order of work. */
 function stepKeyOf(ref: ItemRef): string | undefined {
 	const kind = ref.type === 'prep' ? ref.kind : ref.type === 'removal' ? 'removal' : undefined;
@@ -145,7 +127,7 @@ export async function readWorkOrder(
 	const [site, booked, q] = [
 		await field.readSite(tx, jobId),
 		await field.readBooking(tx, jobId),
-		await acceptedQuote(tx, jobId)
+		await quotes.accepted(tx, jobId)
 	];
 	const order: WorkOrder = {
 		job: {
@@ -269,7 +251,7 @@ export interface ReportChoice {
  * the units the quote prices them by, each with the amount sold beside it.
  */
 export async function reportChoices(tx: StoreTx, jobId: string) {
-	const q = await acceptedQuote(tx, jobId);
+	const q = await quotes.accepted(tx, jobId);
 	const items = new Map<string, ReportChoice>();
 	const sold = new Map<string, number>();
 	const rooms: { id: string; name: string }[] = [];

@@ -5,6 +5,7 @@ import { addDays, bookingWarnings, type BookingWarning } from '$lib/schedule/day
 import * as bookings from '../db/queries/bookings';
 import * as installers from '../db/queries/installers';
 import * as jobs from '../db/queries/jobs';
+import * as quotes from '../db/queries/quotes';
 import type { StoreTx, StoreWriteTx } from '../db/tenant';
 import { moveByHand } from '../jobs/move';
 import { log } from '../log';
@@ -32,7 +33,7 @@ export async function propose(
 	jobId: string,
 	installerId: string | null
 ): Promise<Proposal | undefined> {
-	const q = await bookings.acceptedQuote(tx, jobId);
+	const q = await quotes.accepted(tx, jobId);
 	if (!q) return undefined;
 	const own = installerId
 		? (await installers.read(tx, installerId))?.profile?.sqFtPerDay

@@ -1,6 +1,6 @@
 import { jobLabel } from '$lib/jobs/status';
 import { installPay, manualLineAmount, type ManualLineKind } from '$lib/statements/maths';
-import { acceptedQuote } from '../db/queries/bookings';
+import * as quotes from '../db/queries/quotes';
 import * as installers from '../db/queries/installers';
 import * as settings from '../db/queries/settings';
 import * as statements from '../db/queries/statements';
@@ -44,7 +44,7 @@ export async function collectLines(
 		period,
 		timeZone
 	)) {
-		const q = await acceptedQuote(tx, done.jobId);
+		const q = await quotes.accepted(tx, done.jobId);
 		if (!q) {
 			log.warn({ jobId: done.jobId }, 'A completed job has no accepted quote to pay from');
 			continue;

@@ -166,7 +166,7 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
  */
 async function changeOrdersAndCompletion(tx: StoreTx, job: { id: string; status: string }) {
 	const sent = await changeOrders.listSent(tx, job.id);
-	const accepted = sent.length ? await changeOrders.acceptedQuote(tx, job.id) : undefined;
+	const accepted = sent.length ? await quotes.accepted(tx, job.id) : undefined;
 	const rooms = accepted ? roomNamesOf(accepted) : new Map<string, string>();
 	const changePhotos = sent.length
 		? photoLines(
@@ -221,6 +221,11 @@ const CHECKOUT_REFUSED = {
 	stripe: 'The card payment page could not be opened. Try again in a minute.'
 } as const;
 
+/** What is kept of a customer's typed-name answer (quote, change order, sign-off), as for a quote. */
+function signatureOf(name: string, request: Request, ip: string) {
+	return { name, ip, userAgent: request.headers.get('user-agent') };
+}
+
 export const actions: Actions = {
 	pay: async ({ params, request }) => {
 		const link = openLink(params.token);
@@ -253,11 +258,7 @@ export const actions: Actions = {
 		const link = openLink(params.token);
 		const parsed = await parseForm(request, customerApproveSchema);
 		if (!parsed.ok) return parsed.failure;
-		const signature = {
-			name: parsed.data.name,
-			ip: getClientAddress(),
-			userAgent: request.headers.get('user-agent')
-		};
+		const signature = signatureOf(parsed.data.name, request, getClientAddress());
 		const answer = await inStore(link.storeId, async (tx) => {
 			const { job } = await linkedJob(tx, link);
 			return approveChangeOrder(tx, job.id, parsed.data.changeOrderId, signature);
@@ -284,11 +285,7 @@ export const actions: Actions = {
 		const link = openLink(params.token);
 		const parsed = await parseForm(request, signOffSchema);
 		if (!parsed.ok) return parsed.failure;
-		const signature = {
-			name: parsed.data.name,
-			ip: getClientAddress(),
-			userAgent: request.headers.get('user-agent')
-		};
+		const signature = signatureOf(parsed.data.name, request, getClientAddress());
 		const answer = await inStore(link.storeId, async (tx) => {
 			const { job } = await linkedJob(tx, link);
 			return signOff(tx, job.id, signature);
@@ -300,11 +297,7 @@ export const actions: Actions = {
 		const link = openLink(params.token);
 		const parsed = await parseForm(request, acceptSchema);
 		if (!parsed.ok) return parsed.failure;
-		const signature = {
-			name: parsed.data.name,
-			ip: getClientAddress(),
-			userAgent: request.headers.get('user-agent')
-		};
+		const signature = signatureOf(parsed.data.name, request, getClientAddress());
 		const answer = await inStore(link.storeId, async (tx) => {
 			const { job } = await linkedJob(tx, link);
 			return acceptQuote(tx, job.id, parsed.data.quoteId, signature);

@@ -1,6 +1,6 @@
-import { and, asc, desc, eq, gte, isNull, lte, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, gte, isNull, lte, ne, sql } from 'drizzle-orm';
 import type { Schedule } from '../../../estimating/schedule';
-import { booking, customer, job, jobEvent, quote, site, user } from '../schema';
+import { booking, customer, job, jobEvent, site, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Booking = typeof booking.$inferSelect;
@@ -183,22 +183,5 @@ export async function mailFacts(tx: StoreTx, jobId: string) {
 		)
 		.leftJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
 		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
-	return row;
-}
-
-/** The newest accepted version of a job's quote, whole: its engine input and stored result. */
-export async function acceptedQuote(tx: StoreTx, jobId: string) {
-	const [row] = await tx
-		.select({ id: quote.id, version: quote.version, input: quote.input, result: quote.result })
-		.from(quote)
-		.where(
-			and(
-				eq(quote.organizationId, tx.storeId),
-				eq(quote.jobId, jobId),
-				eq(quote.status, 'accepted')
-			)
-		)
-		.orderBy(desc(quote.version))
-		.limit(1);
 	return row;
 }

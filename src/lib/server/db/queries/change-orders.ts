@@ -6,7 +6,6 @@ import {
 	fieldReport,
 	installerProfile,
 	payment,
-	quote,
 	task
 } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
@@ -16,23 +15,6 @@ export type NewChangeOrder = Omit<typeof changeOrder.$inferInsert, 'organization
 export type FieldPhotoRow = typeof fieldPhoto.$inferSelect;
 
 const mine = (tx: StoreTx) => eq(changeOrder.organizationId, tx.storeId);
-
-/** The newest accepted version of a job's quote, whole (its stored input and result). */
-export async function acceptedQuote(tx: StoreTx, jobId: string) {
-	const [row] = await tx
-		.select()
-		.from(quote)
-		.where(
-			and(
-				eq(quote.organizationId, tx.storeId),
-				eq(quote.jobId, jobId),
-				eq(quote.status, 'accepted')
-			)
-		)
-		.orderBy(desc(quote.version))
-		.limit(1);
-	return row;
-}
 
 /** A field report of the store; undefined when not the store's. */
 export async function readReport(tx: StoreTx, reportId: string) {
@@ -209,22 +191,6 @@ async function livePhotos(tx: StoreTx, jobId: string, purpose: 'report' | 'compl
 			)
 		)
 		.orderBy(asc(fieldPhoto.createdAt), asc(fieldPhoto.id));
-}
-
-/** One live photo of a job; undefined when not the job's. */
-export async function readPhoto(tx: StoreTx, jobId: string, photoId: string) {
-	const [row] = await tx
-		.select()
-		.from(fieldPhoto)
-		.where(
-			and(
-				eq(fieldPhoto.organizationId, tx.storeId),
-				eq(fieldPhoto.jobId, jobId),
-				eq(fieldPhoto.id, photoId),
-				isNull(fieldPhoto.deletedAt)
-			)
-		);
-	return row;
 }
 
 /**

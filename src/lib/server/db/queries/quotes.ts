@@ -79,6 +79,23 @@ export async function forCustomer(tx: StoreTx, jobId: string): Promise<Quote | u
 	return row;
 }
 
+/** The newest accepted version of a job's quote, whole (the one the work is sold on). */
+export async function accepted(tx: StoreTx, jobId: string): Promise<Quote | undefined> {
+	const [row] = await tx
+		.select()
+		.from(quote)
+		.where(
+			and(
+				eq(quote.organizationId, tx.storeId),
+				eq(quote.jobId, jobId),
+				eq(quote.status, 'accepted')
+			)
+		)
+		.orderBy(desc(quote.version))
+		.limit(1);
+	return row;
+}
+
 /** The newest version of a job's quote (any status), without its input and result. */
 export async function latest(tx: StoreTx, jobId: string) {
 	const [row] = await tx

@@ -1,5 +1,6 @@
 import { linkedJob, openLink } from '$lib/server/customer-page';
 import * as changeOrders from '$lib/server/db/queries/change-orders';
+import * as field from '$lib/server/db/queries/field';
 import * as completions from '$lib/server/db/queries/completions';
 import { readInStore } from '$lib/server/db/tenant';
 import { photoResponse } from '$lib/server/change-orders/photos';
@@ -16,7 +17,7 @@ export const GET: RequestHandler = async ({ params, url, setHeaders }) => {
 	setHeaders({ 'referrer-policy': 'same-origin' });
 	const photo = await readInStore(link.storeId, async (tx) => {
 		const { job } = await linkedJob(tx, link);
-		const row = await changeOrders.readPhoto(tx, job.id, params.photo);
+		const row = await field.readPhoto(tx, job.id, params.photo);
 		if (!row) return undefined;
 		if (row.purpose === 'completion') {
 			return (await completions.read(tx, job.id)) ? row : undefined;

@@ -1,4 +1,5 @@
 import * as changeOrders from '$lib/server/db/queries/change-orders';
+import * as quotes from '$lib/server/db/queries/quotes';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { inStore, readInStore, type StoreTx } from '$lib/server/db/tenant';
@@ -49,7 +50,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		const job = await jobs.readForViewer(tx, params.id, scope);
 		if (!job) error(404, 'Not found');
 		const row = await changeOrderOf(tx, job.id, params.number);
-		const quote = await changeOrders.acceptedQuote(tx, job.id);
+		const quote = await quotes.accepted(tx, job.id);
 		const rooms = quote ? roomNamesOf(quote) : new Map<string, string>();
 		const photos = photoLines(
 			await changeOrders.reportPhotos(tx, job.id),

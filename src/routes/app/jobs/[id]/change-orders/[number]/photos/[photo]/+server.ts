@@ -1,4 +1,5 @@
 import * as changeOrders from '$lib/server/db/queries/change-orders';
+import * as field from '$lib/server/db/queries/field';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
@@ -17,7 +18,7 @@ export const GET: RequestHandler = async ({ params, url }) => {
 		if (!job || !/^[1-9]\d{0,5}$/.test(params.number)) return undefined;
 		const row = await changeOrders.readByNumber(tx, job.id, Number(params.number));
 		if (!row) return undefined;
-		const found = await changeOrders.readPhoto(tx, job.id, params.photo);
+		const found = await field.readPhoto(tx, job.id, params.photo);
 		return found?.purpose === 'report' ? found : undefined;
 	});
 	if (!photo) error(404, 'Not found');
