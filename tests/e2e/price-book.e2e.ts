@@ -64,6 +64,10 @@ test.describe(() => {
 		await prep.getByRole('link', { name: /Grind or plane high spots/ }).click();
 		await expect(page.getByRole('heading', { name: 'Grind or plane high spots' })).toBeVisible();
 		await page.getByRole('button', { name: 'Delete this line' }).click();
+		// It asks first, in a dialog that holds the focus.
+		const ask = page.getByRole('alertdialog', { name: 'Delete this price?' });
+		await expect(ask.getByRole('button', { name: 'Keep it' })).toBeFocused();
+		await ask.getByRole('button', { name: 'Delete the line' }).click();
 		await expect(page).toHaveURL(/\/app\/price-book#prep$/);
 		await expect(prep.getByRole('link', { name: /Grind or plane high spots/ })).toHaveCount(0);
 
