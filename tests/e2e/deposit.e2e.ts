@@ -65,7 +65,8 @@ test('a declined card leaves the job accepted; the succeeding card makes it sold
 	await customer.waitForURL(/\/dev\/checkout\/cs_\w+/);
 	expect(customer.url()).toContain(session);
 	await payOnCheckout(customer, 'Succeeds');
-	await expect(customer).toHaveURL(new RegExp(`\\?paid=${session}`));
+	// Back on the customer's page at the address given to Stripe, with nothing stray after it.
+	await expect(customer).toHaveURL(new RegExp(`/c/[^?]+\\?paid=${session}$`));
 	await expect(customer.getByText('Payment received')).toBeVisible();
 	await expect(customer.getByRole('heading', { name: 'Paid so far' })).toBeVisible();
 
