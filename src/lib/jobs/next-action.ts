@@ -192,7 +192,7 @@ export function nextAction(f: JobFacts, can: JobPowers): NextAction {
 			collect_balance: {
 				label: 'Collect the balance',
 				href: `${base}/payments`,
-				note: 'The job is complete and the customer was asked for the balance.'
+				note: 'The job is complete; the balance is still to pay.'
 			},
 			await_sign_off: {
 				note: 'Paid in full; waiting for the customer to sign off the work from their link.'

@@ -121,9 +121,10 @@ export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 	if (may.costs && newest) {
 		const basis = versions.find((v) => v.status === 'accepted') ?? newest;
 		const full = await quotes.read(tx, basis.id);
-		if (full) {
+		// A stored result always has them; a row written some other way is left unshown, not a 500.
+		const m = full?.result?.margin;
+		if (full && m && full.result.schedule) {
 			const approved = orders.filter((c) => c.status === 'approved');
-			const m = full.result.margin;
 			storeFigures = {
 				quoteVersion: full.version,
 				currency: full.currency,
