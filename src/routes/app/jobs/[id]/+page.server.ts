@@ -1,18 +1,13 @@
-import * as changeOrders from '$lib/server/db/queries/change-orders';
-import * as completions from '$lib/server/db/queries/completions';
 import * as jobs from '$lib/server/db/queries/jobs';
-import * as payments from '$lib/server/db/queries/payments';
-import * as quotes from '$lib/server/db/queries/quotes';
 import { inStore, readInStore, type StoreTx } from '$lib/server/db/tenant';
 import type { JobStatus } from '$lib/jobs/status';
 import { parseForm } from '$lib/server/forms';
-import { measureSummary } from '$lib/server/jobs/measure-summary';
-import { visibleLedger } from '$lib/server/figures';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
 import { canBook, canDelete, handMove, nextStatuses } from '$lib/jobs/status';
 import { moveByHand, moveFacts } from '$lib/server/jobs/move';
+import { jobStory } from '$lib/server/jobs/story';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
 import { error, fail, redirect } from '@sveltejs/kit';
 import type { Actions, PageServerLoad } from './$types';
@@ -30,43 +25,16 @@ export const load: PageServerLoad = async ({ params }) => {
 		const job = await jobs.readForViewer(tx, params.id, scope);
 		if (!job) error(404, 'Not found');
 		const canAssign = can(grants, { job: ['assign'] });
-		const history = await jobs.events(tx, job.id);
 		const installers = canAssign ? await jobs.listInstallers(tx) : [];
-		const quoteVersions = can(grants, { quote: ['read'] }) ? await quotes.list(tx, job.id) : [];
-		const money = can(grants, { payment: ['read'] }) ? await payments.moneyFor(tx, job.id) : null;
-		const completion = await completions.read(tx, job.id);
 		return {
 			job,
-			history,
+			...(await jobStory(tx, job, grants)),
 			installers,
-			latestQuote: quoteVersions[0] ?? null,
-			money: money && {
-				currency: money.currency,
-				ledger: visibleLedger(grants, money.ledger),
-				count: money.payments.length
-			},
 			moves: can(grants, { job: ['schedule'] }) ? await movesByHand(tx, job.id, job.status) : [],
 			canAssign,
 			// The schedule books it (and moves a booking); the page links there.
 			canBook: can(grants, { job: ['schedule'] }) && canBook(job.status),
 			site: await loadJobSite(tx, job, grants),
-			measure: await measureSummary(tx, job.id),
-			changeOrders: can(grants, { changeOrder: ['review'] })
-				? (await changeOrders.listForJob(tx, job.id)).map((c) => ({
-						number: c.number,
-						status: c.status,
-						currency: c.currency,
-						totalCents: c.totalCents,
-						createdAt: c.createdAt
-					}))
-				: null,
-			completion: completion
-				? {
-						completedAt: completion.completedAt,
-						signedAt: completion.signedAt,
-						signedName: completion.signedName
-					}
-				: null,
 			canEdit: can(grants, { job: ['update'] }),
 			canDelete: can(grants, { job: ['delete'] }) && canDelete(job.status)
 		};
