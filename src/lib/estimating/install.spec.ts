@@ -16,7 +16,7 @@ import {
 	probeDepthIn,
 	sheathingChecks
 } from './substrate';
-import { holeRepair, rollTakeoff } from './takeoff';
+import { baysSpanned, holeRepair, rollTakeoff } from './takeoff';
 
 const book: PriceBook = structuredClone(samplePriceBook);
 book.floors.push({
@@ -156,6 +156,32 @@ describe('3. order of wet-slab work', () => {
 		expect(at('level')).toBeLessThan(at('install'));
 		expect(keys(r)).toEqual(expect.arrayContaining(['prep:moisture_barrier', 'prep:primer']));
 	});
+
+	it('patches a slab’s dents after the barrier, with the leveller, never under the barrier', () => {
+		// common practice (TRADE.md "order on a wet slab"): the barrier goes on the bare slab; patch
+		// and leveller go over the primed barrier. Over wood, patch still goes before the panels.
+		const r = run([
+			slabRoom('1', {
+				readings: { rhPct: [82], flatness: [{ spanIn: 120, gapIn: 0.375, areaSqFt: 20 }] },
+				repairs: { dents: [{ lengthIn: 6, widthIn: 6, depthIn: 0.25 }] }
+			})
+		]);
+		expect(keys(r)).toContain('prep:dent_patch');
+		const order = r.schedule.steps.map((s) => s.key);
+		expect(order).not.toContain('patch');
+		expect(order.indexOf('barrier')).toBeLessThan(order.indexOf('level'));
+		const level = r.schedule.steps.find((s) => s.key === 'level')!;
+		expect(level.label).toBe('Prime, patch and level low spots');
+		// the dent's hours are in that step: primer and level alone take less
+		const without = run([
+			slabRoom('1', {
+				readings: { rhPct: [82], flatness: [{ spanIn: 120, gapIn: 0.375, areaSqFt: 20 }] }
+			})
+		]);
+		expect(level.hours).toBeGreaterThan(
+			without.schedule.steps.find((s) => s.key === 'level')!.hours
+		);
+	});
 });
 
 describe('4. short straightedges', () => {
@@ -193,7 +219,7 @@ describe('5. backing and blocking fit the bay', () => {
 		roughCutAllowanceIn: 0.5
 	};
 	it('cuts blocking to the clear bay, one pair a bay (arithmetic, TRADE.md)', () => {
-		// 24 in o.c.: 24 − 1.5 = 22.5 in; a 30 in hole spans ⌈30 ÷ 24⌉ = 2 bays → 4 blocks
+		// 24 in o.c.: 24 − 1.5 = 22.5 in clear; a 30 in hole opens 1 + ⌈7.5 ÷ 24⌉ = 2 bays → 4 blocks
 		const r = holeRepair({
 			...base,
 			widthIn: 30,
@@ -204,6 +230,21 @@ describe('5. backing and blocking fit the bay', () => {
 		expect(r.pieces[0]).toMatchObject({ name: 'blocking', count: 4, lengthIn: 22.5 });
 		// the infill is cut from subfloor-thickness plywood (3/4 in), not the 1/4 in underlayment
 		expect(r.pieces[1]).toMatchObject({ name: 'infill', thicknessIn: 0.75 });
+	});
+
+	it('counts the bays a hole opens wherever it lies, not width ÷ spacing (arithmetic)', () => {
+		// 16 in o.c., 1.5 in joists: a clear bay is 14.5 in; two bays and the joist between them
+		// hold at most 14.5 + 16 = 30.5 in; three at most 46.5 in
+		expect(baysSpanned(14.5, 16, 14.5)).toBe(1);
+		expect(baysSpanned(15, 16, 14.5)).toBe(2);
+		expect(baysSpanned(30.5, 16, 14.5)).toBe(2);
+		expect(baysSpanned(32, 16, 14.5)).toBe(3);
+		const at16 = (widthIn: number, method: 'blocking' | 'backing') =>
+			holeRepair({ ...base, widthIn, lengthIn: 10, method, joistSpacingIn: 16 }).pieces[0];
+		// a 15 in hole cannot sit inside one 14.5 in bay: it bares a joist, a pair of blocks each side
+		expect(at16(15, 'blocking')).toMatchObject({ name: 'blocking', count: 4, lengthIn: 14.5 });
+		// a 32 in hole bares two joists: three bays, three backing pieces each cut to the clear bay
+		expect(at16(32, 'backing')).toMatchObject({ name: 'backing', count: 3, widthIn: 14.5 });
 	});
 });
 
@@ -226,6 +267,41 @@ describe('6. code-table spans and I-joists', () => {
 		// L/360 at 180 in allows 180 ÷ 360 = 0.5 in (IRC Table R301.7, published)
 		expect(probe.allowedDeflectionIn).toBe(0.5);
 		expect(probe.checks[0].message).toContain('(at most 0.500 in)');
+	});
+
+	it('says a printed span passes, and names the same longest span the check passes', () => {
+		// 2x8 Douglas Fir-Larch No.2 at 12 in: deflection governs at 169.59 in exactly; IRC 2012
+		// Table R502.3.1(2) (secondary, see substrate.spec.ts) prints 14-2 = 170 in. At 170 in
+		// L/Δ = 357.6 < 360 by the fraction the print rounded away: it passes, and says why.
+		const at = joistCheck(
+			{ size: '2x8', species: 'douglas_fir_larch', spacingIn: 12, spanIn: 170, ratio: 360 },
+			j
+		);
+		expect(at.maxSpanIn).toBeCloseTo(169.59, 2);
+		expect(at.lOverDelta).toBeLessThan(360);
+		expect(at.checks[0].pass).toBe(true);
+		expect(at.checks[0].message).toContain('within the inch the span table rounds');
+		// L/360 at 170 in allows 170 ÷ 360 = 0.472 in, shown beside L/Δ
+		expect(at.checks[0].message).toContain('needs L/360 (at most 0.472 in)');
+		// the longest span named is the one that passes, never one inch short of the span that did
+		expect(at.passSpanIn).toBe(170);
+		expect(at.checks[0].message).toContain(`Longest span that passes: 14' 2"`);
+		expect(
+			joistCheck(
+				{ size: '2x8', species: 'douglas_fir_larch', spacingIn: 12, spanIn: 171, ratio: 360 },
+				j
+			).checks[0].pass
+		).toBe(false);
+		// in a whole estimate under tile (L/360): no sistering, no consult priced
+		const r = run([
+			room({
+				floor: { productId: 'tile-12', layout: 'straight' },
+				joists: { size: '2x8', species: 'douglas_fir_larch', spacingIn: 12, spanIn: 170 }
+			})
+		]);
+		expect(r.findings.filter((f) => f.check.startsWith('joist_')).every((f) => f.pass)).toBe(true);
+		expect(keys(r)).not.toContain('prep:joist_sister');
+		expect(keys(r)).not.toContain('prep:structural_consult');
 	});
 
 	it('checks I-joists from the maker’s EI at L/480 under tile, or asks for EI', () => {

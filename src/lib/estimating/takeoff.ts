@@ -447,6 +447,17 @@ export function roughCut(lengthIn: number, allowanceIn = 0.5): number {
 	return lengthIn + allowanceIn;
 }
 
+/**
+ * The fewest joist bays a hole `widthIn` across the joists opens, wherever it lies (arithmetic):
+ * one while it fits in the clear bay; past that it reaches over a joist into the next bay, one
+ * more bay for each further joist spacing. A 15 in hole at 16 in o.c. (clear bay 14.5 in) opens
+ * 2 bays; a 32 in hole opens 3 (14.5 + 16 = 30.5 in is the most two bays can hold).
+ */
+export function baysSpanned(widthIn: number, spacingIn: number, clearIn: number): number {
+	if (!(widthIn > clearIn)) return 1;
+	return 1 + ceilUnits((widthIn - clearIn) / spacingIn);
+}
+
 export interface RepairPiece {
 	name: 'blocking' | 'infill' | 'backing';
 	count: number;
@@ -533,8 +544,8 @@ export function holeRepair(input: {
 	const pieces: RepairPiece[] = [];
 	// Blocking and backing fit between the joists: cut to the clear bay (spacing less the joist's
 	// thickness: 14.5 in at 16 in o.c., arithmetic), one piece (or pair) for each bay the hole spans.
-	const bays = Math.max(1, ceilUnits(input.widthIn / input.joistSpacingIn));
 	const clear = input.joistSpacingIn - input.joistThicknessIn;
+	const bays = baysSpanned(input.widthIn, input.joistSpacingIn, clear);
 	if (input.method === 'backing') {
 		const lap = 2 * input.backingLapIn;
 		pieces.push(
