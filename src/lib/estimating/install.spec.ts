@@ -443,6 +443,37 @@ describe('9. sheet goods and roll goods', () => {
 		const y = carpet('y');
 		expect(y.outline?.seams).toEqual([{ x1: 144, y1: 0, x2: 144, y2: 156 }]);
 	});
+
+	it('draws each seam only where floor lies on both sides of it (an L-shaped room)', () => {
+		// 20 × 8 ft 4 in with a 8 ft 4 in × 8 ft 4 in leg; 6 ft sheet run along x: strips end at
+		// 72 and 144 in. The first seam runs the full 240 in; the second only across the 100 in leg.
+		const r = run([
+			room({
+				floor: { productId: 'sheet-6', layout: 'straight' },
+				shape: {
+					kind: 'points',
+					points: [
+						[0, 0],
+						[240, 0],
+						[240, 100],
+						[100, 100],
+						[100, 200],
+						[0, 200]
+					]
+				}
+			})
+		]).rooms[0];
+		expect(r.floor?.roll?.direction).toBe('x');
+		expect(r.floor?.roll?.seams).toBe(2);
+		expect(r.floor?.roll?.seamLengthIn).toBe(340);
+		expect(r.outline?.seams).toEqual([
+			{ x1: 0, y1: 72, x2: 240, y2: 72 },
+			{ x1: 0, y1: 144, x2: 100, y2: 144 }
+		]);
+		// the seams drawn add up to the seam length priced
+		const drawn = r.outline!.seams!.reduce((t, l) => t + Math.hypot(l.x2 - l.x1, l.y2 - l.y1), 0);
+		expect(drawn).toBe(r.floor?.roll?.seamLengthIn);
+	});
 });
 
 describe('10. prep that new underlayment covers', () => {

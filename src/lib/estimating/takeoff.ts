@@ -63,6 +63,8 @@ export interface RollLayout {
 	direction: RollDirection;
 	drops: Drop[];
 	seams: number;
+	/** Each seam's run on the room's outline (floor on both sides of it), for the drawing. */
+	seamLines: SeamLine[];
 	seamLengthIn: number;
 	/** Total cut length, in. */
 	cutLengthIn: number;
@@ -160,17 +162,26 @@ function sideIntervals(
 	return out;
 }
 
-/** Where two drops meet along the line y: the runs of floor on both sides of it. */
-function seamRuns(edges: readonly Edge[], ys: readonly number[], y: number): number[] {
+/** Where two drops meet along the line y: the runs of floor on both sides of it, [from, to]. */
+function seamRuns(edges: readonly Edge[], ys: readonly number[], y: number): [number, number][] {
 	const below = sideIntervals(edges, ys, y, -1);
 	const above = sideIntervals(edges, ys, y, 1);
-	const runs: number[] = [];
+	const runs: [number, number][] = [];
 	for (const a of below)
 		for (const b of above) {
-			const len = Math.min(a[1], b[1]) - Math.max(a[0], b[0]);
-			if (len > 1e-9) runs.push(len);
+			const from = Math.max(a[0], b[0]);
+			const to = Math.min(a[1], b[1]);
+			if (to - from > 1e-9) runs.push([from, to]);
 		}
 	return runs;
+}
+
+/** A seam on the room's outline, in its own coordinates (in). */
+export interface SeamLine {
+	x1: number;
+	y1: number;
+	x2: number;
+	y2: number;
 }
 
 function layout(
@@ -206,6 +217,7 @@ function layout(
 			`The room needs ${strips} drops across; the engine takes rooms up to ${LIMITS.roomSideIn / 12} ft a side`
 		);
 	const drops: Drop[] = [];
+	const seamLines: SeamLine[] = [];
 	let seams = 0;
 	let seamLengthIn = 0;
 	for (let s = 0; s < strips; s++) {
@@ -217,9 +229,15 @@ function layout(
 		for (const [a, b] of intervals)
 			drops.push({ strip: s, startIn: a, coverIn: b - a, cutIn: b - a + 2 * trimPerEndIn });
 		if (s > 0) {
-			const runs = isRect ? [maxX - minX] : seamRuns(edges, ys, y0);
+			const runs: [number, number][] = isRect ? [[minX, maxX]] : seamRuns(edges, ys, y0);
 			seams += runs.length;
-			for (const r of runs) seamLengthIn += r;
+			for (const [from, to] of runs) {
+				seamLengthIn += to - from;
+				// where the drawing shows it: only where floor lies on both sides of the seam
+				seamLines.push(
+					swap ? { x1: y0, y1: from, x2: y0, y2: to } : { x1: from, y1: y0, x2: to, y2: y0 }
+				);
+			}
 		}
 	}
 	const cutLengthIn = drops.reduce((t, d) => t + d.cutIn, 0);
@@ -229,6 +247,7 @@ function layout(
 		direction,
 		drops,
 		seams,
+		seamLines,
 		seamLengthIn,
 		cutLengthIn,
 		orderLengthIn,
@@ -287,6 +306,7 @@ export function rollTakeoff(input: {
 		direction: pick.direction,
 		drops: pick.drops,
 		seams: pick.seams,
+		seamLines: pick.seamLines,
 		seamLengthIn: pick.seamLengthIn,
 		cutLengthIn: pick.cutLengthIn,
 		orderLengthIn: pick.orderLengthIn,
