@@ -60,7 +60,7 @@ interface RoomOutcome {
 	priced?: Priced;
 	hours: HoursEntry[];
 	cautions: CautionEvent[];
-	slabReadings?: { rh: number; cc: number };
+	slabReadings?: { rh: number; cc: number; needsTests: boolean };
 	order?: {
 		productId: string;
 		cartonSqFt?: number;
@@ -471,6 +471,8 @@ interface SlabSoFar {
 	areaSqFt: number;
 	rh: number;
 	cc: number;
+	/** A floor with a moisture limit goes on it: with no test taken, its RH tests are priced. */
+	needsTests: boolean;
 	thicknessIn?: number;
 	drying?: 'top' | 'both';
 }
@@ -542,13 +544,15 @@ function roomsStep(input: EstimateInput, index: PriceIndex): JobSoFar {
 					roomIndex: i,
 					areaSqFt: 0,
 					rh: 0,
-					cc: 0
+					cc: 0,
+					needsTests: false
 				};
 				so.slabs.set(key, had);
 			}
 			had.areaSqFt += out.result.areaSqFt;
 			had.rh += out.slabReadings.rh;
 			had.cc += out.slabReadings.cc;
+			had.needsTests ||= out.slabReadings.needsTests;
 			had.thicknessIn ??= slab.thicknessIn;
 			had.drying ??= slab.drying;
 		}

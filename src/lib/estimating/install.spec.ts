@@ -126,6 +126,27 @@ describe('2. concrete moisture tests per slab', () => {
 		expect(tests?.cureHours).toBe(24);
 	});
 
+	it('prices and schedules the tests a slab needs when none were taken, before the floor', () => {
+		// ASTM F2170 §10.1 (secondary): 3 probes for the first 1000 ft²; two 120 ft² rooms on
+		// slab B with no reading under vinyl plank: 3 probes for the slab, listed with its first room
+		const none = (id: string) => slabRoom(id, { readings: {} });
+		const r = run([none('1'), none('2')]);
+		const f = r.findings.filter((x) => x.check === 'moisture_rh_tests');
+		expect(f).toHaveLength(1);
+		expect(f[0]).toMatchObject({ pass: false, measured: 0, limit: 3, roomId: '1' });
+		expect(f[0].message).toContain('Slab B: 0 of 3 RH probes for 240 ft² of slab');
+		expect(r.lines.filter((l) => l.key === 'prep:moisture_test').map((l) => l.qty)).toEqual([3]);
+		// tests first, and the floor waits the probes' 24 h (ASTM F2170, secondary)
+		const order = r.schedule.steps.map((s) => s.key);
+		expect(order.indexOf('tests')).toBeLessThan(order.indexOf('install'));
+		expect(r.schedule.steps.find((s) => s.key === 'tests')?.cureHours).toBe(24);
+		// carpet on a slab has no moisture limit here: nothing priced
+		const carpet = run([
+			slabRoom('1', { readings: {}, floor: { productId: 'carpet-12', layout: 'straight' } })
+		]);
+		expect(keys(carpet)).not.toContain('prep:moisture_test');
+	});
+
 	it('waits the calcium chloride dishes’ exposure before the next step', () => {
 		// ASTM F1869 (secondary): dishes exposed 60–72 h; the store's setting is 72 h
 		const r = run([

@@ -549,6 +549,8 @@ export function slabTestChecks(
 		areaSqFt: number;
 		rh: number;
 		cc: number;
+		/** A floor with a moisture limit goes on it: with no test taken, RH tests are still due. */
+		needsTests?: boolean;
 		thicknessIn?: number;
 		drying?: 'top' | 'both';
 	},
@@ -585,7 +587,9 @@ export function slabTestChecks(
 			cautions: ['moisture']
 		});
 	};
-	if (slab.rh > 0)
+	// No test taken yet under a floor with a moisture limit: the RH probes the slab needs come
+	// first (ASTM F2170, secondary; F710 names it for resilient floors), never skipped.
+	if (slab.rh > 0 || (slab.cc === 0 && slab.needsTests === true))
 		one(
 			'moisture_rh_tests',
 			slab.rh,

@@ -35,7 +35,7 @@ export interface Checks {
 	warnings: string[];
 	cautions: CautionEvent[];
 	/** Moisture tests taken on this room's part of a slab, by kind. */
-	slabReadings?: { rh: number; cc: number };
+	slabReadings?: { rh: number; cc: number; needsTests: boolean };
 }
 
 function ratioFor(kind: FloorKind, product: FloorProduct, s: StoreSettings): number {
@@ -252,7 +252,8 @@ export function checksStep(ctx: RoomContext): Checks {
 	if (!wood) {
 		const rh = readings.rhPct ?? [];
 		const cc = readings.calciumChloride ?? [];
-		out.slabReadings = { rh: rh.length, cc: cc.length };
+		// Every floor but carpet has a moisture limit on a slab: its tests come before it.
+		out.slabReadings = { rh: rh.length, cc: cc.length, needsTests: kind !== 'carpet' };
 		// A barrier covers the room. How many tests the slab needs is counted for the whole slab,
 		// once, by the estimate (ASTM F2170 §10.1, F1869: per slab, not per room).
 		const barrier = () => ({ sqft: area, room: 1 });
@@ -265,7 +266,9 @@ export function checksStep(ctx: RoomContext): Checks {
 			fix(mverChecks({ tests: cc, areaSqFt: area, limit }, s.moisture)[0], barrier);
 		}
 		if (rh.length === 0 && cc.length === 0 && kind !== 'carpet')
-			out.warnings.push('No moisture readings for a concrete subfloor');
+			out.warnings.push(
+				'No moisture readings for a concrete subfloor: the slab’s RH tests are on the quote and in the schedule, before any barrier or floor'
+			);
 	} else if (readings.woodMc) {
 		const checks = woodMoistureChecks(
 			{
