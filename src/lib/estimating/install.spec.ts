@@ -386,6 +386,31 @@ describe('7. tile and stone need their subfloor', () => {
 		expect(two.findings.find((x) => x.check === 'tile_subfloor')?.pass).toBe(true);
 	});
 
+	it('lays a panel layer over board sheathing before tile or stone', () => {
+		// TCNA Handbook floor methods (memory): tile goes over a panel subfloor, never boards alone
+		const boards = (productId: string, pb: PriceBook = book) =>
+			run(
+				[
+					room({
+						floor: { productId, layout: 'straight' },
+						subfloor: { kind: 'board', thicknessIn: 0.75 }
+					})
+				],
+				pb
+			);
+		for (const r of [boards('tile-12'), boards('stone', stoneBook)]) {
+			const f = r.findings.find((x) => x.check === 'tile_subfloor')!;
+			expect(f.pass).toBe(false);
+			expect(f.message).toContain('over board sheathing: lay a structural panel layer');
+			expect(f.source).toContain('TCNA Handbook');
+			expect(keys(r)).toEqual(
+				expect.arrayContaining(['prep:subfloor_overlay', 'prep:tile_backer'])
+			);
+		}
+		// vinyl plank over the same boards: no tile rule
+		expect(boards('lvp-grey').findings.some((x) => x.check === 'tile_subfloor')).toBe(false);
+	});
+
 	it('refuses nailed solid hardwood on a slab, with the reason', () => {
 		const r = run([
 			room({
@@ -516,6 +541,43 @@ describe('10. prep that new underlayment covers', () => {
 		expect(r.warnings.map((w) => w.message).join('\n')).toContain(
 			'16 in o.c. (assumed, not found)'
 		);
+	});
+});
+
+describe('10. thin vinyl shows the underlayment: skimmed like sheet vinyl', () => {
+	it('skims the panels under glued or 1/8 in vinyl plank, not under a thick floating plank', () => {
+		// common practice (TRADE.md "Subfloor repairs"): resilient floors telegraph seams and heads
+		const thin: PriceBook = structuredClone(book);
+		thin.floors.push(
+			{
+				id: 'lvt-glued',
+				name: 'Glue-down vinyl plank 2.5 mm',
+				kind: 'vinyl_plank',
+				fastening: 'glued',
+				cartonSqFt: 36,
+				thicknessIn: 0.1,
+				material: { basis: 'sqft', priceCents: 250 },
+				labourCentsPerSqFt: 250,
+				payCentsPerSqFt: 160
+			},
+			{
+				id: 'lvt-eighth',
+				name: 'Vinyl plank 1/8 in',
+				kind: 'vinyl_plank',
+				cartonSqFt: 36,
+				thicknessIn: 0.125,
+				material: { basis: 'sqft', priceCents: 250 },
+				labourCentsPerSqFt: 250,
+				payCentsPerSqFt: 160
+			}
+		);
+		const on = (productId: string) =>
+			keys(run([room({ floor: { productId, layout: 'straight' } })], thin));
+		expect(on('lvt-glued')).toContain('prep:underlayment_skim');
+		expect(on('lvt-eighth')).toContain('prep:underlayment_skim');
+		// the sample's 1/4 in plank (rigid, floating): panels, no skim
+		expect(on('lvp-grey')).toContain('prep:underlayment');
+		expect(on('lvp-grey')).not.toContain('prep:underlayment_skim');
 	});
 });
 

@@ -163,6 +163,32 @@ export function checksStep(ctx: RoomContext): Checks {
 	// (with a backer or membrane, priced with the tile), stone over two layers (TCNA Handbook
 	// floor methods, memory; TRADE.md).
 	const tile = s.tile;
+	if (wood && tile && (kind === 'ceramic_tile' || kind === 'stone_tile') && sub.kind === 'board') {
+		// Board (plank) sheathing moves board by board: tile and stone go over a panel layer
+		// laid on it, then the backer or membrane (TCNA Handbook floor methods, memory).
+		const stone = kind === 'stone_tile';
+		fix(
+			{
+				check: 'tile_subfloor',
+				pass: false,
+				measured: 0,
+				limit: 1,
+				unit: 'panel layers',
+				message: `${stone ? 'Natural stone' : 'Ceramic tile'} over board sheathing: lay a structural panel layer over the boards first${stone ? ' (stone needs two layers in all)' : ''}, then a backer board or membrane.`,
+				rule: 'tile and stone over wood: a panel subfloor, never boards alone; then backer or membrane',
+				source:
+					'TCNA Handbook floor methods (memory); the tile and membrane makers’ instructions govern',
+				suggestedPrep: [
+					{
+						kind: 'subfloor_overlay',
+						note: 'Lay a plywood panel layer over the boards, glued and screwed, joints offset from the boards’ joints.'
+					}
+				],
+				cautions: ['planning_aid', 'maker_instructions', 'structure']
+			},
+			() => ({ sqft: area, room: 1 })
+		);
+	}
 	if (wood && tile && (kind === 'ceramic_tile' || kind === 'stone_tile') && sub.kind !== 'board') {
 		const layers = sub.layers ?? 1;
 		const stone = kind === 'stone_tile';
