@@ -490,6 +490,33 @@ describe('9. sheet goods and roll goods', () => {
 		expect(y.outline?.seams).toEqual([{ x1: 144, y1: 0, x2: 144, y2: 156 }]);
 	});
 
+	it('runs seams along the main light when that costs no extra seam', () => {
+		// common practice (TRADE.md "sheet goods seams"): no seam first, then along the light,
+		// then less material. 10 × 10 ft in 6 ft sheet: one seam either way, the same material.
+		const square = (light?: 'x' | 'y', rollDirection?: 'x' | 'y') =>
+			run([
+				room({
+					shape: { kind: 'rect', widthIn: 120, lengthIn: 120 },
+					floor: { productId: 'sheet-6', layout: 'straight', light, rollDirection }
+				})
+			]).rooms[0];
+		expect(square().floor?.roll?.direction).toBe('x');
+		const lit = square('y');
+		expect(lit.floor?.roll?.direction).toBe('y');
+		expect(lit.floor?.roll?.rule).toContain('seams along the main light');
+		expect(lit.outline?.seams).toEqual([{ x1: 72, y1: 0, x2: 72, y2: 120 }]);
+		// the light never buys a seam: the 3 ft 6 in × 16 ft 4 in hall stays one piece
+		const hall = run([
+			room({
+				shape: { kind: 'rect', widthIn: 42, lengthIn: 196 },
+				floor: { productId: 'sheet-6', layout: 'straight', light: 'x' }
+			})
+		]).rooms[0];
+		expect(hall.floor?.roll).toMatchObject({ direction: 'y', seams: 0, orderLinFt: 17 });
+		// and the salesperson's own choice still wins
+		expect(square('y', 'x').floor?.roll?.direction).toBe('x');
+	});
+
 	it('draws each seam only where floor lies on both sides of it (an L-shaped room)', () => {
 		// 20 × 8 ft 4 in with a 8 ft 4 in × 8 ft 4 in leg; 6 ft sheet run along x: strips end at
 		// 72 and 144 in. The first seam runs the full 240 in; the second only across the 100 in leg.

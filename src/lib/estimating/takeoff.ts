@@ -270,6 +270,11 @@ export function rollTakeoff(input: {
 	trimPerEndIn: number;
 	orderIncrementIn: number;
 	direction?: RollDirection;
+	/**
+	 * The axis the room's main light falls along (from its main window or glass door): on a tie
+	 * in seams, the drops run along it, so its seams run along the light and cast no shadow line.
+	 */
+	light?: RollDirection;
 }): RollTakeoff {
 	within(
 		input.rollWidthIn,
@@ -296,10 +301,11 @@ export function rollTakeoff(input: {
 	const y = layout(input.polygon, !!input.isRect, 'y', ...args);
 	let pick: RollLayout;
 	if (input.direction) pick = input.direction === 'x' ? x : y;
-	// Fewest seams first (a run that fits in one piece is never cut across), then less material
-	// (common practice, TRADE.md "sheet goods seams"); the salesperson may choose the direction
-	// so seams run along the light and out of traffic.
+	// Fewest seams first (a run that fits in one piece is never cut across), then seams along the
+	// main light where the measure notes it, then less material (common practice, TRADE.md "sheet
+	// goods seams"); the salesperson may choose the direction, e.g. to keep seams out of traffic.
 	else if (y.seams !== x.seams) pick = y.seams < x.seams ? y : x;
+	else if (x.seams > 0 && input.light) pick = input.light === 'x' ? x : y;
 	else if (y.orderLengthIn < x.orderLengthIn - 1e-9) pick = y;
 	else pick = x;
 	return {
@@ -318,7 +324,7 @@ export function rollTakeoff(input: {
 		trimPerEndIn: input.trimPerEndIn,
 		rule: input.direction
 			? 'drops at the roll width in the direction chosen on the measure; each cut = run + trim per end; 1 yd² = 9 ft²'
-			: 'drops at the roll width; each cut = run + trim per end; fewest seams of the two directions, then less material; 1 yd² = 9 ft²',
+			: `drops at the roll width; each cut = run + trim per end; fewest seams of the two directions, then ${input.light ? 'seams along the main light, then ' : ''}less material; 1 yd² = 9 ft²`,
 		source: 'common practice; roll widths and trim per end are store settings'
 	};
 }

@@ -70,7 +70,8 @@ export function floorTakeoff(ctx: RoomContext): FloorTakeoff {
 					rollWidthIn,
 					trimPerEndIn: s.roll.trimPerEndIn,
 					orderIncrementIn: s.roll.orderIncrementIn,
-					direction: room.floor?.rollDirection
+					direction: room.floor?.rollDirection,
+					light: room.floor?.light
 				}),
 			(field) =>
 				field === 'rollWidthIn'
