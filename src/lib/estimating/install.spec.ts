@@ -571,6 +571,34 @@ describe('10. prep that new underlayment covers', () => {
 	});
 });
 
+describe('10. seams and dents filled only where the floor goes straight on', () => {
+	it('fills them under vinyl laid straight on, not under tile, carpet, underlay or nailed wood', () => {
+		// common practice (TRADE.md "Subfloor repairs"): resilient floors telegraph open seams and
+		// dents; a backer, pad, underlay, new panels or a nailed wood floor bridge them
+		const repairs = {
+			seams: [{ lengthIn: 48, widthIn: 0.25, depthIn: 0.125 }],
+			dents: [{ lengthIn: 3, widthIn: 2, depthIn: 0.0625 }]
+		};
+		const on = (productId: string, over: Partial<RoomMeasure> = {}) =>
+			run([room({ floor: { productId, layout: 'straight' }, repairs, ...over })]);
+		const straight = on('lvp-grey', { underlayment: false });
+		expect(keys(straight)).toEqual(expect.arrayContaining(['prep:seam_patch', 'prep:dent_patch']));
+		for (const [productId, by] of [
+			['lvp-grey', 'the new underlayment'],
+			['tile-12', 'the backer board or membrane'],
+			['carpet-12', 'the carpet pad'],
+			['oak-7', 'the nailed wood floor']
+		] as const) {
+			const r = on(productId);
+			expect(keys(r), productId).not.toContain('prep:seam_patch');
+			expect(keys(r), productId).not.toContain('prep:dent_patch');
+			expect(r.warnings.map((w) => w.message)).toContain(
+				`Open seams and dents in the old subfloor are covered by ${by}: not filled, not charged`
+			);
+		}
+	});
+});
+
 describe('10. thin vinyl shows the underlayment: skimmed like sheet vinyl', () => {
 	it('skims the panels under glued or 1/8 in vinyl plank, not under a thick floating plank', () => {
 		// common practice (TRADE.md "Subfloor repairs"): resilient floors telegraph seams and heads

@@ -172,13 +172,16 @@ export function coverTakeoff(
 	return { underlayment, panelSqFt, needs };
 }
 
-const floating = (ctx: RoomContext) =>
+const floating = (ctx: Pick<RoomContext, 'product'>) =>
 	(ctx.product.fastening ??
 		(ctx.product.kind === 'hardwood'
 			? 'nailed'
 			: ctx.product.kind === 'engineered_wood' || ctx.product.kind === 'laminate'
 				? 'floating'
 				: 'glued')) as 'nailed' | 'glued' | 'floating';
+
+/** How the room's floor is fastened: the product's own, else by its kind. */
+export { floating as fasteningOf };
 
 /** Vinyl this thin or thinner telegraphs what is under it like sheet vinyl (common practice). */
 export const THIN_VINYL_MAX_IN = 0.125;
