@@ -192,7 +192,7 @@ describe('3. order of wet-slab work', () => {
 		expect(order).not.toContain('patch');
 		expect(order.indexOf('barrier')).toBeLessThan(order.indexOf('level'));
 		const level = r.schedule.steps.find((s) => s.key === 'level')!;
-		expect(level.label).toBe('Prime, patch and level low spots');
+		expect(level.label).toBe('Prime and level low spots, patch slab cracks and dents');
 		// the dent's hours are in that step: primer and level alone take less
 		const without = run([
 			slabRoom('1', {

@@ -57,7 +57,7 @@ export const WORK_STEPS: readonly {
 	{ key: 'barrier', label: 'Moisture barrier on the bare slab', kinds: ['moisture_barrier'] },
 	{
 		key: 'level',
-		label: 'Prime, patch and level low spots',
+		label: 'Prime and level low spots, patch slab cracks and dents',
 		kinds: ['primer', SLAB_PATCH, 'level']
 	},
 	{
