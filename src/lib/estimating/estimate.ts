@@ -60,7 +60,7 @@ interface RoomOutcome {
 	priced?: Priced;
 	hours: HoursEntry[];
 	cautions: CautionEvent[];
-	slabReadings?: { rh: number; cc: number };
+	slabReadings?: { rh: number; cc: number; needsTests: boolean };
 	order?: {
 		productId: string;
 		cartonSqFt?: number;
@@ -262,21 +262,9 @@ function roomSteps(
 	if (!floor.ok) return { result, errors: [floor.error], findings: [], hours: [], cautions: [] };
 	result.floor = floor.floor;
 	const roll = floor.floor.roll;
-	if (roll && result.outline && roll.seams > 0) {
-		// Strips of the roll's width stack across the drops' run: a seam where each next one starts.
-		const b = result.outline.bbox;
-		const seams: NonNullable<typeof result.outline.seams> = [];
-		const across = roll.direction === 'x' ? b.lengthIn : b.widthIn;
-		for (let k = 1; k * roll.rollWidthIn < across - 1e-9; k++) {
-			const at = k * roll.rollWidthIn;
-			seams.push(
-				roll.direction === 'x'
-					? { x1: b.minX, y1: b.minY + at, x2: b.maxX, y2: b.minY + at }
-					: { x1: b.minX + at, y1: b.minY, x2: b.minX + at, y2: b.maxY }
-			);
-		}
-		result.outline = { ...result.outline, seams };
-	}
+	// Seams on the drawing where the layout put them: only where floor lies on both sides.
+	if (roll && result.outline && roll.seams > 0)
+		result.outline = { ...result.outline, seams: roll.seamLines };
 	const repairs = repairsStep(ctx);
 	result.holes = repairs.holes;
 	append(result.warnings, repairs.warnings);
@@ -483,6 +471,8 @@ interface SlabSoFar {
 	areaSqFt: number;
 	rh: number;
 	cc: number;
+	/** A floor with a moisture limit goes on it: with no test taken, its RH tests are priced. */
+	needsTests: boolean;
 	thicknessIn?: number;
 	drying?: 'top' | 'both';
 }
@@ -554,13 +544,15 @@ function roomsStep(input: EstimateInput, index: PriceIndex): JobSoFar {
 					roomIndex: i,
 					areaSqFt: 0,
 					rh: 0,
-					cc: 0
+					cc: 0,
+					needsTests: false
 				};
 				so.slabs.set(key, had);
 			}
 			had.areaSqFt += out.result.areaSqFt;
 			had.rh += out.slabReadings.rh;
 			had.cc += out.slabReadings.cc;
+			had.needsTests ||= out.slabReadings.needsTests;
 			had.thicknessIn ??= slab.thicknessIn;
 			had.drying ??= slab.drying;
 		}

@@ -508,7 +508,7 @@ export interface Outline {
 	bbox: BBox;
 	/** `minX minY width length`; flip y (scale(1,-1)) to draw +y up. */
 	viewBox: string;
-	/** Roll goods: where the seams between drops run, across the room's box (clip to the room). */
+	/** Roll goods: where each seam between drops runs, only where floor lies on both sides of it. */
 	seams?: { x1: number; y1: number; x2: number; y2: number }[];
 }
 

@@ -16,7 +16,7 @@ import {
 	probeDepthIn,
 	sheathingChecks
 } from './substrate';
-import { holeRepair, rollTakeoff } from './takeoff';
+import { baysSpanned, holeRepair, rollTakeoff } from './takeoff';
 
 const book: PriceBook = structuredClone(samplePriceBook);
 book.floors.push({
@@ -126,6 +126,27 @@ describe('2. concrete moisture tests per slab', () => {
 		expect(tests?.cureHours).toBe(24);
 	});
 
+	it('prices and schedules the tests a slab needs when none were taken, before the floor', () => {
+		// ASTM F2170 §10.1 (secondary): 3 probes for the first 1000 ft²; two 120 ft² rooms on
+		// slab B with no reading under vinyl plank: 3 probes for the slab, listed with its first room
+		const none = (id: string) => slabRoom(id, { readings: {} });
+		const r = run([none('1'), none('2')]);
+		const f = r.findings.filter((x) => x.check === 'moisture_rh_tests');
+		expect(f).toHaveLength(1);
+		expect(f[0]).toMatchObject({ pass: false, measured: 0, limit: 3, roomId: '1' });
+		expect(f[0].message).toContain('Slab B: 0 of 3 RH probes for 240 ft² of slab');
+		expect(r.lines.filter((l) => l.key === 'prep:moisture_test').map((l) => l.qty)).toEqual([3]);
+		// tests first, and the floor waits the probes' 24 h (ASTM F2170, secondary)
+		const order = r.schedule.steps.map((s) => s.key);
+		expect(order.indexOf('tests')).toBeLessThan(order.indexOf('install'));
+		expect(r.schedule.steps.find((s) => s.key === 'tests')?.cureHours).toBe(24);
+		// carpet on a slab has no moisture limit here: nothing priced
+		const carpet = run([
+			slabRoom('1', { readings: {}, floor: { productId: 'carpet-12', layout: 'straight' } })
+		]);
+		expect(keys(carpet)).not.toContain('prep:moisture_test');
+	});
+
 	it('waits the calcium chloride dishes’ exposure before the next step', () => {
 		// ASTM F1869 (secondary): dishes exposed 60–72 h; the store's setting is 72 h
 		const r = run([
@@ -155,6 +176,32 @@ describe('3. order of wet-slab work', () => {
 		expect(at('barrier')).toBeLessThan(at('level'));
 		expect(at('level')).toBeLessThan(at('install'));
 		expect(keys(r)).toEqual(expect.arrayContaining(['prep:moisture_barrier', 'prep:primer']));
+	});
+
+	it('patches a slab’s dents after the barrier, with the leveller, never under the barrier', () => {
+		// common practice (TRADE.md "order on a wet slab"): the barrier goes on the bare slab; patch
+		// and leveller go over the primed barrier. Over wood, patch still goes before the panels.
+		const r = run([
+			slabRoom('1', {
+				readings: { rhPct: [82], flatness: [{ spanIn: 120, gapIn: 0.375, areaSqFt: 20 }] },
+				repairs: { dents: [{ lengthIn: 6, widthIn: 6, depthIn: 0.25 }] }
+			})
+		]);
+		expect(keys(r)).toContain('prep:dent_patch');
+		const order = r.schedule.steps.map((s) => s.key);
+		expect(order).not.toContain('patch');
+		expect(order.indexOf('barrier')).toBeLessThan(order.indexOf('level'));
+		const level = r.schedule.steps.find((s) => s.key === 'level')!;
+		expect(level.label).toBe('Prime and level low spots, patch slab cracks and dents');
+		// the dent's hours are in that step: primer and level alone take less
+		const without = run([
+			slabRoom('1', {
+				readings: { rhPct: [82], flatness: [{ spanIn: 120, gapIn: 0.375, areaSqFt: 20 }] }
+			})
+		]);
+		expect(level.hours).toBeGreaterThan(
+			without.schedule.steps.find((s) => s.key === 'level')!.hours
+		);
 	});
 });
 
@@ -193,7 +240,7 @@ describe('5. backing and blocking fit the bay', () => {
 		roughCutAllowanceIn: 0.5
 	};
 	it('cuts blocking to the clear bay, one pair a bay (arithmetic, TRADE.md)', () => {
-		// 24 in o.c.: 24 − 1.5 = 22.5 in; a 30 in hole spans ⌈30 ÷ 24⌉ = 2 bays → 4 blocks
+		// 24 in o.c.: 24 − 1.5 = 22.5 in clear; a 30 in hole opens 1 + ⌈7.5 ÷ 24⌉ = 2 bays → 4 blocks
 		const r = holeRepair({
 			...base,
 			widthIn: 30,
@@ -204,6 +251,21 @@ describe('5. backing and blocking fit the bay', () => {
 		expect(r.pieces[0]).toMatchObject({ name: 'blocking', count: 4, lengthIn: 22.5 });
 		// the infill is cut from subfloor-thickness plywood (3/4 in), not the 1/4 in underlayment
 		expect(r.pieces[1]).toMatchObject({ name: 'infill', thicknessIn: 0.75 });
+	});
+
+	it('counts the bays a hole opens wherever it lies, not width ÷ spacing (arithmetic)', () => {
+		// 16 in o.c., 1.5 in joists: a clear bay is 14.5 in; two bays and the joist between them
+		// hold at most 14.5 + 16 = 30.5 in; three at most 46.5 in
+		expect(baysSpanned(14.5, 16, 14.5)).toBe(1);
+		expect(baysSpanned(15, 16, 14.5)).toBe(2);
+		expect(baysSpanned(30.5, 16, 14.5)).toBe(2);
+		expect(baysSpanned(32, 16, 14.5)).toBe(3);
+		const at16 = (widthIn: number, method: 'blocking' | 'backing') =>
+			holeRepair({ ...base, widthIn, lengthIn: 10, method, joistSpacingIn: 16 }).pieces[0];
+		// a 15 in hole cannot sit inside one 14.5 in bay: it bares a joist, a pair of blocks each side
+		expect(at16(15, 'blocking')).toMatchObject({ name: 'blocking', count: 4, lengthIn: 14.5 });
+		// a 32 in hole bares two joists: three bays, three backing pieces each cut to the clear bay
+		expect(at16(32, 'backing')).toMatchObject({ name: 'backing', count: 3, widthIn: 14.5 });
 	});
 });
 
@@ -226,6 +288,41 @@ describe('6. code-table spans and I-joists', () => {
 		// L/360 at 180 in allows 180 ÷ 360 = 0.5 in (IRC Table R301.7, published)
 		expect(probe.allowedDeflectionIn).toBe(0.5);
 		expect(probe.checks[0].message).toContain('(at most 0.500 in)');
+	});
+
+	it('says a printed span passes, and names the same longest span the check passes', () => {
+		// 2x8 Douglas Fir-Larch No.2 at 12 in: deflection governs at 169.59 in exactly; IRC 2012
+		// Table R502.3.1(2) (secondary, see substrate.spec.ts) prints 14-2 = 170 in. At 170 in
+		// L/Δ = 357.6 < 360 by the fraction the print rounded away: it passes, and says why.
+		const at = joistCheck(
+			{ size: '2x8', species: 'douglas_fir_larch', spacingIn: 12, spanIn: 170, ratio: 360 },
+			j
+		);
+		expect(at.maxSpanIn).toBeCloseTo(169.59, 2);
+		expect(at.lOverDelta).toBeLessThan(360);
+		expect(at.checks[0].pass).toBe(true);
+		expect(at.checks[0].message).toContain('within the inch the span table rounds');
+		// L/360 at 170 in allows 170 ÷ 360 = 0.472 in, shown beside L/Δ
+		expect(at.checks[0].message).toContain('needs L/360 (at most 0.472 in)');
+		// the longest span named is the one that passes, never one inch short of the span that did
+		expect(at.passSpanIn).toBe(170);
+		expect(at.checks[0].message).toContain(`Longest span that passes: 14' 2"`);
+		expect(
+			joistCheck(
+				{ size: '2x8', species: 'douglas_fir_larch', spacingIn: 12, spanIn: 171, ratio: 360 },
+				j
+			).checks[0].pass
+		).toBe(false);
+		// in a whole estimate under tile (L/360): no sistering, no consult priced
+		const r = run([
+			room({
+				floor: { productId: 'tile-12', layout: 'straight' },
+				joists: { size: '2x8', species: 'douglas_fir_larch', spacingIn: 12, spanIn: 170 }
+			})
+		]);
+		expect(r.findings.filter((f) => f.check.startsWith('joist_')).every((f) => f.pass)).toBe(true);
+		expect(keys(r)).not.toContain('prep:joist_sister');
+		expect(keys(r)).not.toContain('prep:structural_consult');
 	});
 
 	it('checks I-joists from the maker’s EI at L/480 under tile, or asks for EI', () => {
@@ -287,6 +384,31 @@ describe('7. tile and stone need their subfloor', () => {
 		expect(one.findings.find((x) => x.check === 'tile_subfloor')?.pass).toBe(false);
 		const two = run([tileRoom(0.75, 2, 'stone')], stoneBook);
 		expect(two.findings.find((x) => x.check === 'tile_subfloor')?.pass).toBe(true);
+	});
+
+	it('lays a panel layer over board sheathing before tile or stone', () => {
+		// TCNA Handbook floor methods (memory): tile goes over a panel subfloor, never boards alone
+		const boards = (productId: string, pb: PriceBook = book) =>
+			run(
+				[
+					room({
+						floor: { productId, layout: 'straight' },
+						subfloor: { kind: 'board', thicknessIn: 0.75 }
+					})
+				],
+				pb
+			);
+		for (const r of [boards('tile-12'), boards('stone', stoneBook)]) {
+			const f = r.findings.find((x) => x.check === 'tile_subfloor')!;
+			expect(f.pass).toBe(false);
+			expect(f.message).toContain('over board sheathing: lay a structural panel layer');
+			expect(f.source).toContain('TCNA Handbook');
+			expect(keys(r)).toEqual(
+				expect.arrayContaining(['prep:subfloor_overlay', 'prep:tile_backer'])
+			);
+		}
+		// vinyl plank over the same boards: no tile rule
+		expect(boards('lvp-grey').findings.some((x) => x.check === 'tile_subfloor')).toBe(false);
 	});
 
 	it('refuses nailed solid hardwood on a slab, with the reason', () => {
@@ -367,6 +489,64 @@ describe('9. sheet goods and roll goods', () => {
 		const y = carpet('y');
 		expect(y.outline?.seams).toEqual([{ x1: 144, y1: 0, x2: 144, y2: 156 }]);
 	});
+
+	it('runs seams along the main light when that costs no extra seam', () => {
+		// common practice (TRADE.md "sheet goods seams"): no seam first, then along the light,
+		// then less material. 10 × 10 ft in 6 ft sheet: one seam either way, the same material.
+		const square = (light?: 'x' | 'y', rollDirection?: 'x' | 'y') =>
+			run([
+				room({
+					shape: { kind: 'rect', widthIn: 120, lengthIn: 120 },
+					floor: { productId: 'sheet-6', layout: 'straight', light, rollDirection }
+				})
+			]).rooms[0];
+		expect(square().floor?.roll?.direction).toBe('x');
+		const lit = square('y');
+		expect(lit.floor?.roll?.direction).toBe('y');
+		expect(lit.floor?.roll?.rule).toContain('seams along the main light');
+		expect(lit.outline?.seams).toEqual([{ x1: 72, y1: 0, x2: 72, y2: 120 }]);
+		// the light never buys a seam: the 3 ft 6 in × 16 ft 4 in hall stays one piece
+		const hall = run([
+			room({
+				shape: { kind: 'rect', widthIn: 42, lengthIn: 196 },
+				floor: { productId: 'sheet-6', layout: 'straight', light: 'x' }
+			})
+		]).rooms[0];
+		expect(hall.floor?.roll).toMatchObject({ direction: 'y', seams: 0, orderLinFt: 17 });
+		// and the salesperson's own choice still wins
+		expect(square('y', 'x').floor?.roll?.direction).toBe('x');
+	});
+
+	it('draws each seam only where floor lies on both sides of it (an L-shaped room)', () => {
+		// 20 × 8 ft 4 in with a 8 ft 4 in × 8 ft 4 in leg; 6 ft sheet run along x: strips end at
+		// 72 and 144 in. The first seam runs the full 240 in; the second only across the 100 in leg.
+		const r = run([
+			room({
+				floor: { productId: 'sheet-6', layout: 'straight' },
+				shape: {
+					kind: 'points',
+					points: [
+						[0, 0],
+						[240, 0],
+						[240, 100],
+						[100, 100],
+						[100, 200],
+						[0, 200]
+					]
+				}
+			})
+		]).rooms[0];
+		expect(r.floor?.roll?.direction).toBe('x');
+		expect(r.floor?.roll?.seams).toBe(2);
+		expect(r.floor?.roll?.seamLengthIn).toBe(340);
+		expect(r.outline?.seams).toEqual([
+			{ x1: 0, y1: 72, x2: 240, y2: 72 },
+			{ x1: 0, y1: 144, x2: 100, y2: 144 }
+		]);
+		// the seams drawn add up to the seam length priced
+		const drawn = r.outline!.seams!.reduce((t, l) => t + Math.hypot(l.x2 - l.x1, l.y2 - l.y1), 0);
+		expect(drawn).toBe(r.floor?.roll?.seamLengthIn);
+	});
 });
 
 describe('10. prep that new underlayment covers', () => {
@@ -388,6 +568,71 @@ describe('10. prep that new underlayment covers', () => {
 		expect(r.warnings.map((w) => w.message).join('\n')).toContain(
 			'16 in o.c. (assumed, not found)'
 		);
+	});
+});
+
+describe('10. seams and dents filled only where the floor goes straight on', () => {
+	it('fills them under vinyl laid straight on, not under tile, carpet, underlay or nailed wood', () => {
+		// common practice (TRADE.md "Subfloor repairs"): resilient floors telegraph open seams and
+		// dents; a backer, pad, underlay, new panels or a nailed wood floor bridge them
+		const repairs = {
+			seams: [{ lengthIn: 48, widthIn: 0.25, depthIn: 0.125 }],
+			dents: [{ lengthIn: 3, widthIn: 2, depthIn: 0.0625 }]
+		};
+		const on = (productId: string, over: Partial<RoomMeasure> = {}) =>
+			run([room({ floor: { productId, layout: 'straight' }, repairs, ...over })]);
+		const straight = on('lvp-grey', { underlayment: false });
+		expect(keys(straight)).toEqual(expect.arrayContaining(['prep:seam_patch', 'prep:dent_patch']));
+		for (const [productId, by] of [
+			['lvp-grey', 'the new underlayment'],
+			['tile-12', 'the backer board or membrane'],
+			['carpet-12', 'the carpet pad'],
+			['oak-7', 'the nailed wood floor']
+		] as const) {
+			const r = on(productId);
+			expect(keys(r), productId).not.toContain('prep:seam_patch');
+			expect(keys(r), productId).not.toContain('prep:dent_patch');
+			expect(r.warnings.map((w) => w.message)).toContain(
+				`Open seams and dents in the old subfloor are covered by ${by}: not filled, not charged`
+			);
+		}
+	});
+});
+
+describe('10. thin vinyl shows the underlayment: skimmed like sheet vinyl', () => {
+	it('skims the panels under glued or 1/8 in vinyl plank, not under a thick floating plank', () => {
+		// common practice (TRADE.md "Subfloor repairs"): resilient floors telegraph seams and heads
+		const thin: PriceBook = structuredClone(book);
+		thin.floors.push(
+			{
+				id: 'lvt-glued',
+				name: 'Glue-down vinyl plank 2.5 mm',
+				kind: 'vinyl_plank',
+				fastening: 'glued',
+				cartonSqFt: 36,
+				thicknessIn: 0.1,
+				material: { basis: 'sqft', priceCents: 250 },
+				labourCentsPerSqFt: 250,
+				payCentsPerSqFt: 160
+			},
+			{
+				id: 'lvt-eighth',
+				name: 'Vinyl plank 1/8 in',
+				kind: 'vinyl_plank',
+				cartonSqFt: 36,
+				thicknessIn: 0.125,
+				material: { basis: 'sqft', priceCents: 250 },
+				labourCentsPerSqFt: 250,
+				payCentsPerSqFt: 160
+			}
+		);
+		const on = (productId: string) =>
+			keys(run([room({ floor: { productId, layout: 'straight' } })], thin));
+		expect(on('lvt-glued')).toContain('prep:underlayment_skim');
+		expect(on('lvt-eighth')).toContain('prep:underlayment_skim');
+		// the sample's 1/4 in plank (rigid, floating): panels, no skim
+		expect(on('lvp-grey')).toContain('prep:underlayment');
+		expect(on('lvp-grey')).not.toContain('prep:underlayment_skim');
 	});
 });
 

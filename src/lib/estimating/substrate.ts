@@ -158,6 +158,11 @@ export interface JoistResult {
 	/** Rounded to the inch per settings (down by default, as the engine's own rule). */
 	maxSpanRoundedIn: number;
 	maxSpanText: string;
+	/**
+	 * The longest whole-inch span that passes both checks as they are run: a span the IRC table
+	 * prints (its exact span rounded to the nearest inch) passes, so this is what messages name.
+	 */
+	passSpanIn: number;
 	governs: 'deflection' | 'bending';
 	checks: [Check, Check];
 }
@@ -198,9 +203,19 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 	// Span tables (IRC Table R502.3.1(2), published) print the longest span to the inch; a joist
 	// at a printed span must not fail by the fraction the print rounded away. Each check passes up
 	// to its own longest span rounded to the nearest inch.
-	const deflectionPass = atLeast(lOverDelta, input.ratio) || atMost(L, Math.round(deflectionSpan));
-	const bendingPass = atMost(bendingStressPsi, fbAllowedPsi) || atMost(L, Math.round(bendingSpan));
+	const deflectionExact = atLeast(lOverDelta, input.ratio);
+	const bendingExact = atMost(bendingStressPsi, fbAllowedPsi);
+	const deflectionPass = deflectionExact || atMost(L, Math.round(deflectionSpan));
+	const bendingPass = bendingExact || atMost(L, Math.round(bendingSpan));
 	const allowedDeflectionIn = L / input.ratio;
+	// The longest whole-inch span both checks pass, by the same rule: what the table prints.
+	const passSpanIn = floorUnits(
+		Math.min(
+			Math.max(deflectionSpan, Math.round(deflectionSpan)),
+			Math.max(bendingSpan, Math.round(bendingSpan))
+		)
+	);
+	const printed = ' — within the inch the span table rounds its printed span to: passes';
 	const fix = (pass: boolean): SuggestedPrep[] => {
 		if (pass) return [];
 		if (plies === 1) {
@@ -237,6 +252,7 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 		maxSpanIn,
 		maxSpanRoundedIn,
 		maxSpanText,
+		passSpanIn,
 		governs: deflectionSpan <= bendingSpan ? 'deflection' : 'bending',
 		checks: [
 			{
@@ -245,7 +261,7 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 				measured: lOverDelta,
 				limit: input.ratio,
 				unit: 'L/Δ',
-				message: `${what} spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} (${liveDeflectionIn.toFixed(3)} in) under ${live} psf live load; the floor needs L/${input.ratio} (at most ${allowedDeflectionIn.toFixed(3)} in). Longest span that passes: ${maxSpanText}.`,
+				message: `${what} spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} (${liveDeflectionIn.toFixed(3)} in) under ${live} psf live load; the floor needs L/${input.ratio} (at most ${allowedDeflectionIn.toFixed(3)} in)${deflectionPass && !deflectionExact ? printed : ''}. Longest span that passes: ${formatLength(passSpanIn)}.`,
 				rule: `δ = 5wL⁴/(384EI) ≤ L/${input.ratio}`,
 				source,
 				suggestedPrep: fix(deflectionPass),
@@ -257,7 +273,7 @@ export function joistCheck(input: JoistInput, settings: StoreSettings['joists'])
 				measured: bendingStressPsi,
 				limit: fbAllowedPsi,
 				unit: 'psi',
-				message: `Bending stress ${Math.round(bendingStressPsi)} psi under ${live + dead} psf against F'b ${Math.round(fbAllowedPsi)} psi.`,
+				message: `Bending stress ${Math.round(bendingStressPsi)} psi under ${live + dead} psf against F'b ${Math.round(fbAllowedPsi)} psi${bendingPass && !bendingExact ? printed : ''}.`,
 				rule: "fb = wL²/8 ÷ S ≤ F'b = Fb × CD × CF × Cr",
 				source,
 				suggestedPrep: fix(bendingPass),
@@ -283,14 +299,16 @@ export function iJoistCheck(
 	const delta = (5 * w * L ** 4) / (384 * input.eiLbIn2);
 	const lOverDelta = L / delta;
 	const maxSpan = Math.cbrt((384 * input.eiLbIn2) / (5 * w * input.ratio));
-	const pass = atLeast(lOverDelta, input.ratio) || atMost(L, Math.round(maxSpan));
+	const exact = atLeast(lOverDelta, input.ratio);
+	const pass = exact || atMost(L, Math.round(maxSpan));
+	const passSpanIn = floorUnits(Math.max(maxSpan, Math.round(maxSpan)));
 	return {
 		check: 'joist_deflection',
 		pass,
 		measured: lOverDelta,
 		limit: input.ratio,
 		unit: 'L/Δ',
-		message: `${input.label ?? 'I-joists'} at ${input.spacingIn} in o.c. spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} (${delta.toFixed(3)} in) under ${live} psf live load; the floor needs L/${input.ratio} (at most ${(L / input.ratio).toFixed(3)} in). Longest span that passes: ${formatLength(floorUnits(maxSpan))}. Bending and shear: the maker's tables.`,
+		message: `${input.label ?? 'I-joists'} at ${input.spacingIn} in o.c. spanning ${formatLength(L)}: L/${Math.floor(lOverDelta)} (${delta.toFixed(3)} in) under ${live} psf live load; the floor needs L/${input.ratio} (at most ${(L / input.ratio).toFixed(3)} in)${pass && !exact ? ' — within the inch a span is printed to: passes' : ''}. Longest span that passes: ${formatLength(passSpanIn)}. Bending and shear: the maker's tables.`,
 		rule: `δ = 5wL⁴/(384·EI) ≤ L/${input.ratio}, EI from the maker's data`,
 		source:
 			"AISC Manual Table 3-23 case 1; NTCA Reference Manual (published) for L/480 under tile; EI from the maker's published data",
@@ -531,6 +549,8 @@ export function slabTestChecks(
 		areaSqFt: number;
 		rh: number;
 		cc: number;
+		/** A floor with a moisture limit goes on it: with no test taken, RH tests are still due. */
+		needsTests?: boolean;
 		thicknessIn?: number;
 		drying?: 'top' | 'both';
 	},
@@ -567,7 +587,9 @@ export function slabTestChecks(
 			cautions: ['moisture']
 		});
 	};
-	if (slab.rh > 0)
+	// No test taken yet under a floor with a moisture limit: the RH probes the slab needs come
+	// first (ASTM F2170, secondary; F710 names it for resilient floors), never skipped.
+	if (slab.rh > 0 || (slab.cc === 0 && slab.needsTests === true))
 		one(
 			'moisture_rh_tests',
 			slab.rh,

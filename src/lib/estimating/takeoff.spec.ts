@@ -339,7 +339,8 @@ describe('holeRepair (common practice, TRADE.md "Subfloor repairs")', () => {
 			['backing', 1, 8, 14.5],
 			['infill', 1, 4, 6]
 		]);
-		// 20 in across joists at 16 in o.c.: ⌈20 ÷ 16⌉ = 2 bays, a backing piece in each
+		// 20 in across joists at 16 in o.c. is wider than the 14.5 in clear bay: 1 + ⌈5.5 ÷ 16⌉ = 2
+		// bays, a backing piece in each
 		const wide = holeRepair({ ...base, widthIn: 20, lengthIn: 4, method: 'backing' });
 		expect(wide.pieces[0]).toMatchObject({ name: 'backing', count: 2, widthIn: 14.5 });
 	});

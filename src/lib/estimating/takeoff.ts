@@ -63,6 +63,8 @@ export interface RollLayout {
 	direction: RollDirection;
 	drops: Drop[];
 	seams: number;
+	/** Each seam's run on the room's outline (floor on both sides of it), for the drawing. */
+	seamLines: SeamLine[];
 	seamLengthIn: number;
 	/** Total cut length, in. */
 	cutLengthIn: number;
@@ -160,17 +162,26 @@ function sideIntervals(
 	return out;
 }
 
-/** Where two drops meet along the line y: the runs of floor on both sides of it. */
-function seamRuns(edges: readonly Edge[], ys: readonly number[], y: number): number[] {
+/** Where two drops meet along the line y: the runs of floor on both sides of it, [from, to]. */
+function seamRuns(edges: readonly Edge[], ys: readonly number[], y: number): [number, number][] {
 	const below = sideIntervals(edges, ys, y, -1);
 	const above = sideIntervals(edges, ys, y, 1);
-	const runs: number[] = [];
+	const runs: [number, number][] = [];
 	for (const a of below)
 		for (const b of above) {
-			const len = Math.min(a[1], b[1]) - Math.max(a[0], b[0]);
-			if (len > 1e-9) runs.push(len);
+			const from = Math.max(a[0], b[0]);
+			const to = Math.min(a[1], b[1]);
+			if (to - from > 1e-9) runs.push([from, to]);
 		}
 	return runs;
+}
+
+/** A seam on the room's outline, in its own coordinates (in). */
+export interface SeamLine {
+	x1: number;
+	y1: number;
+	x2: number;
+	y2: number;
 }
 
 function layout(
@@ -206,6 +217,7 @@ function layout(
 			`The room needs ${strips} drops across; the engine takes rooms up to ${LIMITS.roomSideIn / 12} ft a side`
 		);
 	const drops: Drop[] = [];
+	const seamLines: SeamLine[] = [];
 	let seams = 0;
 	let seamLengthIn = 0;
 	for (let s = 0; s < strips; s++) {
@@ -217,9 +229,15 @@ function layout(
 		for (const [a, b] of intervals)
 			drops.push({ strip: s, startIn: a, coverIn: b - a, cutIn: b - a + 2 * trimPerEndIn });
 		if (s > 0) {
-			const runs = isRect ? [maxX - minX] : seamRuns(edges, ys, y0);
+			const runs: [number, number][] = isRect ? [[minX, maxX]] : seamRuns(edges, ys, y0);
 			seams += runs.length;
-			for (const r of runs) seamLengthIn += r;
+			for (const [from, to] of runs) {
+				seamLengthIn += to - from;
+				// where the drawing shows it: only where floor lies on both sides of the seam
+				seamLines.push(
+					swap ? { x1: y0, y1: from, x2: y0, y2: to } : { x1: from, y1: y0, x2: to, y2: y0 }
+				);
+			}
 		}
 	}
 	const cutLengthIn = drops.reduce((t, d) => t + d.cutIn, 0);
@@ -229,6 +247,7 @@ function layout(
 		direction,
 		drops,
 		seams,
+		seamLines,
 		seamLengthIn,
 		cutLengthIn,
 		orderLengthIn,
@@ -251,6 +270,11 @@ export function rollTakeoff(input: {
 	trimPerEndIn: number;
 	orderIncrementIn: number;
 	direction?: RollDirection;
+	/**
+	 * The axis the room's main light falls along (from its main window or glass door): on a tie
+	 * in seams, the drops run along it, so its seams run along the light and cast no shadow line.
+	 */
+	light?: RollDirection;
 }): RollTakeoff {
 	within(
 		input.rollWidthIn,
@@ -277,16 +301,18 @@ export function rollTakeoff(input: {
 	const y = layout(input.polygon, !!input.isRect, 'y', ...args);
 	let pick: RollLayout;
 	if (input.direction) pick = input.direction === 'x' ? x : y;
-	// Fewest seams first (a run that fits in one piece is never cut across), then less material
-	// (common practice, TRADE.md "sheet goods seams"); the salesperson may choose the direction
-	// so seams run along the light and out of traffic.
+	// Fewest seams first (a run that fits in one piece is never cut across), then seams along the
+	// main light where the measure notes it, then less material (common practice, TRADE.md "sheet
+	// goods seams"); the salesperson may choose the direction, e.g. to keep seams out of traffic.
 	else if (y.seams !== x.seams) pick = y.seams < x.seams ? y : x;
+	else if (x.seams > 0 && input.light) pick = input.light === 'x' ? x : y;
 	else if (y.orderLengthIn < x.orderLengthIn - 1e-9) pick = y;
 	else pick = x;
 	return {
 		direction: pick.direction,
 		drops: pick.drops,
 		seams: pick.seams,
+		seamLines: pick.seamLines,
 		seamLengthIn: pick.seamLengthIn,
 		cutLengthIn: pick.cutLengthIn,
 		orderLengthIn: pick.orderLengthIn,
@@ -298,7 +324,7 @@ export function rollTakeoff(input: {
 		trimPerEndIn: input.trimPerEndIn,
 		rule: input.direction
 			? 'drops at the roll width in the direction chosen on the measure; each cut = run + trim per end; 1 yd² = 9 ft²'
-			: 'drops at the roll width; each cut = run + trim per end; fewest seams of the two directions, then less material; 1 yd² = 9 ft²',
+			: `drops at the roll width; each cut = run + trim per end; fewest seams of the two directions, then ${input.light ? 'seams along the main light, then ' : ''}less material; 1 yd² = 9 ft²`,
 		source: 'common practice; roll widths and trim per end are store settings'
 	};
 }
@@ -447,6 +473,17 @@ export function roughCut(lengthIn: number, allowanceIn = 0.5): number {
 	return lengthIn + allowanceIn;
 }
 
+/**
+ * The fewest joist bays a hole `widthIn` across the joists opens, wherever it lies (arithmetic):
+ * one while it fits in the clear bay; past that it reaches over a joist into the next bay, one
+ * more bay for each further joist spacing. A 15 in hole at 16 in o.c. (clear bay 14.5 in) opens
+ * 2 bays; a 32 in hole opens 3 (14.5 + 16 = 30.5 in is the most two bays can hold).
+ */
+export function baysSpanned(widthIn: number, spacingIn: number, clearIn: number): number {
+	if (!(widthIn > clearIn)) return 1;
+	return 1 + ceilUnits((widthIn - clearIn) / spacingIn);
+}
+
 export interface RepairPiece {
 	name: 'blocking' | 'infill' | 'backing';
 	count: number;
@@ -533,8 +570,8 @@ export function holeRepair(input: {
 	const pieces: RepairPiece[] = [];
 	// Blocking and backing fit between the joists: cut to the clear bay (spacing less the joist's
 	// thickness: 14.5 in at 16 in o.c., arithmetic), one piece (or pair) for each bay the hole spans.
-	const bays = Math.max(1, ceilUnits(input.widthIn / input.joistSpacingIn));
 	const clear = input.joistSpacingIn - input.joistThicknessIn;
+	const bays = baysSpanned(input.widthIn, input.joistSpacingIn, clear);
 	if (input.method === 'backing') {
 		const lap = 2 * input.backingLapIn;
 		pieces.push(

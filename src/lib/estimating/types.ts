@@ -87,6 +87,8 @@ export interface RoomFloor {
 	layout: Layout;
 	/** Force the direction roll drops run (x or y of the outline); default: least material. */
 	rollDirection?: RollDirection;
+	/** The axis the main light falls along: seams run along it when that costs no extra seam. */
+	light?: RollDirection;
 }
 
 /** A doorway: its width, whether a door swings in it, and the next room's floor height. */

@@ -211,6 +211,7 @@ describe('the install details (issue 12)', () => {
 					install: {
 						...base.install,
 						rollDirection: 'y' as const,
+						light: 'x' as const,
 						slabId: ' Basement ',
 						slabThickness: '4',
 						slabDrying: 'both' as const,
@@ -240,7 +241,12 @@ describe('the install details (issue 12)', () => {
 		const { job, errors } = toEngine(draft, defaultSettings);
 		expect(errors).toEqual([]);
 		const [b, bath] = job.rooms;
-		expect(b.floor).toEqual({ productId: 'sheet-6', layout: 'straight', rollDirection: 'y' });
+		expect(b.floor).toEqual({
+			productId: 'sheet-6',
+			layout: 'straight',
+			rollDirection: 'y',
+			light: 'x'
+		});
 		expect(b.subfloor.slab).toEqual({ id: 'Basement', thicknessIn: 4, drying: 'both' });
 		expect(b.doorways).toEqual([{ widthIn: 32, door: true, nextFloorIn: 0.5 }]);
 		expect(b.base).toEqual({ baseboard: 'reset', shoe: 'new' });

@@ -42,6 +42,7 @@ const voidDraft = z.object({ length: text(), width: text(), depth: text() });
 
 const INSTALL_DEFAULT = {
 	rollDirection: 'auto' as const,
+	light: 'unknown' as const,
 	layers: '1' as const,
 	slabId: '',
 	slabThickness: '',
@@ -58,6 +59,7 @@ const INSTALL_DEFAULT = {
 const installDraft = z
 	.object({
 		rollDirection: z.enum(['auto', 'x', 'y']).default('auto'),
+		light: z.enum(['unknown', 'x', 'y']).default('unknown'),
 		layers: z.enum(['1', '2']).default('1'),
 		slabId: text(40),
 		slabThickness: text(),
@@ -506,7 +508,8 @@ export function toEngine(
 						floor: {
 							productId: room.floor.productId,
 							layout: room.floor.layout,
-							...(ins.rollDirection !== 'auto' ? { rollDirection: ins.rollDirection } : {})
+							...(ins.rollDirection !== 'auto' ? { rollDirection: ins.rollDirection } : {}),
+							...(ins.light && ins.light !== 'unknown' ? { light: ins.light } : {})
 						}
 					}
 				: {}),

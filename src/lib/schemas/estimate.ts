@@ -492,7 +492,8 @@ export const roomSchema = z.object({
 		.object({
 			productId: z.string().min(1).max(64),
 			layout,
-			rollDirection: z.enum(['x', 'y']).optional()
+			rollDirection: z.enum(['x', 'y']).optional(),
+			light: z.enum(['x', 'y']).optional()
 		})
 		.optional()
 		.describe('The new floor (required to price the room)'),

@@ -70,12 +70,12 @@ describe('checksStep', () => {
 		expect(r.findings.map((f) => [f.check, f.pass])).toEqual([['moisture_rh', false]]);
 		// How many tests are needed is counted per slab by the estimate (ASTM F2170 §10.1,
 		// secondary); the room reports what was taken on it.
-		expect(r.slabReadings).toEqual({ rh: 2, cc: 0 });
+		expect(r.slabReadings).toEqual({ rh: 2, cc: 0, needsTests: true });
 		expect(r.needs).toEqual([
 			{ kind: 'moisture_barrier', measures: { sqft: 120, room: 1 }, findings: [r.findings[0]] }
 		]);
 		expect(checksStep(contextFor(slab)).warnings).toEqual([
-			'No moisture readings for a concrete subfloor'
+			'No moisture readings for a concrete subfloor: the slab’s RH tests are on the quote and in the schedule, before any barrier or floor'
 		]);
 	});
 

@@ -35,7 +35,7 @@ export interface Checks {
 	warnings: string[];
 	cautions: CautionEvent[];
 	/** Moisture tests taken on this room's part of a slab, by kind. */
-	slabReadings?: { rh: number; cc: number };
+	slabReadings?: { rh: number; cc: number; needsTests: boolean };
 }
 
 function ratioFor(kind: FloorKind, product: FloorProduct, s: StoreSettings): number {
@@ -163,6 +163,32 @@ export function checksStep(ctx: RoomContext): Checks {
 	// (with a backer or membrane, priced with the tile), stone over two layers (TCNA Handbook
 	// floor methods, memory; TRADE.md).
 	const tile = s.tile;
+	if (wood && tile && (kind === 'ceramic_tile' || kind === 'stone_tile') && sub.kind === 'board') {
+		// Board (plank) sheathing moves board by board: tile and stone go over a panel layer
+		// laid on it, then the backer or membrane (TCNA Handbook floor methods, memory).
+		const stone = kind === 'stone_tile';
+		fix(
+			{
+				check: 'tile_subfloor',
+				pass: false,
+				measured: 0,
+				limit: 1,
+				unit: 'panel layers',
+				message: `${stone ? 'Natural stone' : 'Ceramic tile'} over board sheathing: lay a structural panel layer over the boards first${stone ? ' (stone needs two layers in all)' : ''}, then a backer board or membrane.`,
+				rule: 'tile and stone over wood: a panel subfloor, never boards alone; then backer or membrane',
+				source:
+					'TCNA Handbook floor methods (memory); the tile and membrane makers’ instructions govern',
+				suggestedPrep: [
+					{
+						kind: 'subfloor_overlay',
+						note: 'Lay a plywood panel layer over the boards, glued and screwed, joints offset from the boards’ joints.'
+					}
+				],
+				cautions: ['planning_aid', 'maker_instructions', 'structure']
+			},
+			() => ({ sqft: area, room: 1 })
+		);
+	}
 	if (wood && tile && (kind === 'ceramic_tile' || kind === 'stone_tile') && sub.kind !== 'board') {
 		const layers = sub.layers ?? 1;
 		const stone = kind === 'stone_tile';
@@ -252,7 +278,8 @@ export function checksStep(ctx: RoomContext): Checks {
 	if (!wood) {
 		const rh = readings.rhPct ?? [];
 		const cc = readings.calciumChloride ?? [];
-		out.slabReadings = { rh: rh.length, cc: cc.length };
+		// Every floor but carpet has a moisture limit on a slab: its tests come before it.
+		out.slabReadings = { rh: rh.length, cc: cc.length, needsTests: kind !== 'carpet' };
 		// A barrier covers the room. How many tests the slab needs is counted for the whole slab,
 		// once, by the estimate (ASTM F2170 §10.1, F1869: per slab, not per room).
 		const barrier = () => ({ sqft: area, room: 1 });
@@ -265,7 +292,9 @@ export function checksStep(ctx: RoomContext): Checks {
 			fix(mverChecks({ tests: cc, areaSqFt: area, limit }, s.moisture)[0], barrier);
 		}
 		if (rh.length === 0 && cc.length === 0 && kind !== 'carpet')
-			out.warnings.push('No moisture readings for a concrete subfloor');
+			out.warnings.push(
+				'No moisture readings for a concrete subfloor: the slab’s RH tests are on the quote and in the schedule, before any barrier or floor'
+			);
 	} else if (readings.woodMc) {
 		const checks = woodMoistureChecks(
 			{

@@ -20,7 +20,7 @@ import type {
 	RoomContext,
 	WorkItem
 } from './room';
-import { prepHours } from './schedule';
+import { prepHours, SLAB_PATCH } from './schedule';
 
 export interface Priced {
 	lines: PriceLine[];
@@ -152,7 +152,11 @@ export function prepItems(
 			path: 'priceBook.prep',
 			measures: p.measures
 		});
-		out.hours.push([p.kind, h]);
+		// On a slab, cracks and dents are filled after the barrier, with the primer and leveller
+		// (common practice; the barrier's data sheet governs): scheduled there, not before it.
+		const slab =
+			room.subfloor.kind === 'concrete' && (p.kind === 'seam_patch' || p.kind === 'dent_patch');
+		out.hours.push([slab ? SLAB_PATCH : p.kind, h]);
 	}
 	return out;
 }

@@ -5,6 +5,30 @@
 import { countWithin, LIMITS } from '../limits';
 import { holeRepair, type HoleRepair, type Void } from '../takeoff';
 import type { CautionEvent, NeedEvent, RoomContext } from './room';
+import { fasteningOf } from './takeoff';
+
+/**
+ * What lies between the old wood subfloor and the new floor and covers its open seams and
+ * dents, if anything: new underlayment panels, a tile backer or membrane, carpet pad, the
+ * underlay of a floating floor, or a nailed wood floor over felt. Only where the floor goes
+ * straight onto the subfloor (resilient or glued floors) are they filled (TRADE.md "Subfloor
+ * repairs": resilient floors telegraph them; common practice).
+ */
+export function seamCover(
+	ctx: Pick<RoomContext, 'newUnderlayment' | 'wood' | 'product'>
+): string | undefined {
+	if (ctx.newUnderlayment) return 'the new underlayment';
+	if (!ctx.wood) return undefined;
+	const { product } = ctx;
+	const kind = product.kind;
+	if (kind === 'ceramic_tile' || kind === 'stone_tile') return 'the backer board or membrane';
+	if (kind === 'carpet') return 'the carpet pad';
+	const fastening = fasteningOf(ctx);
+	if (fastening === 'nailed') return 'the nailed wood floor';
+	if (product.needs?.underlay ?? (fastening === 'floating' && kind !== 'vinyl_plank'))
+		return 'the floating floor’s underlay';
+	return undefined;
+}
 
 export interface Repairs {
 	holes: HoleRepair[];
@@ -89,14 +113,15 @@ export function repairsStep(ctx: RoomContext): Repairs {
 			'Underlayment declined: holes are blocked with a flush infill and its joints skimmed; no underlayment is added'
 		);
 
-	// New underlayment covers open seams and dents in the old subfloor: they are filled only
+	// What goes over the old subfloor covers its open seams and dents: they are filled only
 	// where the floor goes straight onto it (TRADE.md "Subfloor repairs", common practice).
-	const covered = ctx.newUnderlayment;
+	const cover = seamCover(ctx);
+	const covered = cover !== undefined;
 	const seams = covered ? [] : (rep.seams ?? []);
 	const dents = (covered ? [] : (rep.dents ?? [])).concat(patchVoids);
 	if (covered && ((rep.seams?.length ?? 0) > 0 || (rep.dents?.length ?? 0) > 0))
 		warnings.push(
-			'Open seams and dents in the old subfloor are covered by the new underlayment: not filled, not charged'
+			`Open seams and dents in the old subfloor are covered by ${cover}: not filled, not charged`
 		);
 	if (seams.length > 0)
 		needs.push({

@@ -10,10 +10,17 @@ import type { HoursEntry } from './room';
 /**
  * Work steps in the order they are done; a step's cure (or a test's wait, `waits`) holds the
  * next. On a wet slab: tests first, then the barrier on the bare slab, then primer and leveller,
- * then the floor (common practice; the products' data sheets govern). Over wood: patch under the
+ * then the floor (common practice; the products' data sheets govern), with a slab's cracks and
+ * dents patched after the barrier too. Over wood: patch under the
  * panels before the panels, skim after. Install waits for the flooring's acclimation from the
  * start of the job (`notBefore`), which runs beside the prep.
  */
+/**
+ * Hours of patch on a concrete slab: done after the moisture barrier, with the primer and
+ * leveller, so it has a schedule key of its own (its cure is the patch's).
+ */
+export const SLAB_PATCH = 'slab_patch';
+
 export const WORK_STEPS: readonly {
 	key: string;
 	label: string;
@@ -48,7 +55,11 @@ export const WORK_STEPS: readonly {
 		kinds: ['underlayment_skim']
 	},
 	{ key: 'barrier', label: 'Moisture barrier on the bare slab', kinds: ['moisture_barrier'] },
-	{ key: 'level', label: 'Prime and level low spots', kinds: ['primer', 'level'] },
+	{
+		key: 'level',
+		label: 'Prime and level low spots, patch slab cracks and dents',
+		kinds: ['primer', SLAB_PATCH, 'level']
+	},
 	{
 		key: 'layers',
 		label: 'Backer, membrane, retarder, underlay, pad',
@@ -107,7 +118,8 @@ export function scheduleStep(hours: ReadonlyMap<string, number>, s: StoreSetting
 		for (const k of st.kinds) {
 			const kh = hours.get(k) ?? 0;
 			h += kh;
-			if (kh > 0) cure = Math.max(cure, s.schedule.cureHours[k] ?? 0);
+			if (kh > 0)
+				cure = Math.max(cure, s.schedule.cureHours[k === SLAB_PATCH ? 'dent_patch' : k] ?? 0);
 		}
 		if (h <= 0) continue;
 		for (const w of st.waits ?? []) cure = Math.max(cure, hours.get(`wait:${w}`) ?? 0);

@@ -70,7 +70,8 @@ export function floorTakeoff(ctx: RoomContext): FloorTakeoff {
 					rollWidthIn,
 					trimPerEndIn: s.roll.trimPerEndIn,
 					orderIncrementIn: s.roll.orderIncrementIn,
-					direction: room.floor?.rollDirection
+					direction: room.floor?.rollDirection,
+					light: room.floor?.light
 				}),
 			(field) =>
 				field === 'rollWidthIn'
@@ -171,13 +172,35 @@ export function coverTakeoff(
 	return { underlayment, panelSqFt, needs };
 }
 
-const floating = (ctx: RoomContext) =>
+const floating = (ctx: Pick<RoomContext, 'product'>) =>
 	(ctx.product.fastening ??
 		(ctx.product.kind === 'hardwood'
 			? 'nailed'
 			: ctx.product.kind === 'engineered_wood' || ctx.product.kind === 'laminate'
 				? 'floating'
 				: 'glued')) as 'nailed' | 'glued' | 'floating';
+
+/** How the room's floor is fastened: the product's own, else by its kind. */
+export { floating as fasteningOf };
+
+/** Vinyl this thin or thinner telegraphs what is under it like sheet vinyl (common practice). */
+export const THIN_VINYL_MAX_IN = 0.125;
+
+/**
+ * The new underlayment's seams and fastener heads are skimmed before a floor that shows them:
+ * the kinds the store names (sheet vinyl by default), and thin vinyl (a glued-down plank, or one
+ * 1/8 in thick or less). Resilient floors telegraph open seams and fastener heads (TRADE.md
+ * "Subfloor repairs", common practice).
+ */
+export function skims(ctx: Pick<RoomContext, 'product' | 'settings'>): boolean {
+	const { product, settings: s } = ctx;
+	if ((s.underlayment.skimFor ?? []).includes(product.kind)) return true;
+	return (
+		product.kind === 'vinyl_plank' &&
+		(product.fastening === 'glued' ||
+			(product.thicknessIn !== undefined && product.thicknessIn <= THIN_VINYL_MAX_IN + 1e-9))
+	);
+}
 
 /**
  * The rest of a real install, each a price-book item the store may switch off: baseboard and
@@ -272,8 +295,7 @@ export function extrasTakeoff(
 		if (roll && roll.seamLengthIn > 0)
 			add('carpet_seam', { linft: roll.seamLengthIn / 12, each: roll.seams, room: 1 });
 	}
-	if (ctx.newUnderlayment && (s.underlayment.skimFor ?? []).includes(kind))
-		add('underlayment_skim', { sqft: area, room: 1 });
+	if (ctx.newUnderlayment && skims(ctx)) add('underlayment_skim', { sqft: area, room: 1 });
 	const layers = room.remove?.length ?? 0;
 	if (layers > 0) add('haul_away', { sqft: area * layers, room: 1 });
 	const acclimation = s.schedule.acclimationHours?.[kind] ?? 0;
