@@ -31,6 +31,7 @@ import {
 	type WorkItem
 } from './steps/room';
 import { hoursByKey, scheduleStep } from './steps/schedule';
+import { installSupplies } from './steps/supplies';
 import { coverTakeoff, extrasTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
 import { prepHours } from './steps/schedule';
 import { layoutsFor } from './settings';
@@ -596,6 +597,9 @@ function jobStep(so: JobSoFar, input: EstimateInput, index: PriceIndex): Estimat
 		slabsStep(so, s, index);
 		const materials = materialItems(so.order, index, s);
 		const jobItems = materials.items;
+		const supplies = installSupplies(input.job, so.rooms, index, s);
+		append(jobItems, supplies.items);
+		append(cautions, supplies.cautions);
 		// A trip charge once a job, where the store's price book has one (it may switch it off).
 		if (index.prep.has('trip_charge'))
 			jobItems.push({
