@@ -153,6 +153,69 @@ describe('price-book forms', () => {
 		expect(fasteners.basis?.[0]).toMatch(/per box or each/);
 	});
 
+	it('keep what an install supply is counted by: coverage, yield, stock length (issue 12)', () => {
+		const thinset = supplyFormSchema.safeParse({
+			kind: 'thinset',
+			name: 'Thinset, 50 lb bag',
+			basis: 'bag',
+			price: '38',
+			coverage: '60'
+		});
+		expect(thinset.data?.data).toEqual({ basis: 'bag', priceCents: 3_800, coverageSqFt: 60 });
+		const grout = supplyFormSchema.safeParse({
+			kind: 'grout',
+			name: 'Sanded grout, 25 lb',
+			basis: 'bag',
+			price: '26',
+			bagYield: '0.2'
+		});
+		expect(grout.data?.data).toEqual({ basis: 'bag', priceCents: 2_600, bagYieldCuFt: 0.2 });
+		const base = supplyFormSchema.safeParse({
+			kind: 'baseboard',
+			name: 'Baseboard, 16 ft',
+			basis: 'each',
+			price: '24',
+			stockLength: '16 ft'
+		});
+		expect(base.data?.data).toEqual({ basis: 'each', priceCents: 2_400, stockLengthIn: 192 });
+		expect(supplyToForm('baseboard', 'Baseboard, 16 ft', base.data!.data, 'USD').stockLength).toBe(
+			'16\' 0"'
+		);
+		// each refused without its data-sheet figure, by its field; the engine's bounds hold
+		expect(
+			errorsOf(
+				supplyFormSchema.safeParse({ kind: 'backer', name: 'B', basis: 'panel', price: '16' })
+			).coverage?.[0]
+		).toMatch(/3 × 5 ft sheet/);
+		expect(
+			errorsOf(supplyFormSchema.safeParse({ kind: 'grout', name: 'G', basis: 'bag', price: '26' }))
+				.bagYield?.[0]
+		).toMatch(/data sheet/);
+		expect(
+			errorsOf(
+				supplyFormSchema.safeParse({
+					kind: 'shoe',
+					name: 'S',
+					basis: 'each',
+					price: '11',
+					stockLength: '80 ft'
+				})
+			).stockLength?.[0]
+		).toMatch(/at most 480 in/);
+		// a tile's grout joint and depth are read as lengths, for tile only
+		const tile = floorFormSchema.safeParse({
+			...floorFields,
+			kind: 'ceramic_tile',
+			fastening: '',
+			tileEdges: '12 x 24',
+			groutJoint: '1/8',
+			groutDepth: '3/8 in'
+		});
+		expect(tile.data?.data).toMatchObject({ groutJointIn: 0.125, groutDepthIn: 0.375 });
+		const wood = floorFormSchema.safeParse({ ...floorFields, groutJoint: '1/8' });
+		expect(wood.data?.data).not.toHaveProperty('groutJointIn');
+	});
+
 	it('read one number rule: 1,500 is fifteen hundred, 0,5 is refused (it was 5 here, 0.5 in the calculators)', () => {
 		const grouped = floorFormSchema.safeParse({ ...floorFields, materialPrice: '1,250.00' });
 		expect(grouped.data?.data.material.priceCents).toBe(125_000);
