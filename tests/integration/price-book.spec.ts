@@ -4,6 +4,7 @@ import * as quotes from '$lib/server/db/queries/quotes';
 import { previewQuote } from '$lib/server/quotes/build';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { estimate } from '$lib/estimating';
+import { samplePriceBook } from '$lib/estimating/sample';
 import { readFields } from '$lib/input';
 import {
 	floorForm,
@@ -299,6 +300,64 @@ describe('trade settings form', () => {
 		// Every other default is kept.
 		expect(applied.settings.joists).toEqual(current.settings.joists);
 		expect(applied.settings.moisture).toEqual(current.settings.moisture);
+	});
+
+	it('keeps acclimation in days by floor, and the setting-materials waste and trim allowance (issue 12)', async () => {
+		const store = await makeStore('Acclimation Floors');
+		const current = await inStore(store.id, (tx) => tradeSettings.read(tx));
+		const schema = tradeSettingsFormSchema(
+			Object.keys(current.settings.underlayment.schedules),
+			current.currency
+		);
+		const shown = tradeSettingsToForm(current.settings, current.quoteValidDays, current.currency);
+		// the saved 72 h for solid wood shows as 3 days; a floor with none as 0
+		expect(shown['acclimation.hardwood']).toBe('3');
+		expect(shown['acclimation.carpet']).toBe('0');
+		expect(shown.setWaste).toBe('10');
+		const form = schema.safeParse(
+			nestForm({
+				...shown,
+				'acclimation.hardwood': '5',
+				'acclimation.engineered_wood': '5',
+				'acclimation.vinyl_plank': '0',
+				'acclimation.ceramic_tile': '0.5',
+				setWaste: '15',
+				trimAllowance: '3 in'
+			})
+		);
+		expect(form.success).toBe(true);
+		const applied = applyTradeSettings(current.settings, form.data!);
+		if (!applied.ok) throw new Error(JSON.stringify(applied.errors));
+		expect(applied.settings.schedule.acclimationHours).toMatchObject({
+			hardwood: 120,
+			ceramic_tile: 12
+		});
+		expect(applied.settings.schedule.acclimationHours).not.toHaveProperty('vinyl_plank');
+		expect(applied.settings.installSupplies).toEqual({ wastePct: 15, trimEndAllowanceIn: 3 });
+		// the schedule holds an engineered-wood install for the 5 days (maker instructions)
+		const r = estimate({
+			job: {
+				rooms: [
+					{
+						id: 'd',
+						name: 'Den',
+						shape: { kind: 'rect', widthIn: 144, lengthIn: 120 },
+						floor: { productId: 'oak-7', layout: 'straight' },
+						subfloor: { kind: 'plywood', thicknessIn: 0.75 }
+					}
+				]
+			},
+			settings: applied.settings,
+			priceBook: samplePriceBook
+		});
+		expect(r.schedule.steps.find((st) => st.key === 'install')?.notBeforeHours).toBe(120);
+		// beyond 12 weeks, and a negative day, are refused by their fields
+		const bad = schema.safeParse(
+			nestForm({ ...shown, 'acclimation.hardwood': '90', 'acclimation.laminate': '-1' })
+		);
+		const errors = errorsOf(bad);
+		expect(errors['acclimation.hardwood']?.[0]).toMatch(/84/);
+		expect(errors['acclimation.laminate']?.[0]).toBeDefined();
 	});
 
 	it('refuses an empty rate and a deposit over 100 % by their fields', () => {
