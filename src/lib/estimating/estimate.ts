@@ -34,6 +34,7 @@ import { hoursByKey, scheduleStep } from './steps/schedule';
 import { installSupplies } from './steps/supplies';
 import { coverTakeoff, extrasTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
 import { prepHours } from './steps/schedule';
+import { buildUpIn, doorChecks } from './doorways';
 import { layoutsFor } from './settings';
 import { slabTestChecks } from './substrate';
 import { formatLength } from './units';
@@ -291,6 +292,7 @@ function roomSteps(
 	if (cover.underlayment) result.underlayment = cover.underlayment;
 	const extras = extrasTakeoff(ctx, floor.floor.roll);
 	append(result.warnings, extras.warnings);
+	const doors = doorChecks(ctx.room.doorways ?? [], buildUpIn(ctx.product, ctx.newUnderlayment));
 	const supplies = supplyTakeoff(repairs.voids, checks.levelAreas, index, ctx);
 	if (supplies.patch) result.patch = supplies.patch;
 	if (supplies.leveller) result.leveller = supplies.leveller;
@@ -331,10 +333,29 @@ function roomSteps(
 	append(cautions, repairs.cautions);
 	append(cautions, checks.cautions);
 	append(cautions, priced.cautions);
+	let findings = checks.findings;
+	if (doors.length > 0) {
+		// A door over a raised floor: a finding tied to the undercut line the extras priced.
+		const undercut = priced.lines.find((l) => l.key === 'prep:door_undercut');
+		findings = [...findings];
+		for (const { check, doorway } of doors) {
+			const f: Finding = {
+				...check,
+				id: `${ctx.room.id}:door_clearance:${doorway}`,
+				roomId: ctx.room.id,
+				lineIds: undercut ? [undercut.id] : [],
+				cautionTexts: cautionTexts(check.cautions)
+			};
+			findings.push(f);
+			result.findingIds.push(f.id);
+			if (undercut) undercut.findingIds.push(f.id);
+			for (const kind of check.cautions) cautions.push({ kind, roomId: ctx.room.id });
+		}
+	}
 	return {
 		result,
 		errors: priced.errors,
-		findings: checks.findings,
+		findings,
 		priced,
 		hours,
 		cautions,
