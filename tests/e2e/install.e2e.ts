@@ -1,6 +1,7 @@
 // A whole install on the quote (issue 12): a kitchen and a hall with trim, two doorways and a
 // dishwasher to reset, a bathroom with a toilet, and a basement slab with a moisture reading.
-// The quote carries each item, the moisture tests still needed, and the order of work puts the
+// The quote carries each item and what is bought for it (trim in stock lengths, thinset, grout
+// and backer), the moisture tests still needed, and the order of work puts the
 // tests (with their wait) first and the barrier on the bare slab before primer and leveller.
 import type { Page } from '@playwright/test';
 import { makeCustomer, makeStore, personOf } from './factories';
@@ -115,6 +116,16 @@ test('a kitchen, hall, bathroom and basement slab: every item, the tests and the
 	await expect(
 		page.getByText(/2 more RH probes on this slab|Take 2 more RH probes/).first()
 	).toBeVisible();
+	// What is bought for them, rounded up once for the job (steps/supplies.ts): the hall's shoe in
+	// 16 ft lengths (44 + 44 | 192 | 192 in → 3), and the bathroom's 48 ft² of tile over plywood
+	// with 10 % waste: thinset 52.8 ÷ 60 ft² → 1 bag, backer 52.8 ÷ 15 ft² → 4 sheets, grout 1 bag.
+	for (const item of [
+		'Primed shoe moulding, 16 ft — 3 lengths of 16 ft (39 lin ft of wall)',
+		'Modified thinset mortar, 50 lb bag — 1 (48 ft² of tile at 60 ft² each)',
+		'Cement backer board 1/4 in, 3 × 5 ft — 4 (48 ft² under tile)',
+		'Sanded grout, 25 lb bag — 1 (joints come to 41 in³)'
+	])
+		await expect(page.getByText(item, { exact: true }).first()).toBeVisible();
 
 	// The order of work: tests (probes wait 24 h) → barrier on the bare slab → primer and leveller → floor.
 	const order = page.getByRole('list', { name: 'Order of work' });

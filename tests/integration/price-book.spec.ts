@@ -4,6 +4,7 @@ import * as quotes from '$lib/server/db/queries/quotes';
 import { previewQuote } from '$lib/server/quotes/build';
 import * as tradeSettings from '$lib/server/db/queries/settings';
 import { estimate } from '$lib/estimating';
+import { samplePriceBook } from '$lib/estimating/sample';
 import { readFields } from '$lib/input';
 import {
 	floorForm,
@@ -153,6 +154,69 @@ describe('price-book forms', () => {
 		expect(fasteners.basis?.[0]).toMatch(/per box or each/);
 	});
 
+	it('keep what an install supply is counted by: coverage, yield, stock length (issue 12)', () => {
+		const thinset = supplyFormSchema.safeParse({
+			kind: 'thinset',
+			name: 'Thinset, 50 lb bag',
+			basis: 'bag',
+			price: '38',
+			coverage: '60'
+		});
+		expect(thinset.data?.data).toEqual({ basis: 'bag', priceCents: 3_800, coverageSqFt: 60 });
+		const grout = supplyFormSchema.safeParse({
+			kind: 'grout',
+			name: 'Sanded grout, 25 lb',
+			basis: 'bag',
+			price: '26',
+			bagYield: '0.2'
+		});
+		expect(grout.data?.data).toEqual({ basis: 'bag', priceCents: 2_600, bagYieldCuFt: 0.2 });
+		const base = supplyFormSchema.safeParse({
+			kind: 'baseboard',
+			name: 'Baseboard, 16 ft',
+			basis: 'each',
+			price: '24',
+			stockLength: '16 ft'
+		});
+		expect(base.data?.data).toEqual({ basis: 'each', priceCents: 2_400, stockLengthIn: 192 });
+		expect(supplyToForm('baseboard', 'Baseboard, 16 ft', base.data!.data, 'USD').stockLength).toBe(
+			'16\' 0"'
+		);
+		// each refused without its data-sheet figure, by its field; the engine's bounds hold
+		expect(
+			errorsOf(
+				supplyFormSchema.safeParse({ kind: 'backer', name: 'B', basis: 'panel', price: '16' })
+			).coverage?.[0]
+		).toMatch(/3 × 5 ft sheet/);
+		expect(
+			errorsOf(supplyFormSchema.safeParse({ kind: 'grout', name: 'G', basis: 'bag', price: '26' }))
+				.bagYield?.[0]
+		).toMatch(/data sheet/);
+		expect(
+			errorsOf(
+				supplyFormSchema.safeParse({
+					kind: 'shoe',
+					name: 'S',
+					basis: 'each',
+					price: '11',
+					stockLength: '80 ft'
+				})
+			).stockLength?.[0]
+		).toMatch(/at most 480 in/);
+		// a tile's grout joint and depth are read as lengths, for tile only
+		const tile = floorFormSchema.safeParse({
+			...floorFields,
+			kind: 'ceramic_tile',
+			fastening: '',
+			tileEdges: '12 x 24',
+			groutJoint: '1/8',
+			groutDepth: '3/8 in'
+		});
+		expect(tile.data?.data).toMatchObject({ groutJointIn: 0.125, groutDepthIn: 0.375 });
+		const wood = floorFormSchema.safeParse({ ...floorFields, groutJoint: '1/8' });
+		expect(wood.data?.data).not.toHaveProperty('groutJointIn');
+	});
+
 	it('read one number rule: 1,500 is fifteen hundred, 0,5 is refused (it was 5 here, 0.5 in the calculators)', () => {
 		const grouped = floorFormSchema.safeParse({ ...floorFields, materialPrice: '1,250.00' });
 		expect(grouped.data?.data.material.priceCents).toBe(125_000);
@@ -236,6 +300,64 @@ describe('trade settings form', () => {
 		// Every other default is kept.
 		expect(applied.settings.joists).toEqual(current.settings.joists);
 		expect(applied.settings.moisture).toEqual(current.settings.moisture);
+	});
+
+	it('keeps acclimation in days by floor, and the setting-materials waste and trim allowance (issue 12)', async () => {
+		const store = await makeStore('Acclimation Floors');
+		const current = await inStore(store.id, (tx) => tradeSettings.read(tx));
+		const schema = tradeSettingsFormSchema(
+			Object.keys(current.settings.underlayment.schedules),
+			current.currency
+		);
+		const shown = tradeSettingsToForm(current.settings, current.quoteValidDays, current.currency);
+		// the saved 72 h for solid wood shows as 3 days; a floor with none as 0
+		expect(shown['acclimation.hardwood']).toBe('3');
+		expect(shown['acclimation.carpet']).toBe('0');
+		expect(shown.setWaste).toBe('10');
+		const form = schema.safeParse(
+			nestForm({
+				...shown,
+				'acclimation.hardwood': '5',
+				'acclimation.engineered_wood': '5',
+				'acclimation.vinyl_plank': '0',
+				'acclimation.ceramic_tile': '0.5',
+				setWaste: '15',
+				trimAllowance: '3 in'
+			})
+		);
+		expect(form.success).toBe(true);
+		const applied = applyTradeSettings(current.settings, form.data!);
+		if (!applied.ok) throw new Error(JSON.stringify(applied.errors));
+		expect(applied.settings.schedule.acclimationHours).toMatchObject({
+			hardwood: 120,
+			ceramic_tile: 12
+		});
+		expect(applied.settings.schedule.acclimationHours).not.toHaveProperty('vinyl_plank');
+		expect(applied.settings.installSupplies).toEqual({ wastePct: 15, trimEndAllowanceIn: 3 });
+		// the schedule holds an engineered-wood install for the 5 days (maker instructions)
+		const r = estimate({
+			job: {
+				rooms: [
+					{
+						id: 'd',
+						name: 'Den',
+						shape: { kind: 'rect', widthIn: 144, lengthIn: 120 },
+						floor: { productId: 'oak-7', layout: 'straight' },
+						subfloor: { kind: 'plywood', thicknessIn: 0.75 }
+					}
+				]
+			},
+			settings: applied.settings,
+			priceBook: samplePriceBook
+		});
+		expect(r.schedule.steps.find((st) => st.key === 'install')?.notBeforeHours).toBe(120);
+		// beyond 12 weeks, and a negative day, are refused by their fields
+		const bad = schema.safeParse(
+			nestForm({ ...shown, 'acclimation.hardwood': '90', 'acclimation.laminate': '-1' })
+		);
+		const errors = errorsOf(bad);
+		expect(errors['acclimation.hardwood']?.[0]).toMatch(/84/);
+		expect(errors['acclimation.laminate']?.[0]).toBeDefined();
 	});
 
 	it('refuses an empty rate and a deposit over 100 % by their fields', () => {

@@ -31,8 +31,10 @@ import {
 	type WorkItem
 } from './steps/room';
 import { hoursByKey, scheduleStep } from './steps/schedule';
+import { installSupplies } from './steps/supplies';
 import { coverTakeoff, extrasTakeoff, floorTakeoff, supplyTakeoff } from './steps/takeoff';
 import { prepHours } from './steps/schedule';
+import { buildUpIn, doorChecks } from './doorways';
 import { layoutsFor } from './settings';
 import { slabTestChecks } from './substrate';
 import { formatLength } from './units';
@@ -278,6 +280,7 @@ function roomSteps(
 	if (cover.underlayment) result.underlayment = cover.underlayment;
 	const extras = extrasTakeoff(ctx, floor.floor.roll);
 	append(result.warnings, extras.warnings);
+	const doors = doorChecks(ctx.room.doorways ?? [], buildUpIn(ctx.product, ctx.newUnderlayment));
 	const supplies = supplyTakeoff(repairs.voids, checks.levelAreas, index, ctx);
 	if (supplies.patch) result.patch = supplies.patch;
 	if (supplies.leveller) result.leveller = supplies.leveller;
@@ -318,10 +321,29 @@ function roomSteps(
 	append(cautions, repairs.cautions);
 	append(cautions, checks.cautions);
 	append(cautions, priced.cautions);
+	let findings = checks.findings;
+	if (doors.length > 0) {
+		// A door over a raised floor: a finding tied to the undercut line the extras priced.
+		const undercut = priced.lines.find((l) => l.key === 'prep:door_undercut');
+		findings = [...findings];
+		for (const { check, doorway } of doors) {
+			const f: Finding = {
+				...check,
+				id: `${ctx.room.id}:door_clearance:${doorway}`,
+				roomId: ctx.room.id,
+				lineIds: undercut ? [undercut.id] : [],
+				cautionTexts: cautionTexts(check.cautions)
+			};
+			findings.push(f);
+			result.findingIds.push(f.id);
+			if (undercut) undercut.findingIds.push(f.id);
+			for (const kind of check.cautions) cautions.push({ kind, roomId: ctx.room.id });
+		}
+	}
 	return {
 		result,
 		errors: priced.errors,
-		findings: checks.findings,
+		findings,
 		priced,
 		hours,
 		cautions,
@@ -588,6 +610,9 @@ function jobStep(so: JobSoFar, input: EstimateInput, index: PriceIndex): Estimat
 		slabsStep(so, s, index);
 		const materials = materialItems(so.order, index, s);
 		const jobItems = materials.items;
+		const supplies = installSupplies(input.job, so.rooms, index, s);
+		append(jobItems, supplies.items);
+		append(cautions, supplies.cautions);
 		// A trip charge once a job, where the store's price book has one (it may switch it off).
 		if (index.prep.has('trip_charge'))
 			jobItems.push({

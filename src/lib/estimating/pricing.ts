@@ -23,12 +23,26 @@ export type LineGroup = 'material' | 'labour' | 'prep' | 'removal';
 export const LINE_GROUPS: readonly LineGroup[] = ['material', 'labour', 'prep', 'removal'];
 
 /** Supplies the prep uses, sold by their own units. */
-export type SupplyKind = 'underlayment_panel' | 'fastener' | 'patch' | 'leveller';
+export type SupplyKind =
+	| 'underlayment_panel'
+	| 'fastener'
+	| 'patch'
+	| 'leveller'
+	| 'thinset'
+	| 'grout'
+	| 'backer'
+	| 'baseboard'
+	| 'shoe';
 export const SUPPLY_KINDS: readonly SupplyKind[] = [
 	'underlayment_panel',
 	'fastener',
 	'patch',
-	'leveller'
+	'leveller',
+	'thinset',
+	'grout',
+	'backer',
+	'baseboard',
+	'shoe'
 ];
 
 /** What a line prices: a floor's material or install, a tear-out, a prep service, a supply. */
@@ -70,6 +84,9 @@ export interface FloorProduct {
 	boardWidthIn?: number;
 	/** Thickness of the floor as laid, in (floor height at doorways). */
 	thicknessIn?: number;
+	/** Tile: the grout joint the maker calls for, and its depth (the tile's own thickness), in. */
+	groutJointIn?: number;
+	groutDepthIn?: number;
 	/** Material price per sellable unit; `sqft` prices whole cartons by their coverage. */
 	material: {
 		basis: 'carton' | 'sqft' | 'roll_sqyd' | 'roll_linft';
@@ -125,6 +142,10 @@ export interface SupplyPrice {
 	/** Leveller pour depth the data sheet allows, in: thinner pours are poured at the minimum. */
 	minDepthIn?: number;
 	maxDepthIn?: number;
+	/** ft² one unit covers (data sheet): a thinset bag at the store's trowel, a backer sheet or membrane roll. */
+	coverageSqFt?: number;
+	/** Length of one stock piece, in (baseboard, shoe): runs are cut from whole pieces. */
+	stockLengthIn?: number;
 }
 
 /** The store's price book. Every price is integer cents per unit of its basis. */

@@ -37,6 +37,8 @@ export const samplePriceBook: PriceBook = {
 			cartonSqFt: 15.5,
 			tileEdgesIn: [12, 24],
 			thicknessIn: 0.625,
+			groutJointIn: 0.125,
+			groutDepthIn: 0.375,
 			material: { basis: 'carton', priceCents: 4_650, costCents: 2_800 },
 			labourCentsPerSqFt: 650,
 			payCentsPerSqFt: 420
@@ -78,8 +80,9 @@ export const samplePriceBook: PriceBook = {
 		{ kind: 'transition', basis: 'each', priceCents: 2_500, payCents: 1_500 },
 		{ kind: 'underlayment_skim', basis: 'sqft', priceCents: 40, payCents: 25 },
 		{ kind: 'primer', basis: 'sqft', priceCents: 35, payCents: 15, costCents: 10 },
-		{ kind: 'tile_backer', basis: 'sqft', priceCents: 225, payCents: 110, costCents: 95 },
-		{ kind: 'tile_setting', basis: 'sqft', priceCents: 120, payCents: 0, costCents: 55 },
+		// Setting work per ft²; the thinset, grout and backer themselves are supplies below.
+		{ kind: 'tile_backer', basis: 'sqft', priceCents: 150, payCents: 110 },
+		{ kind: 'tile_setting', basis: 'sqft', priceCents: 75, payCents: 45 },
 		{ kind: 'underlay', basis: 'sqft', priceCents: 45, payCents: 15, costCents: 20 },
 		{ kind: 'vapour_retarder', basis: 'sqft', priceCents: 25, payCents: 10, costCents: 8 },
 		{ kind: 'felt_paper', basis: 'sqft', priceCents: 20, payCents: 8, costCents: 7 },
@@ -87,8 +90,9 @@ export const samplePriceBook: PriceBook = {
 		{ kind: 'tack_strip', basis: 'linft', priceCents: 60, payCents: 30, costCents: 15 },
 		{ kind: 'carpet_seam', basis: 'linft', priceCents: 300, payCents: 180 },
 		{ kind: 'base_reset', basis: 'linft', priceCents: 225, payCents: 140 },
-		{ kind: 'base_new', basis: 'linft', priceCents: 550, payCents: 200, costCents: 180 },
-		{ kind: 'shoe_new', basis: 'linft', priceCents: 275, payCents: 110, costCents: 70 },
+		// Fitting per linear ft; the stock lengths themselves are supplies below.
+		{ kind: 'base_new', basis: 'linft', priceCents: 300, payCents: 200 },
+		{ kind: 'shoe_new', basis: 'linft', priceCents: 175, payCents: 110 },
 		{ kind: 'reducer', basis: 'each', priceCents: 3_500, payCents: 1_800 },
 		{ kind: 'threshold', basis: 'each', priceCents: 6_500, payCents: 3_000 },
 		{ kind: 'door_undercut', basis: 'each', priceCents: 4_500, payCents: 2_500 },
@@ -144,6 +148,48 @@ export const samplePriceBook: PriceBook = {
 			maxDepthIn: 1.5,
 			priceCents: 4_200,
 			costCents: 2_600
+		},
+		{
+			kind: 'thinset',
+			name: 'Modified thinset mortar, 50 lb bag',
+			basis: 'bag',
+			// the invented product's data sheet: about 60 ft² a bag with a 1/2 in square notch
+			coverageSqFt: 60,
+			priceCents: 3_800,
+			costCents: 2_200
+		},
+		{
+			kind: 'grout',
+			name: 'Sanded grout, 25 lb bag',
+			basis: 'bag',
+			// the invented product's data sheet: one bag yields 0.2 ft³ of joint
+			bagYieldCuFt: 0.2,
+			priceCents: 2_600,
+			costCents: 1_400
+		},
+		{
+			kind: 'backer',
+			name: 'Cement backer board 1/4 in, 3 × 5 ft',
+			basis: 'panel',
+			coverageSqFt: 15,
+			priceCents: 1_600,
+			costCents: 1_000
+		},
+		{
+			kind: 'baseboard',
+			name: 'Primed baseboard 3 1/4 in, 16 ft',
+			basis: 'each',
+			stockLengthIn: 192,
+			priceCents: 2_400,
+			costCents: 1_300
+		},
+		{
+			kind: 'shoe',
+			name: 'Primed shoe moulding, 16 ft',
+			basis: 'each',
+			stockLengthIn: 192,
+			priceCents: 1_100,
+			costCents: 550
 		}
 	]
 };

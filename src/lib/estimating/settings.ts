@@ -227,6 +227,8 @@ export interface StoreSettings {
 	};
 	/** Floor height at doorways: a step up to `flushMaxIn` needs no bevel; to `bevelMaxIn` a reducer. */
 	doorways?: { flushMaxIn: number; bevelMaxIn: number };
+	/** Waste on setting materials and backer, and the allowance each trim run is cut with (`INSTALL_SUPPLY_DEFAULTS`). */
+	installSupplies?: { wastePct: number; trimEndAllowanceIn: number };
 	schedule: {
 		workdayHours: number;
 		dayStartHour: number;

@@ -23,7 +23,8 @@ export type CheckKind =
 	| 'moisture_mver_tests'
 	| 'wood_subfloor_mc'
 	| 'wood_mc_difference'
-	| 'tile_subfloor';
+	| 'tile_subfloor'
+	| 'door_clearance';
 
 export interface SuggestedPrep {
 	kind: PrepKind;

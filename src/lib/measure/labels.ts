@@ -55,7 +55,12 @@ export const SUPPLY_LABELS: Record<SupplyKind, string> = {
 	underlayment_panel: 'Underlayment panel',
 	fastener: 'Underlayment fasteners',
 	patch: 'Patch compound',
-	leveller: 'Self-levelling underlayment'
+	leveller: 'Self-levelling underlayment',
+	thinset: 'Thinset mortar',
+	grout: 'Grout',
+	backer: 'Backer board or membrane',
+	baseboard: 'Baseboard (stock lengths)',
+	shoe: 'Shoe or quarter-round (stock lengths)'
 };
 
 export const PREP_LABELS: Record<PrepKind, string> = Object.fromEntries(

@@ -318,6 +318,12 @@ export const settingsSchema = z
 				stoneLayers: bounded('Layers under stone', 1, 4).int()
 			})
 			.optional(),
+		installSupplies: z
+			.object({
+				wastePct: pct('Waste on setting materials'),
+				trimEndAllowanceIn: inches('Trim allowance per piece', LIMITS.depthIn)
+			})
+			.optional(),
 		doorways: z
 			.object({
 				flushMaxIn: smallIn('Step with no bevel'),
@@ -397,6 +403,12 @@ export const floorProductSchema = z.object({
 	thicknessIn: positiveIn('Floor thickness', 4)
 		.optional()
 		.describe('Thickness as laid, in (floor height at doorways)'),
+	groutJointIn: bounded('Grout joint', 1 / 32, 1, 'in')
+		.optional()
+		.describe('Tile: grout joint width, in (maker instructions)'),
+	groutDepthIn: bounded('Grout depth', 1 / 16, 2, 'in')
+		.optional()
+		.describe("Tile: joint depth, in (the tile's thickness)"),
 	material: z.object({
 		basis: z.enum(['carton', 'sqft', 'roll_sqyd', 'roll_linft']),
 		priceCents: cents('Price per unit'),
@@ -452,7 +464,13 @@ export const priceBookSchema = z
 				container: containerSchema.optional(),
 				bagYieldCuFt: bagYieldCuFt.optional(),
 				minDepthIn: smallIn('Least pour (data sheet)').optional(),
-				maxDepthIn: positiveIn('Deepest pour (data sheet)', LIMITS.depthIn).optional()
+				maxDepthIn: positiveIn('Deepest pour (data sheet)', LIMITS.depthIn).optional(),
+				coverageSqFt: positive('Coverage of one unit', 10_000, 'ft²')
+					.optional()
+					.describe('ft² one bag, sheet or roll covers (data sheet)'),
+				stockLengthIn: bounded('Stock length', 12, 480, 'in')
+					.optional()
+					.describe('Length of one stock piece of trim, in: 1–40 ft')
 			})
 		)
 	})

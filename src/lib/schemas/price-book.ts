@@ -101,7 +101,11 @@ export const PREP_SUPPLIES: Partial<Record<PrepKind, SupplyKind[]>> = {
 	hole_repair: ['underlayment_panel', 'fastener'],
 	seam_patch: ['patch'],
 	dent_patch: ['patch'],
-	level: ['leveller']
+	level: ['leveller'],
+	tile_setting: ['thinset', 'grout'],
+	tile_backer: ['backer'],
+	base_new: ['baseboard'],
+	shoe_new: ['shoe']
 };
 
 /** The prep services that draw on a supply. */
@@ -114,8 +118,18 @@ export const SUPPLY_BASES: Record<SupplyKind, Basis[]> = {
 	underlayment_panel: ['panel', 'each'],
 	fastener: ['box', 'each'],
 	patch: ['container', 'each'],
-	leveller: ['bag', 'each']
+	leveller: ['bag', 'each'],
+	thinset: ['bag', 'each'],
+	grout: ['bag', 'container', 'each'],
+	backer: ['panel', 'each'],
+	baseboard: ['each', 'linft'],
+	shoe: ['each', 'linft']
 };
+
+/** Supplies counted by the ft² one unit covers (thinset bag, backer sheet or membrane roll). */
+export const COVERAGE_SUPPLIES: readonly SupplyKind[] = ['thinset', 'backer'];
+/** Supplies bought in stock lengths (trim). */
+export const STOCK_SUPPLIES: readonly SupplyKind[] = ['baseboard', 'shoe'];
 
 // ---------------------------------------------------------------- typed fields
 
@@ -261,6 +275,8 @@ const FLOOR_FIELDS: Record<string, string> = {
 	tileEdgesIn: 'tileEdges',
 	boardWidthIn: 'boardWidth',
 	thicknessIn: 'thickness',
+	groutJointIn: 'groutJoint',
+	groutDepthIn: 'groutDepth',
 	material: 'materialPrice',
 	labourCentsPerSqFt: 'labourPrice',
 	payCentsPerSqFt: 'payPrice',
@@ -278,6 +294,8 @@ export const floorForm = (currency: string) =>
 			tileEdges: optionalTileEdges,
 			boardWidth: optionalLength('Board width'),
 			thickness: optionalLength('Thickness'),
+			groutJoint: optionalLength('The grout joint'),
+			groutDepth: optionalLength('The joint depth'),
 			materialBasis: enumField(MATERIAL_BASES, 'Choose how the material is priced'),
 			materialPrice: priceField('the material price', currency),
 			materialCost: optionalPriceField('the store cost', currency),
@@ -319,6 +337,8 @@ export const floorForm = (currency: string) =>
 				...(isTileKind(f.kind) && f.tileEdges && { tileEdgesIn: f.tileEdges }),
 				...(isWoodKind(f.kind) && f.boardWidth !== undefined && { boardWidthIn: f.boardWidth }),
 				...(f.thickness !== undefined && { thicknessIn: f.thickness }),
+				...(isTileKind(f.kind) && f.groutJoint !== undefined && { groutJointIn: f.groutJoint }),
+				...(isTileKind(f.kind) && f.groutDepth !== undefined && { groutDepthIn: f.groutDepth }),
 				material: {
 					basis: f.materialBasis,
 					priceCents: f.materialPrice,
@@ -350,6 +370,10 @@ export function floorToForm(name: string, d: FloorData, currency: string): Recor
 		boardWidth: d.boardWidthIn !== undefined ? formatLength(d.boardWidthIn, 'in') : '',
 		thickness:
 			d.thicknessIn !== undefined ? formatLength(d.thicknessIn, 'in', { denominator: 32 }) : '',
+		groutJoint:
+			d.groutJointIn !== undefined ? formatLength(d.groutJointIn, 'in', { denominator: 32 }) : '',
+		groutDepth:
+			d.groutDepthIn !== undefined ? formatLength(d.groutDepthIn, 'in', { denominator: 32 }) : '',
 		materialBasis: d.material.basis,
 		materialPrice: moneyToInput(d.material.priceCents, currency),
 		materialCost: moneyToInput(d.material.costCents, currency),
@@ -484,7 +508,9 @@ export const supplyForm = (currency: string) =>
 			patchDepth: optionalLength('The depth'),
 			bagYield: optionalNumber('The bag yield', 100),
 			minDepth: optionalLength('The least pour'),
-			maxDepth: optionalLength('The deepest pour')
+			maxDepth: optionalLength('The deepest pour'),
+			coverage: optionalNumber('The coverage', 10_000),
+			stockLength: optionalLength('The stock length')
 		})
 		.transform((f, ctx) => {
 			const issue = refuser(ctx);
@@ -515,8 +541,19 @@ export const supplyForm = (currency: string) =>
 					}
 				}
 			}
-			if (f.kind === 'leveller' && f.bagYield === undefined) {
+			if ((f.kind === 'leveller' || f.kind === 'grout') && f.bagYield === undefined) {
 				issue('bagYield', 'Enter the bag yield in ft³ (on the data sheet)');
+			}
+			if (COVERAGE_SUPPLIES.includes(f.kind) && f.coverage === undefined) {
+				issue(
+					'coverage',
+					f.kind === 'thinset'
+						? 'Enter the ft² one bag covers at your trowel notch (on the data sheet)'
+						: 'Enter the ft² one sheet or roll covers, e.g. 15 for a 3 × 5 ft sheet'
+				);
+			}
+			if (STOCK_SUPPLIES.includes(f.kind) && f.stockLength === undefined) {
+				issue('stockLength', 'Enter the length one piece is sold in, e.g. 16 ft');
 			}
 			if (
 				f.kind === 'leveller' &&
@@ -533,7 +570,9 @@ export const supplyForm = (currency: string) =>
 				...(f.cost !== undefined && { costCents: f.cost }),
 				...(f.kind === 'fastener' && f.perBox !== undefined && { perBox: f.perBox }),
 				...(container && { container }),
-				...(f.kind === 'leveller' && { bagYieldCuFt: f.bagYield }),
+				...((f.kind === 'leveller' || f.kind === 'grout') && { bagYieldCuFt: f.bagYield }),
+				...(COVERAGE_SUPPLIES.includes(f.kind) && { coverageSqFt: f.coverage }),
+				...(STOCK_SUPPLIES.includes(f.kind) && { stockLengthIn: f.stockLength }),
 				...(f.kind === 'leveller' && f.minDepth !== undefined && { minDepthIn: f.minDepth }),
 				...(f.kind === 'leveller' && f.maxDepth !== undefined && { maxDepthIn: f.maxDepth })
 			};
@@ -544,6 +583,8 @@ export const supplyForm = (currency: string) =>
 				container: 'patchVolume',
 				bagYieldCuFt: 'bagYield',
 				minDepthIn: 'minDepth',
+				coverageSqFt: 'coverage',
+				stockLengthIn: 'stockLength',
 				maxDepthIn: 'maxDepth'
 			};
 			const checked = engineCheck(
@@ -576,7 +617,9 @@ export function supplyToForm(
 		patchDepth: c && 'atDepthIn' in c ? formatLength(c.atDepthIn, 'in') : '',
 		bagYield: d.bagYieldCuFt !== undefined ? String(d.bagYieldCuFt) : '',
 		minDepth: d.minDepthIn !== undefined ? formatLength(d.minDepthIn, 'in') : '',
-		maxDepth: d.maxDepthIn !== undefined ? formatLength(d.maxDepthIn, 'in') : ''
+		maxDepth: d.maxDepthIn !== undefined ? formatLength(d.maxDepthIn, 'in') : '',
+		coverage: d.coverageSqFt !== undefined ? String(d.coverageSqFt) : '',
+		stockLength: d.stockLengthIn !== undefined ? formatLength(d.stockLengthIn) : ''
 	};
 }
 

@@ -9,6 +9,7 @@
 import { z } from 'zod';
 import {
 	FLOOR_KINDS,
+	formatLength,
 	LAYOUTS,
 	LINE_GROUPS,
 	type FloorKind,
@@ -20,10 +21,13 @@ import {
 	moneyField,
 	moneyToInput,
 	numberField,
+	optionalLengthField,
+	optionalNumberField,
 	readPercentBps,
 	textField as text,
 	percentBpsField
 } from '$lib/input';
+import { INSTALL_SUPPLY_DEFAULTS } from '$lib/estimating/trim';
 import { settingsSchema } from './estimate';
 
 export const LINE_GROUP_LABELS: Record<LineGroup, string> = {
@@ -94,6 +98,16 @@ const byFloor = z.object(
 	) as Record<FloorKind, ReturnType<typeof number>>
 );
 
+/** Days each floor acclimates on site before it is laid; empty keeps the saved figure. */
+const acclimationDays = z.object(
+	Object.fromEntries(
+		FLOOR_KINDS.map((k) => [
+			k,
+			optionalNumberField({ label: 'the days it acclimates', min: 0, max: 84 })
+		])
+	) as Record<FloorKind, ReturnType<typeof optionalNumberField>>
+);
+
 /**
  * The trade settings form; `schedules` are the fastening schedules the store's settings hold,
  * `currency` the store's (amounts are typed with its decimals).
@@ -126,7 +140,10 @@ export function tradeSettingsFormSchema(schedules: string[], currency: string) {
 		fasteningSchedule: z
 			.string({ error: 'Choose a fastening schedule' })
 			.refine((s) => schedules.includes(s), 'Choose one of the schedules listed'),
-		crew: byFloor.prefault({})
+		crew: byFloor.prefault({}),
+		acclimation: acclimationDays.prefault({}),
+		setWaste: optionalNumberField({ label: 'the waste in %', min: 0, max: 100 }),
+		trimAllowance: optionalLengthField('in', { label: 'the allowance', maxIn: 12 })
 	});
 }
 
@@ -142,12 +159,28 @@ export function applyTradeSettings(
 ):
 	| { ok: true; settings: StoreSettings; quoteValidDays: number }
 	| { ok: false; errors: Record<string, string[]> } {
+	// Acclimation by the flooring maker's instructions (TRADE.md: memory for the usual range),
+	// typed in days and kept in hours; 0 days is none.
+	const acclimationHours = { ...current.schedule.acclimationHours };
+	for (const k of FLOOR_KINDS) {
+		const days = form.acclimation[k];
+		if (days === undefined) continue;
+		if (days > 0) acclimationHours[k] = days * 24;
+		else delete acclimationHours[k];
+	}
+	const supplies = current.installSupplies ?? INSTALL_SUPPLY_DEFAULTS;
 	const next: StoreSettings = {
 		...current,
 		units: form.units,
 		wastePct: form.waste,
 		underlayment: { ...current.underlayment, schedule: form.fasteningSchedule },
-		schedule: { ...current.schedule, crewSqFtPerDay: form.crew },
+		schedule: { ...current.schedule, crewSqFtPerDay: form.crew, acclimationHours },
+		...((form.setWaste !== undefined || form.trimAllowance !== undefined) && {
+			installSupplies: {
+				wastePct: form.setWaste ?? supplies.wastePct,
+				trimEndAllowanceIn: form.trimAllowance ?? supplies.trimEndAllowanceIn
+			}
+		}),
 		taxes: form.taxes,
 		taxRounding: form.taxRounding,
 		deposit: { percentBps: form.deposit.percent, minimumCents: form.deposit.minimum }
@@ -167,9 +200,15 @@ export function applyTradeSettings(
 					? `deposit.${rest[0] === 'minimumCents' ? 'minimum' : 'percent'}`
 					: head === 'taxes'
 						? `taxes.${rest[0]}.rate`
-						: head === 'schedule'
-							? `crew.${rest[rest.length - 1]}`
-							: [field[head] ?? head, ...rest].join('.');
+						: head === 'schedule' && rest[0] === 'acclimationHours'
+							? `acclimation.${rest[1]}`
+							: head === 'schedule'
+								? `crew.${rest[rest.length - 1]}`
+								: head === 'installSupplies'
+									? rest[0] === 'wastePct'
+										? 'setWaste'
+										: 'trimAllowance'
+									: [field[head] ?? head, ...rest].join('.');
 			(errors[key] ??= []).push(issue.message);
 		}
 		return { ok: false, errors };
@@ -195,6 +234,11 @@ export function tradeSettingsToForm(s: StoreSettings, quoteValidDays: number, cu
 	});
 	for (const l of LAYOUTS) values[`waste.${l}`] = String(s.wastePct[l]);
 	for (const k of FLOOR_KINDS) values[`crew.${k}`] = String(s.schedule.crewSqFtPerDay[k]);
+	for (const k of FLOOR_KINDS)
+		values[`acclimation.${k}`] = String((s.schedule.acclimationHours?.[k] ?? 0) / 24);
+	const supplies = s.installSupplies ?? INSTALL_SUPPLY_DEFAULTS;
+	values.setWaste = String(supplies.wastePct);
+	values.trimAllowance = formatLength(supplies.trimEndAllowanceIn, 'in');
 	return values;
 }
 
