@@ -17,13 +17,7 @@ import {
 import { customerQuote, homeownerCautions } from './customer-quote';
 import { PLAIN_PREP, plainPrep } from './plain-prep';
 import { DEFAULT_PAPERS, papersOf } from './store-papers';
-
-/**
- * Words that belong to the installer's work order, never to the customer's papers: saw depth,
- * fasteners and their schedules, pail and bag sizes, joist and span notes, readings and limits.
- */
-export const IN_HOUSE =
-	/saw|fastener|\bpail|\d+\s*lb\b|\bo\.c\.|\bL\/\d|psf|psi|MVER|\bRH\b|span|straightedge|blocking|planning aid|% MC|deflection/i;
+import { IN_HOUSE, inHouseWord } from './testing';
 
 const input = { job: sampleJob(12, 1975), settings: defaultSettings, priceBook: samplePriceBook };
 const result = estimate(input);
@@ -68,7 +62,7 @@ describe('who reads what', () => {
 describe('the customer quote of the 12-room sample job', () => {
 	it('carries none of the in-house words, readings, pay or margin', () => {
 		const text = JSON.stringify(paper);
-		expect(text.match(IN_HOUSE)?.[0]).toBeUndefined();
+		expect(inHouseWord(text)).toBeUndefined();
 		expect(text).not.toMatch(/installerPay|margin|payCents|findings|cureHours/);
 		// The engine's own customer view still has them: this is what the papers leave out.
 		expect(JSON.stringify(result.findings)).toMatch(IN_HOUSE);
@@ -91,13 +85,16 @@ describe('the customer quote of the 12-room sample job', () => {
 		expect(prep.map((l) => l.text)).toContain(
 			'Level low spots in Kitchen 2 so the new floor lies flat.'
 		);
-		for (const l of prep) expect(l.qty).toBeUndefined();
+		for (const l of prep) expect(l.priced).toBeUndefined();
 		const materials = paper.groups.find((g) => g.key === 'material')!.lines;
 		const leveller = materials.find((l) => l.text.startsWith('Self-levelling'))!;
 		expect(leveller.text).toBe('Self-levelling compound to even out low spots');
-		expect(leveller.qty).toBeUndefined();
+		expect(leveller.priced).toBeUndefined();
 		const oak = materials.find((l) => l.text.startsWith('Oak'))!;
-		expect(oak).toMatchObject({ text: 'Oak plank 7 in — 55 cartons', qty: 55, basis: 'carton' });
+		expect(oak).toMatchObject({
+			text: 'Oak plank 7 in — 55 cartons',
+			priced: { qty: 55, basis: 'carton' }
+		});
 	});
 
 	it('names each room’s floor and what is taken up, with its outline to scale', () => {

@@ -46,9 +46,7 @@ export interface CustomerLine {
 	/** The room's name when the text does not already say it. */
 	room: string | null;
 	/** Quantity and unit price, for floors, installation and tear-out only. */
-	qty?: number;
-	basis?: Basis;
-	unitCents?: number;
+	priced?: { qty: number; basis: Basis; unitCents: number };
 	amountCents: number;
 }
 
@@ -146,7 +144,7 @@ export function customerQuote(
 		return {
 			text,
 			room: room && !text.includes(room) ? room : null,
-			...(withQty ? { qty: l.qty, basis: l.basis, unitCents: l.unitCents } : {}),
+			...(withQty ? { priced: { qty: l.qty, basis: l.basis, unitCents: l.unitCents } } : {}),
 			amountCents: l.amountCents
 		};
 	};
