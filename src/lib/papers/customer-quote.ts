@@ -9,6 +9,7 @@ import type {
 	Basis,
 	EstimateInput,
 	EstimateResult,
+	ItemRef,
 	LineGroup,
 	Outline,
 	PrepKind,
@@ -111,6 +112,16 @@ export function homeownerCautions(result: EstimateResult): CustomerCaution[] {
 	}));
 }
 
+/**
+ * A priced item in the customer's words: prep as one plain sentence, a supply as what it is for,
+ * floors, installation and tear-out as priced (`fallback`, the engine's description).
+ */
+export function customerWords(ref: ItemRef, room: string | undefined, fallback: string): string {
+	if (ref.type === 'prep') return plainPrep(ref.kind, room, fallback);
+	if (ref.type === 'supply') return SUPPLY_WORDS[ref.kind] ?? 'Supplies for the prep';
+	return fallback;
+}
+
 /** The customer's quote from a stored quote's input and result. */
 export function customerQuote(
 	quote: { input: EstimateInput; result: EstimateResult },
@@ -138,9 +149,7 @@ export function customerQuote(
 	const lineOf = (l: EstimateResult['lines'][number]): CustomerLine => {
 		const room = l.roomId ? roomName.get(l.roomId) : undefined;
 		const withQty = lineQuantityAudience(l.ref) !== 'installer';
-		let text = l.description;
-		if (l.ref.type === 'prep') text = plainPrep(l.ref.kind, room, l.description);
-		else if (l.ref.type === 'supply') text = SUPPLY_WORDS[l.ref.kind] ?? 'Supplies for the prep';
+		const text = customerWords(l.ref, room, l.description);
 		return {
 			text,
 			room: room && !text.includes(room) ? room : null,
