@@ -18,18 +18,23 @@ import { DEFAULT_PAPERS } from '$lib/papers/store-papers';
 import { HOMEOWNER_CAUTIONS } from '$lib/papers/audience';
 import { inHouseWord } from '$lib/papers/testing';
 import { emptyRoom } from '$lib/measure/draft';
-import { describe, expect, it } from 'vitest';
+import { isActionFailure, type RequestEvent } from '@sveltejs/kit';
+import { describe, expect, it, vi } from 'vitest';
 import {
 	makeCustomer,
 	makePriceBook,
 	makeSite,
 	makeStore,
+	memberEvent,
 	sendAndAccept,
 	TEST_ORIGIN,
 	type TestStore
 } from './factories';
 
+let current: Partial<RequestEvent> | undefined;
+vi.mock('$app/server', () => ({ getRequestEvent: () => current }));
 const customerPage = await import('../../src/routes/c/[token]/+page.server');
+const settingsPage = await import('../../src/routes/app/settings/+page.server');
 const customerPdf = await import('../../src/routes/c/[token]/quote.pdf/+server');
 
 const TERMS = 'Bramblefield terms: the balance is due on the day the last room is finished.';
@@ -180,5 +185,45 @@ describe("the customer's papers", async () => {
 		expect(json).toMatch(/50 lb bag/);
 		expect(order!.structure.some((s) => /L\/\d+/.test(s.what))).toBe(true);
 		expect(order!.readings.some((r) => r.roomName === 'Kitchen')).toBe(true);
+	});
+});
+
+describe("the store's papers in Store settings", async () => {
+	const store = await makeStore('Quillon Floors');
+	const owner = { user: store.owner, role: 'owner' as const, store };
+	function post(fields: Record<string, string>) {
+		const body = new FormData();
+		for (const [k, v] of Object.entries(fields)) body.append(k, v);
+		current = memberEvent(owner, '/app/settings?/papers', {}, { method: 'POST', body });
+		return settingsPage.actions.papers(current as never);
+	}
+
+	it('refuses a text over its bound beside the field, keeping what was typed', async () => {
+		const long = 'x'.repeat(4001);
+		const answer = await post({ nextSteps: 'Call us.', cancellation: '', terms: long });
+		expect(isActionFailure(answer)).toBe(true);
+		if (!isActionFailure(answer)) return;
+		expect(answer.status).toBe(400);
+		const data = answer.data as unknown as {
+			papers: { values: Record<string, string>; errors: Record<string, string[]> };
+		};
+		expect(data.papers.errors).toEqual({ terms: ['Keep it under 4,000 characters'] });
+		expect(data.papers.values.nextSteps).toBe('Call us.');
+	});
+
+	it('saves the words, shows them in the form, and blank keeps the default', async () => {
+		expect(
+			await post({ nextSteps: '  We ring you the next day.  ', cancellation: '', terms: '' })
+		).toEqual({ papersSaved: true });
+		current = memberEvent(owner, '/app/settings', {});
+		const page = (await settingsPage.load(current as never)) as {
+			papers: { values: Record<string, string>; defaults: typeof DEFAULT_PAPERS };
+		};
+		expect(page.papers.values).toEqual({
+			nextSteps: 'We ring you the next day.',
+			cancellation: '',
+			terms: ''
+		});
+		expect(page.papers.defaults).toEqual(DEFAULT_PAPERS);
 	});
 });
