@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { email, optionalEmail, phone, requiredText } from './fields';
 import { DEFAULT_TIME_ZONE, isTimeZone, timeZoneSchema } from '../time-zone';
+import { PAPERS_MAX } from '../papers/store-papers';
 
 export const ROLE_VALUES = ['owner', 'manager', 'sales', 'installer'] as const;
 
@@ -20,6 +21,20 @@ export const storeProfileSchema = z.object({
 	phone: phone.transform((v) => v ?? ''),
 	email: optionalEmail.transform((v) => v ?? ''),
 	timeZone: timeZoneSchema
+});
+
+const papersText = (max: number) =>
+	z
+		.string()
+		.trim()
+		.max(max, `Keep it under ${max.toLocaleString('en-US')} characters`)
+		.default('');
+
+/** The store's words on its customer papers; blank keeps the default wording. */
+export const storePapersSchema = z.object({
+	nextSteps: papersText(PAPERS_MAX.nextSteps),
+	cancellation: papersText(PAPERS_MAX.cancellation),
+	terms: papersText(PAPERS_MAX.terms)
 });
 
 export const inviteSchema = z.object({

@@ -449,7 +449,7 @@ const actions: ActionTarget[] = [
 		name: 'default',
 		params: { section: { fixed: 'prep' } }
 	},
-	...['stripe', 'profile', 'trade', 'restoreDefaults', 'logo', 'removeLogo'].map(
+	...['stripe', 'profile', 'papers', 'trade', 'restoreDefaults', 'logo', 'removeLogo'].map(
 		(name): ActionTarget => ({
 			kind: 'action',
 			route: '/app/settings',

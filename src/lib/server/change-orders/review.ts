@@ -4,12 +4,14 @@ import { jobLabel } from '$lib/jobs/status';
 import { customerLink } from '../customer-page';
 import * as changeOrders from '../db/queries/change-orders';
 import * as jobs from '../db/queries/jobs';
+import * as quotes from '../db/queries/quotes';
 import { readProfile, readStore } from '../db/queries/stores';
 import type { ChangeOrderAdjustment } from '../db/schema';
 import type { StoreWriteTx } from '../db/tenant';
 import { queueMail } from '../mail/queue';
 import { changeOrderMail } from '../mail/templates';
 import { changeOrderFigures } from './figures';
+import { customerChangeOrder, roomNamesOf } from './view';
 
 export type ReviewResult =
 	| { ok: true; changeOrder: changeOrders.ChangeOrderRow }
@@ -69,6 +71,11 @@ export async function sendChangeOrder(
 	});
 	if (!row) return { ok: false, reason: 'not_found' };
 	const profile = await readProfile(tx);
+	const url = await customerLink(tx, jobId);
+	const accepted = await quotes.accepted(tx, jobId);
+	// The items in the words the customer's page shows them in, with the same amounts.
+	const shown = customerChangeOrder(row, accepted ? roomNamesOf(accepted) : new Map());
+	const money = (cents: number) => formatMoney(cents, row.currency);
 	await queueMail(
 		tx,
 		'change-order',
@@ -83,7 +90,15 @@ export async function sendChangeOrder(
 			changeLabel: changeOrderLabel(row.number),
 			totalCents: row.totalCents,
 			total: formatMoney(Math.abs(row.totalCents), row.currency),
-			url: await customerLink(tx, jobId)
+			url,
+			logoUrl: profile.logoKey ? `${url}/logo` : undefined,
+			items: [
+				...shown.lines
+					.filter((l) => l.deltaCents !== 0)
+					.map((l): [string, string] => [l.description, money(l.deltaCents)]),
+				...shown.adjustments.map((a): [string, string] => [a.description, money(a.amountCents)]),
+				...(shown.taxCents ? [['Tax', money(shown.taxCents)] as [string, string]] : [])
+			]
 		}),
 		{ jobId, createdBy: options.actorId }
 	);

@@ -1,5 +1,6 @@
 import type { ChangeOrder } from '$lib/estimating';
 import { CHANGE_ORDER_STATUS_LABELS, changeOrderLabel } from '$lib/jobs/change-order-status';
+import { customerWords } from '$lib/papers/customer-quote';
 import type * as changeOrders from '../db/queries/change-orders';
 
 /** A room's name by its measure id, from the accepted quote's stored input. */
@@ -27,7 +28,12 @@ export function customerChangeOrder(row: changeOrders.ChangeOrderRow, rooms: Roo
 		lines: row.result.lines.map((l: ChangeOrder['lines'][number]) => ({
 			key: `${l.roomId ?? 'job'}|${l.key}`,
 			room: roomOf(rooms, l.roomId),
-			description: l.description,
+			// The customer's words for the item, as on the quote (`$lib/papers`).
+			description: customerWords(
+				l.ref,
+				l.roomId ? (rooms.get(l.roomId) ?? undefined) : undefined,
+				l.description
+			),
 			basis: l.basis,
 			soldQty: l.soldQty,
 			foundQty: l.foundQty,
@@ -60,6 +66,8 @@ export function deskChangeOrder(
 		...base,
 		lines: base.lines.map((l, i) => ({
 			...l,
+			// The store reads the engine's own words for the item.
+			description: row.result.lines[i].description,
 			payDeltaCents: seesPay ? row.result.lines[i].payDeltaCents : null
 		})),
 		adjustments: row.adjustments.map((a) => ({

@@ -84,6 +84,10 @@ export const storeProfile = pgTable(
 		email: text('email').notNull().default(''),
 		/** Storage key of the logo shown on customer pages and PDFs. */
 		logoKey: text('logo_key'),
+		/** The store's own words on its customer papers; blank: the default wording (`$lib/papers`). */
+		papersNextSteps: text('papers_next_steps').notNull().default(''),
+		papersCancellation: text('papers_cancellation').notNull().default(''),
+		papersTerms: text('papers_terms').notNull().default(''),
 		...timestamps
 	},
 	() => [storeIsolation]

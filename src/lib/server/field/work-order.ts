@@ -95,6 +95,11 @@ export interface WorkOrder {
 	materials: WorkOrderLine[];
 	steps: WorkOrderStep[];
 	readings: WorkOrderReading[];
+	/**
+	 * The other checks (joists, spans and deflection, sheathing, tile over wood): the installer's
+	 * structural notes, kept off the customer's papers (`$lib/papers/audience`).
+	 */
+	structure: WorkOrderReading[];
 	cautions: string[];
 }
 
@@ -156,6 +161,7 @@ export async function readWorkOrder(
 		materials: [],
 		steps: [],
 		readings: [],
+		structure: [],
 		cautions: [...STANDING_CAUTIONS]
 	};
 	if (!q) return order;
@@ -222,8 +228,20 @@ export async function readWorkOrder(
 			lines
 		};
 	}).filter((s) => s.lines.length > 0 || s.hours > 0);
+	const isReading = (check: string) => check === 'flatness' || MOISTURE_CHECKS.has(check);
+	const noteOf = (f: (typeof result.findings)[number]): WorkOrderReading => ({
+		roomName: roomOf.get(f.roomId)?.name ?? '',
+		what: f.message,
+		rule: f.rule,
+		limit: f.limit,
+		unit: f.unit,
+		measured: String(f.measured),
+		pass: f.pass,
+		source: f.source
+	});
+	order.structure = result.findings.filter((f) => !isReading(f.check)).map(noteOf);
 	order.readings = result.findings
-		.filter((f) => f.check === 'flatness' || MOISTURE_CHECKS.has(f.check))
+		.filter((f) => isReading(f.check))
 		.map((f) => ({
 			roomName: roomOf.get(f.roomId)?.name ?? '',
 			what: f.message,

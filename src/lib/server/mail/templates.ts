@@ -33,25 +33,67 @@ export function escapeHtml(value: string): string {
 	return value.replace(/[&<>"']/g, (c) => escapes[c]);
 }
 
-/** A plain, readable e-mail layout: a heading, paragraphs and one button. */
+/** A store's letterhead on a customer's e-mail: its name, and its logo when it has one. */
+export interface MailBrand {
+	storeName: string;
+	/** The logo as the customer's link serves it (`<link>/logo`); none when the store has none. */
+	logoUrl?: string;
+}
+
+/** Amounts set out as on the customer's page: label and amount per row. */
+export type MailFigures = [label: string, amount: string][];
+
+/** A plain, readable e-mail layout: the store's letterhead, a heading, paragraphs and one button. */
 function layout(options: {
 	heading: string;
 	paragraphs: string[];
 	action: { label: string; url: string };
 	footer: string;
+	brand?: MailBrand;
+	figures?: MailFigures;
+	/** "What happens next", as on the customer's page. */
+	next?: string;
 }): { html: string; text: string } {
-	const { heading, paragraphs, action, footer } = options;
+	const { heading, paragraphs, action, footer, brand, figures, next } = options;
+	const letterhead = brand
+		? `<p style="margin:0 0 24px;font-size:18px;font-weight:800">${
+				brand.logoUrl
+					? `<img src="${escapeHtml(brand.logoUrl)}" alt="${escapeHtml(brand.storeName)}" style="display:block;max-height:56px;max-width:200px;margin:0 0 8px">`
+					: ''
+			}${escapeHtml(brand.storeName)}</p>`
+		: '';
+	const table = figures?.length
+		? `<table role="presentation" style="border-collapse:collapse;margin:0 0 16px;font-size:16px">${figures
+				.map(
+					([label, amount]) =>
+						`<tr><td style="padding:4px 24px 4px 0;color:#566879">${escapeHtml(label)}</td><td style="padding:4px 0;font-weight:700;text-align:right">${escapeHtml(amount)}</td></tr>`
+				)
+				.join('')}</table>`
+		: '';
+	const nextHtml = next
+		? `<h2 style="font-size:17px;margin:20px 0 8px">What happens next</h2><p style="font-size:16px;line-height:1.55;margin:0 0 14px">${escapeHtml(next)}</p>`
+		: '';
 	const html = `<!doctype html><html><body style="margin:0;background:#faf8f4;font-family:Manrope,Segoe UI,Helvetica,Arial,sans-serif;color:#26323d">
 <div style="max-width:560px;margin:0 auto;padding:32px 24px">
-<h1 style="font-size:22px;margin:0 0 16px">${escapeHtml(heading)}</h1>
+${letterhead}<h1 style="font-size:22px;margin:0 0 16px">${escapeHtml(heading)}</h1>
 ${paragraphs.map((p) => `<p style="font-size:16px;line-height:1.55;margin:0 0 14px">${escapeHtml(p)}</p>`).join('\n')}
+${table}${nextHtml}
 <p style="margin:24px 0"><a href="${escapeHtml(action.url)}" style="display:inline-block;background:#a9652c;color:#fff;text-decoration:none;font-weight:700;padding:12px 20px;border-radius:8px">${escapeHtml(action.label)}</a></p>
 <p style="font-size:13px;color:#566879;margin:0 0 6px">Or open this address: ${escapeHtml(action.url)}</p>
 <p style="font-size:13px;color:#566879;margin:24px 0 0">${escapeHtml(footer)}</p>
 </div></body></html>`;
-	const text = [heading, '', ...paragraphs, '', `${action.label}: ${action.url}`, '', footer].join(
-		'\n'
-	);
+	const text = [
+		...(brand ? [brand.storeName, ''] : []),
+		heading,
+		'',
+		...paragraphs,
+		...(figures?.length ? ['', ...figures.map(([label, amount]) => `${label}: ${amount}`)] : []),
+		...(next ? ['', 'What happens next', next] : []),
+		'',
+		`${action.label}: ${action.url}`,
+		'',
+		footer
+	].join('\n');
 	return { html, text };
 }
 
@@ -114,6 +156,9 @@ export function quoteMail(input: {
 	replyTo?: string;
 	/** The store's time zone. */
 	timeZone: string;
+	logoUrl?: string;
+	/** The store's "What happens next", as on the quote's page. */
+	nextSteps?: string;
 }): Mail {
 	const until = formatDate(input.validUntil, input.timeZone, 'long');
 	return {
@@ -122,11 +167,17 @@ export function quoteMail(input: {
 		replyTo: input.replyTo || undefined,
 		subject: `Your quote from ${input.storeName}: ${input.jobTitle}`,
 		...layout({
+			brand: { storeName: input.storeName, logoUrl: input.logoUrl },
+			figures: [
+				['Total', input.total],
+				['Deposit to book the install', input.deposit]
+			],
+			next: input.nextSteps,
 			heading: `Your quote: ${input.jobTitle}`,
 			paragraphs: [
 				`Hello ${input.customerName},`,
 				`Here is your quote from ${input.storeName}: ${input.total} in all, with a deposit of ${input.deposit} to book the install.`,
-				`Open it to see each room drawn to scale, what we found under the old floor, and what it costs. You can accept it there by typing your name, or ask us for changes. It is good until ${until}.`,
+				`Open it to see each room drawn to scale, what the floor needs before the new one goes down, and what it costs. You can accept it there by typing your name, or ask us for changes. It is good until ${until}.`,
 				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
 			].filter(Boolean),
 			action: { label: 'Open your quote', url: input.url },
@@ -176,11 +227,17 @@ export interface MoneyMailInput {
 	jobLabel: string;
 	jobTitle: string;
 	amount: string;
+	/** Paid so far, less refunds: the page's "Paid so far". */
+	paidSoFar: string;
+	/** Still to pay: the page's "Still to pay". */
 	balance: string;
 	reference: string;
 	url: string;
 	/** The store's time zone. */
 	timeZone: string;
+	logoUrl?: string;
+	/** What happens next now (`$lib/papers/next`), when something does. */
+	next?: string;
 }
 
 function moneyMail(
@@ -190,6 +247,8 @@ function moneyMail(
 		subject: string;
 		heading: string;
 		happened: (when: string) => string;
+		/** The amount's label in the figures ("Received", "Refunded"). */
+		figure: string;
 		note?: string;
 		footer: string;
 	}
@@ -200,13 +259,20 @@ function moneyMail(
 		fromName: input.storeName,
 		subject: `${parts.subject} from ${input.storeName}: ${input.amount} for ${input.jobTitle}`,
 		...layout({
+			brand: { storeName: input.storeName, logoUrl: input.logoUrl },
 			heading: parts.heading,
 			paragraphs: [
 				parts.happened(when),
-				`Reference: ${input.reference}. Still to pay: ${input.balance}.`,
 				parts.note ?? '',
 				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
 			].filter(Boolean),
+			figures: [
+				[parts.figure, input.amount],
+				['Paid so far', input.paidSoFar],
+				['Still to pay', input.balance],
+				['Reference', input.reference]
+			],
+			next: input.next,
 			action: { label: 'See your job', url: input.url },
 			footer: parts.footer
 		})
@@ -220,6 +286,7 @@ export function receiptMail(input: MoneyMailInput & { what: string; paidAt: Date
 		heading: `Thank you, ${input.customerName}`,
 		happened: (when) =>
 			`${input.storeName} received ${input.amount} (${input.what}) for ${input.jobLabel} ${input.jobTitle} on ${when}.`,
+		figure: 'Received',
 		footer: `Keep this e-mail as your receipt. Sent by ${input.storeName}.`
 	});
 }
@@ -239,6 +306,7 @@ export function refundMail(
 		heading: `${input.customerName}, we have refunded ${input.amount}`,
 		happened: (when) =>
 			`${input.storeName} refunded ${input.amount} for ${input.jobLabel} ${input.jobTitle} on ${when}, for ${input.why}, ${input.where}.`,
+		figure: 'Refunded',
 		note: 'A card refund can take several business days to show on your statement.',
 		footer: `Keep this e-mail for your records. Sent by ${input.storeName}.`
 	});
@@ -284,6 +352,9 @@ export function changeOrderMail(input: {
 	total: string;
 	url: string;
 	replyTo?: string;
+	logoUrl?: string;
+	/** The items found, in the words the customer's page uses, with their amounts. */
+	items?: MailFigures;
 }): Mail {
 	const credit = input.totalCents < 0;
 	return {
@@ -292,6 +363,7 @@ export function changeOrderMail(input: {
 		replyTo: input.replyTo || undefined,
 		subject: `${input.changeLabel} for ${input.jobTitle}: your approval, please`,
 		...layout({
+			brand: { storeName: input.storeName, logoUrl: input.logoUrl },
 			heading: `${input.changeLabel}: what we found on site`,
 			paragraphs: [
 				`Hello ${input.customerName},`,
@@ -301,6 +373,12 @@ export function changeOrderMail(input: {
 					: `It comes to ${input.total}. Open it to see the photos and each item, then approve it by typing your name, or decline it.`,
 				input.storePhone ? `Questions? Call us on ${input.storePhone}.` : ''
 			].filter(Boolean),
+			figures: input.items?.length
+				? [...input.items, [credit ? 'Credit' : 'Total', input.total]]
+				: undefined,
+			next: credit
+				? 'Once you approve it, the credit comes off the balance you pay when the work is finished.'
+				: 'Once you approve it, the installer carries on with this work and the amount is added to what you owe: pay it on your page now, or with the balance when the work is finished. If you decline it, tell us why on the same page and we will be in touch about how to go on.',
 			action: { label: 'See the change order', url: input.url },
 			footer: `Sent by ${input.storeName}. This link is for you: please do not forward it.`
 		})

@@ -1,4 +1,5 @@
 import { formatMoney } from '$lib/format';
+import { nextAfterPayment } from '$lib/papers/next';
 import { jobLabel } from '$lib/jobs/status';
 import { config } from '../config';
 import { customerLink } from '../customer-page';
@@ -27,6 +28,7 @@ async function moneyMailOf(tx: StoreWriteTx, paid: payments.Payment, amountCents
 	const profile = await readProfile(tx);
 	const money = await payments.moneyFor(tx, paid.jobId);
 	const customer = await customers.read(tx, job.customerId);
+	const url = await customerLink(tx, job.id);
 	const mail: MoneyMailInput = {
 		to: customer?.email ?? '',
 		storeName: store.name,
@@ -35,12 +37,15 @@ async function moneyMailOf(tx: StoreWriteTx, paid: payments.Payment, amountCents
 		jobLabel: jobLabel(job.number),
 		jobTitle: job.title,
 		amount: formatMoney(amountCents, paid.currency),
+		// The same figures as the customer's page: paid so far and still to pay.
+		paidSoFar: formatMoney(money.ledger.netPaidCents, money.currency),
 		balance: formatMoney(money.ledger.balanceDueCents, money.currency),
 		reference: '',
-		url: await customerLink(tx, job.id),
-		timeZone: store.timeZone
+		url,
+		timeZone: store.timeZone,
+		logoUrl: profile.logoKey ? `${url}/logo` : undefined
 	};
-	return { store, job, mail };
+	return { store, job, mail, balanceDueCents: money.ledger.balanceDueCents };
 }
 
 /**
@@ -62,7 +67,8 @@ export async function announcePayment(tx: StoreWriteTx, paid: payments.Payment) 
 				...mail,
 				what,
 				paidAt: paid.succeededAt ?? new Date(),
-				reference: paid.stripeChargeId ?? paid.id
+				reference: paid.stripeChargeId ?? paid.id,
+				next: nextAfterPayment(paid.purpose, found.balanceDueCents)
 			}),
 			about
 		);

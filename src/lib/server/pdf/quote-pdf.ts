@@ -2,9 +2,9 @@ import fontkit from '@pdf-lib/fontkit';
 import { readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { PDFDocument, rgb, type PDFFont, type PDFImage, type PDFPage } from 'pdf-lib';
-import type { LineGroup, Outline } from '../../estimating';
+import { formatLength, type Outline } from '../../estimating';
 import { formatDate, formatMoney, formatQty, perUnit } from '../../format';
-import type { QuoteViewData } from '../../quote-view';
+import type { CustomerQuote } from '../../papers/customer-quote';
 
 /** Everything printed on a quote: the store's details, never ours. */
 export interface QuotePdfInput {
@@ -26,7 +26,8 @@ export interface QuotePdfInput {
 	issuedAt: Date;
 	validUntil: Date | null;
 	accepted?: { name: string; at: Date } | null;
-	quote: QuoteViewData;
+	/** The customer's quote (`$lib/papers`): the PDF is a customer paper, whoever downloads it. */
+	quote: CustomerQuote;
 }
 
 // Letter, in points; the palette's ink, plank and signal.
@@ -62,6 +63,8 @@ export class Writer {
 	page!: PDFPage;
 	y = 0;
 	pages: PDFPage[] = [];
+	/** Every piece of text drawn, in order: what the paper says, for tests and checks. */
+	readonly drawn: string[] = [];
 	private chars: Set<number>;
 
 	constructor(
@@ -99,7 +102,9 @@ export class Writer {
 	}
 
 	text(text: string, x: number, y: number, size: number, font = this.regular, color = INK) {
-		this.page.drawText(this.clean(text), { x, y, size, font, color });
+		const clean = this.clean(text);
+		this.drawn.push(clean);
+		this.page.drawText(clean, { x, y, size, font, color });
 	}
 
 	/** Words wrapped to a width; returns the lines. */
@@ -166,15 +171,15 @@ export function outlinePath(outline: Outline, w: number, h: number) {
 	return { d: [outline.outer, ...outline.holes].map(ring).join(' '), scale };
 }
 
-const GROUPS: { key: LineGroup; title: string }[] = [
-	{ key: 'material', title: 'Materials' },
-	{ key: 'labour', title: 'Installation' },
-	{ key: 'prep', title: 'Subfloor preparation' },
-	{ key: 'removal', title: 'Removal of existing floors' }
-];
-
 /** The quote as a PDF of our own layout, with the store's name, details and logo. */
 export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
+	return (await drawQuotePdf(input)).bytes;
+}
+
+/** The quote's PDF and every piece of text drawn on it. */
+export async function drawQuotePdf(
+	input: QuotePdfInput
+): Promise<{ bytes: Uint8Array; text: string[] }> {
 	const doc = await PDFDocument.create();
 	doc.registerFontkit(fontkit);
 	const [regularBytes, boldBytes] = await fontBytes();
@@ -260,7 +265,7 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 	const cell = { w: (PAGE.width - 2 * PAGE.margin - 24) / 3, h: 110 };
 	q.rooms.forEach((room, i) => {
 		const col = i % 3;
-		if (col === 0) w.need(cell.h + 34);
+		if (col === 0) w.need(cell.h + 60);
 		const x = PAGE.margin + col * (cell.w + 12);
 		const y = w.y;
 		w.text(room.name, x, y - 10, 10, bold);
@@ -279,52 +284,41 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 				borderColor: INK,
 				borderWidth: 1.2
 			});
+			const unit = q.metric ? 'm' : 'ft-in';
+			const dims = `${formatLength(room.outline.bbox.widthIn, unit, { denominator: 2 })} × ${formatLength(room.outline.bbox.lengthIn, unit, { denominator: 2 })}`;
+			w.text(dims, x, y - cell.h - 24, 8.5, regular, MUTED);
 		}
-		if (col === 2 || i === q.rooms.length - 1) w.y -= cell.h + 30;
+		const under = [
+			room.floor ?? 'No new floor',
+			...room.takingUp.map((k) => `taking up ${k.toLowerCase()}`)
+		];
+		w.wrap(under.join('; '), 8.5, cell.w)
+			.slice(0, 2)
+			.forEach((part, k) => w.text(part, x, y - cell.h - 35 - k * 10, 8.5, regular));
+		if (col === 2 || i === q.rooms.length - 1) w.y -= cell.h + 56;
 	});
 
-	// Lines by group.
+	// Lines by group: the prep in plain sentences, supplies without their sizes.
 	const cols = { qty: right - 250, price: right - 150, amount: right };
-	const failed = new Map(q.findings.filter((f) => !f.pass).map((f) => [f.id, f]));
-	const roomName = new Map(q.rooms.map((r) => [r.id, r.name]));
-	for (const group of GROUPS) {
-		const lines = q.lines.filter((l) => l.group === group.key);
-		if (!lines.length) continue;
+	for (const group of q.groups) {
 		w.heading(group.title);
-		for (const line of lines) {
-			const room = line.roomId ? roomName.get(line.roomId) : undefined;
-			const label =
-				room && !line.description.includes(room)
-					? `${line.description} (${room})`
-					: line.description;
-			const wrapped = w.wrap(label, 9.5, cols.qty - PAGE.margin - 70);
+		for (const line of group.lines) {
+			const label = line.room ? `${line.text} (${line.room})` : line.text;
+			const priced = line.priced;
+			const wrapped = w.wrap(label, 9.5, (priced ? cols.qty - 70 : cols.amount - 80) - PAGE.margin);
 			w.need(wrapped.length * 13 + 6);
 			const y = w.y - 9.5;
 			wrapped.forEach((part, i) => w.text(part, PAGE.margin, y - i * 13, 9.5));
-			const qty = formatQty(line.qty, line.basis);
-			const price = `${money(line.unitCents)} ${perUnit(line.basis)}`;
-			w.text(qty, cols.qty - w.width(qty, 9.5), y, 9.5);
-			w.text(price, cols.price + 40 - w.width(price, 9) - 0, y, 9, regular, MUTED);
+			if (priced) {
+				const qty = formatQty(priced.qty, priced.basis);
+				const price = `${money(priced.unitCents)} ${perUnit(priced.basis)}`;
+				w.text(qty, cols.qty - w.width(qty, 9.5), y, 9.5);
+				w.text(price, cols.price + 40 - w.width(price, 9), y, 9, regular, MUTED);
+			}
 			const amount = money(line.amountCents);
 			w.text(amount, cols.amount - w.width(amount, 9.5, bold), y, 9.5, bold);
-			w.y -= wrapped.length * 13 + 4;
-			for (const id of line.findingIds) {
-				const finding = failed.get(id);
-				if (!finding) continue;
-				failed.delete(id);
-				w.paragraph(`Why: ${finding.message}`, 8.5, {
-					x: PAGE.margin + 12,
-					width: cols.qty - PAGE.margin - 80,
-					color: SIGNAL
-				});
-			}
-			w.y -= 3;
+			w.y -= wrapped.length * 13 + 7;
 		}
-	}
-	if (failed.size) {
-		w.heading('What the measure found');
-		for (const f of failed.values())
-			w.paragraph(`${roomName.get(f.roomId)}: ${f.message}`, 9.5, { color: SIGNAL });
 	}
 
 	// Totals.
@@ -339,8 +333,7 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 		w.text(value, right - w.width(value, size, font), w.y - size, size, font);
 		w.y -= size + 8;
 	};
-	for (const group of GROUPS)
-		if (q.totals.byGroup[group.key]) totalRow(group.title, money(q.totals.byGroup[group.key]));
+	for (const group of q.groups) totalRow(group.title, money(q.totals.byGroup[group.key]));
 	totalRow('Subtotal', money(q.totals.subtotalCents));
 	for (const tax of q.totals.taxes) {
 		if (tax.taxCents) totalRow(`${tax.name} (${tax.rateBps / 100} %)`, money(tax.taxCents));
@@ -348,30 +341,30 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 	totalRow('Total', money(q.totals.totalCents), true);
 	totalRow('Deposit to book the install', money(q.totals.depositCents));
 	totalRow('Balance after the install', money(q.totals.balanceCents));
-	if (q.schedule.days) {
+	if (q.days) {
 		w.paragraph(
-			`The install takes about ${q.schedule.days} working ${q.schedule.days === 1 ? 'day' : 'days'}, including preparation and curing.`,
+			`The work takes about ${q.days} working ${q.days === 1 ? 'day' : 'days'}, including getting the floor ready and the time it needs to dry or settle.`,
 			9,
 			{ color: MUTED }
 		);
 	}
 
-	// The order of work with the waits that hold the next step, as the quote page shows it.
-	if (q.schedule.steps?.length) {
-		w.heading('Order of work');
-		q.schedule.steps.forEach((step, i) => {
-			const wait = step.waitHours ? ` — then wait ${step.waitHours} h` : '';
-			w.paragraph(`${i + 1}. ${step.label}${wait}`, 9, { color: INK });
-			w.y -= 1;
-		});
-	}
-
+	// What the homeowner should know before the install, then the store's own papers.
 	if (q.cautions.length) {
-		w.heading('Cautions');
-		for (const text of q.cautions) {
-			w.paragraph(text, 9, { color: INK });
-			w.y -= 3;
+		w.heading('Before the install');
+		for (const c of q.cautions) {
+			w.paragraph(c.title, 9.5, { font: bold });
+			w.paragraph(c.text, 9, { color: INK });
+			w.y -= 4;
 		}
+	}
+	for (const [title, text] of [
+		['What happens next', q.papers.nextSteps],
+		['Cancellation', q.papers.cancellation],
+		['Terms', q.papers.terms]
+	]) {
+		w.heading(title);
+		for (const part of text.split(/\n+/)) if (part.trim()) w.paragraph(part, 9, { color: INK });
 	}
 
 	w.need(60);
@@ -400,5 +393,5 @@ export async function quotePdf(input: QuotePdfInput): Promise<Uint8Array> {
 		);
 	}
 	w.finish();
-	return doc.save();
+	return { bytes: await doc.save(), text: w.drawn };
 }

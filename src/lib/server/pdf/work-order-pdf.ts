@@ -129,6 +129,15 @@ export async function workOrderPdf(order: WorkOrder, storeName: string): Promise
 		}
 	}
 
+	if (order.structure.length) {
+		w.heading('Structure and subfloor checks');
+		for (const r of order.structure) {
+			w.paragraph(`${r.roomName}: ${r.what} (${r.source}).`, 9, {
+				color: r.pass ? INK : SIGNAL
+			});
+		}
+	}
+
 	w.heading('Cautions');
 	for (const c of order.cautions) w.paragraph(`• ${c}`, 8.5, { color: MUTED });
 

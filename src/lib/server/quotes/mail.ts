@@ -1,5 +1,6 @@
 import { formatMoney } from '$lib/format';
 import { jobLabel } from '$lib/jobs/status';
+import { papersOf } from '$lib/papers/store-papers';
 import { config } from '../config';
 import { customerLink } from '../customer-page';
 import * as jobs from '../db/queries/jobs';
@@ -14,6 +15,7 @@ export async function quoteMailFor(tx: StoreTx, quote: quotes.Quote, to: string)
 	const job = await jobs.readForStore(tx, quote.jobId);
 	if (!store || !job) throw new Error('quote without its store or job');
 	const profile = await readProfile(tx);
+	const url = await customerLink(tx, job.id);
 	return quoteMail({
 		to,
 		storeName: store.name,
@@ -25,7 +27,10 @@ export async function quoteMailFor(tx: StoreTx, quote: quotes.Quote, to: string)
 		deposit: formatMoney(quote.depositCents, quote.currency),
 		validUntil: quote.validUntil ?? new Date(),
 		timeZone: store.timeZone,
-		url: await customerLink(tx, job.id)
+		url,
+		logoUrl: profile.logoKey ? `${url}/logo` : undefined,
+		// The quote's page says the same under "What happens next".
+		nextSteps: papersOf({ nextSteps: profile.papersNextSteps }).nextSteps
 	});
 }
 

@@ -1,5 +1,6 @@
 import { jobLabel } from '$lib/jobs/status';
-import { quoteView } from '$lib/quote-view';
+import { customerQuote } from '$lib/papers/customer-quote';
+import { papersOf } from '$lib/papers/store-papers';
 import * as customers from '../db/queries/customers';
 import * as jobs from '../db/queries/jobs';
 import type * as quotes from '../db/queries/quotes';
@@ -49,10 +50,16 @@ export async function quotePdfInput(tx: StoreTx, quote: quotes.Quote): Promise<Q
 			quote.acceptedAt && quote.acceptedName
 				? { name: quote.acceptedName, at: quote.acceptedAt }
 				: null,
-		quote: quoteView(quote.result, {
+		// The customer's papers, as the link's page shows them.
+		quote: customerQuote(quote, {
 			currency: quote.currency,
 			// The units the quote was built in, as stored with it.
-			metric: quote.input.settings.units.system === 'metric'
+			metric: quote.input.settings.units.system === 'metric',
+			papers: papersOf({
+				nextSteps: profile.papersNextSteps,
+				cancellation: profile.papersCancellation,
+				terms: profile.papersTerms
+			})
 		})
 	};
 }

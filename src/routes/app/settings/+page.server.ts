@@ -1,12 +1,13 @@
 import { auth } from '$lib/server/auth';
 import { authFailure } from '$lib/server/auth-errors';
 import * as tradeSettings from '$lib/server/db/queries/settings';
-import { readProfile, saveProfile, saveTimeZone } from '$lib/server/db/queries/stores';
+import { readProfile, savePapers, saveProfile, saveTimeZone } from '$lib/server/db/queries/stores';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { fieldErrors, parseForm, refuse, typedValues } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { LOGO_MAX_BYTES, removeLogo, saveLogo } from '$lib/server/logo';
-import { storeProfileSchema } from '$lib/schemas/store';
+import { storePapersSchema, storeProfileSchema } from '$lib/schemas/store';
+import { DEFAULT_PAPERS, PAPERS_MAX } from '$lib/papers/store-papers';
 import { saveStoreAccess } from '$lib/server/db/queries/access';
 import {
 	applyTradeSettings,
@@ -52,6 +53,16 @@ export const load: PageServerLoad = async () => {
 	return {
 		stripeAccount,
 		profile: { ...profile, name: store.name, timeZone: store.timeZone },
+		// The store's own words on its customer papers (blank: the default, shown beside the field).
+		papers: {
+			values: {
+				nextSteps: profile.papersNextSteps,
+				cancellation: profile.papersCancellation,
+				terms: profile.papersTerms
+			},
+			defaults: DEFAULT_PAPERS,
+			max: PAPERS_MAX
+		},
 		logoVersion: profile.logoKey ? profile.logoKey.replace(/^.*logo-|\..*$/g, '') : null,
 		trade: form.values,
 		currencySymbol: currencySymbol(trade.currency),
@@ -114,6 +125,19 @@ export const actions: Actions = {
 			if (timeZone !== store.timeZone) await saveTimeZone(tx, timeZone);
 		});
 		return { saved: true };
+	},
+	/** The store's terms, cancellation policy and what happens next, on its customer papers. */
+	papers: async ({ request }) => {
+		const { store } = requirePermission({ store: ['update'] });
+		const form = await request.formData();
+		const parsed = storePapersSchema.safeParse(formFields(form));
+		if (!parsed.success) {
+			return fail(400, {
+				papers: { values: typedValues(form), errors: fieldErrors(parsed.error) }
+			});
+		}
+		await inStore(store.id, (tx) => savePapers(tx, parsed.data));
+		return { papersSaved: true };
 	},
 	/** Taxes, deposit, quote validity, units, waste, fastening schedule, crew output; the rest is kept. */
 	trade: async ({ request }) => {

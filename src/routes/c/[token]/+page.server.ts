@@ -27,7 +27,8 @@ import {
 	signOffSchema
 } from '$lib/schemas/change-order';
 import { jobLabel, payableNow } from '$lib/jobs/status';
-import { quoteView } from '$lib/quote-view';
+import { customerQuote } from '$lib/papers/customer-quote';
+import { papersOf } from '$lib/papers/store-papers';
 import { requiredText } from '$lib/schemas/fields';
 import { error, fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
@@ -150,10 +151,16 @@ export const load: PageServerLoad = async ({ params, setHeaders, url }) => {
 			acceptedAt: quote.acceptedAt,
 			acceptedName: quote.acceptedName,
 			changeNote: quote.changeNote,
-			view: quoteView(quote.result, {
+			// The customer's papers: what a homeowner reads, never the installer's notes or readings.
+			paper: customerQuote(quote, {
 				currency: quote.currency,
 				// The units the quote was built in, as stored with it.
-				metric: quote.input.settings.units.system === 'metric'
+				metric: quote.input.settings.units.system === 'metric',
+				papers: papersOf({
+					nextSteps: profile.papersNextSteps,
+					cancellation: profile.papersCancellation,
+					terms: profile.papersTerms
+				})
 			})
 		}
 	};

@@ -113,7 +113,10 @@ export async function readProfile(tx: StoreTx) {
 			town: '',
 			phone: '',
 			email: '',
-			logoKey: null
+			logoKey: null,
+			papersNextSteps: '',
+			papersCancellation: '',
+			papersTerms: ''
 		}
 	);
 }
@@ -142,6 +145,25 @@ export async function saveProfile(
 		})
 		.returning();
 	return row;
+}
+
+/** Saves the store's own words on its customer papers (blank: the default wording). */
+export async function savePapers(
+	tx: StoreWriteTx,
+	input: { nextSteps: string; cancellation: string; terms: string }
+) {
+	const set = {
+		papersNextSteps: input.nextSteps,
+		papersCancellation: input.cancellation,
+		papersTerms: input.terms
+	};
+	await tx
+		.insert(storeProfile)
+		.values({ organizationId: tx.storeId, ...set })
+		.onConflictDoUpdate({
+			target: storeProfile.organizationId,
+			set: { ...set, updatedAt: new Date() }
+		});
 }
 
 /** An invitation with its store and inviter, for the invitation page (no session needed). */

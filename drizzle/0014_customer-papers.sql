@@ -1,0 +1,3 @@
+ALTER TABLE "store_profile" ADD COLUMN "papers_next_steps" text DEFAULT '' NOT NULL;--> statement-breakpoint
+ALTER TABLE "store_profile" ADD COLUMN "papers_cancellation" text DEFAULT '' NOT NULL;--> statement-breakpoint
+ALTER TABLE "store_profile" ADD COLUMN "papers_terms" text DEFAULT '' NOT NULL;
