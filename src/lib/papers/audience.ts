@@ -49,7 +49,12 @@ export const SUPPLY_WORDS: Record<SupplyKind, string> = {
 	underlayment_panel: 'Underlayment panels: a smooth, even base for the new floor',
 	fastener: 'Nails or screws to hold the underlayment panels down',
 	patch: 'Patch compound for seams, dents and low spots',
-	leveller: 'Self-levelling compound to even out low spots'
+	leveller: 'Self-levelling compound to even out low spots',
+	thinset: 'Tile adhesive (thinset mortar) to set the tile',
+	grout: 'Grout to fill the joints between tiles',
+	backer: 'Backer board or membrane under the tile',
+	baseboard: 'New baseboard trim along the walls',
+	shoe: 'New shoe moulding where the floor meets the baseboard'
 };
 
 /** The cautions that concern the homeowner, by what they are about. */
