@@ -129,12 +129,16 @@ describe('the next step', { timeout: 60_000 }, () => {
 			step: 'review_change_order',
 			action: { label: 'Review CO-1', href: `/app/jobs/${site.job.id}/change-orders/1` }
 		});
-		// The report photo shows as a thumbnail through the change order's photo address.
+		// The report photo shows as a thumbnail through the job's own photo address.
 		const photos = page.photos as { report: number; thumbs: { href: string }[] };
 		expect(photos.report).toBe(1);
 		expect(photos.thumbs).toHaveLength(1);
+		expect(photos.thumbs[0].href).toMatch(new RegExp(`^/app/jobs/${site.job.id}/photos/`));
 		const thumb = await owner.request(`${photos.thumbs[0].href}?size=thumb`);
 		expect(thumb.status).toBe(200);
+		// The installer reads photos through the field API, never the desk's address.
+		const installer = await app.signIn(site.installer.email);
+		expect((await installer.request(photos.thumbs[0].href)).status).toBe(403);
 
 		await completeJob(site);
 		const done = dataOf(await owner.page(`/app/jobs/${site.job.id}`));

@@ -271,6 +271,12 @@ const endpoints: EndpointTarget[] = [
 		method: 'GET',
 		params: { ...changeOrder, photo: { fixed: 'no-such-photo' } }
 	},
+	{
+		kind: 'endpoint',
+		route: '/app/jobs/[id]/photos/[photo]',
+		method: 'GET',
+		params: { ...job, photo: { fixed: 'no-such-photo' } }
+	},
 	{ kind: 'endpoint', route: '/app/jobs/[id]/work-order.pdf', method: 'GET', params: job },
 	{ kind: 'endpoint', route: '/app/payments/export.csv', method: 'GET' },
 	{ kind: 'endpoint', route: '/field/jobs/[id]/work-order.pdf', method: 'GET', params: job },

@@ -202,8 +202,6 @@ export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 	}
 	timeline.sort((a, b) => a.at.getTime() - b.at.getTime() || a.key.localeCompare(b.key));
 
-	// Report photos open through a change order's photo address, for those who review it.
-	const photoOrder = may.review ? orders[0] : undefined;
 	const reportPhotos = photos.filter((p) => p.purpose === 'report');
 
 	return {
@@ -249,13 +247,13 @@ export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 		photos: {
 			report: reportPhotos.length,
 			completion: photos.length - reportPhotos.length,
-			thumbs: photoOrder
-				? reportPhotos.slice(0, THUMBS).map((p) => ({
-						id: p.id,
-						caption: p.caption,
-						href: `/app/jobs/${job.id}/change-orders/${photoOrder.number}/photos/${p.id}`
-					}))
-				: []
+			// Whoever sees the job sees its site photos (the page's load asks `job: read`).
+			thumbs: photos.slice(0, THUMBS).map((p) => ({
+				id: p.id,
+				caption: p.caption,
+				purpose: p.purpose,
+				href: `/app/jobs/${job.id}/photos/${p.id}`
+			}))
 		},
 		changeOrders: may.review
 			? orders.map((c) => ({
