@@ -5,6 +5,7 @@
 //   npm run seed:scale -- --stores 2 --jobs 200 a small one, for working on the benchmarks
 //   npm run seed:scale -- --big                 and one store of ~100,000 jobs, ~2,000 customers
 //   npm run seed:scale -- --stores 0 --big      only the big store
+//   npm run seed:scale -- --add --stores 0 --big  add the big store to the seeded database
 //
 // How: the demo seed (scripts/seed.ts) makes one template store through the app's own code
 // (better-auth sign-ups, price book, measures, quotes built by the engine, payments, bookings),
@@ -33,6 +34,8 @@ const CUSTOMERS = option('customers', 40);
 const BIG = args.includes('--big');
 const BIG_JOBS = option('big-jobs', 100_000);
 const BIG_CUSTOMERS = option('big-customers', 2000);
+/** Add to the bench database already seeded (its template store stays) instead of starting afresh. */
+const ADD = args.includes('--add');
 /** The big store's number (stores are numbered 1…STORES). */
 export const BIG_STORE = 1000;
 
@@ -44,7 +47,7 @@ const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_P
 startCluster(cluster);
 const { appUrl, ownerUrl } = await prepareDatabase(cluster, {
 	database: 'flushline_bench',
-	fresh: true
+	fresh: !ADD
 });
 process.env.DATABASE_URL = appUrl;
 process.env.DATABASE_OWNER_URL = ownerUrl;
@@ -57,9 +60,18 @@ const superUrl = databaseUrl(cluster, 'postgres', 'flushline_bench');
 // The template: the demo store, made through the app's own code.
 const { seedDemo } = await import('./seed');
 const { pool } = await import('../src/lib/server/db/index');
-const { storeId: template } = await seedDemo();
-const { addFieldWork } = await import('./seed-scale-field');
-await addFieldWork(template, dataDir);
+let template: string;
+if (ADD) {
+	const { rows } = await pool.query<{ id: string }>(
+		`select id from organization where slug = 'tallow-creek-floors'`
+	);
+	if (!rows[0]) throw new Error('--add needs a database seeded by npm run seed:scale before');
+	template = rows[0].id;
+} else {
+	template = (await seedDemo()).storeId;
+	const { addFieldWork } = await import('./seed-scale-field');
+	await addFieldWork(template, dataDir);
+}
 await pool.end();
 console.log(`template store made through the app in ${seconds()} s`);
 
@@ -317,7 +329,8 @@ if (BIG) {
 	console.log(`the big store copied (${seconds()} s)`);
 }
 await client.query('set session_replication_role = origin');
-await client.query('analyze');
+// Fresh statistics and visibility maps, as autovacuum would leave them: index-only scans count rows.
+await client.query('vacuum analyze');
 
 const counts = await client.query<{ table: string; n: string }>(
 	[...CUSTOMER_TABLES, ...JOB_TABLES, 'organization', 'user', 'member', 'price_item']
