@@ -370,7 +370,10 @@ if (process.env.BENCH_SKIP_BROWSER !== '1') {
 					.catch(() => {})
 			);
 		});
-		await page.goto(`${origin}${p.path}`, { waitUntil: 'networkidle' });
+		// Not `networkidle`: the installer's pages keep a sync going. Loaded, hydrated, settled.
+		await page.goto(`${origin}${p.path}`, { waitUntil: 'load' });
+		await page.waitForSelector('html[data-hydrated]', { timeout: 15_000 }).catch(() => {});
+		await page.waitForTimeout(1000);
 		await Promise.all(pending);
 		console.log(
 			`  ${p.who.padEnd(10)} ${p.path.replace(/[0-9a-f-]{36}/, '<id>').padEnd(28)} JS ${(js / 1024).toFixed(1).padStart(6)} KB   CSS ${(css / 1024).toFixed(1).padStart(5)} KB`

@@ -169,7 +169,9 @@ function expression(table: string, col: Column, level: Level, customerCopies: st
 		return fk(t);
 	}
 	if (level === 'job' && col.type.startsWith('timestamp')) return `${t} - k * interval '3 hours'`;
-	if (level === 'job' && col.type === 'date') return `${t} - (k % 90)`;
+	// Days move back with the times (8 copies a day): most bookings are past, as in a store that
+	// has worked for years, and each installer has a few weeks ahead.
+	if (level === 'job' && col.type === 'date') return `${t} - (k * 3 / 24)::int`;
 	if (col.type === 'jsonb' && level === 'job') return `coalesce(j."${col.name}", ${t})`;
 	return t;
 }
