@@ -8,7 +8,7 @@
  *
  *   FLUSHLINE_BENCH_PG_PORT (54322)  the bench cluster    FLUSHLINE_BENCH_PORT (4271)  the server
  *   BENCH_STORE (1)  the seeded store to sign in to (1000: the big one)
- *   BENCH_SECONDS (10)  length of each run            BENCH_SKIP_BROWSER=1  no Chromium figures
+ *   FLUSHLINE_BENCH_DB (flushline_bench)  the database   BENCH_SECONDS (10)  length of each run            BENCH_SKIP_BROWSER=1  no Chromium figures
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
@@ -37,8 +37,9 @@ const started = performance.now();
 const { clusterAt, startCluster, databaseUrl } = await import('../scripts/lib/postgres.js');
 const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_PG_PORT ?? 54322));
 startCluster(cluster);
-const appUrl = databaseUrl(cluster, 'flushline_app', 'flushline_bench');
-const superUrl = databaseUrl(cluster, 'postgres', 'flushline_bench');
+const database = process.env.FLUSHLINE_BENCH_DB ?? 'flushline_bench';
+const appUrl = databaseUrl(cluster, 'flushline_app', database);
+const superUrl = databaseUrl(cluster, 'postgres', database);
 
 if (!existsSync(path.join(root, 'build/index.js')) || process.env.BENCH_BUILD === '1') {
 	console.log('Building…');
@@ -251,7 +252,7 @@ interface Figures {
 	statuses: string;
 }
 
-function run(t: Target, rate?: number): Promise<autocannon.Result> {
+function run(t: Target, rate?: number, duration = seconds): Promise<autocannon.Result> {
 	const headers: Record<string, string> = { origin };
 	if (t.cookie) headers.cookie = t.cookie;
 	if (t.contentType) headers['content-type'] = t.contentType;
@@ -259,7 +260,7 @@ function run(t: Target, rate?: number): Promise<autocannon.Result> {
 		url: `${origin}${t.path}`,
 		method: t.method ?? 'GET',
 		connections: 10,
-		duration: seconds,
+		duration,
 		headers,
 		body: t.body,
 		...(rate ? { overallRate: rate } : {}),
@@ -287,6 +288,11 @@ const statusText = (r: autocannon.Result) =>
 		.filter((k) => r[k] > 0)
 		.map((k) => `${k}:${r[k]}`)
 		.join(' ');
+
+// Warm-up, not counted: the server's first seconds (JIT, the pool's connections) would otherwise
+// fall on whichever route runs first, the baseline.
+await run({ ...targets[0] }, undefined, 5);
+for (const t of targets.slice(1)) await run(t, undefined, 1);
 
 const results = new Map<string, Figures>();
 for (const t of targets) {

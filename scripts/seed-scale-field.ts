@@ -1,14 +1,17 @@
 // The installer's half of the scale seed's template store: on each job under way, the field
-// report (checked in), a reading and a note, and two photos (small images generated with sharp,
-// written in the local file store's layout, `<store>/photos/<job>/<id>.jpg`). Through the app's
-// query modules; the workflows in $lib/server/field import SvelteKit's `$env`, which a script
-// run by tsx cannot load. scripts/seed-scale.ts then copies these rows to every store (the copies
-// share the template's files).
+// report (checked in), a reading, a note and prep found beyond what was sold, two photos (small
+// images generated with sharp, written in the local file store's layout,
+// `<store>/photos/<job>/<id>.jpg`), and the report sent, which prices a change order through the
+// app's own `changeOrderFromReport`. Rows through the app's query modules: the workflows in
+// $lib/server/field import SvelteKit's `$env`, which a script run by tsx cannot load.
+// scripts/seed-scale.ts then copies these rows to every store (the copies share the files).
 import { mkdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import sharp from 'sharp';
 import { and, eq } from 'drizzle-orm';
+import { changeOrderFromReport } from '../src/lib/server/change-orders/from-report';
 import * as field from '../src/lib/server/db/queries/field';
+import { reportChoices } from '../src/lib/server/field/work-order';
 import { job } from '../src/lib/server/db/schema';
 import { inStore } from '../src/lib/server/db/tenant';
 
@@ -71,6 +74,25 @@ export async function addFieldWork(storeId: string, dataDir: string) {
 				recordedBy: installer,
 				recordedAt: now
 			});
+			// Prep the measure missed: four more of the quote's first prep item than were sold.
+			const choices = await reportChoices(tx, w.id);
+			const found = [...choices.items.values()].find((c) => c.ref.type === 'prep');
+			if (found) {
+				const room = choices.rooms[0]?.id ?? null;
+				await field.insertItem(tx, {
+					reportId: report.id,
+					clientId: `scale-found-${w.id}`,
+					kind: 'found',
+					roomId: room,
+					ref: found.ref,
+					refKey: found.refKey,
+					qty: (choices.sold.get(`${room ?? ''}|${found.refKey}`) ?? 0) + 4,
+					unit: found.unit,
+					note: 'More than the measure showed',
+					recordedBy: installer,
+					recordedAt: now
+				});
+			}
 			for (const [p, f] of photos.entries()) {
 				await field.insertPhoto(tx, {
 					jobId: w.id,
@@ -88,6 +110,8 @@ export async function addFieldWork(storeId: string, dataDir: string) {
 				});
 			}
 			await field.markSubmitted(tx, report.id, installer);
+			const change = await changeOrderFromReport(tx, report.id, installer);
+			if (!change.ok) throw new Error(`Scale seed: no change order (${change.reason})`);
 		});
 	}
 }

@@ -45,8 +45,10 @@ const seconds = () => ((performance.now() - started) / 1000).toFixed(1);
 const { clusterAt, prepareDatabase, startCluster, databaseUrl } = await import('./lib/postgres.js');
 const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_PG_PORT ?? 54322));
 startCluster(cluster);
+/** Another name keeps the one benchmarked while a second is seeded (`FLUSHLINE_BENCH_DB`). */
+const database = process.env.FLUSHLINE_BENCH_DB ?? 'flushline_bench';
 const { appUrl, ownerUrl } = await prepareDatabase(cluster, {
-	database: 'flushline_bench',
+	database,
 	fresh: !ADD
 });
 process.env.DATABASE_URL = appUrl;
@@ -55,7 +57,7 @@ process.env.FLUSHLINE_FAKES ??= '1';
 // Photos go where the bench's server reads them (bench/run-http.js uses the same folder).
 const dataDir = path.resolve(process.env.FLUSHLINE_DATA_DIR ?? '.data/bench-app');
 process.env.FLUSHLINE_DATA_DIR = dataDir;
-const superUrl = databaseUrl(cluster, 'postgres', 'flushline_bench');
+const superUrl = databaseUrl(cluster, 'postgres', database);
 
 // The template: the demo store, made through the app's own code.
 const { seedDemo } = await import('./seed');
