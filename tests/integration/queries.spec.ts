@@ -110,6 +110,37 @@ describe('jobs across stores', () => {
 		).toBeUndefined();
 	});
 
+	it("searches by title, customer's name or number, and counts what it finds", async () => {
+		const store = await makeStore('Job Search Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const make = async (customer: string, title: string) => {
+			const c = await makeCustomer(store.id, customer);
+			const j = await inStore(store.id, (tx) =>
+				jobs.create(tx, { customerId: c.id, title }, store.owner.id)
+			);
+			return j!;
+		};
+		const byTitle = await make('Ivo Thistle', 'Oak stairs');
+		const byName = await make('Greta Oakhurst', 'Hall carpet');
+		const other = await make('Felix Bran', 'Basement vinyl');
+		// Another store's customer of the same name is not this store's match.
+		const elsewhere = await makeCustomer(b.id, 'Otto Oakley');
+		await makeJob(b.id, b.owner.id, elsewhere.id);
+		const find = async (q: string, sort: 'customer' | 'number' = 'number') => {
+			const { rows, total } = await inStore(store.id, (tx) =>
+				jobs.list(tx, { ...jobPage, q, sort, dir: 'asc' }, staff)
+			);
+			return { ids: rows.map((r) => r.id), total };
+		};
+		expect(await find('oak', 'customer')).toEqual({ ids: [byName.id, byTitle.id], total: 2 });
+		expect(await find('OAK')).toEqual({ ids: [byTitle.id, byName.id], total: 2 });
+		expect(await find(`J-${other.number}`)).toEqual({ ids: [other.id], total: 1 });
+		expect(await find('%')).toEqual({ ids: [], total: 0 });
+		const all = await inStore(store.id, (tx) => jobs.list(tx, { ...jobPage, pageSize: 2 }, staff));
+		expect(all.rows).toHaveLength(2);
+		expect(all.total).toBe(3);
+	});
+
 	it('numbers jobs per store from 1001', async () => {
 		const store = await makeStore('Numbering Floors');
 		const first = await makeJob(store.id, store.owner.id);

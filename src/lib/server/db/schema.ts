@@ -228,6 +228,11 @@ export const job = pgTable(
 		index('job_organization_status_idx').on(t.organizationId, t.status),
 		index('job_organization_installer_idx').on(t.organizationId, t.installerId),
 		index('job_customer_idx').on(t.customerId),
+		// The job list's shapes (bench/README.md): a store's jobs by last change, newest first, and
+		// by customer (sorted by customer, or one customer's). Not by status: under row-level
+		// security the enum's `=` (not leakproof) is never an index condition for the app's role.
+		index('job_organization_updated_idx').on(t.organizationId, t.updatedAt, t.number),
+		index('job_organization_customer_idx').on(t.organizationId, t.customerId, t.number),
 		unique('job_organization_number_uq').on(t.organizationId, t.number),
 		unique('job_id_organization_uq').on(t.id, t.organizationId),
 		foreignKey({
@@ -635,6 +640,10 @@ export const booking = pgTable(
 	},
 	(t) => [
 		index('booking_installer_days_idx').on(t.organizationId, t.installerId, t.startsOn),
+		// The installer's today page: their live bookings not yet over (bench/README.md).
+		index('booking_installer_live_ends_idx')
+			.on(t.organizationId, t.installerId, t.endsOn)
+			.where(sql`${t.cancelledAt} is null`),
 		index('booking_days_idx').on(t.organizationId, t.startsOn),
 		unique('booking_id_organization_uq').on(t.id, t.organizationId),
 		uniqueIndex('booking_job_live_uq')

@@ -1,0 +1,43 @@
+#!/usr/bin/env bash
+# EXPLAIN ANALYZE of the job list and customer search queries (as src/lib/server/db/queries sends
+# them, through row-level security as the app's role) on the scale seed, each run once to warm
+# the session's caches and then shown.
+#   bash bench/explain.sh [store number, default 1; 1000 is seed:scale --big's store] [old|new]
+# `old` is the query shape before the scale indexes (count joined to customer, the customer's name
+# matched in the join), `new` (the default) today's. FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
+set -euo pipefail
+PORT=${FLUSHLINE_BENCH_PG_PORT:-54322}
+N=${1:-1}
+SHAPE=${2:-new}
+psql_() { psql -h 127.0.0.1 -p "$PORT" "$@"; }
+S=$(psql_ -U postgres flushline_bench -Atc "select o.id from organization o join member m on m.organization_id = o.id join \"user\" u on u.id = m.user_id where u.email = 'owner+s$N@tallowcreek.example'")
+q() {
+	psql_ -U flushline_app flushline_bench -q <<SQL
+begin;
+select set_config('app.store_id', '$S', true) \g /dev/null
+explain (analyze) $1 \g /dev/null
+explain (analyze, costs off, summary on) $1;
+rollback;
+SQL
+}
+SEL="select j.id, j.number, j.title, j.status, j.customer_id, c.name, c.phone, j.site_id, j.installer_id, i.name, j.salesperson_id, sp.name, j.notes, j.status_changed_at, j.updated_at, j.created_at from job j inner join customer c on c.id = j.customer_id and c.organization_id = j.organization_id left join \"user\" i on i.id = j.installer_id left join \"user\" sp on sp.id = j.salesperson_id"
+CNT_JOIN="select count(*) from job j inner join customer c on c.id = j.customer_id and c.organization_id = j.organization_id"
+if [ "$SHAPE" = old ]; then
+	CNT="$CNT_JOIN"
+	OAK="(j.title ilike '%oak%' or c.name ilike '%oak%')"
+	CNT_OAK="$CNT_JOIN"
+else
+	CNT="select count(*) from job j"
+	OAK="(j.title ilike '%oak%' or j.customer_id = any(array(select c2.id from customer c2 where c2.organization_id = '$S' and c2.name ilike '%oak%')))"
+	CNT_OAK="$CNT"
+fi
+echo "== store $N ($SHAPE query shape)"
+echo "== list: sold, by updated"; q "$SEL where j.organization_id = '$S' and j.status = 'sold' order by j.updated_at desc, j.number desc limit 50"
+echo "== count: sold"; q "$CNT where j.organization_id = '$S' and j.status = 'sold'"
+echo "== list: all, by number"; q "$SEL where j.organization_id = '$S' order by j.number desc, j.number desc limit 50"
+echo "== count: all"; q "$CNT where j.organization_id = '$S'"
+echo "== list: search oak, by customer"; q "$SEL where j.organization_id = '$S' and $OAK order by c.name asc, j.number desc limit 50"
+echo "== count: search oak"; q "$CNT_OAK where j.organization_id = '$S' and $OAK"
+echo "== customers: search ash"; q "select * from customer where organization_id = '$S' and (name ilike '%ash%' or email ilike '%ash%' or phone ilike '%ash%') order by name asc, id asc limit 25"
+I=$(psql_ -U postgres flushline_bench -Atc "select id from \"user\" where email = 'installer+s$N@tallowcreek.example'")
+echo "== installer's today: live bookings from today"; q "select b.id, j.id, j.number, j.title, j.status, c.name, s.address, s.town, b.starts_on, b.ends_on, b.days, b.arrives_at from booking b join job j on j.id = b.job_id and j.organization_id = b.organization_id join customer c on c.id = j.customer_id and c.organization_id = j.organization_id left join site s on s.id = j.site_id and s.organization_id = j.organization_id where b.organization_id = '$S' and b.installer_id = '$I' and j.installer_id = '$I' and b.cancelled_at is null and b.ends_on >= current_date order by b.starts_on, j.number limit 200"

@@ -1,0 +1,392 @@
+/**
+ * `npm run bench`: the production build against the scale database (`npm run seed:scale` first),
+ * on 127.0.0.1 only, measured with autocannon. Never run by `npm test`. See bench/README.md.
+ *
+ * For each route: requests/s, p50 and p99 at 10 connections, and p99 at a steady 50 requests/s,
+ * each beside the baseline (`/api/v1/health/session`: the session and `SELECT 1`). Then the
+ * server's peak memory (VmHWM) and the gzip JavaScript and CSS each main page loads in Chromium.
+ *
+ *   FLUSHLINE_BENCH_PG_PORT (54322)  the bench cluster    FLUSHLINE_BENCH_PORT (4271)  the server
+ *   BENCH_STORE (1)  the seeded store to sign in to (1000: the big one)
+ *   FLUSHLINE_BENCH_DB (flushline_bench)  the database   BENCH_SECONDS (10)  length of each run            BENCH_SKIP_BROWSER=1  no Chromium figures
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
+import { existsSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { gzipSync } from 'node:zlib';
+import autocannon from 'autocannon';
+import pg from 'pg';
+import { chromium } from '@playwright/test';
+import demo from '../scripts/demo-people.json' with { type: 'json' };
+import { defaultSettings } from '../src/lib/estimating/index';
+import { samplePriceBook, sampleJob } from '../src/lib/estimating/sample';
+import { signatureHeader } from '../mocks/stripe/webhooks';
+import sharp from 'sharp';
+
+/** The fake's signing secret (`LOCAL_STRIPE_WEBHOOK_SECRET` in src/lib/server/config.ts, which needs SvelteKit). */
+const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_flushline_local_fake_not_a_real_secret';
+
+const root = path.resolve(import.meta.dirname, '..');
+const port = Number(process.env.FLUSHLINE_BENCH_PORT ?? 4271);
+const origin = `http://127.0.0.1:${port}`;
+const store = Number(process.env.BENCH_STORE ?? 1);
+const seconds = Number(process.env.BENCH_SECONDS ?? 10);
+const started = performance.now();
+
+const { clusterAt, startCluster, databaseUrl } = await import('../scripts/lib/postgres.js');
+const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_PG_PORT ?? 54322));
+startCluster(cluster);
+const database = process.env.FLUSHLINE_BENCH_DB ?? 'flushline_bench';
+const appUrl = databaseUrl(cluster, 'flushline_app', database);
+const superUrl = databaseUrl(cluster, 'postgres', database);
+
+if (!existsSync(path.join(root, 'build/index.js')) || process.env.BENCH_BUILD === '1') {
+	console.log('Building…');
+	const built = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
+		cwd: root,
+		stdio: 'inherit'
+	});
+	if (built.status !== 0) process.exit(1);
+}
+
+const server = spawn(process.execPath, ['build'], {
+	cwd: root,
+	env: {
+		...process.env,
+		DATABASE_URL: appUrl,
+		BETTER_AUTH_SECRET: 'bench-only-secret-bench-only-secret-0123',
+		FLUSHLINE_DATA_DIR: path.join(root, '.data/bench-app'),
+		FLUSHLINE_FAKES: '1',
+		FLUSHLINE_AUTH_LIMIT_ADDRESS: '5000',
+		ORIGIN: origin,
+		HOST: '127.0.0.1',
+		PORT: String(port),
+		BODY_SIZE_LIMIT: '3M',
+		LOG_LEVEL: 'warn'
+	},
+	stdio: ['ignore', 'ignore', 'inherit']
+});
+const stop = () => server.kill('SIGTERM');
+process.on('exit', stop);
+
+async function waitForServer() {
+	for (let i = 0; i < 100; i++) {
+		try {
+			const r = await fetch(`${origin}/api/v1/openapi.json`);
+			if (r.status < 500) return;
+		} catch {
+			/* not yet */
+		}
+		await new Promise((r) => setTimeout(r, 200));
+	}
+	throw new Error('The server did not start');
+}
+await waitForServer();
+const ready = performance.now();
+
+async function signIn(local: string): Promise<string> {
+	const email = `${local}+s${store}@tallowcreek.example`;
+	const r = await fetch(`${origin}/api/auth/sign-in/email`, {
+		method: 'POST',
+		headers: { 'content-type': 'application/json', origin },
+		body: JSON.stringify({ email, password: demo.password })
+	});
+	if (!r.ok) throw new Error(`Sign-in of ${email}: ${r.status} ${await r.text()}`);
+	return r.headers
+		.getSetCookie()
+		.map((c) => c.split(';')[0])
+		.join('; ');
+}
+const owner = await signIn('owner');
+const installer = await signIn('installer');
+
+// Ids to aim at, read from the seed.
+const db = new pg.Client({ connectionString: superUrl });
+await db.connect();
+const storeId = (
+	await db.query(
+		`select o.id from organization o join member m on m.organization_id = o.id
+		 join "user" u on u.id = m.user_id where u.email = $1`,
+		[`owner+s${store}@tallowcreek.example`]
+	)
+).rows[0].id as string;
+const counts = (
+	await db.query(
+		`select (select count(*) from job where organization_id = $1) as jobs,
+		        (select count(*) from customer where organization_id = $1) as customers`,
+		[storeId]
+	)
+).rows[0];
+const someJob = (
+	await db.query(`select id from job where organization_id = $1 and status = 'sold' limit 1`, [
+		storeId
+	])
+).rows[0].id as string;
+const fieldJob = (
+	await db.query(
+		`select j.id from job j join "user" u on u.id = j.installer_id
+		 where j.organization_id = $1 and j.status = 'in_progress' and u.email = $2 limit 1`,
+		[storeId, `installer+s${store}@tallowcreek.example`]
+	)
+).rows[0]?.id as string | undefined;
+await db.end();
+
+// A phone-sized photo (about 1600 × 1200), the same bytes each time with its own client id.
+const photo = await sharp({
+	create: { width: 1600, height: 1200, channels: 3, background: '#a0785a' }
+})
+	.composite([
+		{
+			input: Buffer.from(
+				`<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="1200">${Array.from({ length: 12 }, (_, i) => `<rect y="${i * 100}" width="1600" height="94" fill="${i % 2 ? '#8d6e4f' : '#c9a77c'}"/>`).join('')}</svg>`
+			)
+		}
+	])
+	.jpeg({ quality: 80 })
+	.toBuffer();
+function photoBody(): { body: Buffer; type: string } {
+	const boundary = `----bench${randomUUID().replaceAll('-', '')}`;
+	const field = (name: string, value: string) =>
+		`--${boundary}\r\ncontent-disposition: form-data; name="${name}"\r\n\r\n${value}\r\n`;
+	const head =
+		field('clientId', randomUUID()) +
+		field('purpose', 'report') +
+		field('caption', 'Bench photo') +
+		`--${boundary}\r\ncontent-disposition: form-data; name="file"; filename="p.jpg"\r\ncontent-type: image/jpeg\r\n\r\n`;
+	return {
+		body: Buffer.concat([Buffer.from(head), photo, Buffer.from(`\r\n--${boundary}--\r\n`)]),
+		type: `multipart/form-data; boundary=${boundary}`
+	};
+}
+
+const webhookPayload = () =>
+	JSON.stringify({
+		id: `evt_bench_${randomUUID()}`,
+		object: 'event',
+		type: 'charge.updated',
+		account: `acct_scale${store}`,
+		created: Math.floor(Date.now() / 1000),
+		data: { object: { id: `ch_bench_${randomUUID()}`, object: 'charge' } }
+	});
+
+interface Target {
+	name: string;
+	path: string;
+	method?: 'GET' | 'POST';
+	cookie?: string;
+	body?: string;
+	contentType?: string;
+	/** A fresh request each time (a photo with its own id, a webhook with its own event). */
+	fresh?: () => { body: string | Buffer; headers: Record<string, string> };
+}
+
+const previewBody = JSON.stringify({
+	job: sampleJob(20),
+	settings: defaultSettings,
+	priceBook: samplePriceBook
+});
+const targets: Target[] = [
+	{ name: 'baseline: session + SELECT 1', path: '/api/v1/health/session', cookie: owner },
+	{ name: 'GET /api/v1/me', path: '/api/v1/me', cookie: owner },
+	{
+		name: 'job list: sold, by updated, 50',
+		path: '/api/v1/jobs?status=sold&sort=updated&dir=desc&pageSize=50',
+		cookie: owner
+	},
+	{ name: 'job list: all, by number, 50', path: '/api/v1/jobs?pageSize=50', cookie: owner },
+	{
+		name: 'job list: search "oak", by customer',
+		path: '/api/v1/jobs?q=oak&sort=customer&dir=asc&pageSize=50',
+		cookie: owner
+	},
+	{ name: 'customers: search "ash"', path: '/api/v1/customers?q=ash', cookie: owner },
+	{ name: 'job page (SSR)', path: `/app/jobs/${someJob}`, cookie: owner },
+	{ name: 'jobs page (SSR)', path: '/app/jobs', cookie: owner },
+	{ name: "installer's today (/field)", path: '/field', cookie: installer },
+	{
+		name: 'estimate preview, 20 rooms',
+		path: '/api/v1/estimates/preview',
+		method: 'POST',
+		cookie: owner,
+		body: previewBody,
+		contentType: 'application/json'
+	},
+	...(fieldJob
+		? [
+				{
+					name: 'photo upload (field API)',
+					path: `/api/v1/field/jobs/${fieldJob}/photos`,
+					method: 'POST' as const,
+					cookie: installer,
+					fresh: () => {
+						const { body, type } = photoBody();
+						return { body, headers: { 'content-type': type } };
+					}
+				}
+			]
+		: []),
+	{
+		name: 'Stripe webhook (signed)',
+		path: '/api/webhooks/stripe',
+		method: 'POST',
+		fresh: () => {
+			const body = webhookPayload();
+			return {
+				body,
+				headers: {
+					'content-type': 'application/json',
+					'stripe-signature': signatureHeader(body, LOCAL_STRIPE_WEBHOOK_SECRET)
+				}
+			};
+		}
+	}
+];
+
+interface Figures {
+	rps: number;
+	p50: number;
+	p99: number;
+	p99At50: number;
+	errors: number;
+	statuses: string;
+}
+
+function run(t: Target, rate?: number, duration = seconds): Promise<autocannon.Result> {
+	const headers: Record<string, string> = { origin };
+	if (t.cookie) headers.cookie = t.cookie;
+	if (t.contentType) headers['content-type'] = t.contentType;
+	return autocannon({
+		url: `${origin}${t.path}`,
+		method: t.method ?? 'GET',
+		connections: 10,
+		duration,
+		headers,
+		body: t.body,
+		...(rate ? { overallRate: rate } : {}),
+		...(t.fresh
+			? {
+					requests: [
+						{
+							setupRequest: (req: Record<string, unknown>) => {
+								const f = t.fresh!();
+								return {
+									...req,
+									body: f.body,
+									headers: { ...(req.headers as object), ...f.headers }
+								};
+							}
+						}
+					]
+				}
+			: {})
+	});
+}
+
+const statusText = (r: autocannon.Result) =>
+	(['1xx', '2xx', '3xx', '4xx', '5xx'] as const)
+		.filter((k) => r[k] > 0)
+		.map((k) => `${k}:${r[k]}`)
+		.join(' ');
+
+// Warm-up, not counted: the server's first seconds (JIT, the pool's connections) would otherwise
+// fall on whichever route runs first, the baseline.
+await run({ ...targets[0] }, undefined, 5);
+for (const t of targets.slice(1)) await run(t, undefined, 1);
+
+const results = new Map<string, Figures>();
+for (const t of targets) {
+	const full = await run(t);
+	const steady = await run(t, 50);
+	results.set(t.name, {
+		rps: full.requests.average,
+		p50: full.latency.p50,
+		p99: full.latency.p99,
+		p99At50: steady.latency.p99,
+		errors: full.errors + full.timeouts + full.non2xx,
+		statuses: statusText(full)
+	});
+	process.stderr.write('.');
+}
+process.stderr.write('\n');
+
+const hwm = (() => {
+	try {
+		const status = readFileSync(`/proc/${server.pid}/status`, 'utf8');
+		return Number(/VmHWM:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024;
+	} catch {
+		return 0;
+	}
+})();
+
+const base = results.get(targets[0].name)!;
+console.log(
+	`\nFlushline bench: store ${store} (${counts.jobs} jobs, ${counts.customers} customers), ` +
+		`${seconds} s per run, 10 connections; p99@50 at a steady 50 requests/s\n`
+);
+console.log(
+	`${'route'.padEnd(38)} ${'req/s'.padStart(7)} ${'× base'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'p99@50'.padStart(7)}  statuses`
+);
+for (const [name, f] of results) {
+	console.log(
+		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${String(f.p99At50).padStart(7)}  ${f.statuses}`
+	);
+}
+console.log(`\nserver peak memory (VmHWM): ${hwm.toFixed(0)} MB`);
+console.log(`server start to answering: ${((ready - started) / 1000).toFixed(1)} s`);
+
+if (process.env.BENCH_SKIP_BROWSER !== '1') {
+	const browser = await chromium.launch({ executablePath: '/usr/bin/chromium' });
+	const pages: { who: string; cookie: string; path: string }[] = [
+		{ who: 'staff', cookie: owner, path: '/app' },
+		{ who: 'staff', cookie: owner, path: '/app/jobs' },
+		{ who: 'staff', cookie: owner, path: `/app/jobs/${someJob}` },
+		{ who: 'staff', cookie: owner, path: '/app/customers' },
+		{ who: 'staff', cookie: owner, path: '/app/schedule' },
+		{ who: 'installer', cookie: installer, path: '/field' },
+		{ who: 'installer', cookie: installer, path: '/field/calculators' },
+		...(fieldJob ? [{ who: 'installer', cookie: installer, path: `/field/jobs/${fieldJob}` }] : [])
+	];
+	console.log('\nfirst load, gzip (each JS/CSS response gzip -9 compressed, summed):');
+	for (const p of pages) {
+		const context = await browser.newContext();
+		await context.addCookies(
+			p.cookie.split('; ').map((c) => {
+				const at = c.indexOf('=');
+				return { name: c.slice(0, at), value: c.slice(at + 1), url: origin };
+			})
+		);
+		const page = await context.newPage();
+		let js = 0;
+		let css = 0;
+		const pending: Promise<void>[] = [];
+		page.on('response', (response) => {
+			const type = response.headers()['content-type'] ?? '';
+			const isJs = type.includes('javascript');
+			const isCss = type.includes('text/css');
+			if (!isJs && !isCss) return;
+			pending.push(
+				response
+					.body()
+					.then((b) => {
+						const size = gzipSync(b, { level: 9 }).length;
+						if (isJs) js += size;
+						else css += size;
+					})
+					.catch(() => {})
+			);
+		});
+		// Not `networkidle`: the installer's pages keep a sync going. Loaded, hydrated, settled.
+		await page.goto(`${origin}${p.path}`, { waitUntil: 'load' });
+		await page.waitForSelector('html[data-hydrated]', { timeout: 15_000 }).catch(() => {});
+		await page.waitForTimeout(1000);
+		await Promise.all(pending);
+		console.log(
+			`  ${p.who.padEnd(10)} ${p.path.replace(/[0-9a-f-]{36}/, '<id>').padEnd(28)} JS ${(js / 1024).toFixed(1).padStart(6)} KB   CSS ${(css / 1024).toFixed(1).padStart(5)} KB`
+		);
+		await context.close();
+	}
+	await browser.close();
+}
+stop();
+process.exit(0);

@@ -1,0 +1,3 @@
+CREATE INDEX "booking_installer_live_ends_idx" ON "booking" USING btree ("organization_id","installer_id","ends_on") WHERE "booking"."cancelled_at" is null;--> statement-breakpoint
+CREATE INDEX "job_organization_updated_idx" ON "job" USING btree ("organization_id","updated_at","number");--> statement-breakpoint
+CREATE INDEX "job_organization_customer_idx" ON "job" USING btree ("organization_id","customer_id","number");
