@@ -48,6 +48,23 @@ export const config = {
 	get authLimits() {
 		return readLimitSettings(env);
 	},
+	/**
+	 * The S3-compatible file store when `FLUSHLINE_STORAGE=s3` (else files stay on local disk):
+	 * `S3_BUCKET`, `S3_REGION`, `S3_ENDPOINT` (non-AWS), `S3_FORCE_PATH_STYLE`, `S3_PREFIX`, and
+	 * `S3_ACCESS_KEY_ID`/`S3_SECRET_ACCESS_KEY` (or the SDK's own credential chain).
+	 */
+	get s3() {
+		if (env.FLUSHLINE_STORAGE !== 's3') return undefined;
+		return {
+			bucket: env.S3_BUCKET ?? '',
+			region: env.S3_REGION || 'us-east-1',
+			endpoint: env.S3_ENDPOINT || undefined,
+			forcePathStyle: env.S3_FORCE_PATH_STYLE ? isOn(env.S3_FORCE_PATH_STYLE) : undefined,
+			accessKeyId: env.S3_ACCESS_KEY_ID || undefined,
+			secretAccessKey: env.S3_SECRET_ACCESS_KEY || undefined,
+			prefix: env.S3_PREFIX ?? ''
+		};
+	},
 	/** Where the Stripe fake delivers its events (the app's own endpoint unless set). */
 	get stripeFakeWebhookUrl() {
 		return env.STRIPE_FAKE_WEBHOOK_URL || `${this.origin}/api/webhooks/stripe`;
@@ -57,6 +74,7 @@ export const config = {
 /** Stops start-up with a clear message when a required setting is missing. */
 export function checkConfig() {
 	const missing = ['DATABASE_URL', 'BETTER_AUTH_SECRET'].filter((k) => !env[k]);
+	if (env.FLUSHLINE_STORAGE === 's3' && !env.S3_BUCKET) missing.push('S3_BUCKET');
 	if (missing.length) {
 		throw new Error(
 			`Missing environment variables: ${missing.join(', ')} (see README, "Environment")`

@@ -1,6 +1,7 @@
 import { mkdir, readFile, rm, writeFile, rename } from 'node:fs/promises';
 import path from 'node:path';
 import { config } from './config';
+import { s3Storage } from './storage-s3';
 
 /** A stored file's bytes and media type. */
 export interface StoredFile {
@@ -42,6 +43,11 @@ export function checkKey(key: string): string {
 	return key;
 }
 
+/** The media type a key's extension stands for (keys are checked first). */
+export function typeOfKey(key: string): string {
+	return TYPES[path.extname(checkKey(key)).toLowerCase()];
+}
+
 /** The local-disk driver: files under `root`, the media type read from the key's extension. */
 export function localDisk(root: string): Storage {
 	const file = (key: string) => path.join(root, checkKey(key));
@@ -74,8 +80,14 @@ export function localDisk(root: string): Storage {
 
 let current: Storage | undefined;
 
-/** The app's storage: local disk under the data folder (`<dataDir>/files`). */
+/**
+ * The app's storage, chosen by configuration: local disk under the data folder
+ * (`<dataDir>/files`, the default) or an S3-compatible bucket (`FLUSHLINE_STORAGE=s3`).
+ */
 export function storage(): Storage {
-	current ??= localDisk(path.join(config.dataDir, 'files'));
+	if (!current) {
+		const s3 = config.s3;
+		current = s3 ? s3Storage(s3) : localDisk(path.join(config.dataDir, 'files'));
+	}
 	return current;
 }
