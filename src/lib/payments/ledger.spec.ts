@@ -315,6 +315,31 @@ describe('the ledger’s properties', () => {
 		);
 	});
 
+	it('a credit that leaves less than the deposit: paying what is owed settles the deposit', () => {
+		// Found by the property above: a $2.99 quote with a 2¢ deposit and a $2.98 credit owes
+		// 1¢; once that 1¢ is paid and then refunded, the deposit is not due again.
+		const input = {
+			quoteTotalCents: 299,
+			depositCents: 2,
+			changeOrdersCents: -298,
+			cancelled: false,
+			payments: [
+				{
+					purpose: 'deposit' as const,
+					status: 'refunded' as const,
+					amountCents: 1,
+					refundedCents: 1,
+					feeCents: null
+				}
+			],
+			refunds: [refund(1, 'other')]
+		};
+		const after = ledger(input);
+		expect(after.balanceDueCents).toBe(1);
+		expect(after.depositDueCents).toBe(0);
+		expect(ledger({ ...input, payments: [], refunds: [] }).depositDueCents).toBe(1);
+	});
+
 	function refund(amountCents: number, reason: LedgerRefund['reason']): LedgerRefund {
 		return { amountCents, reason, status: 'succeeded' };
 	}

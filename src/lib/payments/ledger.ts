@@ -123,10 +123,14 @@ export function ledger(input: {
 		balanceDueCents,
 		overpaidCents: Math.max(0, -balanceCents),
 		// Counted against money received, so a refund never puts the deposit back as due; never
-		// more than the balance (a credit can leave less than the deposit to pay).
+		// more than is owed in all (a credit can leave less than the deposit to pay, and paying
+		// that settles the deposit) nor than the balance.
 		depositDueCents: closed
 			? 0
-			: Math.min(balanceDueCents, Math.max(0, input.depositCents - receivedCents)),
+			: Math.min(
+					balanceDueCents,
+					Math.max(0, Math.min(input.depositCents, owedCents) - receivedCents)
+				),
 		closed,
 		feesCents: sum(paid, (p) => p.feeCents ?? 0),
 		pendingCents: sum(
