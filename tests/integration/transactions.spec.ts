@@ -99,12 +99,12 @@ describe('one transaction per request', () => {
 		// The load did read all of it: the page is whole.
 		expect(data).toMatchObject({
 			job: { id: made.job.id, status: 'sold' },
-			latestQuote: { id: made.quote.id },
+			quotes: [{ status: 'accepted' }],
 			money: { count: 1 },
 			site: { current: { id: made.site.id } },
 			measure: { rooms: 1 }
 		});
-		expect((data.history as unknown[]).length).toBeGreaterThan(2);
+		expect((data.timeline as unknown[]).length).toBeGreaterThan(2);
 		expectOneTransaction(statements);
 	});
 
