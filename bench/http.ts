@@ -341,10 +341,18 @@ if (process.env.BENCH_SKIP_BROWSER !== '1') {
 		{ who: 'staff', cookie: owner, path: '/app' },
 		{ who: 'staff', cookie: owner, path: '/app/jobs' },
 		{ who: 'staff', cookie: owner, path: `/app/jobs/${someJob}` },
+		{ who: 'staff', cookie: owner, path: `/app/jobs/${someJob}/measure` },
+		{ who: 'staff', cookie: owner, path: `/app/jobs/${someJob}/quote` },
+		{ who: 'staff', cookie: owner, path: `/app/jobs/${someJob}/payments` },
 		{ who: 'staff', cookie: owner, path: '/app/customers' },
 		{ who: 'staff', cookie: owner, path: '/app/schedule' },
+		{ who: 'staff', cookie: owner, path: '/app/calculators?c=joists' },
 		{ who: 'installer', cookie: installer, path: '/field' },
 		{ who: 'installer', cookie: installer, path: '/field/calculators' },
+		// An open calculator loads the engine and the schemas (the list does not).
+		{ who: 'installer', cookie: installer, path: '/field/calculators?c=joists' },
+		{ who: 'installer', cookie: installer, path: '/field/profile' },
+		{ who: 'installer', cookie: installer, path: '/field/statements' },
 		...(fieldJob ? [{ who: 'installer', cookie: installer, path: `/field/jobs/${fieldJob}` }] : [])
 	];
 	console.log('\nfirst load, gzip (each JS/CSS response gzip -9 compressed, summed):');
@@ -382,7 +390,7 @@ if (process.env.BENCH_SKIP_BROWSER !== '1') {
 		await page.waitForTimeout(1000);
 		await Promise.all(pending);
 		console.log(
-			`  ${p.who.padEnd(10)} ${p.path.replace(/[0-9a-f-]{36}/, '<id>').padEnd(28)} JS ${(js / 1024).toFixed(1).padStart(6)} KB   CSS ${(css / 1024).toFixed(1).padStart(5)} KB`
+			`  ${p.who.padEnd(10)} ${p.path.replace(/[0-9a-f-]{36}/, '<id>').padEnd(34)} JS ${(js / 1024).toFixed(1).padStart(6)} KB   CSS ${(css / 1024).toFixed(1).padStart(5)} KB`
 		);
 		await context.close();
 	}

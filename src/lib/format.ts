@@ -118,3 +118,20 @@ export function joinParts(...parts: (string | null | undefined)[]): string {
 		.filter(Boolean)
 		.join(', ');
 }
+
+/** How each basis reads after a price: "$1.25 per ft²". */
+export const BASIS_LABELS: Record<Basis, string> = {
+	each: 'each',
+	sqft: 'per ft²',
+	linft: 'per linear ft',
+	sqft_per_eighth_in: 'per ft² for each 1/8 in of depth',
+	hour: 'per hour',
+	room: 'per room',
+	carton: 'per carton',
+	roll_sqyd: 'per yd² of roll',
+	roll_linft: 'per linear ft of roll',
+	panel: 'per panel',
+	box: 'per box',
+	bag: 'per bag',
+	container: 'per container'
+};

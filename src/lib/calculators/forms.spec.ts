@@ -2,11 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { defaultSettings, type StoreSettings } from '$lib/estimating';
 import { calculators, type CalculatorName } from './registry';
 import { calculatorExamples } from './examples';
+import { CALCULATOR_CATALOGUE } from './catalogue';
 import {
 	addRow,
 	CALCULATOR_ORDER,
 	calculatorSettings,
 	evaluate,
+	forms,
 	isCalculatorName,
 	removeRow,
 	rowCount,
@@ -91,6 +93,10 @@ describe('evaluate', () => {
 
 	it('lists every calculator of the engine, and no other name', () => {
 		expect([...CALCULATOR_ORDER].sort()).toEqual(Object.keys(calculators).sort());
+		// The list (plain data, shipped without the engine) and the forms name the same ones.
+		expect([...CALCULATOR_ORDER].sort()).toEqual(Object.keys(forms).sort());
+		for (const name of CALCULATOR_ORDER)
+			expect(CALCULATOR_CATALOGUE[name].title).toBe(calculators[name].title);
 		expect(isCalculatorName('cartons')).toBe(true);
 		expect(isCalculatorName('constructor')).toBe(false);
 		expect(isCalculatorName('__proto__')).toBe(false);

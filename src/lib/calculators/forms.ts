@@ -567,13 +567,7 @@ export const forms: Record<CalculatorName, CalculatorForm> = {
 	}
 };
 
-/** The calculators in the order the page lists them (the most used first). */
-export const CALCULATOR_ORDER = Object.keys(forms) as CalculatorName[];
-
-/** Whether a name (from a URL or a form) is one of the calculators. */
-export function isCalculatorName(name: unknown): name is CalculatorName {
-	return typeof name === 'string' && Object.hasOwn(calculators, name);
-}
+export { CALCULATOR_ORDER, isCalculatorName } from './catalogue';
 
 /** The options of a select field for this store. */
 export function optionsOf(field: FieldSpec & { kind: 'select' }, s: CalculatorSettings) {

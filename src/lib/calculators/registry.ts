@@ -8,6 +8,7 @@
  * `field` at fault, the `message` and the `limit` passed, which the API turns into a 400.
  */
 import { z } from 'zod';
+import { CALCULATOR_CATALOGUE } from './catalogue';
 import {
 	cartonTakeoff,
 	CAUTIONS,
@@ -123,9 +124,7 @@ const planning = [CAUTIONS.planning_aid];
 export const calculators = {
 	units: calc(
 		{
-			title: 'Lengths',
-			summary:
-				'Reads a length as typed (ft-in, fractions, mm, m) and writes it back in every unit.',
+			...CALCULATOR_CATALOGUE.units,
 			input: z.object({
 				text: z
 					.string()
@@ -155,9 +154,7 @@ export const calculators = {
 		{ inches: 'text' }
 	),
 	area: calc({
-		title: 'Room area',
-		summary:
-			'Area and perimeter of a room from rectangles or sides, less its cut-outs, with a drawable outline.',
+		...CALCULATOR_CATALOGUE.area,
 		input: z.object({ shape: shapeSchema, cutouts: cutoutsSchema.optional() }),
 		run: ({ shape, cutouts }, s = defaultSettings) => {
 			const r = roomShape(shape, cutouts, { closureToleranceIn: s.geometry.closureToleranceIn });
@@ -184,9 +181,7 @@ export const calculators = {
 		}
 	}),
 	cartons: calc({
-		title: 'Cartons',
-		summary:
-			'Cartons of plank, laminate, wood or tile for an area, with the store waste for the layout.',
+		...CALCULATOR_CATALOGUE.cartons,
 		input: z.object({
 			areaSqFt: areaSqFt('Floor area'),
 			coverageSqFt: bounded('Carton coverage', 0.1, 1_000, 'ft²').describe('ft² per carton'),
@@ -205,8 +200,7 @@ export const calculators = {
 	}),
 	roll: calc(
 		{
-			title: 'Roll goods',
-			summary: 'Drops, seams, linear feet and square yards of carpet or sheet vinyl for a room.',
+			...CALCULATOR_CATALOGUE.roll,
 			input: z.object({
 				shape: shapeSchema,
 				rollWidthIn: bounded(
@@ -246,8 +240,7 @@ export const calculators = {
 		{ polygon: 'shape' }
 	),
 	underlayment: calc({
-		title: 'Underlayment panels',
-		summary: 'Panels for an area and the fasteners each takes by the fastening schedule.',
+		...CALCULATOR_CATALOGUE.underlayment,
 		input: z.object({
 			areaSqFt: areaSqFt('Area'),
 			schedule: z.string().max(64).optional().describe('A schedule key in the store settings'),
@@ -282,8 +275,7 @@ export const calculators = {
 		}
 	}),
 	patch: calc({
-		title: 'Patch compound',
-		summary: 'Patch for open seams and dents, in whole containers.',
+		...CALCULATOR_CATALOGUE.patch,
 		input: z.object({
 			voids: list(voidSchema, 'seams and dents', LIMITS.listItems).min(1),
 			container: containerSchema,
@@ -301,8 +293,7 @@ export const calculators = {
 		})
 	}),
 	leveller: calc({
-		title: 'Self-levelling underlayment',
-		summary: 'Bags of leveller for an area at an average depth, from the bag yield.',
+		...CALCULATOR_CATALOGUE.leveller,
 		input: z.object({
 			areaSqFt: areaSqFt('Area'),
 			depthIn: positiveIn('Average depth', LIMITS.depthIn),
@@ -320,8 +311,7 @@ export const calculators = {
 		})
 	}),
 	joists: calc({
-		title: 'Joist deflection and span',
-		summary: 'L/Δ and bending of floor joists against the floor, and the longest span that passes.',
+		...CALCULATOR_CATALOGUE.joists,
 		input: z.object({
 			size: joistSize,
 			species,
@@ -347,8 +337,7 @@ export const calculators = {
 		}
 	}),
 	sheathing: calc({
-		title: 'Sheathing',
-		summary: 'Subfloor thickness and span rating against the joist spacing and the floor.',
+		...CALCULATOR_CATALOGUE.sheathing,
 		input: z.object({
 			kind: z.enum(['plywood', 'osb', 'board']),
 			thicknessIn: positiveIn('Thickness', LIMITS.depthIn),
@@ -369,9 +358,7 @@ export const calculators = {
 		}
 	}),
 	flatness: calc({
-		title: 'Flatness',
-		summary:
-			'Straightedge readings against the floor’s flatness tolerance (large-format tile included).',
+		...CALCULATOR_CATALOGUE.flatness,
 		input: z.object({
 			floorKind: floorKindT,
 			subfloor: z.enum(['wood', 'concrete']),
@@ -409,9 +396,7 @@ export const calculators = {
 	}),
 	moisture: calc(
 		{
-			title: 'Moisture',
-			summary:
-				'Concrete RH and calcium-chloride MVER with the tests the area needs, and wood MC by board width.',
+			...CALCULATOR_CATALOGUE.moisture,
 			input: z.object({
 				areaSqFt: areaSqFt('Slab area'),
 				rhPct: readings(pct('In-situ RH')).optional(),

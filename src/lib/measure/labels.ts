@@ -7,7 +7,7 @@ import type {
 	SubfloorKind,
 	SupplyKind
 } from '$lib/estimating';
-import { PREP } from '$lib/estimating';
+import { PREP } from '$lib/estimating/prep';
 
 export const FLOOR_KIND_LABELS: Record<FloorKind, string> = {
 	laminate: 'Laminate',

@@ -17,21 +17,8 @@ const roomIdSchema = z
 	.regex(/^[A-Za-z0-9_-]{1,64}$/, 'A room of the job')
 	.nullable();
 
-export const READING_KIND_VALUES = [
-	'flatness',
-	'rh',
-	'calcium_chloride',
-	'wood_mc_subfloor',
-	'wood_mc_flooring'
-] as const;
-
-export const READING_LABELS: Record<(typeof READING_KIND_VALUES)[number], string> = {
-	flatness: 'Flatness (straightedge)',
-	rh: 'Slab RH probe (%)',
-	calcium_chloride: 'Calcium chloride dish',
-	wood_mc_subfloor: 'Subfloor moisture (%)',
-	wood_mc_flooring: 'Flooring moisture (%)'
-};
+export { READING_KIND_VALUES, READING_LABELS } from '$lib/field/readings';
+import { READING_KIND_VALUES } from '$lib/field/readings';
 
 const flatness = z.object({
 	spanIn: z.number().min(12, 'At least a 12 in straightedge').max(240, 'At most 20 ft'),

@@ -54,22 +54,8 @@ export const SECTION_LABELS: Record<PriceSectionName, string> = {
 	supply: 'Supplies'
 };
 
-/** How each basis reads after a price: "$1.25 per ft²". */
-export const BASIS_LABELS: Record<Basis, string> = {
-	each: 'each',
-	sqft: 'per ft²',
-	linft: 'per linear ft',
-	sqft_per_eighth_in: 'per ft² for each 1/8 in of depth',
-	hour: 'per hour',
-	room: 'per room',
-	carton: 'per carton',
-	roll_sqyd: 'per yd² of roll',
-	roll_linft: 'per linear ft of roll',
-	panel: 'per panel',
-	box: 'per box',
-	bag: 'per bag',
-	container: 'per container'
-};
+import { BASIS_LABELS } from '$lib/format';
+export { BASIS_LABELS };
 
 export const MATERIAL_BASES = ['carton', 'sqft', 'roll_sqyd', 'roll_linft'] as const;
 export type MaterialBasis = (typeof MATERIAL_BASES)[number];
