@@ -63,7 +63,9 @@ const server = spawn(process.execPath, ['build'], {
 		HOST: '127.0.0.1',
 		PORT: String(port),
 		BODY_SIZE_LIMIT: '3M',
-		LOG_LEVEL: 'warn'
+		LOG_LEVEL: 'warn',
+		// As `npm start` and the README's deployment settings run it (glibc arenas, for sharp).
+		MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2'
 	},
 	stdio: ['ignore', 'ignore', 'inherit']
 });

@@ -65,7 +65,10 @@ async function main() {
 			// Logo uploads are up to 2 MB; adapter-node refuses bodies over 512 kB by default.
 			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '3M',
 			// The demo runs on the local fakes, on purpose (a real key still switches its fake off).
-			FLUSHLINE_FAKES: process.env.FLUSHLINE_FAKES ?? '1'
+			FLUSHLINE_FAKES: process.env.FLUSHLINE_FAKES ?? '1',
+			// glibc gives each thread its own malloc arena; sharp's decoding threads then leave
+			// hundreds of MB of fragments. Two arenas keep a photo-heavy server near its real use.
+			MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2'
 		};
 		step('Seeding the demo store when the database is empty');
 		run('npx', ['tsx', 'scripts/seed.ts'], { env });

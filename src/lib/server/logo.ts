@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import sharp from 'sharp';
 import { readProfile, saveLogoKey } from './db/queries/stores';
+import { imageWork } from './images';
 import { inStore, type StoreTx } from './db/tenant';
 import { storage, type Storage, type StoredFile } from './storage';
 
@@ -34,13 +35,14 @@ export async function prepareLogo(bytes: Buffer): Promise<LogoResult> {
 	const format = sniffImage(bytes);
 	if (!format) return { ok: false, message: 'The file is not a PNG or JPEG image' };
 	try {
-		const image = sharp(bytes, { limitInputPixels: 50_000_000, failOn: 'error' })
-			.rotate()
-			.resize({ width: LOGO_MAX_WIDTH, withoutEnlargement: true });
-		const out =
-			format === 'png'
-				? await image.png({ compressionLevel: 9 }).toBuffer()
-				: await image.jpeg({ quality: 85, mozjpeg: true }).toBuffer();
+		const out = await imageWork(() => {
+			const image = sharp(bytes, { limitInputPixels: 50_000_000, failOn: 'error' })
+				.rotate()
+				.resize({ width: LOGO_MAX_WIDTH, withoutEnlargement: true });
+			return format === 'png'
+				? image.png({ compressionLevel: 9 }).toBuffer()
+				: image.jpeg({ quality: 85, mozjpeg: true }).toBuffer();
+		});
 		return { ok: true, bytes: out, type: format === 'png' ? 'image/png' : 'image/jpeg' };
 	} catch {
 		return { ok: false, message: 'The image could not be read: it may be damaged' };

@@ -8,6 +8,7 @@ import { PHOTO_MAX_BYTES } from '$lib/schemas/field';
 import * as field from '../db/queries/field';
 import { changeOrder } from '../db/schema';
 import type { StoreTx, StoreWriteTx } from '../db/tenant';
+import { imageWork } from '../images';
 import { log } from '../log';
 import { storage, type StoredFile } from '../storage';
 
@@ -58,20 +59,23 @@ export async function processPhoto(bytes: Uint8Array): Promise<ProcessedPhoto | 
 	}
 	try {
 		const source = () => sharp(bytes, { limitInputPixels: MAX_PIXELS, failOn: 'error' }).rotate();
-		// sharp writes no metadata unless asked (`withMetadata`), so EXIF and GPS are gone.
-		const { data: image, info } = await source()
-			.resize({
-				width: LONGEST_SIDE,
-				height: LONGEST_SIDE,
-				fit: 'inside',
-				withoutEnlargement: true
-			})
-			.jpeg({ quality: 82, mozjpeg: true })
-			.toBuffer({ resolveWithObject: true });
-		const thumb = await source()
-			.resize({ width: THUMB_SIDE, height: THUMB_SIDE, fit: 'inside', withoutEnlargement: true })
-			.jpeg({ quality: 70 })
-			.toBuffer();
+		const { image, info, thumb } = await imageWork(async () => {
+			// sharp writes no metadata unless asked (`withMetadata`), so EXIF and GPS are gone.
+			const { data: image, info } = await source()
+				.resize({
+					width: LONGEST_SIDE,
+					height: LONGEST_SIDE,
+					fit: 'inside',
+					withoutEnlargement: true
+				})
+				.jpeg({ quality: 82, mozjpeg: true })
+				.toBuffer({ resolveWithObject: true });
+			const thumb = await source()
+				.resize({ width: THUMB_SIDE, height: THUMB_SIDE, fit: 'inside', withoutEnlargement: true })
+				.jpeg({ quality: 70 })
+				.toBuffer();
+			return { image, info, thumb };
+		});
 		return { ok: true, image, thumb, width: info.width, height: info.height };
 	} catch (err) {
 		log.info({ err: String(err) }, 'photo refused: not decodable');
