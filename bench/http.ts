@@ -399,4 +399,9 @@ if (process.env.BENCH_SKIP_BROWSER !== '1') {
 	await browser.close();
 }
 stop();
+if (process.env.BENCH_CLONE !== '0') {
+	// Last, with this server stopped: a fresh clone's `npm start`, timed (bench/clone-to-serve.js).
+	console.log('\nfresh clone to serving (npm start in a new clone; BENCH_CLONE=0 skips it):');
+	spawnSync(process.execPath, [path.join(root, 'bench/clone-to-serve.js')], { stdio: 'inherit' });
+}
 process.exit(0);
