@@ -8,6 +8,7 @@ import { handleDevRoutes } from '$lib/server/hooks/dev';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
 import { handleRequestId } from '$lib/server/hooks/request-id';
+import { handleServerName } from '$lib/server/hooks/server-name';
 import { log, safePath } from '$lib/server/log';
 import { can, grantsOf } from '$lib/server/permissions';
 import {
@@ -151,6 +152,7 @@ async function startTasks() {
 }
 
 export const handle = sequence(
+	handleServerName(config.serverName),
 	handleRequestId,
 	handleHeaders(config.origin),
 	handleDevRoutes(() => config.fakes),
