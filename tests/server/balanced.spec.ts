@@ -231,6 +231,7 @@ beforeAll(async () => {
 		STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET,
 		FLUSHLINE_AUTH_LIMIT_ADDRESS: String(ADDRESS_LIMIT),
 		FLUSHLINE_AUTH_LIMIT_WINDOW: '600',
+		DATABASE_POOL_MAX: '5',
 		LOG_LEVEL: 'warn'
 	};
 	// Both at once, as a rolling deploy's servers may start.
