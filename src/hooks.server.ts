@@ -2,6 +2,7 @@ import { building } from '$app/environment';
 import { config, checkConfig } from '$lib/server/config';
 import { auth } from '$lib/server/auth';
 import { homeFor, needsMember, refusal } from '$lib/server/access';
+import { pool } from '$lib/server/db';
 import { defaultMembership, readMembership } from '$lib/server/db/queries/stores';
 import { handleAuthAnswers, handleClientAddress } from '$lib/server/hooks/auth-answers';
 import { handleDevRoutes } from '$lib/server/hooks/dev';
@@ -148,7 +149,13 @@ async function startTasks() {
 		import('$lib/server/stripe')
 	]);
 	const worker = await startTaskWorker({ sendMail: mailer, stripe, schedule: true });
-	process.once('sveltekit:shutdown', () => worker.stop());
+	// Once the last request is answered and the worker has let its running tasks end, the
+	// database connections go back at once (a rolling deploy returns them to a managed
+	// PostgreSQL), rather than after the pool's idle timeout.
+	process.once('sveltekit:shutdown', async () => {
+		await worker.stop();
+		await pool.end();
+	});
 }
 
 export const handle = sequence(

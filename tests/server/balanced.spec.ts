@@ -526,6 +526,29 @@ describe('two servers behind HAProxy', () => {
 	});
 });
 
+describe('a server leaving', () => {
+	it('sends every request to the other while one is stopped, and none fails', async () => {
+		const stopping = servers[1].stop();
+		const answers: Answer[] = [];
+		for (let i = 0; i < 8; i++) {
+			answers.push(await viaBalancer('/api/v1/me', { headers: { cookie } }));
+		}
+		await stopping;
+		for (const answer of answers) {
+			expect(answer.status).toBe(200);
+			expect(answer.json()).toMatchObject({ user: { email: store.email } });
+		}
+		expect(answers.at(-1)!.servedBy).toBe('a');
+		// It left cleanly: requests answered, tasks let finish, connections returned, no error.
+		expect(await servers[1].exited).toBe(0);
+		expect(servers[1].output()).not.toContain('"level":"error"');
+		// Taken out by its health check, not only retried around.
+		await new Promise((r) => setTimeout(r, 2500));
+		const after = await Promise.all([1, 2, 3, 4].map(() => viaBalancer('/health')));
+		expect(after.map((a) => a.servedBy)).toEqual(['a', 'a', 'a', 'a']);
+	});
+});
+
 describe('migrations run once', () => {
 	it('two runs at once take turns: every migration applied once, neither fails', async () => {
 		const admin = new URL(process.env.DATABASE_URL!);
