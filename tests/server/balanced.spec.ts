@@ -489,6 +489,15 @@ describe('two servers behind HAProxy', () => {
 		// Both servers' workers took a share (each wakes for what it queued itself).
 		expect(byA.length).toBeGreaterThan(0);
 		expect(byB.length).toBeGreaterThan(0);
+		// And the queue's own records agree: one pg-boss task per mail, done at the first attempt
+		// (the e-mail fake's idempotency could hide a second run by the same server).
+		const jobs = await ownerQuery<{ to: string; state: string; retries: number }>(
+			`select data->'payload'->'mail'->>'to' as to, state::text, retry_count as retries
+			 from pgboss.job where name = 'tasks' and data->'payload'->'mail'->>'to' = any($1)`,
+			[invited]
+		);
+		expect(jobs.map((j) => j.to).sort()).toEqual([...invited].sort());
+		for (const job of jobs) expect(job, job.to).toMatchObject({ state: 'completed', retries: 0 });
 	});
 
 	it('counts sign-in attempts per client address, as HAProxy saw it, across both servers', async () => {
