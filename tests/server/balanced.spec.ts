@@ -178,6 +178,7 @@ function startBalancer(dir: string) {
 	});
 	child.stdout!.on('data', (d) => (balancerOutput += d));
 	child.stderr!.on('data', (d) => (balancerOutput += d));
+	child.on('error', (e) => (balancerOutput += `${HAPROXY}: ${e.message} (npm test installs it)`));
 	return child;
 }
 
@@ -185,6 +186,7 @@ function startBalancer(dir: string) {
 async function bothBehindBalancer() {
 	const seen = new Set<string>();
 	for (let i = 0; i < 100 && seen.size < 2; i++) {
+		if (!balancer?.pid || balancer.exitCode !== null) break; // it did not start, or it stopped
 		try {
 			const answer = await viaBalancer('/health');
 			if (answer.status === 200) seen.add(answer.servedBy);
@@ -235,7 +237,7 @@ beforeAll(async () => {
 		LOG_LEVEL: 'warn'
 	};
 	// Both at once, as a rolling deploy's servers may start.
-	const started = await Promise.all(
+	const started = await Promise.allSettled(
 		(['a', 'b'] as const).map((name, i) => {
 			const dataDir = mkdtempSync(path.join(tmpdir(), `flushline-balanced-${name}-`));
 			dataDirs.push(dataDir);
@@ -249,7 +251,9 @@ beforeAll(async () => {
 			});
 		})
 	);
-	servers.push(...started);
+	// Whatever started is stopped in afterAll, even when the other did not.
+	for (const s of started) if (s.status === 'fulfilled') servers.push(s.value);
+	for (const s of started) if (s.status === 'rejected') throw s.reason;
 	for (const server of servers) {
 		if ((await Promise.race([server.exited, Promise.resolve('running')])) !== 'running') {
 			throw new Error(`A server did not start:\n${server.output()}`);
@@ -260,7 +264,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-	if (balancer && balancer.exitCode === null) {
+	if (balancer?.pid && balancer.exitCode === null && balancer.signalCode === null) {
 		const ended = new Promise((r) => balancer!.once('exit', r));
 		balancer.kill('SIGTERM');
 		await ended;
