@@ -1,7 +1,8 @@
 import { defineConfig } from 'drizzle-kit';
 
-// `db:generate` needs no database; `db:migrate` runs as the schema owner (the app's own role
-// cannot create tables). `npm start` and `npm test` migrate on their own (scripts/lib/postgres.js).
+// `db:generate` needs no database. Migrations are applied by scripts/lib/postgres.js (`npm start`,
+// `npm test`, and `npm run db:migrate` with DATABASE_OWNER_URL, the schema owner: the app's own
+// role cannot create tables), under an advisory lock; drizzle-kit's own `migrate` takes no lock.
 export default defineConfig({
 	schema: './src/lib/server/db/schema.ts',
 	out: './drizzle',

@@ -5,7 +5,7 @@
 import { randomBytes } from 'node:crypto';
 import { rmSync } from 'node:fs';
 import path from 'node:path';
-import { ensureChromium, ensurePackages, root, run, step } from './lib/system.js';
+import { ensureChromium, ensureHaproxy, ensurePackages, root, run, step } from './lib/system.js';
 
 const pgPort = Number(process.env.FLUSHLINE_TEST_PG_PORT ?? 54321);
 const appPort = Number(process.env.FLUSHLINE_TEST_PORT ?? 4173);
@@ -63,8 +63,12 @@ async function main() {
 		run('npx', ['vitest', 'run', '--project', 'unit', '--project', 'integration'], { env });
 		step('Production build');
 		run('npx', ['vite', 'build', '--logLevel', 'warn'], { env });
-		step('vitest: the built server (fakes, limits, headers, input at the edge, logs)');
-		run('npx', ['vitest', 'run', '--project', 'server'], { env });
+		// Two of the built servers behind Debian's HAProxy (tests/server/balanced.spec.ts).
+		const haproxy = ensureHaproxy();
+		step('vitest: the built server (fakes, limits, headers, input at the edge, logs, two servers)');
+		run('npx', ['vitest', 'run', '--project', 'server'], {
+			env: { ...env, HAPROXY_PATH: haproxy }
+		});
 		const chromium = ensureChromium();
 		step('Playwright end-to-end tests in Chromium');
 		run('npx', ['playwright', 'test'], { env: { ...env, CHROMIUM_PATH: chromium } });

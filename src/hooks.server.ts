@@ -2,12 +2,14 @@ import { building } from '$app/environment';
 import { config, checkConfig } from '$lib/server/config';
 import { auth } from '$lib/server/auth';
 import { homeFor, needsMember, refusal } from '$lib/server/access';
+import { pool } from '$lib/server/db';
 import { defaultMembership, readMembership } from '$lib/server/db/queries/stores';
 import { handleAuthAnswers, handleClientAddress } from '$lib/server/hooks/auth-answers';
 import { handleDevRoutes } from '$lib/server/hooks/dev';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
 import { handleRequestId } from '$lib/server/hooks/request-id';
+import { handleServerName } from '$lib/server/hooks/server-name';
 import { log, safePath } from '$lib/server/log';
 import { can, grantsOf } from '$lib/server/permissions';
 import {
@@ -147,10 +149,17 @@ async function startTasks() {
 		import('$lib/server/stripe')
 	]);
 	const worker = await startTaskWorker({ sendMail: mailer, stripe, schedule: true });
-	process.once('sveltekit:shutdown', () => worker.stop());
+	// Once the last request is answered and the worker has let its running tasks end, the
+	// database connections go back at once (a rolling deploy returns them to a managed
+	// PostgreSQL), rather than after the pool's idle timeout.
+	process.once('sveltekit:shutdown', async () => {
+		await worker.stop();
+		await pool.end();
+	});
 }
 
 export const handle = sequence(
+	handleServerName(config.serverName),
 	handleRequestId,
 	handleHeaders(config.origin),
 	handleDevRoutes(() => config.fakes),

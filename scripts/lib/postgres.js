@@ -238,18 +238,32 @@ export async function prepareDatabase(cluster, { database, fresh = false }) {
 }
 
 /**
- * Applies the SQL migrations in `drizzle/` with drizzle-orm's migrator.
+ * The advisory lock migrations hold (any fixed number of ours): two deploy steps, or two
+ * servers' start scripts, that migrate the same database at once take turns, and the second
+ * finds every migration applied and does nothing (drizzle's migrator alone would run them
+ * twice and fail on the second copy of each table).
+ */
+export const MIGRATION_LOCK = 7_231_013;
+
+/**
+ * Applies the SQL migrations in `drizzle/` with drizzle-orm's migrator, holding the migration
+ * lock on a connection of its own for the whole run.
  * @param {string} url
  */
 export async function migrate(url) {
 	const { default: pg } = await import('pg');
 	const { drizzle } = await import('drizzle-orm/node-postgres');
 	const { migrate: apply } = await import('drizzle-orm/node-postgres/migrator');
+	const lock = new pg.Client({ connectionString: url });
+	await lock.connect();
 	const pool = new pg.Pool({ connectionString: url, max: 1 });
 	try {
+		await lock.query('select pg_advisory_lock($1)', [MIGRATION_LOCK]);
 		step('Applying migrations');
 		await apply(drizzle(pool), { migrationsFolder: path.join(root, 'drizzle') });
 	} finally {
 		await pool.end();
+		// Ending the session releases the lock, even when the migration failed.
+		await lock.end();
 	}
 }

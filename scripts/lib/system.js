@@ -86,3 +86,17 @@ export function ensureChromium() {
 	aptInstall(['chromium']);
 	return executable;
 }
+
+/**
+ * HAProxy, the load balancer the several-servers test puts in front of two app servers:
+ * Debian's `haproxy`, installed with apt-get when missing. Only the binary is used; the test runs
+ * it as its own child process with its own configuration (never as the system service).
+ */
+export function ensureHaproxy() {
+	const found = capture('sh', ['-c', 'command -v haproxy || ls /usr/sbin/haproxy']);
+	if (found) return found.split('\n')[0];
+	aptInstall(['haproxy']);
+	const installed = capture('sh', ['-c', 'command -v haproxy || ls /usr/sbin/haproxy']);
+	if (!installed) throw new Error('haproxy was installed but is not on PATH or in /usr/sbin');
+	return installed.split('\n')[0];
+}

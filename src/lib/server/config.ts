@@ -65,6 +65,8 @@ export const config = {
 			prefix: env.S3_PREFIX ?? ''
 		};
 	},
+	/** This server's name behind a load balancer, answered as `X-Served-By` (unset: none). */
+	serverName: env.FLUSHLINE_SERVER_NAME || undefined,
 	/** Where the Stripe fake delivers its events (the app's own endpoint unless set). */
 	get stripeFakeWebhookUrl() {
 		return env.STRIPE_FAKE_WEBHOOK_URL || `${this.origin}/api/webhooks/stripe`;

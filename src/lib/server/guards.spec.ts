@@ -33,6 +33,8 @@ const OPEN: Record<string, string> = {
 	'src/routes/(auth)/reset-password/+page.server.ts#actions.default':
 		'setting a new password with the token from the e-mail',
 	'src/routes/sign-out/+page.server.ts#load': 'a GET only goes home',
+	'src/routes/health/+server.ts#GET':
+		"the load balancer's health check: answers ok, reads and writes nothing",
 	'src/routes/sign-out/+page.server.ts#actions.default':
 		'signing out ends whatever session there is',
 	'src/routes/invite/[id]/+page.server.ts#load':

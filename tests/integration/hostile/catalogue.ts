@@ -181,6 +181,7 @@ const endpoints: EndpointTarget[] = [
 	{ kind: 'endpoint', route: '/api/v1/jobs/[id]/moves', method: 'POST', params: job },
 	{ kind: 'endpoint', route: '/api/v1/me', method: 'GET' },
 	{ kind: 'endpoint', route: '/api/v1/health/session', method: 'GET' },
+	{ kind: 'endpoint', route: '/health', method: 'GET' },
 	{ kind: 'endpoint', route: '/api/v1/openapi.json', method: 'GET' },
 	{ kind: 'endpoint', route: '/api/v1/price-items', method: 'GET' },
 	{
