@@ -8,6 +8,7 @@ import { handleDevRoutes } from '$lib/server/hooks/dev';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
 import { handleRequestId } from '$lib/server/hooks/request-id';
+import { handleUnavailable } from '$lib/server/hooks/unavailable';
 import { log, safePath } from '$lib/server/log';
 import { can, grantsOf } from '$lib/server/permissions';
 import {
@@ -153,6 +154,7 @@ async function startTasks() {
 export const handle = sequence(
 	handleRequestId,
 	handleHeaders(config.origin),
+	handleUnavailable,
 	handleDevRoutes(() => config.fakes),
 	handleInput,
 	handleClientAddress,
