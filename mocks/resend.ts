@@ -1,5 +1,19 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
 import { http, HttpResponse } from 'msw';
 import { readOutbox, recordMessage } from './outbox';
+
+/**
+ * Switches for trying faults (tests/server/faults.spec.ts), read on every request: files in the
+ * fake's data folder, so they exist only where the fake does (FLUSHLINE_FAKES=1), never in
+ * production. `fake-mail-down`: the provider is down, every send answers 503. `fake-mail-hold`:
+ * a send is taken (it is in the outbox) but its answer waits while the file is there, as a
+ * provider that accepted a message and then lost the connection.
+ */
+export const MAIL_DOWN_FILE = 'fake-mail-down';
+export const MAIL_HOLD_FILE = 'fake-mail-hold';
+/** The longest a held answer waits (then it is given). */
+const HOLD_MAX_MS = 10 * 60_000;
 
 const base = () => (process.env.RESEND_BASE_URL ?? 'https://api.resend.com').replace(/\/$/, '');
 
@@ -18,6 +32,9 @@ const KEY_HOURS = 24;
 export function resendHandlers(dataDir: string) {
 	return [
 		http.post(`${base()}/emails`, async ({ request }) => {
+			if (existsSync(path.join(dataDir, MAIL_DOWN_FILE))) {
+				return failure(503, 'service_unavailable', 'The e-mail service is down (local fake).');
+			}
 			if (!request.headers.get('authorization')?.startsWith('Bearer ')) {
 				return failure(401, 'missing_api_key', 'Missing API key in the authorization header.');
 			}
@@ -73,6 +90,10 @@ export function resendHandlers(dataDir: string) {
 				...(key ? { idempotencyKey: key } : {}),
 				...(attachments.length ? { attachments } : {})
 			});
+			const hold = path.join(dataDir, MAIL_HOLD_FILE);
+			for (const until = Date.now() + HOLD_MAX_MS; existsSync(hold) && Date.now() < until;) {
+				await new Promise((r) => setTimeout(r, 100));
+			}
 			return HttpResponse.json({ id });
 		})
 	];

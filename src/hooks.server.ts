@@ -10,6 +10,7 @@ import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
 import { handleRequestId } from '$lib/server/hooks/request-id';
 import { handleServerName } from '$lib/server/hooks/server-name';
+import { handleUnavailable } from '$lib/server/hooks/unavailable';
 import { log, safePath } from '$lib/server/log';
 import { can, grantsOf } from '$lib/server/permissions';
 import {
@@ -162,6 +163,7 @@ export const handle = sequence(
 	handleServerName(config.serverName),
 	handleRequestId,
 	handleHeaders(config.origin),
+	handleUnavailable,
 	handleDevRoutes(() => config.fakes),
 	handleInput,
 	handleClientAddress,

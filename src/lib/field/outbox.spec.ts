@@ -103,4 +103,55 @@ describe('the outbox', () => {
 			message: expect.stringMatching(/not a photo/)
 		});
 	});
+
+	it('keeps what the server could not take now (a restart, a busy balancer) and sends it later, once', async () => {
+		await item('job-c', 'item-c-000001', 2);
+		await photo('job-c', 'photo-c-00001');
+		// The database restarting: the items' send is answered 503, nothing is marked.
+		for (const status of [503, 502, 500, 504, 429]) {
+			const busy = await flush('job-c', async () =>
+				json({ message: 'Please try again in a moment' }, status)
+			);
+			expect(busy, String(status)).toEqual({ sent: 0, signIn: false, offline: true });
+			expect((await itemsOf('job-c')).map((i) => i.state)).toEqual(['waiting']);
+			expect((await photosOf('job-c')).map((p) => p.state)).toEqual(['waiting']);
+		}
+		// The items go through, then the photo's send is cut and then answered 503: still waiting.
+		const stored = { kind: 'found', roomId: 'r1', refKey: 'prep:hole_repair', qty: 2, version: 1 };
+		const itemsTaken = async (url: RequestInfo | URL) => {
+			if (!String(url).endsWith('/items')) throw new Error('unexpected');
+			return json({
+				items: [
+					{
+						clientId: 'item-c-000001',
+						status: 'stored',
+						item: { ...stored, clientId: 'item-c-000001' }
+					}
+				]
+			});
+		};
+		const cut = await flush('job-c', async (url, init) => {
+			if (String(url).endsWith('/items')) return itemsTaken(url);
+			void init;
+			throw new TypeError('network error: connection reset');
+		});
+		expect(cut).toEqual({ sent: 1, signIn: false, offline: true });
+		const busy = await flush('job-c', async () => json({ message: 'try again' }, 503));
+		expect(busy.offline).toBe(true);
+		expect((await photosOf('job-c')).map((p) => p.state)).toEqual(['waiting']);
+		// The server is back: the photo is sent once and marked with the server's id.
+		const photoSends: string[] = [];
+		const back = await flush('job-c', async (url, init) => {
+			photoSends.push((init?.body as FormData).get('clientId') as string);
+			return json({ id: 'photo-server-1', clientId: 'photo-c-00001', duplicate: false }, 201);
+		});
+		expect(back).toEqual({ sent: 1, signIn: false, offline: false });
+		expect(photoSends).toEqual(['photo-c-00001']);
+		expect(await photosOf('job-c')).toMatchObject([{ state: 'sent', serverId: 'photo-server-1' }]);
+		// Nothing is left to send again.
+		const after = await flush('job-c', async () => {
+			throw new Error('nothing should be sent');
+		});
+		expect(after).toEqual({ sent: 0, signIn: false, offline: false });
+	});
 });

@@ -106,8 +106,18 @@ export async function waitingCount(): Promise<number> {
 export type FlushResult = { sent: number; signIn: boolean; offline: boolean };
 
 /**
+ * An answer that says "not now" rather than "not this": the server or something before it is
+ * down or busy (500, 502, 503 while the database restarts, 504), or asks to wait (408, 429).
+ * What was sent stays waiting and goes again later, as when there is no network.
+ */
+export function isTryLater(status: number): boolean {
+	return status >= 500 || status === 408 || status === 429;
+}
+
+/**
  * Sends what is waiting for one job: items first (a photo may name one), then photos one by one.
- * Stops at the first network failure (it stays waiting) or 401 (sign in to send).
+ * Stops at the first network failure or "try later" answer (it stays waiting) or 401 (sign in to
+ * send). Only the server's own answer takes an item off the list, never a send that failed.
  */
 export async function flush(jobId: string, fetcher: typeof fetch = fetch): Promise<FlushResult> {
 	const result: FlushResult = { sent: 0, signIn: false, offline: false };
@@ -127,6 +137,10 @@ export async function flush(jobId: string, fetcher: typeof fetch = fetch): Promi
 		}
 		if (response.status === 401) {
 			result.signIn = true;
+			return result;
+		}
+		if (isTryLater(response.status)) {
+			result.offline = true;
 			return result;
 		}
 		if (!response.ok) {
@@ -179,6 +193,10 @@ export async function flush(jobId: string, fetcher: typeof fetch = fetch): Promi
 		}
 		if (response.status === 401) {
 			result.signIn = true;
+			return result;
+		}
+		if (isTryLater(response.status)) {
+			result.offline = true;
 			return result;
 		}
 		const body = await response.json().catch(() => ({}));

@@ -18,7 +18,6 @@ const roomIdSchema = z
 	.nullable();
 
 export { READING_KIND_VALUES, READING_LABELS } from '$lib/field/readings';
-import { READING_KIND_VALUES } from '$lib/field/readings';
 
 const flatness = z.object({
 	spanIn: z.number().min(12, 'At least a 12 in straightedge').max(240, 'At most 20 ft'),

@@ -2,6 +2,7 @@ import { log } from '../log';
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import type pg from 'pg';
 import { pool as appPool } from './index';
+import { databaseUnavailable, isDatabaseUnavailable } from './unavailable';
 
 declare const storeTxBrand: unique symbol;
 
@@ -57,7 +58,26 @@ const BEGIN: Record<TxMode, string> = {
 	write: 'begin'
 };
 
+/**
+ * A transaction that could not reach the database (PostgreSQL restarting, no connection to be
+ * had) is rolled back by PostgreSQL itself: the request is answered 503 "try again", not 500.
+ */
 async function run<T, M extends TxMode>(
+	mode: M,
+	storeId: string,
+	work: (tx: StoreTx<M>) => Promise<T>,
+	pool: pg.Pool
+): Promise<T> {
+	try {
+		return await runOnce(mode, storeId, work, pool);
+	} catch (e) {
+		if (!isDatabaseUnavailable(e)) throw e;
+		log.warn({ err: e instanceof Error ? e.message : String(e), storeId }, 'Database unavailable');
+		throw databaseUnavailable();
+	}
+}
+
+async function runOnce<T, M extends TxMode>(
 	mode: M,
 	storeId: string,
 	work: (tx: StoreTx<M>) => Promise<T>,

@@ -11,7 +11,8 @@ const TITLES: Record<number, string> = {
 	400: 'This request could not be read',
 	404: 'Not found',
 	413: 'That is too large',
-	429: 'Too many attempts'
+	429: 'Too many attempts',
+	503: 'Please try again in a moment'
 };
 
 /**

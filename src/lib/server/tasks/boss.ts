@@ -1,4 +1,5 @@
 import PgBoss from 'pg-boss';
+import { taskTiming } from './timing';
 
 /**
  * The app's pg-boss. It never changes the schema (`migrate: false`): migration 0007 made it, and
@@ -13,6 +14,10 @@ export function appBoss(): PgBoss {
 		application_name: 'flushline-tasks',
 		max: 3,
 		migrate: false,
+		// An attempt whose worker died (a server killed mid-task) is found by this pass once it
+		// has run longer than its kind allows, and retried: within about a minute and a half
+		// for an e-mail (60 s to expire, at most 30 s to be noticed, then its retry delay).
+		maintenanceIntervalSeconds: taskTiming().maintenanceSeconds,
 		// Failed and finished tasks leave the queue's own tables after a week; the store's `task`
 		// rows stay as the record.
 		archiveCompletedAfterSeconds: 60 * 60 * 12,

@@ -4,6 +4,7 @@ import * as tasks from '../db/queries/tasks';
 import { afterCommit, clientOf, type StoreWriteTx } from '../db/tenant';
 import { appBoss } from './boss';
 import { TASK_KINDS, TASK_QUEUE, type TaskData, type TaskKind, type TaskPayload } from './kinds';
+import { taskTiming } from './timing';
 
 export { MAIL_PURPOSES, type MailPurpose, type TaskKind } from './kinds';
 
@@ -42,11 +43,14 @@ function wakeWorkers() {
 
 function sendOptions<K extends TaskKind>(kind: K, options: QueueOptions): PgBoss.SendOptions {
 	const def = TASK_KINDS[kind];
+	const timing = taskTiming();
 	return {
 		retryLimit: options.retryLimit ?? def.retry.limit,
-		retryDelay: options.retryDelaySeconds ?? def.retry.delaySeconds,
+		retryDelay:
+			options.retryDelaySeconds ??
+			(def.retry.delaySeconds ? (timing.retryDelaySeconds ?? def.retry.delaySeconds) : 0),
 		retryBackoff: true,
-		expireInSeconds: options.expireInSeconds ?? def.expireInSeconds,
+		expireInSeconds: options.expireInSeconds ?? timing.expireSeconds ?? def.expireInSeconds,
 		...(options.singleton
 			? { singletonKey: options.singleton.key, singletonSeconds: options.singleton.seconds }
 			: {})

@@ -78,7 +78,9 @@ export const TASK_KINDS = {
 		payload: mailPayload,
 		// About 30 s, 1, 2, 4, 8 and 16 minutes apart: half an hour of a provider being down.
 		retry: { limit: 6, delaySeconds: 30 },
-		expireInSeconds: 120,
+		// A send takes seconds; an attempt still running after a minute is taken for dead and
+		// tried again (under the same idempotency key, so a message is never sent twice).
+		expireInSeconds: 60,
 		recorded: true
 	}),
 	/** Brings the store's Stripe charges, refunds and payouts into its tables. */

@@ -51,6 +51,9 @@ export const POST: RequestHandler = endpoint(async ({ params, request }) => {
 		]);
 	}
 	const storeId = member.store.id;
+	// Files first, then the row that names them: a server that dies, or a database that drops,
+	// between the two leaves at most unnamed files (never served), never a row without its file.
+	// They are not removed when the transaction fails: its commit may have happened unheard.
 	const files = await putPhotoFiles(storeId, params.id, processed);
 	const saved = await inStore(storeId, async (tx) => {
 		const job = await jobs.readForViewer(tx, params.id, member.scope);
