@@ -66,6 +66,19 @@ export function refKey(ref: ItemRef): string {
 	}
 }
 
+/** The ref's own id within its type: what `refKey` puts after the colon. */
+function refId(ref: ItemRef): string {
+	switch (ref.type) {
+		case 'floor':
+		case 'install':
+			return ref.productId;
+		case 'removal':
+			return ref.existing;
+		default:
+			return ref.kind;
+	}
+}
+
 /** A floor product in the price book. */
 export interface FloorProduct {
 	id: string;
@@ -258,15 +271,27 @@ export class PriceIndex {
 		for (const s of book.supplies) this.supplies.set(s.kind, s);
 	}
 
-	private readonly resolved = new Map<string, Resolved | string>();
+	/**
+	 * Prices looked up so far, by the ref's type and then its own id (product id, existing floor
+	 * or kind): no key text is built per line, since hashing a freshly joined string on every
+	 * lookup showed in the benchmark's profile.
+	 */
+	private readonly resolved: Record<ItemRef['type'], Map<string, Resolved | string>> = {
+		floor: new Map(),
+		install: new Map(),
+		removal: new Map(),
+		prep: new Map(),
+		supply: new Map()
+	};
 
 	/** The price of an item, or a message saying what is missing (looked up once per item). */
 	resolve(ref: ItemRef): Resolved | string {
-		const key = refKey(ref);
-		let r = this.resolved.get(key);
+		const byType = this.resolved[ref.type];
+		const id = refId(ref);
+		let r = byType.get(id);
 		if (r === undefined) {
 			r = this.lookup(ref);
-			this.resolved.set(key, r);
+			byType.set(id, r);
 		}
 		return r;
 	}
