@@ -6,6 +6,7 @@
 import polygonClipping from 'polygon-clipping';
 import type { Polygon, Ring } from 'polygon-clipping';
 import { countWithin, LIMITS, LimitError, within } from './limits';
+import { rectUnionRing } from './rect-union';
 import { formatLength, SQIN_PER_SQFT } from './units';
 
 export type Point = [number, number];
@@ -309,6 +310,10 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 			polys.push([rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)]);
 		}
 		if (polys.length === 1) return { ok: true, simple: true, polygon: polys[0] };
+		// Rectangles making one area without holes: their outline off a grid, as polygon-clipping
+		// gives it (rect-union.ts); anything else goes to polygon-clipping below.
+		const ring = rectUnionRing(shape.rects);
+		if (ring) return { ok: true, simple: false, polygon: [ring] };
 		// One multipolygon of every rectangle (they may overlap): no list spread into the call.
 		const union = polygonClipping.union(polys);
 		if (union.length !== 1)
