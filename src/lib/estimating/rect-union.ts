@@ -13,6 +13,7 @@
  * rounding would snap them.
  */
 import type { Ring } from 'polygon-clipping';
+import { sortShort } from './math';
 
 export interface Rect {
 	xIn: number;
@@ -29,7 +30,7 @@ const MIN_GAP = 1e-6;
 
 /** Sorted distinct values, or `null` when two are too close (or one is -0) to be taken as is. */
 function gridLines(values: number[]): number[] | null {
-	values.sort((a, b) => a - b);
+	sortShort(values, (a, b) => a - b);
 	const out: number[] = [];
 	for (const v of values) {
 		if (!Number.isFinite(v) || Object.is(v, -0)) return null;
