@@ -363,13 +363,25 @@ function roomSteps(
 /** Each caution once, in a fixed order, with the rooms and lines that raised it. */
 function cautionNotes(events: readonly CautionEvent[]): CautionNote[] {
 	const seen = new Map<CautionKind, { roomIds: Set<string>; lineIds: Set<string> }>();
+	// Events come room by room, many of a kind in a row: the last note and room are remembered
+	// (adding a room a set already holds changes nothing, so skipping it gives the same sets).
+	let lastKind: CautionKind | undefined;
+	let note: { roomIds: Set<string>; lineIds: Set<string> } | undefined;
+	let lastRoomId: string | undefined;
 	for (const e of events) {
-		let note = seen.get(e.kind);
-		if (!note) {
-			note = { roomIds: new Set(), lineIds: new Set() };
-			seen.set(e.kind, note);
+		if (e.kind !== lastKind || !note) {
+			lastKind = e.kind;
+			lastRoomId = undefined;
+			note = seen.get(e.kind);
+			if (!note) {
+				note = { roomIds: new Set(), lineIds: new Set() };
+				seen.set(e.kind, note);
+			}
 		}
-		if (e.roomId) note.roomIds.add(e.roomId);
+		if (e.roomId && e.roomId !== lastRoomId) {
+			note.roomIds.add(e.roomId);
+			lastRoomId = e.roomId;
+		}
 		if (e.lineId) note.lineIds.add(e.lineId);
 	}
 	return CAUTION_KINDS.filter((k) => seen.has(k)).map((kind) => ({
