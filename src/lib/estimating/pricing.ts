@@ -468,8 +468,27 @@ export function depositCents(totalCents: number, deposit: StoreSettings['deposit
 
 /** Subtotals by group, taxes, total, deposit and balance. */
 export function totals(lines: readonly PriceLine[], settings: StoreSettings): Totals {
-	const byGroup: Record<LineGroup, number> = { material: 0, labour: 0, prep: 0, removal: 0 };
-	for (const l of lines) byGroup[l.group] += l.amountCents;
+	// One running sum per group (a switch, not a store keyed by the group: this runs per line).
+	let material = 0;
+	let labour = 0;
+	let prep = 0;
+	let removal = 0;
+	for (const l of lines)
+		switch (l.group) {
+			case 'material':
+				material += l.amountCents;
+				break;
+			case 'labour':
+				labour += l.amountCents;
+				break;
+			case 'prep':
+				prep += l.amountCents;
+				break;
+			case 'removal':
+				removal += l.amountCents;
+				break;
+		}
+	const byGroup: Record<LineGroup, number> = { material, labour, prep, removal };
 	const subtotalCents = byGroup.material + byGroup.labour + byGroup.prep + byGroup.removal;
 	const taxLines = taxes(byGroup, settings);
 	const taxCents = taxLines.reduce((s, t) => s + t.taxCents, 0);
