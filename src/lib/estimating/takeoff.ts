@@ -374,9 +374,28 @@ export function fastenersPerPanel(
 		perimeter,
 		field,
 		perPanel: perimeter + field,
-		rule: `edges ${schedule.edgeSpacingIn} in o.c. at ${schedule.edgeDistanceIn} in from the edge, field ${schedule.fieldSpacingIn} in each way`,
+		rule: scheduleRule(schedule),
 		source: schedule.source
 	};
+}
+
+/** The last schedule's rule text and the figures it was written from. */
+let lastRule = { edge: NaN, distance: NaN, field: NaN, text: '' };
+
+/**
+ * A fastening schedule in words. Every room under new underlayment asks for the same store
+ * schedule, so the text is written once and reused while its three figures stay the same.
+ */
+function scheduleRule(schedule: FasteningSchedule): string {
+	const { edgeSpacingIn: edge, edgeDistanceIn: distance, fieldSpacingIn: field } = schedule;
+	if (edge !== lastRule.edge || distance !== lastRule.distance || field !== lastRule.field)
+		lastRule = {
+			edge,
+			distance,
+			field,
+			text: `edges ${edge} in o.c. at ${distance} in from the edge, field ${field} in each way`
+		};
+	return lastRule.text;
 }
 
 export interface UnderlaymentTakeoff extends Rule {
