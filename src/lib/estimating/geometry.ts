@@ -6,6 +6,7 @@
 import polygonClipping from 'polygon-clipping';
 import type { Polygon, Ring } from 'polygon-clipping';
 import { countWithin, LIMITS, LimitError, within } from './limits';
+import { edgeLength } from './math';
 import { rectUnionRing } from './rect-union';
 import { formatLength, SQIN_PER_SQFT } from './units';
 
@@ -98,7 +99,7 @@ function ringArea(ring: Ring): number {
 function ringLength(ring: Ring): number {
 	let l = 0;
 	for (let i = 0, n = ring.length, j = n - 1; i < n; j = i++) {
-		l += Math.hypot(ring[i][0] - ring[j][0], ring[i][1] - ring[j][1]);
+		l += edgeLength(ring[i][0] - ring[j][0], ring[i][1] - ring[j][1]);
 	}
 	return l;
 }

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { ceilTo, ceilUnits, floorUnits, sortShort } from './math';
+import { ceilTo, ceilUnits, edgeLength, floorUnits, sortShort } from './math';
 
 describe('rounding quantities', () => {
 	it('rounds up to whole units, ignoring float noise', () => {
@@ -37,6 +37,20 @@ describe('sortShort', () => {
 					expect(copy).toEqual(expected);
 				}
 			)
+		);
+	});
+});
+
+describe('edgeLength', () => {
+	it('is Math.hypot to the last bit, along an axis or not', () => {
+		const any = fc.oneof(fc.double(), fc.constantFrom(0, -0, Infinity, -Infinity, NaN));
+		fc.assert(
+			fc.property(any, any, (dx, dy) => {
+				expect(Object.is(edgeLength(dx, dy), Math.hypot(dx, dy))).toBe(true);
+				expect(Object.is(edgeLength(0, dy), Math.hypot(0, dy))).toBe(true);
+				expect(Object.is(edgeLength(dx, -0), Math.hypot(dx, -0))).toBe(true);
+			}),
+			{ numRuns: 5000 }
 		);
 	});
 });

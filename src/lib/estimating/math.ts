@@ -49,3 +49,13 @@ export function sortShort<T>(list: T[], compare: (a: T, b: T) => number): T[] {
 	}
 	return list;
 }
+
+/**
+ * Length of the vector (dx, dy): `Math.hypot`'s exact answer, |dx| or |dy|, without calling it
+ * for a wall along an axis (most walls: `Math.hypot` is slow beside a plain absolute value).
+ */
+export function edgeLength(dx: number, dy: number): number {
+	if (dx === 0) return Math.abs(dy);
+	if (dy === 0) return Math.abs(dx);
+	return Math.hypot(dx, dy);
+}
