@@ -299,7 +299,6 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 	if (shape.kind === 'rects') {
 		if (shape.rects.length === 0)
 			return { ok: false, field, message: 'Add at least one rectangle' };
-		const polys: Polygon[] = [];
 		for (let i = 0; i < shape.rects.length; i++) {
 			const r = shape.rects[i];
 			if (!positive(r.widthIn) || !positive(r.lengthIn))
@@ -308,13 +307,18 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 					field: `${field}.rects.${i}`,
 					message: `Rectangle ${i + 1} needs a width and a length above zero`
 				};
-			polys.push([rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)]);
 		}
-		if (polys.length === 1) return { ok: true, simple: true, polygon: polys[0] };
+		if (shape.rects.length === 1) {
+			const r = shape.rects[0];
+			return { ok: true, simple: true, polygon: [rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)] };
+		}
 		// Rectangles making one area without holes: their outline off a grid, as polygon-clipping
 		// gives it (rect-union.ts); anything else goes to polygon-clipping below.
 		const ring = rectUnionRing(shape.rects);
 		if (ring) return { ok: true, simple: false, polygon: [ring] };
+		const polys: Polygon[] = shape.rects.map((r) => [
+			rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)
+		]);
 		// One multipolygon of every rectangle (they may overlap): no list spread into the call.
 		const union = polygonClipping.union(polys);
 		if (union.length !== 1)
