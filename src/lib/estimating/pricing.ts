@@ -366,6 +366,12 @@ export interface Priced {
 	costCents?: number;
 }
 
+/** Whether any of the store's taxes falls on `group` (a loop: this runs for every line). */
+function taxedGroup(settings: StoreSettings, group: LineGroup): boolean {
+	for (const t of settings.taxes) if (t.groups.includes(group)) return true;
+	return false;
+}
+
 /** Prices `qty` (in the price's basis) of an item; taxable by the store's tax groups. */
 export function priceQty(
 	item: { ref: ItemRef; roomId?: string; qty: number; description?: string; findingIds?: string[] },
@@ -395,7 +401,7 @@ export function priceQty(
 		qty,
 		unitCents: price.unitCents,
 		amountCents: extend(qty, price.unitCents),
-		taxable: settings.taxes.some((t) => t.groups.includes(price.group)),
+		taxable: taxedGroup(settings, price.group),
 		findingIds: item.findingIds ?? []
 	};
 	const pay: PayLine | undefined =
