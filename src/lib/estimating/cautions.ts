@@ -32,5 +32,8 @@ export const CAUTIONS: Record<CautionKind, string> = {
 
 /** The caution texts for a set of kinds, in a stable order. */
 export function cautionTexts(kinds: readonly CautionKind[]): string[] {
-	return CAUTION_KINDS.filter((k) => kinds.includes(k)).map((k) => CAUTIONS[k]);
+	// A plain loop: this runs for every finding, and a filter-then-map chain made two lists.
+	const texts: string[] = [];
+	for (const k of CAUTION_KINDS) if (kinds.includes(k)) texts.push(CAUTIONS[k]);
+	return texts;
 }

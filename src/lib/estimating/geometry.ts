@@ -6,6 +6,8 @@
 import polygonClipping from 'polygon-clipping';
 import type { Polygon, Ring } from 'polygon-clipping';
 import { countWithin, LIMITS, LimitError, within } from './limits';
+import { edgeLength } from './math';
+import { rectUnionRing } from './rect-union';
 import { formatLength, SQIN_PER_SQFT } from './units';
 
 export type Point = [number, number];
@@ -97,7 +99,7 @@ function ringArea(ring: Ring): number {
 function ringLength(ring: Ring): number {
 	let l = 0;
 	for (let i = 0, n = ring.length, j = n - 1; i < n; j = i++) {
-		l += Math.hypot(ring[i][0] - ring[j][0], ring[i][1] - ring[j][1]);
+		l += edgeLength(ring[i][0] - ring[j][0], ring[i][1] - ring[j][1]);
 	}
 	return l;
 }
@@ -297,7 +299,6 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 	if (shape.kind === 'rects') {
 		if (shape.rects.length === 0)
 			return { ok: false, field, message: 'Add at least one rectangle' };
-		const polys: Polygon[] = [];
 		for (let i = 0; i < shape.rects.length; i++) {
 			const r = shape.rects[i];
 			if (!positive(r.widthIn) || !positive(r.lengthIn))
@@ -306,9 +307,18 @@ function shapePolygon(shape: Shape, field: string, closureToleranceIn: number): 
 					field: `${field}.rects.${i}`,
 					message: `Rectangle ${i + 1} needs a width and a length above zero`
 				};
-			polys.push([rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)]);
 		}
-		if (polys.length === 1) return { ok: true, simple: true, polygon: polys[0] };
+		if (shape.rects.length === 1) {
+			const r = shape.rects[0];
+			return { ok: true, simple: true, polygon: [rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)] };
+		}
+		// Rectangles making one area without holes: their outline off a grid, as polygon-clipping
+		// gives it (rect-union.ts); anything else goes to polygon-clipping below.
+		const ring = rectUnionRing(shape.rects);
+		if (ring) return { ok: true, simple: false, polygon: [ring] };
+		const polys: Polygon[] = shape.rects.map((r) => [
+			rectRing(r.xIn, r.yIn, r.widthIn, r.lengthIn)
+		]);
 		// One multipolygon of every rectangle (they may overlap): no list spread into the call.
 		const union = polygonClipping.union(polys);
 		if (union.length !== 1)

@@ -66,6 +66,19 @@ export function refKey(ref: ItemRef): string {
 	}
 }
 
+/** The ref's own id within its type: what `refKey` puts after the colon. */
+function refId(ref: ItemRef): string {
+	switch (ref.type) {
+		case 'floor':
+		case 'install':
+			return ref.productId;
+		case 'removal':
+			return ref.existing;
+		default:
+			return ref.kind;
+	}
+}
+
 /** A floor product in the price book. */
 export interface FloorProduct {
 	id: string;
@@ -258,15 +271,27 @@ export class PriceIndex {
 		for (const s of book.supplies) this.supplies.set(s.kind, s);
 	}
 
-	private readonly resolved = new Map<string, Resolved | string>();
+	/**
+	 * Prices looked up so far, by the ref's type and then its own id (product id, existing floor
+	 * or kind): no key text is built per line, since hashing a freshly joined string on every
+	 * lookup showed in the benchmark's profile.
+	 */
+	private readonly resolved: Record<ItemRef['type'], Map<string, Resolved | string>> = {
+		floor: new Map(),
+		install: new Map(),
+		removal: new Map(),
+		prep: new Map(),
+		supply: new Map()
+	};
 
 	/** The price of an item, or a message saying what is missing (looked up once per item). */
 	resolve(ref: ItemRef): Resolved | string {
-		const key = refKey(ref);
-		let r = this.resolved.get(key);
+		const byType = this.resolved[ref.type];
+		const id = refId(ref);
+		let r = byType.get(id);
 		if (r === undefined) {
 			r = this.lookup(ref);
-			this.resolved.set(key, r);
+			byType.set(id, r);
 		}
 		return r;
 	}
@@ -341,6 +366,12 @@ export interface Priced {
 	costCents?: number;
 }
 
+/** Whether any of the store's taxes falls on `group` (a loop: this runs for every line). */
+function taxedGroup(settings: StoreSettings, group: LineGroup): boolean {
+	for (const t of settings.taxes) if (t.groups.includes(group)) return true;
+	return false;
+}
+
 /** Prices `qty` (in the price's basis) of an item; taxable by the store's tax groups. */
 export function priceQty(
 	item: { ref: ItemRef; roomId?: string; qty: number; description?: string; findingIds?: string[] },
@@ -370,7 +401,7 @@ export function priceQty(
 		qty,
 		unitCents: price.unitCents,
 		amountCents: extend(qty, price.unitCents),
-		taxable: settings.taxes.some((t) => t.groups.includes(price.group)),
+		taxable: taxedGroup(settings, price.group),
 		findingIds: item.findingIds ?? []
 	};
 	const pay: PayLine | undefined =
@@ -443,8 +474,27 @@ export function depositCents(totalCents: number, deposit: StoreSettings['deposit
 
 /** Subtotals by group, taxes, total, deposit and balance. */
 export function totals(lines: readonly PriceLine[], settings: StoreSettings): Totals {
-	const byGroup: Record<LineGroup, number> = { material: 0, labour: 0, prep: 0, removal: 0 };
-	for (const l of lines) byGroup[l.group] += l.amountCents;
+	// One running sum per group (a switch, not a store keyed by the group: this runs per line).
+	let material = 0;
+	let labour = 0;
+	let prep = 0;
+	let removal = 0;
+	for (const l of lines)
+		switch (l.group) {
+			case 'material':
+				material += l.amountCents;
+				break;
+			case 'labour':
+				labour += l.amountCents;
+				break;
+			case 'prep':
+				prep += l.amountCents;
+				break;
+			case 'removal':
+				removal += l.amountCents;
+				break;
+		}
+	const byGroup: Record<LineGroup, number> = { material, labour, prep, removal };
 	const subtotalCents = byGroup.material + byGroup.labour + byGroup.prep + byGroup.removal;
 	const taxLines = taxes(byGroup, settings);
 	const taxCents = taxLines.reduce((s, t) => s + t.taxCents, 0);

@@ -4,7 +4,7 @@
  */
 import type { Polygon } from 'polygon-clipping';
 import { countWithin, LIMITS, LimitError, within } from './limits';
-import { ceilTo, ceilUnits, floorUnits } from './math';
+import { ceilTo, ceilUnits, floorUnits, sortShort } from './math';
 import type { FasteningSchedule, HoleMethod } from './settings';
 import { CUIN_PER_US_GAL, SQIN_PER_SQFT, SQIN_PER_SQYD } from './units';
 
@@ -100,20 +100,34 @@ function xAt(e: Edge, y: number): number {
 	return e[0] + ((y - e[1]) * (e[2] - e[0])) / (e[3] - e[1]);
 }
 
-/** Edges crossing the line y (half-open in y so a vertex counts once), sorted by x there. */
+/**
+ * Edges crossing the line y (half-open in y so a vertex counts once), sorted by x there (stably,
+ * by insertion into a list kept in order: a room has a few crossings per line, and this runs for
+ * every band of every drop).
+ */
 function crossing(edges: readonly Edge[], y: number): Edge[] {
-	const hit: { e: Edge; x: number }[] = [];
+	const hit: Edge[] = [];
+	const xs: number[] = [];
 	for (const e of edges) {
 		const lo = Math.min(e[1], e[3]);
 		const hi = Math.max(e[1], e[3]);
-		if (lo <= y && y < hi) hit.push({ e, x: xAt(e, y) });
+		if (!(lo <= y && y < hi)) continue;
+		const x = xAt(e, y);
+		let k = hit.length;
+		hit.push(e);
+		xs.push(x);
+		for (; k > 0 && xs[k - 1] - x > 0; k--) {
+			hit[k] = hit[k - 1];
+			xs[k] = xs[k - 1];
+		}
+		hit[k] = e;
+		xs[k] = x;
 	}
-	hit.sort((a, b) => a.x - b.x);
-	return hit.map((h) => h.e);
+	return hit;
 }
 
 function merge(intervals: [number, number][]): [number, number][] {
-	intervals.sort((a, b) => a[0] - b[0]);
+	sortShort(intervals, (a, b) => a[0] - b[0]);
 	const out: [number, number][] = [];
 	for (const iv of intervals) {
 		const last = out[out.length - 1];
@@ -206,7 +220,7 @@ function layout(
 		minX = Math.min(minX, e[0]);
 		maxX = Math.max(maxX, e[0]);
 	}
-	ys.sort((a, b) => a - b);
+	sortShort(ys, (a, b) => a - b);
 	const strips = ceilUnits((maxY - minY) / rollWidthIn);
 	// At most 500 (a 500 ft room in 1 ft rolls) whatever the caller measured.
 	const maxStrips = LIMITS.roomSideIn / LIMITS.rollWidthMinIn;
@@ -360,9 +374,28 @@ export function fastenersPerPanel(
 		perimeter,
 		field,
 		perPanel: perimeter + field,
-		rule: `edges ${schedule.edgeSpacingIn} in o.c. at ${schedule.edgeDistanceIn} in from the edge, field ${schedule.fieldSpacingIn} in each way`,
+		rule: scheduleRule(schedule),
 		source: schedule.source
 	};
+}
+
+/** The last schedule's rule text and the figures it was written from. */
+let lastRule = { edge: NaN, distance: NaN, field: NaN, text: '' };
+
+/**
+ * A fastening schedule in words. Every room under new underlayment asks for the same store
+ * schedule, so the text is written once and reused while its three figures stay the same.
+ */
+function scheduleRule(schedule: FasteningSchedule): string {
+	const { edgeSpacingIn: edge, edgeDistanceIn: distance, fieldSpacingIn: field } = schedule;
+	if (edge !== lastRule.edge || distance !== lastRule.distance || field !== lastRule.field)
+		lastRule = {
+			edge,
+			distance,
+			field,
+			text: `edges ${edge} in o.c. at ${distance} in from the edge, field ${field} in each way`
+		};
+	return lastRule.text;
 }
 
 export interface UnderlaymentTakeoff extends Rule {

@@ -7,7 +7,7 @@
  * lengths first-fit decreasing, so an offcut from one wall trims a shorter one, in any room of
  * the job. Pure and bounded: past `PACK_MAX` pieces the packing falls back to total length.
  */
-import { ceilUnits } from './math';
+import { ceilUnits, edgeLength } from './math';
 import type { Point } from './geometry';
 
 /** Waste on setting materials and backer, and the trim allowance, when the store set none. */
@@ -30,7 +30,7 @@ export function wallRuns(outer: readonly Point[]): number[] {
 	for (let i = 0; i < n; i++) {
 		const a = outer[i];
 		const b = outer[(i + 1) % n];
-		const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+		const len = edgeLength(b[0] - a[0], b[1] - a[1]);
 		if (len > EPS) runs.push(len);
 	}
 	return runs;

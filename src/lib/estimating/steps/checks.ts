@@ -236,27 +236,16 @@ export function checksStep(ctx: RoomContext): Checks {
 	}
 
 	const readings = room.readings ?? {};
-	const at = `${ctx.path}.readings`;
-	countWithin(readings.flatness?.length ?? 0, `${at}.flatness`, 'readings', LIMITS.listItems);
-	countWithin(readings.rhPct?.length ?? 0, `${at}.rhPct`, 'readings', LIMITS.listItems);
-	countWithin(
-		readings.calciumChloride?.length ?? 0,
-		`${at}.calciumChloride`,
-		'tests',
-		LIMITS.listItems
-	);
-	countWithin(
-		readings.woodMc?.subfloorPct.length ?? 0,
-		`${at}.woodMc.subfloorPct`,
-		'readings',
-		LIMITS.listItems
-	);
-	countWithin(
-		readings.woodMc?.flooringPct.length ?? 0,
-		`${at}.woodMc.flooringPct`,
-		'readings',
-		LIMITS.listItems
-	);
+	// Each list's path is only written out for a refusal (this runs for every room).
+	const listWithin = (n: number, list: string, what: string) => {
+		if (n > LIMITS.listItems)
+			countWithin(n, `${ctx.path}.readings.${list}`, what, LIMITS.listItems);
+	};
+	listWithin(readings.flatness?.length ?? 0, 'flatness', 'readings');
+	listWithin(readings.rhPct?.length ?? 0, 'rhPct', 'readings');
+	listWithin(readings.calciumChloride?.length ?? 0, 'calciumChloride', 'tests');
+	listWithin(readings.woodMc?.subfloorPct.length ?? 0, 'woodMc.subfloorPct', 'readings');
+	listWithin(readings.woodMc?.flooringPct.length ?? 0, 'woodMc.flooringPct', 'readings');
 	const rules =
 		product.needs?.flatness ??
 		flatnessRules(kind, wood ? 'wood' : 'concrete', s.flatness, product.tileEdgesIn);

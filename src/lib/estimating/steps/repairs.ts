@@ -49,8 +49,11 @@ export function repairsStep(ctx: RoomContext): Repairs {
 	const kind = product.kind;
 	const area = shape.areaSqFt;
 	const rep = room.repairs ?? {};
-	for (const list of ['holes', 'seams', 'dents'] as const)
-		countWithin(rep[list]?.length ?? 0, `${ctx.path}.repairs.${list}`, list, LIMITS.listItems);
+	for (const list of ['holes', 'seams', 'dents'] as const) {
+		const n = rep[list]?.length ?? 0;
+		// the path is only written out for a refusal (this runs for every room)
+		if (n > LIMITS.listItems) countWithin(n, `${ctx.path}.repairs.${list}`, list, LIMITS.listItems);
+	}
 	const needs: NeedEvent[] = [];
 	const cautions: CautionEvent[] = [];
 	const warnings: string[] = [];

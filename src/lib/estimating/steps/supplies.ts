@@ -58,7 +58,8 @@ export function installSupplies(
 		if (!r.floor) return;
 		const m = job.rooms[i];
 		for (const p of r.prep) {
-			const sqft = p.qty.sqft ?? 0;
+			// Only tile work reads its ft² (a room's prep measures come in many shapes).
+			const sqft = p.kind === 'tile_setting' || p.kind === 'tile_backer' ? (p.qty.sqft ?? 0) : 0;
 			if (p.kind === 'tile_setting' && sqft > 0) {
 				tileSqFt += sqft;
 				if (!grout) continue;

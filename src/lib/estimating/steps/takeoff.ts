@@ -231,7 +231,8 @@ export function extrasTakeoff(
 		}
 	};
 	const doorways = room.doorways ?? [];
-	countWithin(doorways.length, `${ctx.path}.doorways`, 'doorways', LIMITS.listItems);
+	if (doorways.length > LIMITS.listItems)
+		countWithin(doorways.length, `${ctx.path}.doorways`, 'doorways', LIMITS.listItems);
 	let doorsIn = 0;
 	for (const d of doorways) doorsIn += d.widthIn;
 	const wallLinFt = ceilUnits(Math.max(0, shape.wallPerimeterIn - doorsIn) / 12);
