@@ -198,6 +198,27 @@ describe('jobs across stores', () => {
 		});
 		const byCustomer = await find({ q: 'lot', sort: 'customer', dir: 'asc', pageSize: 5 });
 		expect(byCustomer.numbers).toEqual(desc(6100, 5, 10));
+		// Narrowed by more than the search: counted, not assumed.
+		expect(await find({ q: 'lot', status: 'draft', pageSize: 5 })).toMatchObject({
+			total: 1000,
+			totalCapped: true
+		});
+		expect(await find({ q: 'lot', status: 'sold' })).toEqual({
+			numbers: [],
+			total: 0,
+			totalCapped: false
+		});
+
+		// A later page sorted by customer: Greta Oakhurst's last ten, then Ivo Thistle's first forty.
+		const ivo = desc(6100, 1100).filter((n) => n % 10 !== 0);
+		expect(await find({ sort: 'customer', dir: 'asc', page: 3, pageSize: 50 })).toEqual({
+			numbers: [...desc(5100, 10, 10), ...ivo.slice(0, 40)],
+			total: 1100,
+			totalCapped: false
+		});
+		expect((await find({ q: 'oakhurst', page: 2, pageSize: 20 })).numbers).toEqual(
+			desc(5900, 20, 10)
+		);
 	});
 
 	it('numbers jobs per store from 1001', async () => {

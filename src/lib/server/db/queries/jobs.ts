@@ -88,7 +88,7 @@ export const COUNT_CAP = 1000;
  * matches more is tested row by row as the list walks its sort order, which finds a page quickly
  * exactly because the matches are many.
  */
-async function searchFilter(tx: StoreTx, q: string): Promise<SQL> {
+async function searchFilter(tx: StoreTx, q: string): Promise<{ filter: SQL; many: boolean }> {
 	const pattern = likePattern(q);
 	const asNumber = /^j?-?(\d{1,9})$/i.exec(q)?.[1];
 	const byNumber = asNumber ? eq(job.number, Number(asNumber)) : undefined;
@@ -97,7 +97,10 @@ async function searchFilter(tx: StoreTx, q: string): Promise<SQL> {
 	);
 	if (found.rows.length <= COUNT_CAP) {
 		const ids = found.rows.map((r) => r.id);
-		return or(sql`${job.id} = any(${sql.param(ids)}::text[])`, byNumber) as SQL;
+		return {
+			filter: or(sql`${job.id} = any(${sql.param(ids)}::text[])`, byNumber) as SQL,
+			many: false
+		};
 	}
 	// The customers whose name matches, as a list of ids: the filter stays on `job` alone, so
 	// the count reads no customer rows (bench/README.md).
@@ -105,11 +108,14 @@ async function searchFilter(tx: StoreTx, q: string): Promise<SQL> {
 		.select({ id: customer.id })
 		.from(customer)
 		.where(and(eq(customer.organizationId, tx.storeId), ilike(customer.name, pattern)));
-	return or(
-		ilike(job.title, pattern),
-		sql`${job.customerId} = any(array(${named}))`,
-		byNumber
-	) as SQL;
+	return {
+		filter: or(
+			ilike(job.title, pattern),
+			sql`${job.customerId} = any(array(${named}))`,
+			byNumber
+		) as SQL,
+		many: true
+	};
 }
 
 /**
@@ -125,18 +131,55 @@ export async function list(
 	if (query.status) filters.push(eq(job.status, query.status));
 	if (query.customerId) filters.push(eq(job.customerId, query.customerId));
 	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
-	if (query.q) filters.push(await searchFilter(tx, query.q));
+	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
+	const narrowed = filters.length > 2 || viewer.kind !== 'store';
+	const search = query.q ? await searchFilter(tx, query.q) : undefined;
+	if (search) filters.push(search.filter);
 	const where = and(...filters);
 	const order = query.dir === 'asc' ? asc : desc;
+	const orderBy = [order(sortColumns[query.sort]), desc(job.number)];
 	const offset = (query.page - 1) * query.pageSize;
-	const rows = await selectJobs(tx)
-		.where(where)
-		.orderBy(order(sortColumns[query.sort]), desc(job.number))
-		.limit(query.pageSize)
-		.offset(offset);
+	// A later page skips its offset on `job` alone (with the customer only to sort by its name),
+	// then reads its people for the page's rows: not for every row skipped.
+	const rows = offset
+		? await selectJobs(tx)
+				.where(
+					and(
+						eq(job.organizationId, tx.storeId),
+						inArray(
+							job.id,
+							(query.sort === 'customer'
+								? tx
+										.select({ id: job.id })
+										.from(job)
+										.innerJoin(
+											customer,
+											and(
+												eq(customer.id, job.customerId),
+												eq(customer.organizationId, job.organizationId)
+											)
+										)
+								: tx.select({ id: job.id }).from(job)
+							)
+								.where(where)
+								.orderBy(...orderBy)
+								.limit(query.pageSize)
+								.offset(offset)
+						)
+					)
+				)
+				.orderBy(...orderBy)
+		: await selectJobs(tx)
+				.where(where)
+				.orderBy(...orderBy)
+				.limit(query.pageSize);
 	// Every job has its store's customer (`job_customer_same_store_fk`): counted from `job` alone,
 	// and only as far as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
 	const upTo = offset + COUNT_CAP;
+	// The search found more than that and nothing else narrows it: no need to count.
+	if (search?.many && !narrowed && offset === 0) {
+		return { rows, total: upTo, totalCapped: true };
+	}
 	const counted = tx
 		.select({ one: sql`1`.as('one') })
 		.from(job)
