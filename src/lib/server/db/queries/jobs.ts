@@ -78,28 +78,41 @@ function selectJobs(tx: StoreTx) {
 export const COUNT_CAP = 1000;
 
 /**
+ * How many search matches are taken by id when the list is sorted by customer: walking the
+ * customers in name order and testing each one's jobs is slow when the matches sit with a few
+ * customers, while sorting a few thousand ids read by primary key stays cheap.
+ */
+export const SEARCH_IDS_BY_NAME = 10_000;
+
+/**
  * The search's condition on `job`: the title or the customer's name contains the text (case
  * ignored, wildcards taken literally), or it is the job's number.
  *
  * Row-level security keeps `ilike` from being an index condition for the app's role (it is not
  * leakproof), so the trigram indexes are reached through `job_search_ids` (migration 0016): a
  * security-definer function that reads the store from `app.store_id` itself and returns only ids.
- * Up to COUNT_CAP matches, the list reads those ids by primary key. A text so common that it
+ * Up to `cap` matches, the list reads those ids by primary key. A text so common that it
  * matches more is tested row by row as the list walks its sort order, which finds a page quickly
- * exactly because the matches are many.
+ * exactly because the matches are many. `matches`: how many, when the ids are all of them.
  */
-async function searchFilter(tx: StoreTx, q: string): Promise<{ filter: SQL; many: boolean }> {
+async function searchFilter(
+	tx: StoreTx,
+	q: string,
+	cap: number
+): Promise<{ filter: SQL; many: boolean; matches?: number }> {
 	const pattern = likePattern(q);
 	const asNumber = /^j?-?(\d{1,9})$/i.exec(q)?.[1];
 	const byNumber = asNumber ? eq(job.number, Number(asNumber)) : undefined;
 	const found = await tx.execute<{ id: string }>(
-		sql`select s.id from job_search_ids(${pattern}, ${COUNT_CAP + 1}) as s(id)`
+		sql`select s.id from job_search_ids(${pattern}, ${cap + 1}) as s(id)`
 	);
-	if (found.rows.length <= COUNT_CAP) {
+	if (found.rows.length <= cap) {
 		const ids = found.rows.map((r) => r.id);
 		return {
 			filter: or(sql`${job.id} = any(${sql.param(ids)}::text[])`, byNumber) as SQL,
-			many: false
+			many: false,
+			// The number may be one more job: then it is counted.
+			matches: byNumber ? undefined : ids.length
 		};
 	}
 	// The customers whose name matches, as a list of ids: the filter stays on `job` alone, so
@@ -133,7 +146,8 @@ export async function list(
 	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
 	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
 	const narrowed = filters.length > 2 || viewer.kind !== 'store';
-	const search = query.q ? await searchFilter(tx, query.q) : undefined;
+	const searchCap = query.sort === 'customer' ? SEARCH_IDS_BY_NAME : COUNT_CAP;
+	const search = query.q ? await searchFilter(tx, query.q, searchCap) : undefined;
 	if (search) filters.push(search.filter);
 	const where = and(...filters);
 	const order = query.dir === 'asc' ? asc : desc;
@@ -176,9 +190,16 @@ export async function list(
 	// Every job has its store's customer (`job_customer_same_store_fk`): counted from `job` alone,
 	// and only as far as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
 	const upTo = offset + COUNT_CAP;
-	// The search found more than that and nothing else narrows it: no need to count.
-	if (search?.many && !narrowed && offset === 0) {
-		return { rows, total: upTo, totalCapped: true };
+	// Nothing but the search narrows the list: what it found says how many, without a count.
+	if (search && !narrowed) {
+		if (search.many && searchCap >= upTo) return { rows, total: upTo, totalCapped: true };
+		if (search.matches !== undefined) {
+			return {
+				rows,
+				total: Math.min(search.matches, upTo),
+				totalCapped: search.matches > upTo
+			};
+		}
 	}
 	const counted = tx
 		.select({ one: sql`1`.as('one') })
