@@ -82,7 +82,7 @@ export const COUNT_CAP = 1000;
  * customers in name order and testing each one's jobs is slow when the matches sit with a few
  * customers, while sorting a few thousand ids read by primary key stays cheap.
  */
-export const SEARCH_IDS_BY_NAME = 10_000;
+export const SEARCH_IDS_BY_NAME = 5000;
 
 /**
  * The search's condition on `job`: the title or the customer's name contains the text (case
