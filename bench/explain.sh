@@ -2,19 +2,34 @@
 # EXPLAIN ANALYZE of the job list and customer search queries (as src/lib/server/db/queries sends
 # them, through row-level security as the app's role) on the scale seed, each run once to warm
 # the session's caches and then shown.
-#   bash bench/explain.sh [store number, default 1; 1000 is seed:scale --big's store] [old|new]
+#   bash bench/explain.sh [store number, default 1; 1000 is seed:scale --big's store] [old|0015|new]
 # `old` is the query shape before the scale indexes (count joined to customer, the customer's name
-# matched in the join), `new` (the default) today's. FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
+# matched in the join), `0015` the shape of migration 0015 (exact count on `job` alone, the
+# customer's name as a list of ids), `new` (the default) today's: counts capped at 1,000 past the
+# page's start, and the search through `job_search_ids` (migration 0016), whose own query is shown
+# as its role runs it. FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
 set -euo pipefail
 PORT=${FLUSHLINE_BENCH_PG_PORT:-54322}
 N=${1:-1}
 SHAPE=${2:-new}
 psql_() { psql -h 127.0.0.1 -p "$PORT" "$@"; }
 S=$(psql_ -U postgres flushline_bench -Atc "select o.id from organization o join member m on m.organization_id = o.id join \"user\" u on u.id = m.user_id where u.email = 'owner+s$N@tallowcreek.example'")
+# q <query> [a psql line run first in the same transaction, e.g. to \gset the search's ids]
 q() {
 	psql_ -U flushline_app flushline_bench -q <<SQL
 begin;
 select set_config('app.store_id', '$S', true) \g /dev/null
+${2:-}
+explain (analyze) $1 \g /dev/null
+explain (analyze, costs off, summary on) $1;
+rollback;
+SQL
+}
+# The search function's own query, as its role (flushline_search) runs it; needs the superuser.
+qs() {
+	psql_ -U postgres flushline_bench -q <<SQL
+begin;
+set local role flushline_search;
 explain (analyze) $1 \g /dev/null
 explain (analyze, costs off, summary on) $1;
 rollback;
@@ -22,6 +37,32 @@ SQL
 }
 SEL="select j.id, j.number, j.title, j.status, j.customer_id, c.name, c.phone, j.site_id, j.installer_id, i.name, j.salesperson_id, sp.name, j.notes, j.status_changed_at, j.updated_at, j.created_at from job j inner join customer c on c.id = j.customer_id and c.organization_id = j.organization_id left join \"user\" i on i.id = j.installer_id left join \"user\" sp on sp.id = j.salesperson_id"
 CNT_JOIN="select count(*) from job j inner join customer c on c.id = j.customer_id and c.organization_id = j.organization_id"
+if [ "$SHAPE" = new ]; then
+	# Today's: the count stops 1,000 past the page's start (`list` in queries/jobs.ts).
+	capped() { echo "select count(*) from (select 1 from job j where $1 limit $(($2 + 1001))) counted"; }
+	echo "== store $N (new query shape)"
+	echo "== list: sold, by updated"; q "$SEL where j.organization_id = '$S' and j.status = 'sold' order by j.updated_at desc, j.number desc limit 50"
+	echo "== count: sold, capped"; q "$(capped "j.organization_id = '$S' and j.status = 'sold'" 0)"
+	echo "== list: all, by number"; q "$SEL where j.organization_id = '$S' order by j.number desc, j.number desc limit 50"
+	echo "== count: all, capped"; q "$(capped "j.organization_id = '$S'" 0)"
+	echo "== list: all, by customer"; q "$SEL where j.organization_id = '$S' order by c.name asc, j.number desc limit 50"
+	echo "== list: all, by number, page 1000 of 50"; q "$SEL where j.organization_id = '$S' and j.id in (select j.id from job j where j.organization_id = '$S' order by j.number desc, j.number desc limit 50 offset 49950) order by j.number desc, j.number desc"
+	echo "== count: all, page 1000 of 50, capped"; q "$(capped "j.organization_id = '$S'" 49950)"
+	fn() { echo "select j.id from public.job j where j.organization_id = '$S' and j.title ilike '$1' union all select j.id from public.job j where j.organization_id = '$S' and j.title not ilike '$1' and j.customer_id in (select c.id from public.customer c where c.organization_id = '$S' and c.name ilike '$1') limit 1001"; }
+	for term in 'otto orwin' oak; do
+		echo "== search \"$term\": the function's own query, as flushline_search"; qs "$(fn "%$term%")"
+		echo "== search \"$term\": the function, as the app calls it"; q "select s.id from job_search_ids('%$term%', 1001) as s(id)"
+	done
+	IDS="select array_agg(s.id) as ids from job_search_ids('%otto orwin%', 1001) as s(id) \\gset"
+	echo "== list: search \"otto orwin\" (399 matches: by id), by customer"; q "$SEL where j.organization_id = '$S' and j.id = any(:'ids'::text[]) order by c.name asc, j.number desc limit 50" "$IDS"
+	echo "== count: search \"otto orwin\", capped"; q "$(capped "j.organization_id = '$S' and j.id = any(:'ids'::text[])" 0)" "$IDS"
+	OAK="(j.title ilike '%oak%' or j.customer_id = any(array(select c2.id from customer c2 where c2.organization_id = '$S' and c2.name ilike '%oak%')))"
+	echo "== list: search \"oak\" (over 1,000 matches: as the list walks), by customer"; q "$SEL where j.organization_id = '$S' and $OAK order by c.name asc, j.number desc limit 50"
+	echo "== list: search \"oak\", by number"; q "$SEL where j.organization_id = '$S' and $OAK order by j.number desc, j.number desc limit 50"
+	echo "== count: search \"oak\", capped"; q "$(capped "j.organization_id = '$S' and $OAK" 0)"
+	echo "== customers: search ash"; q "select * from customer where organization_id = '$S' and (name ilike '%ash%' or email ilike '%ash%' or phone ilike '%ash%') order by name asc, id asc limit 25"
+	exit 0
+fi
 if [ "$SHAPE" = old ]; then
 	CNT="$CNT_JOIN"
 	OAK="(j.title ilike '%oak%' or c.name ilike '%oak%')"

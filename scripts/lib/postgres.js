@@ -10,6 +10,12 @@ const BIN_CANDIDATES = [process.env.PG_BIN, '/usr/lib/postgresql/15/bin'].filter
 export const OWNER_ROLE = 'flushline_owner';
 /** Role the application connects as: neither superuser nor table owner, so row-level security applies. */
 export const APP_ROLE = 'flushline_app';
+/**
+ * Role that owns the job search function (migration 0016) and nothing else: it cannot log in, and
+ * its only rows are the store's search columns through a read policy of its own, so the function
+ * can use the trigram indexes that row-level security keeps from the app's role (bench/README.md).
+ */
+export const SEARCH_ROLE = 'flushline_search';
 
 /** @returns {string} the folder holding initdb, pg_ctl and postgres */
 export function ensurePostgresBinaries() {
@@ -199,6 +205,14 @@ export async function prepareDatabase(cluster, { database, fresh = false }) {
 				);
 			}
 		}
+		const search = await admin.query('select 1 from pg_roles where rolname = $1', [SEARCH_ROLE]);
+		if (search.rowCount === 0) {
+			await admin.query(
+				`create role ${SEARCH_ROLE} nologin nosuperuser nocreatedb nocreaterole noreplication nobypassrls`
+			);
+		}
+		// The owner makes the function and hands it over: that needs membership of the role.
+		await admin.query(`grant ${SEARCH_ROLE} to ${OWNER_ROLE}`);
 		if (fresh) {
 			await admin.query(`drop database if exists ${database} with (force)`);
 		}

@@ -2,6 +2,8 @@
 import { inStore } from '$lib/server/db/tenant';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
+import type { JobListQuery } from '$lib/schemas/job';
+import { sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
 	addMember,
@@ -139,6 +141,84 @@ describe('jobs across stores', () => {
 		const all = await inStore(store.id, (tx) => jobs.list(tx, { ...jobPage, pageSize: 2 }, staff));
 		expect(all.rows).toHaveLength(2);
 		expect(all.total).toBe(3);
+	});
+
+	it('counts a large list only to 1,000 past the page, and searches it by index or as it walks', async () => {
+		const store = await makeStore('Big Count Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const oakhurst = await makeCustomer(store.id, 'Greta Oakhurst');
+		const plain = await makeCustomer(store.id, 'Ivo Thistle');
+		// 1,100 jobs in one statement, numbers 5001…6100: every tenth for Greta Oakhurst, eleven of
+		// them maple stairs, and every title has its lot.
+		await inStore(store.id, (tx) =>
+			tx.execute(sql`insert into job (id, organization_id, number, customer_id, title, salesperson_id)
+				select gen_random_uuid()::text, ${store.id}, n,
+				       case when n % 10 = 0 then ${oakhurst.id} else ${plain.id} end,
+				       case when n % 100 = 7 then 'Maple stairs, lot ' else 'Hall carpet, lot ' end || n,
+				       ${store.owner.id}
+				from generate_series(5001, 6100) as n`)
+		);
+		const find = async (query: Partial<JobListQuery>) => {
+			const { rows, total, totalCapped } = await inStore(store.id, (tx) =>
+				jobs.list(tx, { ...jobPage, ...query }, staff)
+			);
+			return { numbers: rows.map((r) => r.number), total, totalCapped };
+		};
+		const desc = (from: number, n: number, step = 1) =>
+			Array.from({ length: n }, (_, i) => from - i * step);
+
+		// The count stops 1,000 past the page's start; later pages count on from there.
+		expect(await find({ pageSize: 50 })).toEqual({
+			numbers: desc(6100, 50),
+			total: 1000,
+			totalCapped: true
+		});
+		expect(await find({ page: 2 })).toMatchObject({ total: 1100, totalCapped: false });
+		expect(await find({ page: 11 })).toEqual({
+			numbers: desc(5100, 100),
+			total: 1100,
+			totalCapped: false
+		});
+
+		// Few matches: found through the search function, counted exactly.
+		expect(await find({ q: 'MAPLE', dir: 'asc' })).toEqual({
+			numbers: Array.from({ length: 11 }, (_, i) => 5007 + i * 100),
+			total: 11,
+			totalCapped: false
+		});
+		const byName = await find({ q: 'oakhurst', pageSize: 20 });
+		expect(byName).toEqual({ numbers: desc(6100, 20, 10), total: 110, totalCapped: false });
+		expect(await find({ q: 'J-5432' })).toEqual({ numbers: [5432], total: 1, totalCapped: false });
+
+		// More than 1,000 matches: tested as the list walks its order, the count capped.
+		expect(await find({ q: 'lot', pageSize: 50 })).toEqual({
+			numbers: desc(6100, 50),
+			total: 1000,
+			totalCapped: true
+		});
+		const byCustomer = await find({ q: 'lot', sort: 'customer', dir: 'asc', pageSize: 5 });
+		expect(byCustomer.numbers).toEqual(desc(6100, 5, 10));
+		// Narrowed by more than the search: counted, not assumed.
+		expect(await find({ q: 'lot', status: 'draft', pageSize: 5 })).toMatchObject({
+			total: 1000,
+			totalCapped: true
+		});
+		expect(await find({ q: 'lot', status: 'sold' })).toEqual({
+			numbers: [],
+			total: 0,
+			totalCapped: false
+		});
+
+		// A later page sorted by customer: Greta Oakhurst's last ten, then Ivo Thistle's first forty.
+		const ivo = desc(6100, 1100).filter((n) => n % 10 !== 0);
+		expect(await find({ sort: 'customer', dir: 'asc', page: 3, pageSize: 50 })).toEqual({
+			numbers: [...desc(5100, 10, 10), ...ivo.slice(0, 40)],
+			total: 1100,
+			totalCapped: false
+		});
+		expect((await find({ q: 'oakhurst', page: 2, pageSize: 20 })).numbers).toEqual(
+			desc(5900, 20, 10)
+		);
 	});
 
 	it('numbers jobs per store from 1001', async () => {

@@ -1,11 +1,12 @@
 // The second wall: PostgreSQL row-level security on every domain table, beneath the queries'
 // own organization_id filter.
 import { inStore } from '$lib/server/db/tenant';
+import * as jobs from '$lib/server/db/queries/jobs';
 import { pool } from '$lib/server/db';
 import { saveProfile } from '$lib/server/db/queries/stores';
 import type { PoolClient } from 'pg';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { makeCustomer, makeStore, type TestStore } from './factories';
+import { makeCustomer, makeJob, makeStore, type TestStore } from './factories';
 import { makeFieldWork } from './field-factories';
 
 /** better-auth's own tables: it reads them without a store, and checks membership in code. */
@@ -146,5 +147,111 @@ describe('row-level security', () => {
 			 from pg_roles r where r.rolname = current_user`
 		);
 		expect(rows[0]).toEqual({ rolsuper: false, rolbypassrls: false, owns: 0 });
+	});
+});
+
+// The job search (migration 0016) runs as `flushline_search`, which reads every store's job titles
+// and customer names through a policy of its own, so the trigram indexes can be used. What keeps it
+// to one store is the function itself: these are its walls.
+describe('the job search function', () => {
+	let aOak: { job: string; byName: string };
+	let bOak: { job: string; byName: string };
+
+	beforeAll(async () => {
+		const oaks = async (store: TestStore) => {
+			const plain = await makeCustomer(store.id, `Plain ${store.name}`);
+			const named = await makeCustomer(store.id, `Oakhurst of ${store.name}`);
+			const title = await makeJob(store.id, store.owner.id, plain.id);
+			const byName = await makeJob(store.id, store.owner.id, named.id);
+			await inStore(store.id, (tx) => jobs.update(tx, title.id, { title: 'Living room oak' }));
+			return { job: title.id, byName: byName.id };
+		};
+		aOak = await oaks(a);
+		bOak = await oaks(b);
+	});
+
+	const search = (c: PoolClient, pattern: string, cap = 1001) =>
+		c
+			.query<{ id: string }>(`select s.id from job_search_ids($1, $2) as s(id)`, [pattern, cap])
+			.then((r) => r.rows.map((row) => row.id).sort());
+
+	it("finds the store's jobs by title or by customer's name, never another store's", async () => {
+		expect(await asStore(a.id, (c) => search(c, '%oak%'))).toEqual([aOak.job, aOak.byName].sort());
+		expect(await asStore(b.id, (c) => search(c, '%oak%'))).toEqual([bOak.job, bOak.byName].sort());
+		// Every job of every store matches '%': still only the store's own.
+		const all = await asStore(a.id, (c) => search(c, '%', 10001));
+		const ofA = await asStore(a.id, (c) => c.query<{ id: string }>(`select id from job`));
+		expect(all).toEqual(ofA.rows.map((r) => r.id).sort());
+		expect(all).not.toContain(bOak.job);
+	});
+
+	it('refuses to run outside a store transaction, or with an empty store', async () => {
+		await expect(asStore(null, (c) => search(c, '%oak%'))).rejects.toThrow(/app\.store_id/);
+		await expect(
+			asStore(null, async (c) => {
+				await c.query(`select set_config('app.store_id', '', true)`);
+				return search(c, '%oak%');
+			})
+		).rejects.toThrow(/app\.store_id/);
+	});
+
+	it('takes the store only from the setting: an unknown store finds nothing', async () => {
+		expect(await asStore('no-such-store', (c) => search(c, '%'))).toEqual([]);
+	});
+
+	it('keeps to its bounds: a cap of 1 to 10001 and a pattern of at most 400 characters', async () => {
+		expect(await asStore(a.id, (c) => search(c, '%', 1))).toHaveLength(1);
+		await expect(asStore(a.id, (c) => search(c, '%', 0))).rejects.toThrow(/cap/);
+		await expect(asStore(a.id, (c) => search(c, '%', 10002))).rejects.toThrow(/cap/);
+		await expect(asStore(a.id, (c) => search(c, 'x'.repeat(401)))).rejects.toThrow(/pattern/);
+	});
+
+	it('runs as a role that cannot log in, skips no row security, and the app cannot become', async () => {
+		const { rows } = await pool.query(
+			`select p.prosecdef, pg_get_userbyid(p.proowner) as owner, r.rolcanlogin, r.rolbypassrls,
+			        r.rolsuper, pg_has_role(current_user, r.oid, 'member') as app_is_member,
+			        (select count(*)::int from pg_tables t where t.tableowner = r.rolname) as owns
+			 from pg_proc p join pg_roles r on r.oid = p.proowner
+			 where p.proname = 'job_search_ids'`
+		);
+		expect(rows).toEqual([
+			{
+				prosecdef: true,
+				owner: 'flushline_search',
+				rolcanlogin: false,
+				rolbypassrls: false,
+				rolsuper: false,
+				app_is_member: false,
+				owns: 0
+			}
+		]);
+		await expect(asStore(a.id, (c) => c.query(`set role flushline_search`))).rejects.toThrow(
+			/permission denied/
+		);
+	});
+
+	it('gives its role nothing to read but the searched columns of jobs and customers', async () => {
+		const { rows } = await pool.query<{ col: string }>(
+			`select c.relname || '.' || a.attname as col
+			 from pg_class c join pg_attribute a on a.attrelid = c.oid
+			 where c.relnamespace = 'public'::regnamespace and c.relkind = 'r' and a.attnum > 0
+			   and not a.attisdropped
+			   and has_column_privilege('flushline_search', c.oid, a.attnum, 'select, insert, update')
+			 order by 1`
+		);
+		const writes = await pool.query(
+			`select c.relname from pg_class c where c.relnamespace = 'public'::regnamespace
+			   and c.relkind = 'r' and has_table_privilege('flushline_search', c.oid, 'insert, update, delete, truncate')`
+		);
+		expect(writes.rows).toEqual([]);
+		expect(rows.map((r) => r.col)).toEqual([
+			'customer.id',
+			'customer.name',
+			'customer.organization_id',
+			'job.customer_id',
+			'job.id',
+			'job.organization_id',
+			'job.title'
+		]);
 	});
 });

@@ -208,7 +208,19 @@ function responseSchemas(): Record<string, Json> {
 			}),
 			description: "A job with its customer's and people's names, as read and listed"
 		},
-		JobPage: page('JobView'),
+		JobPage: object({
+			rows: list(ref('JobView')),
+			total: {
+				...integer,
+				description: "How many jobs match, counted up to 1,000 past the page's start"
+			},
+			totalCapped: {
+				type: 'boolean',
+				description: 'The count stopped at `total`: more jobs match (shown as "1,000+")'
+			},
+			page: integer,
+			pageSize: integer
+		}),
 		CalculatorResult: {
 			...object(
 				{

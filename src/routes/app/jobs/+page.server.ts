@@ -9,8 +9,8 @@ export const load: PageServerLoad = async ({ url }) => {
 	const parsed = jobListSchema.safeParse(Object.fromEntries(url.searchParams));
 	const query = parsed.success ? parsed.data : jobListSchema.parse({});
 	const mine = url.searchParams.get('mine') === '1';
-	const { rows, total } = await readInStore(store.id, (tx) =>
+	const { rows, total, totalCapped } = await readInStore(store.id, (tx) =>
 		list(tx, { ...query, salespersonId: mine ? user.id : undefined }, scope)
 	);
-	return { rows, total, query, mine };
+	return { rows, total, totalCapped, query, mine };
 };

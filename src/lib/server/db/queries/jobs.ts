@@ -70,7 +70,71 @@ function selectJobs(tx: StoreTx) {
 		.leftJoin(salesperson, eq(salesperson.id, job.salespersonId));
 }
 
-/** A page of the store's jobs as the viewer may see them. */
+/**
+ * How far a job list counts: past this many (beyond the page's offset) it says "1,000+" rather
+ * than read every matching index entry of a large store. Also how many search matches are taken
+ * by id from the search function (below); more than that and the search filters as it walks.
+ */
+export const COUNT_CAP = 1000;
+
+/**
+ * How many search matches are taken by id when the list is sorted by customer: walking the
+ * customers in name order and testing each one's jobs is slow when the matches sit with a few
+ * customers, while sorting a few thousand ids read by primary key stays cheap.
+ */
+export const SEARCH_IDS_BY_NAME = 5000;
+
+/**
+ * The search's condition on `job`: the title or the customer's name contains the text (case
+ * ignored, wildcards taken literally), or it is the job's number.
+ *
+ * Row-level security keeps `ilike` from being an index condition for the app's role (it is not
+ * leakproof), so the trigram indexes are reached through `job_search_ids` (migration 0016): a
+ * security-definer function that reads the store from `app.store_id` itself and returns only ids.
+ * Up to `cap` matches, the list reads those ids by primary key. A text so common that it
+ * matches more is tested row by row as the list walks its sort order, which finds a page quickly
+ * exactly because the matches are many. `matches`: how many, when the ids are all of them.
+ */
+async function searchFilter(
+	tx: StoreTx,
+	q: string,
+	cap: number
+): Promise<{ filter: SQL; many: boolean; matches?: number }> {
+	const pattern = likePattern(q);
+	const asNumber = /^j?-?(\d{1,9})$/i.exec(q)?.[1];
+	const byNumber = asNumber ? eq(job.number, Number(asNumber)) : undefined;
+	const found = await tx.execute<{ id: string }>(
+		sql`select s.id from job_search_ids(${pattern}, ${cap + 1}) as s(id)`
+	);
+	if (found.rows.length <= cap) {
+		const ids = found.rows.map((r) => r.id);
+		return {
+			filter: or(sql`${job.id} = any(${sql.param(ids)}::text[])`, byNumber) as SQL,
+			many: false,
+			// The number may be one more job: then it is counted.
+			matches: byNumber ? undefined : ids.length
+		};
+	}
+	// The customers whose name matches, as a list of ids: the filter stays on `job` alone, so
+	// the count reads no customer rows (bench/README.md).
+	const named = tx
+		.select({ id: customer.id })
+		.from(customer)
+		.where(and(eq(customer.organizationId, tx.storeId), ilike(customer.name, pattern)));
+	return {
+		filter: or(
+			ilike(job.title, pattern),
+			sql`${job.customerId} = any(array(${named}))`,
+			byNumber
+		) as SQL,
+		many: true
+	};
+}
+
+/**
+ * A page of the store's jobs as the viewer may see them, and how many there are: exact up to
+ * COUNT_CAP past the page's start, then `totalCapped` says there are more than `total`.
+ */
 export async function list(
 	tx: StoreTx,
 	query: JobListQuery & { customerId?: string; salespersonId?: string },
@@ -80,33 +144,71 @@ export async function list(
 	if (query.status) filters.push(eq(job.status, query.status));
 	if (query.customerId) filters.push(eq(job.customerId, query.customerId));
 	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
-	if (query.q) {
-		const pattern = likePattern(query.q);
-		const asNumber = /^j?-?(\d{1,9})$/i.exec(query.q)?.[1];
-		// The customers whose name matches, as a list of ids: the filter stays on `job` alone, so
-		// the count reads no customer rows and each side can use its own index (bench/README.md).
-		const named = tx
-			.select({ id: customer.id })
-			.from(customer)
-			.where(and(eq(customer.organizationId, tx.storeId), ilike(customer.name, pattern)));
-		filters.push(
-			or(
-				ilike(job.title, pattern),
-				sql`${job.customerId} = any(array(${named}))`,
-				asNumber ? eq(job.number, Number(asNumber)) : undefined
-			) as SQL
-		);
-	}
+	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
+	const narrowed = filters.length > 2 || viewer.kind !== 'store';
+	const searchCap = query.sort === 'customer' ? SEARCH_IDS_BY_NAME : COUNT_CAP;
+	const search = query.q ? await searchFilter(tx, query.q, searchCap) : undefined;
+	if (search) filters.push(search.filter);
 	const where = and(...filters);
 	const order = query.dir === 'asc' ? asc : desc;
-	const rows = await selectJobs(tx)
+	const orderBy = [order(sortColumns[query.sort]), desc(job.number)];
+	const offset = (query.page - 1) * query.pageSize;
+	// A later page skips its offset on `job` alone (with the customer only to sort by its name),
+	// then reads its people for the page's rows: not for every row skipped.
+	const rows = offset
+		? await selectJobs(tx)
+				.where(
+					and(
+						eq(job.organizationId, tx.storeId),
+						inArray(
+							job.id,
+							(query.sort === 'customer'
+								? tx
+										.select({ id: job.id })
+										.from(job)
+										.innerJoin(
+											customer,
+											and(
+												eq(customer.id, job.customerId),
+												eq(customer.organizationId, job.organizationId)
+											)
+										)
+								: tx.select({ id: job.id }).from(job)
+							)
+								.where(where)
+								.orderBy(...orderBy)
+								.limit(query.pageSize)
+								.offset(offset)
+						)
+					)
+				)
+				.orderBy(...orderBy)
+		: await selectJobs(tx)
+				.where(where)
+				.orderBy(...orderBy)
+				.limit(query.pageSize);
+	// Every job has its store's customer (`job_customer_same_store_fk`): counted from `job` alone,
+	// and only as far as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
+	const upTo = offset + COUNT_CAP;
+	// Nothing but the search narrows the list: what it found says how many, without a count.
+	if (search && !narrowed) {
+		if (search.many && searchCap >= upTo) return { rows, total: upTo, totalCapped: true };
+		if (search.matches !== undefined) {
+			return {
+				rows,
+				total: Math.min(search.matches, upTo),
+				totalCapped: search.matches > upTo
+			};
+		}
+	}
+	const counted = tx
+		.select({ one: sql`1`.as('one') })
+		.from(job)
 		.where(where)
-		.orderBy(order(sortColumns[query.sort]), desc(job.number))
-		.limit(query.pageSize)
-		.offset((query.page - 1) * query.pageSize);
-	// Every job has its store's customer (`job_customer_same_store_fk`): counted from `job` alone.
-	const [{ total }] = await tx.select({ total: count() }).from(job).where(where);
-	return { rows, total };
+		.limit(upTo + 1)
+		.as('counted');
+	const [{ n }] = await tx.select({ n: count() }).from(counted);
+	return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
 }
 
 export type JobRow = Awaited<ReturnType<typeof list>>['rows'][number];

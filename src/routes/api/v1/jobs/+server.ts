@@ -11,8 +11,8 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ url }) => {
 	const { store, scope } = requirePermission({ job: ['read'] }, { assignedJob: ['read'] });
 	const query = readQuery(url, jobListSchema);
-	const { rows, total } = await readInStore(store.id, (tx) => list(tx, query, scope));
-	return json({ rows, total, page: query.page, pageSize: query.pageSize });
+	const { rows, total, totalCapped } = await readInStore(store.id, (tx) => list(tx, query, scope));
+	return json({ rows, total, totalCapped, page: query.page, pageSize: query.pageSize });
 });
 
 export const POST: RequestHandler = endpoint(async ({ request }) => {
