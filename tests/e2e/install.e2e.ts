@@ -103,7 +103,7 @@ test('a kitchen, hall, bathroom and basement slab: every item, the tests and the
 		'Disconnect and reset appliances — Kitchen',
 		'New shoe or quarter-round — Hall',
 		'Pull and reset toilets — Bathroom',
-		'Thinset and grout — Bathroom',
+		'Set and grout tile — Bathroom',
 		'Backer board or membrane under tile — Bathroom',
 		// 300 ft² of slab needs 3 probes (ASTM F2170 §10.1, secondary): 1 taken, 2 to take
 		'Moisture tests still needed — Slab Basement',

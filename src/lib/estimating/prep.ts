@@ -103,7 +103,7 @@ export const PREP: Record<PrepKind, PrepInfo> = {
 	},
 	primer: { label: 'Prime before the leveller is poured', unit: 'sqft' },
 	tile_backer: { label: 'Backer board or membrane under tile', unit: 'sqft' },
-	tile_setting: { label: 'Thinset and grout', unit: 'sqft' },
+	tile_setting: { label: 'Set and grout tile', unit: 'sqft' },
 	underlay: { label: 'Underlay under the floating floor', unit: 'sqft' },
 	vapour_retarder: { label: '6-mil vapour retarder on the slab', unit: 'sqft' },
 	felt_paper: { label: 'Felt or paper under nailed wood', unit: 'sqft' },
