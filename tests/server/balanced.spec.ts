@@ -10,6 +10,8 @@
 // FLUSHLINE_TEST_PORT + 30 and + 31. Each server keeps its own data folder: with the object store
 // in S3 nothing of the app's is in it, only the local fakes' (the e-mail fake's outbox, the Stripe
 // fake's objects), which stand in for services every server shares in production.
+// First: the app's modules below must read this file's own database address.
+import { prepareBalancedDatabase } from './balanced-db';
 import {
 	CreateBucketCommand,
 	GetObjectCommand,
@@ -199,6 +201,7 @@ async function bothBehindBalancer() {
 }
 
 beforeAll(async () => {
+	await prepareBalancedDatabase();
 	scratch = mkdtempSync(path.join(tmpdir(), 'flushline-balanced-'));
 	s3 = new S3rver({
 		port: S3_PORT,
