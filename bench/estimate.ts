@@ -51,6 +51,6 @@ console.log(
 );
 // The figure issue 12 asks for: the 60-room job's median under 1 ms.
 console.log(
-	`issue 12: median ${at(0.5).toFixed(3)} ms for the ${ROOMS}-room job (under 1 ms asked)`
+	`issue 12: median ${at(0.5).toFixed(3)} ms for the ${ROOMS}-room job, target under 1 ms: ${at(0.5) < 1 ? 'met' : 'NOT met'}`
 );
 if (sink === 0) console.log('(no total)');
