@@ -3,7 +3,7 @@
 // faults: PostgreSQL restarted in the middle of a stream of writes, a server killed in the middle
 // of a photo upload, the e-mail fake down for a while, and a server killed while a task runs.
 // Everything is counted in the database and in the e-mail fake's outbox afterwards.
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import { tmpdir } from 'node:os';
@@ -13,7 +13,7 @@ import pg from 'pg';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readOutbox } from '../../mocks/outbox';
-import { form, jsonBody, portFor } from './serve';
+import { form, jsonBody, serve, type Served } from './serve';
 
 /** What this file uses of scripts/lib/postgres.js (loaded by path: it is checked as a script). */
 interface Postgres {
@@ -62,93 +62,44 @@ m.${what}(m.clusterAt(${JSON.stringify(CLUSTER)}, ${PG_PORT}, true));`;
 // ---------------------------------------------------------------------------------------------
 // The built server, started and stopped (or killed) by this file
 
-interface Server {
-	origin: string;
-	child: ChildProcess;
-	exited: Promise<number | null>;
-	alive(): boolean;
-	output(): string;
-	fetch(pathname: string, init?: RequestInit): Promise<Response>;
-	stop(): Promise<void>;
-	/** SIGKILL: no shutdown, no goodbye, as a machine losing power. */
-	kill(): Promise<void>;
-}
+/** A server of this file: its fetches give up after 20 s, and afterAll kills what is left. */
+type Server = Served;
 
 const servers = new Set<Server>();
 
 async function startServer(slot: number): Promise<Server> {
-	const port = portFor(slot);
-	const origin = `http://127.0.0.1:${port}`;
-	const child = spawn(process.execPath, ['build'], {
-		env: {
-			PATH: process.env.PATH,
-			DATABASE_URL: appUrl,
-			BETTER_AUTH_SECRET: SECRET,
-			HOST: '127.0.0.1',
-			PORT: String(port),
-			ORIGIN: origin,
-			FLUSHLINE_DATA_DIR: dataDir,
-			// As deployed (README, "Environment"): photos and logos of a few MB.
-			BODY_SIZE_LIMIT: '3M',
-			FLUSHLINE_FAKES: '1',
-			RESEND_API_KEY: '',
-			STRIPE_SECRET_KEY: '',
-			// A task's attempt counts as dead after 5 s (not a minute), pg-boss looks for such every
-			// second, and the first retry comes after about a second.
-			FLUSHLINE_TASK_EXPIRE_SECONDS: '5',
-			FLUSHLINE_TASK_RETRY_DELAY_SECONDS: '1',
-			FLUSHLINE_TASK_MAINTENANCE_SECONDS: '1',
-			LOG_LEVEL: 'warn'
-		},
-		stdio: ['ignore', 'pipe', 'pipe']
+	const served = await serve(slot, {
+		DATABASE_URL: appUrl,
+		BETTER_AUTH_SECRET: SECRET,
+		// One folder across restarts: the e-mail fake's outbox and switches live there.
+		FLUSHLINE_DATA_DIR: dataDir,
+		// As deployed (README, "Environment"): photos and logos of a few MB.
+		BODY_SIZE_LIMIT: '3M',
+		RESEND_API_KEY: '',
+		STRIPE_SECRET_KEY: '',
+		// A task's attempt counts as dead after 5 s (not a minute), pg-boss looks for such every
+		// second, and the first retry comes after about a second.
+		FLUSHLINE_TASK_EXPIRE_SECONDS: '5',
+		FLUSHLINE_TASK_RETRY_DELAY_SECONDS: '1',
+		FLUSHLINE_TASK_MAINTENANCE_SECONDS: '1',
+		LOG_LEVEL: 'warn'
 	});
-	let out = '';
-	child.stdout!.on('data', (d) => (out += d));
-	child.stderr!.on('data', (d) => (out += d));
-	let done = false;
-	const exited = new Promise<number | null>((resolve) =>
-		child.on('exit', (code) => {
-			done = true;
-			resolve(code);
-		})
-	);
+	if (!served.alive()) throw new Error(`The server did not start:\n${served.output()}`);
 	const server: Server = {
-		origin,
-		child,
-		exited,
-		alive: () => !done,
-		output: () => out,
-		fetch: (pathname, init = {}) => {
-			const headers = new Headers(init.headers);
-			if (!headers.has('origin')) headers.set('origin', origin);
-			return fetch(origin + pathname, {
-				redirect: 'manual',
-				signal: AbortSignal.timeout(20_000),
-				...init,
-				headers
-			});
-		},
+		...served,
+		fetch: (pathname, init = {}) =>
+			served.fetch(pathname, { signal: AbortSignal.timeout(20_000), ...init }),
 		stop: async () => {
-			if (!done) child.kill('SIGTERM');
-			await exited;
+			await served.stop();
 			servers.delete(server);
 		},
 		kill: async () => {
-			if (!done) child.kill('SIGKILL');
-			await exited;
+			await served.kill();
 			servers.delete(server);
 		}
 	};
 	servers.add(server);
-	for (let i = 0; i < 300 && !done; i++) {
-		try {
-			await fetch(`${origin}/`);
-			return server;
-		} catch {
-			await new Promise((r) => setTimeout(r, 100));
-		}
-	}
-	throw new Error(`The server did not start:\n${out}`);
+	return server;
 }
 
 /** A session cookie of a login, signed in through the server as a browser would. */

@@ -12,6 +12,10 @@ export interface Served {
 	/** Resolves with the exit code once the process ends. */
 	exited: Promise<number | null>;
 	stop(): Promise<void>;
+	/** SIGKILL: no shutdown, no goodbye, as a machine losing power. */
+	kill(): Promise<void>;
+	/** Whether the process still runs. */
+	alive(): boolean;
 	/** A request to the server; `origin` set so form posts pass SvelteKit's CSRF check. */
 	fetch(pathname: string, init?: RequestInit): Promise<Response>;
 }
@@ -69,6 +73,11 @@ export async function serve(slot: number, env: Record<string, string | undefined
 			if (!done) child.kill('SIGTERM');
 			await exited;
 		},
+		kill: async () => {
+			if (!done) child.kill('SIGKILL');
+			await exited;
+		},
+		alive: () => !done,
 		fetch: (pathname, init = {}) => {
 			const headers = new Headers(init.headers);
 			if (!headers.has('origin')) headers.set('origin', merged.ORIGIN!);
