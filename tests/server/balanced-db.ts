@@ -4,8 +4,7 @@
 // some with PDFs), so the test's own eight waited behind them. Imported first by
 // balanced.spec.ts: the app's pool reads DATABASE_URL when its module loads (it connects on first
 // use), so the addresses must name this database before anything imports it.
-import path from 'node:path';
-import { pathToFileURL } from 'node:url';
+import { loadPostgres } from './serve';
 
 export const BALANCED_DATABASE = 'flushline_balanced';
 
@@ -20,19 +19,10 @@ const shared = { app: process.env.DATABASE_URL, owner: process.env.DATABASE_OWNE
 process.env.DATABASE_URL = retarget(shared.app);
 if (shared.owner) process.env.DATABASE_OWNER_URL = retarget(shared.owner);
 
-interface Postgres {
-	clusterAt(name: string, port: number, fast?: boolean): object;
-	prepareDatabase(
-		cluster: object,
-		options: { database: string; fresh?: boolean }
-	): Promise<{ appUrl: string; ownerUrl: string }>;
-}
-
 /** Makes this file's database afresh (roles, migrations, grants) in the running test cluster. */
 export async function prepareBalancedDatabase() {
 	if (!shared.app) throw new Error('Run these through `npm test` (needs the test database)');
-	const module = pathToFileURL(path.resolve('scripts/lib/postgres.js')).href;
-	const postgres = (await import(/* @vite-ignore */ module)) as Postgres;
+	const postgres = await loadPostgres();
 	const port = Number(new URL(shared.app).port);
 	const cluster = postgres.clusterAt('postgres-test', port, true);
 	const urls = await postgres.prepareDatabase(cluster, {

@@ -13,20 +13,16 @@ import pg from 'pg';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readOutbox } from '../../mocks/outbox';
-import { form, jsonBody, serve, type Served } from './serve';
+import {
+	form,
+	jsonBody,
+	loadPostgres,
+	POSTGRES_MODULE,
+	serve,
+	type Postgres,
+	type Served
+} from './serve';
 
-/** What this file uses of scripts/lib/postgres.js (loaded by path: it is checked as a script). */
-interface Postgres {
-	clusterAt(name: string, port: number, fast?: boolean): object;
-	startCluster(cluster: object): unknown;
-	stopCluster(cluster: object): void;
-	prepareDatabase(
-		cluster: object,
-		options: { database: string; fresh?: boolean }
-	): Promise<{ appUrl: string; ownerUrl: string }>;
-	databaseUrl(cluster: object, user: string, database: string): string;
-}
-const POSTGRES_MODULE = path.resolve('scripts/lib/postgres.js');
 type Factories = typeof import('../integration/factories');
 type BookedJob = Awaited<ReturnType<typeof import('../integration/field-jobs').makeBookedJob>>;
 
@@ -143,7 +139,7 @@ let store: Awaited<ReturnType<Factories['makeStore']>>;
 let booked: BookedJob;
 
 beforeAll(async () => {
-	postgres = (await import(/* @vite-ignore */ pathToFileURL(POSTGRES_MODULE).href)) as Postgres;
+	postgres = await loadPostgres();
 	const cluster = postgres.clusterAt(CLUSTER, PG_PORT, true);
 	postgres.startCluster(cluster);
 	const urls = await postgres.prepareDatabase(cluster, { database: DATABASE, fresh: true });

@@ -4,6 +4,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 
 export interface Served {
 	origin: string;
@@ -115,4 +116,24 @@ export function jsonBody(body: unknown, method = 'POST') {
 		headers: { 'content-type': 'application/json' },
 		body: typeof body === 'string' ? body : JSON.stringify(body)
 	} satisfies RequestInit;
+}
+
+/** scripts/lib/postgres.js, where the server tests run it in this process. */
+export const POSTGRES_MODULE = path.resolve('scripts/lib/postgres.js');
+
+/** What the server tests use of scripts/lib/postgres.js (loaded by path: it is checked as a script). */
+export interface Postgres {
+	clusterAt(name: string, port: number, fast?: boolean): object;
+	startCluster(cluster: object): unknown;
+	stopCluster(cluster: object): void;
+	prepareDatabase(
+		cluster: object,
+		options: { database: string; fresh?: boolean }
+	): Promise<{ appUrl: string; ownerUrl: string }>;
+	databaseUrl(cluster: object, user: string, database: string): string;
+}
+
+/** Loads scripts/lib/postgres.js. */
+export async function loadPostgres(): Promise<Postgres> {
+	return (await import(/* @vite-ignore */ pathToFileURL(POSTGRES_MODULE).href)) as Postgres;
 }
