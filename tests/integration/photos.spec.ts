@@ -3,8 +3,16 @@
 // no metadata (no GPS); a resend stored once; served only to members who may see the job.
 import { PHOTO_MAX_BYTES } from '$lib/schemas/field';
 import { fieldPhoto, jobCompletion } from '$lib/server/db/schema';
+import { pool } from '$lib/server/db';
 import { readInStore } from '$lib/server/db/tenant';
-import { readPhotoForChangeOrder } from '$lib/server/field/photos';
+import {
+	PHOTO_FILES_CHECK_SECONDS,
+	processPhoto,
+	putPhotoFiles,
+	readPhotoForChangeOrder
+} from '$lib/server/field/photos';
+import { storage } from '$lib/server/storage';
+import { handlers } from '$lib/server/tasks/handlers';
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -12,6 +20,8 @@ import { startApp, type App, type Visitor } from './app-server';
 import { addMember, makeStore, type TestStore } from './factories';
 import { clientId, makeFieldWork, makeInstaller } from './field-factories';
 import { makeBookedJob } from './field-jobs';
+
+type PhotoFiles = { clientId: string; fileKey: string; thumbKey: string };
 
 let app: App;
 let store: TestStore;
@@ -167,6 +177,45 @@ describe('what is stored', () => {
 			{ headers: { cookie: installer.cookie } }
 		);
 		expect(thumb.status).toBe(200);
+	});
+
+	it('removes files whose row never came, an hour on, and keeps a stored photo’s', async () => {
+		// Each upload queued its check before writing its files, to run an hour later.
+		const queued = await pool.query<{ data: { payload: PhotoFiles }; wait: number }>(
+			`select data, extract(epoch from start_after - created_on)::int as wait from pgboss.job
+			 where name = 'tasks' and data->>'kind' = 'photo.files' and data->>'storeId' = $1
+			   and data->'payload'->>'clientId' = $2`,
+			[store.id, id]
+		);
+		// The photo and its resend: two checks, one per set of files written.
+		expect(queued.rows).toHaveLength(2);
+		for (const row of queued.rows) {
+			expect(row.wait).toBeGreaterThanOrEqual(PHOTO_FILES_CHECK_SECONDS - 5);
+		}
+		const [stored] = await readInStore(store.id, (tx) =>
+			tx.select().from(fieldPhoto).where(eq(fieldPhoto.clientId, id))
+		);
+		const check = (files: PhotoFiles) =>
+			handlers['photo.files'](files, context, undefined as never);
+		const context = { storeId: store.id, taskId: null, queueId: 'test', attempt: 1 };
+		// The stored photo's check keeps its files; the resend's (removed at once) finds nothing.
+		for (const row of queued.rows) await check(row.data.payload);
+		expect(await storage().get(stored.fileKey)).toBeDefined();
+		expect(await storage().get(stored.thumbKey)).toBeDefined();
+
+		// A server that died after writing the files, before the row: its check removes them.
+		const processed = await processPhoto(await phoneJpeg());
+		if (!processed.ok) throw new Error(processed.message);
+		const lost = clientId();
+		const files = await putPhotoFiles(store.id, booked.job.id, processed, lost);
+		expect(await storage().get(files.fileKey)).toBeDefined();
+		await check({ clientId: lost, fileKey: files.fileKey, thumbKey: files.thumbKey });
+		expect(await storage().get(files.fileKey)).toBeUndefined();
+		expect(await storage().get(files.thumbKey)).toBeUndefined();
+		// Never a key outside the store's own photos, whatever a task carries.
+		await expect(
+			check({ clientId: lost, fileKey: `${otherStore.id}/photos/x/y.jpg`, thumbKey: 'a.jpg' })
+		).rejects.toThrow(/Not this store/);
 	});
 
 	it('serves it to the store staff, and 404 to an unassigned installer and another store', async () => {

@@ -7,10 +7,11 @@ import { and, eq } from 'drizzle-orm';
 import { PHOTO_MAX_BYTES } from '$lib/schemas/field';
 import * as field from '../db/queries/field';
 import { changeOrder } from '../db/schema';
-import type { StoreTx, StoreWriteTx } from '../db/tenant';
+import { inStore, type StoreTx, type StoreWriteTx } from '../db/tenant';
 import { imageWork } from '../images';
 import { log } from '../log';
 import { storage, type StoredFile } from '../storage';
+import { enqueue } from '../tasks';
 
 export { PHOTO_MAX_BYTES };
 
@@ -105,9 +106,34 @@ function keysFor(storeId: string, jobId: string) {
 	};
 }
 
-/** Writes the processed files (outside any transaction); `forget` removes them again. */
-export async function putPhotoFiles(storeId: string, jobId: string, photo: ProcessedPhoto) {
+/**
+ * How long after its files are written a photo's row must exist, or the files go (see
+ * `checkPhotoFiles`). An upload writes its row within seconds of its files.
+ */
+export const PHOTO_FILES_CHECK_SECONDS = 3600;
+
+/**
+ * Writes the processed files (outside any transaction); `forget` removes them again. First, in a
+ * transaction of its own, it queues the check that removes them in an hour unless a photo row
+ * (of this client id) names them: a server that dies between the files and the row, or a row's
+ * transaction that fails unheard, leaves no file behind for good.
+ */
+export async function putPhotoFiles(
+	storeId: string,
+	jobId: string,
+	photo: ProcessedPhoto,
+	clientId: string
+) {
 	const keys = keysFor(storeId, jobId);
+	await inStore(storeId, (tx) =>
+		enqueue(
+			tx,
+			'photo.files',
+			{ clientId, ...keys },
+			{},
+			{ startAfterSeconds: PHOTO_FILES_CHECK_SECONDS }
+		)
+	);
 	await storage().put(keys.fileKey, photo.image, 'image/jpeg');
 	await storage().put(keys.thumbKey, photo.thumb, 'image/jpeg');
 	return {
@@ -117,6 +143,23 @@ export async function putPhotoFiles(storeId: string, jobId: string, photo: Proce
 			await storage().delete(keys.thumbKey);
 		}
 	};
+}
+
+/**
+ * The check `putPhotoFiles` queued: keeps the files when the photo of that client id names them,
+ * and removes them otherwise (never a key outside the store's own photos). Returns what it did.
+ */
+export async function checkPhotoFiles(
+	storeId: string,
+	files: { clientId: string; fileKey: string; thumbKey: string }
+): Promise<'kept' | 'removed'> {
+	const photo = await inStore(storeId, (tx) => field.readPhotoByClientId(tx, files.clientId));
+	if (photo && photo.fileKey === files.fileKey && photo.thumbKey === files.thumbKey) return 'kept';
+	for (const key of [files.fileKey, files.thumbKey]) {
+		if (!key.startsWith(`${storeId}/photos/`)) throw new Error(`Not this store's photo: ${key}`);
+		await storage().delete(key);
+	}
+	return 'removed';
 }
 
 export type SavePhotoResult =

@@ -4,6 +4,7 @@ import type { z } from 'zod';
 import { stripeAccount } from '../db/queries/settings';
 import { listStoreIds } from '../db/queries/stores';
 import { inStore } from '../db/tenant';
+import { checkPhotoFiles } from '../field/photos';
 import type { SendMail } from '../mail/send';
 import { syncStripeActivity } from '../payments/stripe-activity';
 import { enqueue } from './index';
@@ -51,6 +52,9 @@ export const handlers: Handlers = {
 	},
 	'stripe.sync': async (_payload, ctx, deps) => {
 		await syncStripeActivity(storeOf(ctx), {}, deps.stripe);
+	},
+	'photo.files': async (files, ctx) => {
+		await checkPhotoFiles(storeOf(ctx), files);
 	},
 	periodic: async (_payload, _ctx, deps) => {
 		for (const storeId of await listStoreIds()) {

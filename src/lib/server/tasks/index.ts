@@ -22,6 +22,8 @@ export interface QueueOptions {
 	retryLimit?: number;
 	retryDelaySeconds?: number;
 	expireInSeconds?: number;
+	/** Not before this many seconds from now. */
+	startAfterSeconds?: number;
 	/** At most one task of this key in this many seconds (pg-boss's throttle). */
 	singleton?: { key: string; seconds: number };
 	boss?: PgBoss;
@@ -51,6 +53,7 @@ function sendOptions<K extends TaskKind>(kind: K, options: QueueOptions): PgBoss
 			(def.retry.delaySeconds ? (timing.retryDelaySeconds ?? def.retry.delaySeconds) : 0),
 		retryBackoff: true,
 		expireInSeconds: options.expireInSeconds ?? timing.expireSeconds ?? def.expireInSeconds,
+		...(options.startAfterSeconds ? { startAfter: options.startAfterSeconds } : {}),
 		...(options.singleton
 			? { singletonKey: options.singleton.key, singletonSeconds: options.singleton.seconds }
 			: {})

@@ -90,6 +90,21 @@ export const TASK_KINDS = {
 		expireInSeconds: 600,
 		recorded: false
 	}),
+	/**
+	 * An hour after a photo's files were written: removes them unless a photo row names them (the
+	 * server died, or its transaction failed, between the files and the row). Queued in a
+	 * transaction of its own before the files are written, so no file outlives both.
+	 */
+	'photo.files': kind({
+		payload: z.object({
+			clientId: z.string().min(1).max(100),
+			fileKey: z.string().min(1).max(300),
+			thumbKey: z.string().min(1).max(300)
+		}),
+		retry: { limit: 3, delaySeconds: 300 },
+		expireInSeconds: 120,
+		recorded: false
+	}),
 	/** Every half hour: asks for the work that is due by the clock (each store's Stripe sync). */
 	periodic: kind({
 		payload: z.object({}),

@@ -157,7 +157,7 @@ export const actions: Actions = {
 			if (!photoId.success) return refuse(400, 'Reload the page and add the photo again.', 'photo');
 			const processed = await processPhoto(new Uint8Array(await file.arrayBuffer()));
 			if (!processed.ok) return refuse(processed.status, processed.message, 'photo');
-			files = await putPhotoFiles(member.store.id, params.id, processed);
+			files = await putPhotoFiles(member.store.id, params.id, processed, photoId.data);
 			size = {
 				byteSize: processed.image.byteLength,
 				width: processed.width,

@@ -52,9 +52,10 @@ export const POST: RequestHandler = endpoint(async ({ params, request }) => {
 	}
 	const storeId = member.store.id;
 	// Files first, then the row that names them: a server that dies, or a database that drops,
-	// between the two leaves at most unnamed files (never served), never a row without its file.
-	// They are not removed when the transaction fails: its commit may have happened unheard.
-	const files = await putPhotoFiles(storeId, params.id, processed);
+	// between the two leaves at most unnamed files (never served), never a row without its file;
+	// the check `putPhotoFiles` queues removes such files an hour later. They are not removed here
+	// when the transaction fails: its commit may have happened unheard (the check knows).
+	const files = await putPhotoFiles(storeId, params.id, processed, meta.clientId);
 	const saved = await inStore(storeId, async (tx) => {
 		const job = await jobs.readForViewer(tx, params.id, member.scope);
 		if (!job) return { ok: false, reason: 'not_found' } as const;
