@@ -60,3 +60,26 @@ test('a length that cannot be read says why, beside its field, and nothing break
 		page.getByRole('img', { name: /drawn to scale, 12' 6 1\/2" by 12' 6"/ })
 	).toBeVisible();
 });
+
+// The engine comes to an open calculator when its form is first touched; with no signal it comes
+// from the service worker's precache, and the answer still follows the keystrokes.
+test('with no signal, an open calculator still answers as it is typed', async ({
+	page,
+	context
+}) => {
+	await page.goto('/field/calculators?c=cartons');
+	await page.evaluate(async () => {
+		await navigator.serviceWorker.ready;
+	});
+	await page.reload();
+	expect(await page.evaluate(() => Boolean(navigator.serviceWorker.controller))).toBe(true);
+
+	await context.setOffline(true);
+	await page.reload();
+	await expect(page.getByRole('heading', { name: 'Cartons', level: 1 })).toBeVisible();
+	await page.getByLabel('Floor area').pressSequentially('120');
+	await page.getByLabel('Area one carton covers').pressSequentially('20.5');
+	// 120 ft² × 1.10 ÷ 20.5 ft² = 6.44 → 7 cartons
+	await expect(page.getByTestId('calc-headline')).toHaveText('7 cartons');
+	await context.setOffline(false);
+});

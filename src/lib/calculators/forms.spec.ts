@@ -3,11 +3,11 @@ import { defaultSettings, type StoreSettings } from '$lib/estimating';
 import { calculators, type CalculatorName } from './registry';
 import { calculatorExamples } from './examples';
 import { CALCULATOR_CATALOGUE } from './catalogue';
+import { evaluate } from './evaluate';
 import {
 	addRow,
 	CALCULATOR_ORDER,
 	calculatorSettings,
-	evaluate,
 	forms,
 	isCalculatorName,
 	removeRow,

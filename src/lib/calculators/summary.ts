@@ -2,17 +2,16 @@
  * A calculator's answer in words for the page: the headline, the figures behind it, each check
  * with what to do when it fails, and the cautions. Only the engine's own numbers, formatted.
  */
-import {
-	formatArea,
-	formatLength,
-	type Check,
-	type FastenerCount,
-	type JoistResult,
-	type LevellerTakeoff,
-	type Outline,
-	type PatchTakeoff,
-	type RollTakeoff,
-	type UnderlaymentTakeoff
+import { formatArea, formatLength } from '$lib/estimating/units';
+import type {
+	Check,
+	FastenerCount,
+	JoistResult,
+	LevellerTakeoff,
+	Outline,
+	PatchTakeoff,
+	RollTakeoff,
+	UnderlaymentTakeoff
 } from '$lib/estimating';
 import type { CalculatorName, CalculatorResult } from './registry';
 

@@ -1,4 +1,4 @@
-import type { CalculatorSettings } from './forms';
+import type { CalculatorSettings, Evaluation } from './forms';
 import { isCalculatorName, type CalculatorName } from './catalogue';
 import type { Component } from 'svelte';
 import type { CalculatorState } from '$lib/components/calculators/state.svelte';
@@ -6,6 +6,7 @@ import type { CalculatorState } from '$lib/components/calculators/state.svelte';
 export type CalculatorViewComponent = Component<{
 	selected: CalculatorName;
 	settings: CalculatorSettings;
+	untouched: Record<CalculatorName, Evaluation>;
 	base: string;
 	calc: CalculatorState;
 }>;

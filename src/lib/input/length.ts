@@ -13,7 +13,7 @@ import {
 	SQIN_PER_SQFT,
 	type AreaUnit,
 	type LengthUnit
-} from '$lib/estimating';
+} from '$lib/estimating/units';
 import { capital, readDecimal, shown, tooLong, type Read } from './number';
 
 export interface LengthOptions {

@@ -4,36 +4,52 @@
  * lengths) when a quote is built or a drawing is shown. Shared by the browser (live drawings and totals) and the server (stored
  * quotes), so both read the same text the same way.
  */
-import { z } from 'zod';
+// zod/mini: the same zod 4 core as `zod`, with functions instead of methods, so the browser
+// ships only the checks these schemas use (the measure page runs them on what it kept offline).
+// Messages come from the locale that `zod` (imported by every server schema) configures.
+import * as z from 'zod/mini';
+import type {
+	Cutout,
+	JobMeasure,
+	LengthUnit,
+	RoomMeasure,
+	Shape,
+	StoreSettings
+} from '$lib/estimating';
+// The engine's modules by name, not its index: the calculators' forms read this module's
+// helpers without the engine (importing the index would put all of it in their chunk).
+import { LIMITS } from '$lib/estimating/limits';
 import {
 	EXISTING_FLOOR_KINDS,
 	JOIST_SIZES,
 	LAYOUTS,
-	LIMITS,
 	SPECIES,
-	SUBFLOOR_KINDS,
-	type Cutout,
-	type JobMeasure,
-	type LengthUnit,
-	type RoomMeasure,
-	type Shape,
-	type StoreSettings
-} from '$lib/estimating';
+	SUBFLOOR_KINDS
+} from '$lib/estimating/settings';
 import { readLength, readNumber } from '$lib/input';
 
-const text = (max = 40) => z.string().max(max).default('');
+const text = (max = 40) => z._default(z.string().check(z.maxLength(max)), '');
+/** A list of at most `max`. */
+const list = <T extends z.ZodMiniType>(item: T, max: number) =>
+	z.array(item).check(z.maxLength(max));
+/** A list of at most `max`, empty when missing. */
+const listOr = <T extends z.ZodMiniType>(item: T, max: number) => z._default(list(item, max), []);
+const choice = <const T extends string>(values: readonly T[], initial: NoInfer<T>) =>
+	z._default(z.enum(values), initial);
+const flag = () => z._default(z.boolean(), false);
 
 const rectDraft = z.object({ x: text(), y: text(), width: text(), length: text() });
 export type RectDraft = z.infer<typeof rectDraft>;
 
 const shapeDraft = z.discriminatedUnion('kind', [
 	z.object({ kind: z.literal('rect'), width: text(), length: text() }),
-	z.object({ kind: z.literal('rects'), rects: z.array(rectDraft).max(20) }),
+	z.object({ kind: z.literal('rects'), rects: list(rectDraft, 20) }),
 	z.object({
 		kind: z.literal('sides'),
-		sides: z
-			.array(z.object({ length: text(), turn: z.union([z.enum(['left', 'right']), text(8)]) }))
-			.max(60)
+		sides: list(
+			z.object({ length: text(), turn: z.union([z.enum(['left', 'right']), text(8)]) }),
+			60
+		)
 	})
 ]);
 export type ShapeDraft = z.infer<typeof shapeDraft>;
@@ -56,100 +72,92 @@ const INSTALL_DEFAULT = {
 	stairs: ''
 };
 /** The rest of a real install (issue 12): seams, slab, doorways, trim, fixtures, stairs. */
-const installDraft = z
-	.object({
-		rollDirection: z.enum(['auto', 'x', 'y']).default('auto'),
-		light: z.enum(['unknown', 'x', 'y']).default('unknown'),
-		layers: z.enum(['1', '2']).default('1'),
+const installDraft = z._default(
+	z.object({
+		rollDirection: choice(['auto', 'x', 'y'], 'auto'),
+		light: choice(['unknown', 'x', 'y'], 'unknown'),
+		layers: choice(['1', '2'], '1'),
 		slabId: text(40),
 		slabThickness: text(),
-		slabDrying: z.enum(['top', 'both']).default('top'),
-		doorways: z
-			.array(z.object({ width: text(), door: z.boolean().default(false), nextFloor: text() }))
-			.max(20)
-			.default([]),
-		baseboard: z.enum(['none', 'reset', 'new']).default('none'),
-		shoe: z.enum(['none', 'reset', 'new']).default('none'),
-		furniture: z.boolean().default(false),
+		slabDrying: choice(['top', 'both'], 'top'),
+		doorways: listOr(z.object({ width: text(), door: flag(), nextFloor: text() }), 20),
+		baseboard: choice(['none', 'reset', 'new'], 'none'),
+		shoe: choice(['none', 'reset', 'new'], 'none'),
+		furniture: flag(),
 		appliances: text(4),
 		toilets: text(4),
 		stairs: text(4)
-	})
-	.default(() => structuredClone(INSTALL_DEFAULT));
+	}),
+	() => structuredClone(INSTALL_DEFAULT)
+);
 
 export const roomDraftSchema = z.object({
-	id: z.string().min(1).max(64),
-	name: z.string().max(80).default(''),
+	id: z.string().check(z.minLength(1), z.maxLength(64)),
+	name: text(80),
 	shape: shapeDraft,
-	cutouts: z
-		.array(rectDraft.extend({ name: text(60) }))
-		.max(20)
-		.default([]),
-	floor: z
-		.object({
-			productId: z.string().max(64).default(''),
-			layout: z.enum(LAYOUTS).default('straight')
-		})
-		.default({ productId: '', layout: 'straight' }),
-	remove: z.array(z.enum(EXISTING_FLOOR_KINDS)).max(4).default([]),
-	subfloor: z
-		.object({
-			kind: z.enum(SUBFLOOR_KINDS).default('plywood'),
+	cutouts: listOr(z.extend(rectDraft, { name: text(60) }), 20),
+	floor: z._default(
+		z.object({
+			productId: text(64),
+			layout: choice(LAYOUTS, 'straight')
+		}),
+		{ productId: '', layout: 'straight' }
+	),
+	remove: listOr(z.enum(EXISTING_FLOOR_KINDS), 4),
+	subfloor: z._default(
+		z.object({
+			kind: choice(SUBFLOOR_KINDS, 'plywood'),
 			thickness: text(),
 			spanRating: text(12)
-		})
-		.default({ kind: 'plywood', thickness: '', spanRating: '' }),
-	underlayment: z.enum(['auto', 'yes', 'no']).default('auto'),
-	trim: z.boolean().default(false),
+		}),
+		{ kind: 'plywood', thickness: '', spanRating: '' }
+	),
+	underlayment: choice(['auto', 'yes', 'no'], 'auto'),
+	trim: flag(),
 	transitions: text(4),
-	repairs: z
-		.object({
-			holes: z
-				.array(z.object({ width: text(), length: text() }))
-				.max(50)
-				.default([]),
-			seams: z.array(voidDraft).max(50).default([]),
-			dents: z.array(voidDraft).max(50).default([]),
-			fasteners: z.enum(['none', 'room', 'area']).default('none'),
+	repairs: z._default(
+		z.object({
+			holes: listOr(z.object({ width: text(), length: text() }), 50),
+			seams: listOr(voidDraft, 50),
+			dents: listOr(voidDraft, 50),
+			fasteners: choice(['none', 'room', 'area'], 'none'),
 			fastenerArea: text(12)
-		})
-		.default({ holes: [], seams: [], dents: [], fasteners: 'none', fastenerArea: '' }),
-	readings: z
-		.object({
-			flatness: z
-				.array(z.object({ span: text(), gap: text() }))
-				.max(50)
-				.default([]),
-			rh: z.array(text(8)).max(50).default([]),
-			calciumChloride: z
-				.array(z.object({ gain: text(10), area: text(10), hours: text(10) }))
-				.max(20)
-				.default([]),
-			woodSubfloor: z.array(text(8)).max(50).default([]),
-			woodFlooring: z.array(text(8)).max(50).default([])
-		})
-		.default({ flatness: [], rh: [], calciumChloride: [], woodSubfloor: [], woodFlooring: [] }),
+		}),
+		{ holes: [], seams: [], dents: [], fasteners: 'none', fastenerArea: '' }
+	),
+	readings: z._default(
+		z.object({
+			flatness: listOr(z.object({ span: text(), gap: text() }), 50),
+			rh: listOr(text(8), 50),
+			calciumChloride: listOr(z.object({ gain: text(10), area: text(10), hours: text(10) }), 20),
+			woodSubfloor: listOr(text(8), 50),
+			woodFlooring: listOr(text(8), 50)
+		}),
+		{ flatness: [], rh: [], calciumChloride: [], woodSubfloor: [], woodFlooring: [] }
+	),
 	install: installDraft,
-	joists: z
-		.object({
-			size: z.enum(JOIST_SIZES),
-			species: z.enum(SPECIES),
-			spacing: text(),
-			span: text(),
-			/** I-joists: size and species are then not used; EI comes from the maker's data. */
-			iJoist: z.boolean().optional(),
-			/** EI, millions of lb·in² (the maker's tables). */
-			ei: z.string().max(12).optional()
-		})
-		.nullable()
-		.default(null),
-	notes: z.string().max(2000).default('')
+	joists: z._default(
+		z.nullable(
+			z.object({
+				size: z.enum(JOIST_SIZES),
+				species: z.enum(SPECIES),
+				spacing: text(),
+				span: text(),
+				/** I-joists: size and species are then not used; EI comes from the maker's data. */
+				iJoist: z.optional(z.boolean()),
+				/** EI, millions of lb·in² (the maker's tables). */
+				ei: z.optional(z.string().check(z.maxLength(12)))
+			})
+		),
+		null
+	),
+	notes: text(2000)
 });
 export type RoomDraft = z.infer<typeof roomDraftSchema>;
 
 export const measureDraftSchema = z.object({
 	builtYear: text(4),
-	rooms: z.array(roomDraftSchema).max(200)
+	rooms: list(roomDraftSchema, 200)
 });
 export type MeasureDraft = z.infer<typeof measureDraftSchema>;
 

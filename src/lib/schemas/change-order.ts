@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { optionalMoneyField, textField } from '$lib/input';
+import { optionalMoneyField, textField } from '$lib/input/zod';
 import { email, id, optionalText, requiredText } from './fields';
 
 /** At most this many adjustment lines on one change order. */

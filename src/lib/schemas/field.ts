@@ -4,7 +4,7 @@
  * the phone's outbox and the server, so both bound the same things.
  */
 import { z } from 'zod';
-import { numberField, textField } from '$lib/input';
+import { numberField, textField } from '$lib/input/zod';
 
 /** An id made on the phone (a UUID, or anything of the same alphabet): 8–64 characters. */
 export const clientIdSchema = z

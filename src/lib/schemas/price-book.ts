@@ -28,20 +28,16 @@ import {
 	type SupplyPrice
 } from '$lib/estimating';
 import { EXISTING_FLOOR_LABELS, PREP_LABELS, SUPPLY_LABELS } from '$lib/measure/labels';
+import { moneyToInput, readLength, readNumber, tooLong, type Read } from '$lib/input';
 import {
 	moneyField,
-	moneyToInput,
 	optionalLengthField,
 	optionalMoneyField,
 	optionalField,
 	optionalNumberField,
 	optionalVolumeField,
-	readLength,
-	readNumber,
-	textField as fieldText,
-	tooLong,
-	type Read
-} from '$lib/input';
+	textField as fieldText
+} from '$lib/input/zod';
 import { floorProductSchema, priceBookSchema } from './estimate';
 
 export const PRICE_SECTIONS = ['floor', 'prep', 'removal', 'supply'] as const;

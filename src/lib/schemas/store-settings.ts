@@ -16,17 +16,15 @@ import {
 	type LineGroup,
 	type StoreSettings
 } from '$lib/estimating';
+import { bpsToInput, moneyToInput, readPercentBps } from '$lib/input';
 import {
-	bpsToInput,
 	moneyField,
-	moneyToInput,
 	numberField,
 	optionalLengthField,
 	optionalNumberField,
-	readPercentBps,
 	textField as text,
 	percentBpsField
-} from '$lib/input';
+} from '$lib/input/zod';
 import { INSTALL_SUPPLY_DEFAULTS } from '$lib/estimating/trim';
 import { settingsSchema } from './estimate';
 

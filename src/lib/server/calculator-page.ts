@@ -1,11 +1,6 @@
 import { fail } from '@sveltejs/kit';
-import {
-	addRow,
-	calculatorSettings,
-	evaluate,
-	isCalculatorName,
-	removeRow
-} from '$lib/calculators/forms';
+import { evaluate, untouched } from '$lib/calculators/evaluate';
+import { addRow, calculatorSettings, isCalculatorName, removeRow } from '$lib/calculators/forms';
 import { readInStore } from './db/tenant';
 import { typedValues } from './forms';
 import { requirePermission } from './guards';
@@ -13,12 +8,16 @@ import { tradeSettingsFor } from './store-settings';
 
 /**
  * The Calculators page's load, shared by the staff desk and the installer screens: the store's
- * settings (its overrides apply in the browser), without the money settings.
+ * settings (its overrides apply in the browser), without the money settings, and each
+ * calculator's answer to an empty form, which an open calculator shows until it is touched (the
+ * browser imports `evaluate`, the engine and zod only then). Not by the address's calculator: the
+ * installer's service worker keeps one copy of this data for every `?c=`.
  */
 export async function calculatorLoad() {
 	const { store } = requirePermission({ calculator: ['use'] });
 	const { settings } = await readInStore(store.id, tradeSettingsFor);
-	return { settings: calculatorSettings(settings) };
+	const s = calculatorSettings(settings);
+	return { settings: s, untouched: untouched(s) };
 }
 
 /**
@@ -38,9 +37,9 @@ export const calculatorActions = {
 		if (at) values = removeRow(values, calculator, at[1], Number(at[2]));
 		const changedRows = Boolean(add || remove);
 		const { settings } = await readInStore(store.id, tradeSettingsFor);
-		const ev = evaluate(calculator, values, calculatorSettings(settings));
-		const body = { calculator, values, submitted: !changedRows };
-		if (!changedRows && Object.keys(ev.problems).length > 0) return fail(400, body);
+		const evaluation = evaluate(calculator, values, calculatorSettings(settings));
+		const body = { calculator, values, submitted: !changedRows, evaluation };
+		if (!changedRows && Object.keys(evaluation.problems).length > 0) return fail(400, body);
 		return body;
 	}
 };

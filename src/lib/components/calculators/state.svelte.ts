@@ -6,6 +6,8 @@ export interface CalculatorFormData {
 	calculator?: CalculatorName;
 	values?: Values;
 	submitted?: boolean;
+	/** The server's answer to those values. */
+	evaluation?: Evaluation;
 }
 
 /**
@@ -16,11 +18,14 @@ export class CalculatorState {
 	valuesBy = $state<Partial<Record<CalculatorName, Values>>>({});
 	touched = $state<Record<string, boolean>>({});
 	submitted = $state<Partial<Record<CalculatorName, boolean>>>({});
+	/** The server's answer to what was posted, shown until the browser works answers out itself. */
+	posted = $state.raw<Partial<Record<CalculatorName, Evaluation>>>({});
 
 	constructor(initial?: CalculatorFormData | null) {
 		if (initial?.calculator && initial.values) {
 			this.valuesBy[initial.calculator] = initial.values;
 			this.submitted[initial.calculator] = !!initial.submitted;
+			if (initial.evaluation) this.posted = { [initial.calculator]: initial.evaluation };
 		}
 	}
 
