@@ -220,6 +220,13 @@ export const job = pgTable(
 		 * a link of an older version then answers that it was replaced or withdrawn.
 		 */
 		linkVersion: integer('link_version').notNull().default(1),
+		/**
+		 * The customer's name, kept here so the job list sorts and searches by it on `job` alone. Set
+		 * by the database, never by the app: a trigger fills it from the customer on every insert or
+		 * change of the job's customer, and a trigger on `customer` carries a rename to its jobs
+		 * (migration 0017).
+		 */
+		customerName: text('customer_name').notNull().default(''),
 		statusChangedAt: timestamp('status_changed_at', { withTimezone: true }).defaultNow().notNull(),
 		...timestamps
 	},
@@ -233,6 +240,12 @@ export const job = pgTable(
 		// security the enum's `=` (not leakproof) is never an index condition for the app's role.
 		index('job_organization_updated_idx').on(t.organizationId, t.updatedAt, t.number),
 		index('job_organization_customer_idx').on(t.organizationId, t.customerId, t.number),
+		// Sorted by customer (name ascending, newest job first within a name): one index range.
+		index('job_organization_customer_name_idx').on(
+			t.organizationId,
+			t.customerName,
+			t.number.desc().nullsFirst()
+		),
 		unique('job_organization_number_uq').on(t.organizationId, t.number),
 		unique('job_id_organization_uq').on(t.id, t.organizationId),
 		foreignKey({
