@@ -27,6 +27,7 @@ import {
 	quote,
 	user
 } from '../schema';
+import { runNamed } from '../named';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
@@ -179,9 +180,11 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 			.orderBy(order(w.key), desc(w.number))
 			.limit(query.pageSize + 1)
 			.offset(offset);
-		const rows = await selectJobs(tx)
-			.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, matched)))
-			.orderBy(...orderBy);
+		const rows = await runNamed(
+			selectJobs(tx)
+				.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, matched)))
+				.orderBy(...orderBy)
+		);
 		if (rows.length > query.pageSize) {
 			return {
 				rows: rows.slice(0, query.pageSize),
@@ -229,27 +232,31 @@ async function pageOf(
 	// A later page skips its offset on `job` alone, then reads its people for the page's rows:
 	// not for every row skipped.
 	const rows = offset
-		? await selectJobs(tx)
-				.where(
-					and(
-						eq(job.organizationId, tx.storeId),
-						inArray(
-							job.id,
-							tx
-								.select({ id: job.id })
-								.from(job)
-								.where(where)
-								.orderBy(...orderBy)
-								.limit(pageSize)
-								.offset(offset)
+		? await runNamed(
+				selectJobs(tx)
+					.where(
+						and(
+							eq(job.organizationId, tx.storeId),
+							inArray(
+								job.id,
+								tx
+									.select({ id: job.id })
+									.from(job)
+									.where(where)
+									.orderBy(...orderBy)
+									.limit(pageSize)
+									.offset(offset)
+							)
 						)
 					)
-				)
-				.orderBy(...orderBy)
-		: await selectJobs(tx)
-				.where(where)
-				.orderBy(...orderBy)
-				.limit(pageSize);
+					.orderBy(...orderBy)
+			)
+		: await runNamed(
+				selectJobs(tx)
+					.where(where)
+					.orderBy(...orderBy)
+					.limit(pageSize)
+			);
 	const upTo = offset + COUNT_CAP;
 	if (knows !== undefined) return { rows, total: Math.min(knows, upTo), totalCapped: knows > upTo };
 	// Fewer than a page on the first page: they are all there are.
@@ -262,7 +269,7 @@ async function pageOf(
 		.where(where)
 		.limit(upTo + 1)
 		.as('counted');
-	const [{ n }] = await tx.select({ n: count() }).from(counted);
+	const [{ n }] = await runNamed(tx.select({ n: count() }).from(counted));
 	return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
 }
 
