@@ -5,9 +5,9 @@
 #   bash bench/explain.sh [store number, default 1; 1000 is seed:scale --big's store] [old|0015|new]
 # `old` is the query shape before the scale indexes (count joined to customer, the customer's name
 # matched in the join), `0015` the shape of migration 0015 (exact count on `job` alone, the
-# customer's name as a list of ids), `new` (the default) today's: counts capped at 1,000 past the
-# page's start, and the search through `job_search_ids` (migration 0016), whose own query is shown
-# as its role runs it. FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
+# customer's name as a list of ids), `new` (the default) today's (migration 0017; the 0016 shapes
+# are in bench/plans-0016.txt): capped counts, the search's first-rows walk, and the search
+# functions, whose own queries are shown as their role runs them. FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
 set -euo pipefail
 PORT=${FLUSHLINE_BENCH_PG_PORT:-54322}
 N=${1:-1}
@@ -30,6 +30,7 @@ qs() {
 	psql_ -U postgres flushline_bench -q <<SQL
 begin;
 set local role flushline_search;
+${2:-}
 explain (analyze) $1 \g /dev/null
 explain (analyze, costs off, summary on) $1;
 rollback;
@@ -38,29 +39,37 @@ SQL
 SEL="select j.id, j.number, j.title, j.status, j.customer_id, c.name, c.phone, j.site_id, j.installer_id, i.name, j.salesperson_id, sp.name, j.notes, j.status_changed_at, j.updated_at, j.created_at from job j inner join customer c on c.id = j.customer_id and c.organization_id = j.organization_id left join \"user\" i on i.id = j.installer_id left join \"user\" sp on sp.id = j.salesperson_id"
 CNT_JOIN="select count(*) from job j inner join customer c on c.id = j.customer_id and c.organization_id = j.organization_id"
 if [ "$SHAPE" = new ]; then
-	# Today's: the count stops 1,000 past the page's start (`list` in queries/jobs.ts).
+	# Today's (migration 0017): counts stop 1,000 past the page's start; the customer's name is the
+	# job's copy of it; a search tests the list's first 2,000 rows in its order, then asks the
+	# trigram indexes (`list` in queries/jobs.ts).
+	SEL17="${SEL/c.name/j.customer_name}"
 	capped() { echo "select count(*) from (select 1 from job j where $1 limit $(($2 + 1001))) counted"; }
+	# window <sort column> <asc|desc> <text>: the page and one more match among the first 2,000 rows.
+	window() { echo "$SEL17 where j.organization_id = '$S' and j.id in (select w.id from (select id, title, customer_name, number, $1 as sort_key from job where organization_id = '$S' order by $1 $2, number desc limit 2000) w where (w.title ilike '%$3%' or w.customer_name ilike '%$3%') order by w.sort_key $2, w.number desc limit 51) order by j.$1 $2, j.number desc"; }
 	echo "== store $N (new query shape)"
-	echo "== list: sold, by updated"; q "$SEL where j.organization_id = '$S' and j.status = 'sold' order by j.updated_at desc, j.number desc limit 50"
+	echo "== list: sold, by updated"; q "$SEL17 where j.organization_id = '$S' and j.status = 'sold' order by j.updated_at desc, j.number desc limit 50"
 	echo "== count: sold, capped"; q "$(capped "j.organization_id = '$S' and j.status = 'sold'" 0)"
-	echo "== list: all, by number"; q "$SEL where j.organization_id = '$S' order by j.number desc, j.number desc limit 50"
+	echo "== list: all, by number"; q "$SEL17 where j.organization_id = '$S' order by j.number desc, j.number desc limit 50"
 	echo "== count: all, capped"; q "$(capped "j.organization_id = '$S'" 0)"
-	echo "== list: all, by customer"; q "$SEL where j.organization_id = '$S' order by c.name asc, j.number desc limit 50"
-	echo "== list: all, by number, page 1000 of 50"; q "$SEL where j.organization_id = '$S' and j.id in (select j.id from job j where j.organization_id = '$S' order by j.number desc, j.number desc limit 50 offset 49950) order by j.number desc, j.number desc"
+	echo "== list: all, by customer"; q "$SEL17 where j.organization_id = '$S' order by j.customer_name asc, j.number desc limit 50"
+	echo "== list: all, by number, page 1000 of 50"; q "$SEL17 where j.organization_id = '$S' and j.id in (select j.id from job j where j.organization_id = '$S' order by j.number desc, j.number desc limit 50 offset 49950) order by j.number desc, j.number desc"
 	echo "== count: all, page 1000 of 50, capped"; q "$(capped "j.organization_id = '$S'" 49950)"
-	fn() { echo "select j.id from public.job j where j.organization_id = '$S' and j.title ilike '$1' union all select j.id from public.job j where j.organization_id = '$S' and j.title not ilike '$1' and j.customer_id in (select c.id from public.customer c where c.organization_id = '$S' and c.name ilike '$1') limit 1001"; }
+	echo "== search \"oak\", by number: the first 2,000 rows in the list's order hold a page"; q "$(window number desc oak)"
+	echo "== search \"orwin\", by number: the same"; q "$(window number desc orwin)"
+	fn() { echo "select j.id from public.job j where j.organization_id = '$S' and (j.title ilike '$1' or j.customer_name ilike '$1') limit 1001"; }
 	for term in 'otto orwin' oak; do
-		echo "== search \"$term\": the function's own query, as flushline_search"; qs "$(fn "%$term%")"
-		echo "== search \"$term\": the function, as the app calls it"; q "select s.id from job_search_ids('%$term%', 1001) as s(id)"
+		echo "== search \"$term\": job_search_ids' own query, as flushline_search"; qs "$(fn "%$term%")"
+		echo "== search \"$term\": job_search_ids, as the app calls it"; q "select s.id from job_search_ids('%$term%', 1001) as s(id)"
 	done
-	IDS="select array_agg(s.id) as ids from job_search_ids('%otto orwin%', 1001) as s(id) \\gset"
-	echo "== list: search \"otto orwin\" (399 matches: by id), by customer"; q "$SEL where j.organization_id = '$S' and j.id = any(:'ids'::text[]) order by c.name asc, j.number desc limit 50" "$IDS"
-	echo "== count: search \"otto orwin\", capped"; q "$(capped "j.organization_id = '$S' and j.id = any(:'ids'::text[])" 0)" "$IDS"
-	OAK="(j.title ilike '%oak%' or j.customer_id = any(array(select c2.id from customer c2 where c2.organization_id = '$S' and c2.name ilike '%oak%')))"
-	echo "== list: search \"oak\" (over 1,000 matches: as the list walks), by customer"; q "$SEL where j.organization_id = '$S' and $OAK order by c.name asc, j.number desc limit 50"
-	echo "== list: search \"oak\", by number"; q "$SEL where j.organization_id = '$S' and $OAK order by j.number desc, j.number desc limit 50"
-	echo "== count: search \"oak\", capped"; q "$(capped "j.organization_id = '$S' and $OAK" 0)"
+	IDS="select coalesce(array_agg(s.id), '{}') as ids from job_search_ids('%otto orwin%', 1001) as s(id) \\gset"
+	echo "== list: search \"otto orwin\" (399 matches: by id), by number"; q "$SEL17 where j.organization_id = '$S' and j.id = any(:'ids'::text[]) order by j.number desc limit 50" "$IDS"
+	by_customer() { echo "select j.id, count(*) over () from public.job j where j.organization_id = '$S' and (j.title ilike '$1' or j.customer_name ilike '$1') order by j.customer_name, j.number desc limit 50"; }
+	for term in oak orwin 'otto orwin'; do
+		echo "== search \"$term\", by customer: job_search_by_customer's own query, as flushline_search"; qs "$(by_customer "%$term%")" "set local enable_indexscan = off; set local enable_seqscan = off;"
+		echo "== search \"$term\", by customer: job_search_by_customer, as the app calls it"; q "select s.id, s.matches from job_search_by_customer('%$term%', false, 50, 0) as s"
+	done
 	echo "== customers: search ash"; q "select * from customer where organization_id = '$S' and (name ilike '%ash%' or email ilike '%ash%' or phone ilike '%ash%') order by name asc, id asc limit 25"
+	echo "== customers: count ash"; q "select count(*) from customer where organization_id = '$S' and (name ilike '%ash%' or email ilike '%ash%' or phone ilike '%ash%')"
 	exit 0
 fi
 if [ "$SHAPE" = old ]; then

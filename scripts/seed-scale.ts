@@ -147,6 +147,10 @@ const fc = (x: string, c: string) =>
 const fk = (x: string) =>
 	`(case when ${x} is null then null else md5(${x} || '/' || $1::int || '/j' || k)::uuid::text end)`;
 
+/** A customer copy's name: the template's first name and a surname picked by the copy `c`. */
+const copiedName = (name: string, c: string) =>
+	`split_part(${name}, ' ', 1) || ' ' || (array[${SURNAMES.map((s) => `'${s}'`).join(',')}])[1 + (((${c}) * 7 + length(${name})) % ${SURNAMES.length})]`;
+
 type Level = 'store' | 'customer' | 'job';
 function expression(table: string, col: Column, level: Level, customerCopies: string): string {
 	const t = `t."${col.name}"`;
@@ -158,8 +162,11 @@ function expression(table: string, col: Column, level: Level, customerCopies: st
 		return `'acct_scale' || $1::int`;
 	if (table === 'job' && col.name === 'number')
 		return `1001 + k * ${'$4'}::int + (t.number - 1001)`;
-	if (table === 'customer' && col.name === 'name')
-		return `split_part(t.name, ' ', 1) || ' ' || (array[${SURNAMES.map((s) => `'${s}'`).join(',')}])[1 + ((c * 7 + length(t.name)) % ${SURNAMES.length})]`;
+	if (table === 'customer' && col.name === 'name') return copiedName(t, 'c');
+	// The job's copy of its customer's name (migration 0017; triggers are off for the copy): the
+	// same name as that customer's copy, whose number is `k % customerCopies` (CUSTOMER_REF below).
+	if (table === 'job' && col.name === 'customer_name')
+		return copiedName(t, `k % ${customerCopies}`);
 	if (table === 'customer' && col.name === 'email')
 		return `replace(t.email, '@', '+' || $1::int || '-' || c || '@')`;
 	if (idLike || col.name === 'client_id' || col.name === 'item_client_id') {

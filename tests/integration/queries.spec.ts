@@ -3,7 +3,8 @@ import { inStore } from '$lib/server/db/tenant';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import type { JobListQuery } from '$lib/schemas/job';
-import { sql } from 'drizzle-orm';
+import { job as jobTable } from '$lib/server/db/schema';
+import { eq, sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
 	addMember,
@@ -180,28 +181,35 @@ describe('jobs across stores', () => {
 			totalCapped: false
 		});
 
-		// Few matches: found through the search function, counted exactly.
+		// Few matches (fewer than a page among the list's first rows): found through the search
+		// function, counted exactly.
 		expect(await find({ q: 'MAPLE', dir: 'asc' })).toEqual({
 			numbers: Array.from({ length: 11 }, (_, i) => 5007 + i * 100),
 			total: 11,
 			totalCapped: false
 		});
-		const byName = await find({ q: 'oakhurst', pageSize: 20 });
-		expect(byName).toEqual({ numbers: desc(6100, 20, 10), total: 110, totalCapped: false });
 		expect(await find({ q: 'J-5432' })).toEqual({ numbers: [5432], total: 1, totalCapped: false });
 
-		// More than 1,000 matches: tested as the list walks its order, the count capped.
+		// A page and more among the list's first rows: that page, and "more than the page".
+		const byName = await find({ q: 'oakhurst', pageSize: 20 });
+		expect(byName).toEqual({ numbers: desc(6100, 20, 10), total: 20, totalCapped: true });
 		expect(await find({ q: 'lot', pageSize: 50 })).toEqual({
 			numbers: desc(6100, 50),
-			total: 1000,
+			total: 50,
 			totalCapped: true
 		});
 		const byCustomer = await find({ q: 'lot', sort: 'customer', dir: 'asc', pageSize: 5 });
 		expect(byCustomer.numbers).toEqual(desc(6100, 5, 10));
-		// Narrowed by more than the search: counted, not assumed.
 		expect(await find({ q: 'lot', status: 'draft', pageSize: 5 })).toMatchObject({
-			total: 1000,
+			total: 5,
 			totalCapped: true
+		});
+		// The last page has no match after it: more than 1,000 matches (the search function says so),
+		// tested as the list walks, and counted from the page's start.
+		expect(await find({ q: 'lot', page: 11, pageSize: 100 })).toEqual({
+			numbers: desc(5100, 100),
+			total: 1100,
+			totalCapped: false
 		});
 		expect(await find({ q: 'lot', status: 'sold' })).toEqual({
 			numbers: [],
@@ -219,6 +227,49 @@ describe('jobs across stores', () => {
 		expect((await find({ q: 'oakhurst', page: 2, pageSize: 20 })).numbers).toEqual(
 			desc(5900, 20, 10)
 		);
+	});
+
+	it("sorts and searches by the customer's name as it is now, which the database keeps", async () => {
+		const store = await makeStore('Renamed Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const ann = await makeCustomer(store.id, 'Ann Zephyr');
+		const bo = await makeCustomer(store.id, 'Bo Young');
+		const annJob = await makeJob(store.id, store.owner.id, ann.id);
+		const boJob = await makeJob(store.id, store.owner.id, bo.id);
+		const byCustomer = async (q: string | null = null) =>
+			(
+				await inStore(store.id, (tx) =>
+					jobs.list(tx, { ...jobPage, q, sort: 'customer', dir: 'asc' }, staff)
+				)
+			).rows.map((r) => [r.id, r.customerName]);
+		expect(await byCustomer()).toEqual([
+			[annJob.id, 'Ann Zephyr'],
+			[boJob.id, 'Bo Young']
+		]);
+		// A rename reaches the customer's jobs in the same transaction, through the search function
+		// (a page is not found among the list's first rows here) as through the sort.
+		await inStore(store.id, (tx) => customers.update(tx, ann.id, { name: 'Zoe Zephyr' }));
+		expect(await byCustomer()).toEqual([
+			[boJob.id, 'Bo Young'],
+			[annJob.id, 'Zoe Zephyr']
+		]);
+		expect(await byCustomer('zoe')).toEqual([[annJob.id, 'Zoe Zephyr']]);
+		expect(await byCustomer('ann')).toEqual([]);
+		// Nobody writes the copy but the database: it is taken from the customer again.
+		await inStore(store.id, (tx) =>
+			tx.update(jobTable).set({ customerName: 'Someone Else' }).where(eq(jobTable.id, boJob.id))
+		);
+		expect(await byCustomer('someone')).toEqual([]);
+		expect(await byCustomer('young')).toEqual([[boJob.id, 'Bo Young']]);
+		// Another store's customer of the same name is renamed alone.
+		const elsewhere = await makeCustomer(b.id, 'Bo Young');
+		const elsewhereJob = await makeJob(b.id, b.owner.id, elsewhere.id);
+		await inStore(b.id, (tx) => customers.update(tx, elsewhere.id, { name: 'Bo Elsewhere' }));
+		expect(await byCustomer('young')).toEqual([[boJob.id, 'Bo Young']]);
+		const there = await inStore(b.id, (tx) =>
+			jobs.readForViewer(tx, elsewhereJob.id, jobScope(grantsOf('owner'), b.owner.id))
+		);
+		expect(there?.customerName).toBe('Bo Elsewhere');
 	});
 
 	it('numbers jobs per store from 1001', async () => {

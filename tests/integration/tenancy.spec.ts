@@ -245,13 +245,51 @@ describe('the job search function', () => {
 		);
 		expect(writes.rows).toEqual([]);
 		expect(rows.map((r) => r.col)).toEqual([
-			'customer.id',
-			'customer.name',
-			'customer.organization_id',
-			'job.customer_id',
+			'job.customer_name',
 			'job.id',
+			'job.number',
 			'job.organization_id',
 			'job.title'
 		]);
+	});
+
+	const byCustomer = (c: PoolClient, pattern: string, lim = 50, skip = 0) =>
+		c
+			.query<{ id: string; matches: string }>(
+				`select s.id, s.matches from job_search_by_customer($1, false, $2, $3) as s`,
+				[pattern, lim, skip]
+			)
+			.then((r) => r.rows.map((row) => ({ id: row.id, matches: Number(row.matches) })));
+
+	it("sorted by customer, gives a page of the store's own matches and how many, never another's", async () => {
+		// "Oakhurst of …" sorts before "Plain …": the customer's name first, then the title's match.
+		expect(await asStore(a.id, (c) => byCustomer(c, '%oak%'))).toEqual([
+			{ id: aOak.byName, matches: 2 },
+			{ id: aOak.job, matches: 2 }
+		]);
+		expect(await asStore(b.id, (c) => byCustomer(c, '%oak%', 1, 1))).toEqual([
+			{ id: bOak.job, matches: 2 }
+		]);
+		const ofA = await asStore(a.id, (c) => c.query<{ id: string }>(`select id from job`));
+		// Every job of every store matches '%': still only the store's own, and counted as such.
+		const all = await asStore(a.id, (c) => byCustomer(c, '%', 101));
+		const own = new Set(ofA.rows.map((r) => r.id));
+		expect(all).toHaveLength(Math.min(101, own.size));
+		expect(all.every((r) => own.has(r.id) && r.matches === own.size)).toBe(true);
+		expect(await asStore('no-such-store', (c) => byCustomer(c, '%'))).toEqual([]);
+	});
+
+	it('sorted by customer, refuses to run outside a store or beyond its bounds', async () => {
+		await expect(asStore(null, (c) => byCustomer(c, '%oak%'))).rejects.toThrow(/app\.store_id/);
+		await expect(asStore(a.id, (c) => byCustomer(c, '%', 0))).rejects.toThrow(/page/);
+		await expect(asStore(a.id, (c) => byCustomer(c, '%', 102))).rejects.toThrow(/page/);
+		await expect(asStore(a.id, (c) => byCustomer(c, '%', 10, -1))).rejects.toThrow(/start/);
+		await expect(asStore(a.id, (c) => byCustomer(c, '%', 10, 10001))).rejects.toThrow(/start/);
+		await expect(asStore(a.id, (c) => byCustomer(c, 'x'.repeat(401)))).rejects.toThrow(/pattern/);
+		const { rows } = await pool.query(
+			`select p.prosecdef, pg_get_userbyid(p.proowner) as owner from pg_proc p
+			 where p.proname = 'job_search_by_customer'`
+		);
+		expect(rows).toEqual([{ prosecdef: true, owner: 'flushline_search' }]);
 	});
 });

@@ -212,11 +212,12 @@ function responseSchemas(): Record<string, Json> {
 			rows: list(ref('JobView')),
 			total: {
 				...integer,
-				description: "How many jobs match, counted up to 1,000 past the page's start"
+				description:
+					"How many jobs match, counted up to 1,000 past the page's start; with a search whose matches fill the page among the list's first 2,000 rows, only up to the page's end"
 			},
 			totalCapped: {
 				type: 'boolean',
-				description: 'The count stopped at `total`: more jobs match (shown as "1,000+")'
+				description: 'The count stopped at `total`: more jobs match (shown as "1,000+", or "50+")'
 			},
 			page: integer,
 			pageSize: integer

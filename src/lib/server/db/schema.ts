@@ -220,6 +220,13 @@ export const job = pgTable(
 		 * a link of an older version then answers that it was replaced or withdrawn.
 		 */
 		linkVersion: integer('link_version').notNull().default(1),
+		/**
+		 * The customer's name, kept here so the job list sorts and searches by it on `job` alone. Set
+		 * by the database, never by the app: a trigger fills it from the customer on every insert or
+		 * change of the job's customer, and a trigger on `customer` carries a rename to its jobs
+		 * (migration 0017).
+		 */
+		customerName: text('customer_name').notNull().default(''),
 		statusChangedAt: timestamp('status_changed_at', { withTimezone: true }).defaultNow().notNull(),
 		...timestamps
 	},
@@ -233,6 +240,20 @@ export const job = pgTable(
 		// security the enum's `=` (not leakproof) is never an index condition for the app's role.
 		index('job_organization_updated_idx').on(t.organizationId, t.updatedAt, t.number),
 		index('job_organization_customer_idx').on(t.organizationId, t.customerId, t.number),
+		// One status's jobs by last change (or counted): the enum's `=` cannot be an index condition
+		// for the app's role, but a partial index whose predicate the query's `status =` implies is
+		// still chosen (migration 0017). Each job is in one of them: together, one index's size.
+		...JOB_STATUSES.map((s) =>
+			index(`job_${s}_updated_idx`)
+				.on(t.organizationId, t.updatedAt, t.number)
+				.where(sql`${t.status} = ${sql.raw(`'${s}'`)}`)
+		),
+		// Sorted by customer (name ascending, newest job first within a name): one index range.
+		index('job_organization_customer_name_idx').on(
+			t.organizationId,
+			t.customerName,
+			t.number.desc().nullsFirst()
+		),
 		unique('job_organization_number_uq').on(t.organizationId, t.number),
 		unique('job_id_organization_uq').on(t.id, t.organizationId),
 		foreignKey({

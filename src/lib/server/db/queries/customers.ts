@@ -1,6 +1,7 @@
-import { and, asc, count, desc, eq, ilike, or, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, getTableColumns, ilike, or, sql, type SQL } from 'drizzle-orm';
 import type { CustomerInput, CustomerListQuery } from '../../../schemas/customer';
 import { customer, job } from '../schema';
+import { runNamed } from '../named';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 
 export type Customer = typeof customer.$inferSelect;
@@ -31,13 +32,22 @@ export async function list(tx: StoreTx, query: CustomerListQuery) {
 	}
 	const where = and(...filters);
 	const order = query.dir === 'asc' ? asc : desc;
-	const rows = await tx
-		.select()
-		.from(customer)
-		.where(where)
-		.orderBy(order(sortColumns[query.sort]), asc(customer.id))
-		.limit(query.pageSize)
-		.offset((query.page - 1) * query.pageSize);
+	// The count rides along with the page (one statement, one pass over the matches: it reads
+	// them all either way); only a page past the end, which has no row to carry it, counts alone.
+	const found = await runNamed(
+		tx
+			.select({
+				...getTableColumns(customer),
+				total: sql<number>`count(*) over ()`.mapWith(Number)
+			})
+			.from(customer)
+			.where(where)
+			.orderBy(order(sortColumns[query.sort]), asc(customer.id))
+			.limit(query.pageSize)
+			.offset((query.page - 1) * query.pageSize)
+	);
+	const rows: Customer[] = found.map(({ total: _, ...row }) => row);
+	if (found.length) return { rows, total: found[0].total };
 	const [{ total }] = await tx.select({ total: count() }).from(customer).where(where);
 	return { rows, total };
 }

@@ -1,4 +1,17 @@
-import { and, asc, count, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import {
+	and,
+	asc,
+	count,
+	desc,
+	eq,
+	ilike,
+	inArray,
+	or,
+	sql,
+	type AnyColumn,
+	type SQL,
+	type SQLWrapper
+} from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { canDelete, canMove, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
@@ -14,6 +27,7 @@ import {
 	quote,
 	user
 } from '../schema';
+import { runNamed } from '../named';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
@@ -37,7 +51,8 @@ const jobColumns = {
 	title: job.title,
 	status: job.status,
 	customerId: job.customerId,
-	customerName: customer.name,
+	// The job's copy of the name (migration 0017), the one the list sorts and searches by.
+	customerName: job.customerName,
 	customerPhone: customer.phone,
 	siteId: job.siteId,
 	installerId: job.installerId,
@@ -50,11 +65,12 @@ const jobColumns = {
 	createdAt: job.createdAt
 };
 
+// Every sort is on `job` alone: the customer's name is the job's copy of it (migration 0017).
 const sortColumns = {
 	number: job.number,
 	status: job.status,
 	updated: job.updatedAt,
-	customer: customer.name
+	customer: job.customerName
 } as const;
 
 /** The job columns every view uses, with the customer's and people's names. */
@@ -71,147 +87,193 @@ function selectJobs(tx: StoreTx) {
 }
 
 /**
- * How far a job list counts: past this many (beyond the page's offset) it says "1,000+" rather
- * than read every matching index entry of a large store. Also how many search matches are taken
- * by id from the search function (below); more than that and the search filters as it walks.
+ * How far a job list counts: past this many (beyond the page's start) it says "1,000+" rather
+ * than read every matching index entry of a large store. Also how many matches the search
+ * function (below) hands over by id; more than that and the search filters as the list walks.
  */
 export const COUNT_CAP = 1000;
 
 /**
- * How many search matches are taken by id when the list is sorted by customer: walking the
- * customers in name order and testing each one's jobs is slow when the matches sit with a few
- * customers, while sorting a few thousand ids read by primary key stays cheap.
+ * How many of the list's rows, in its order, a search tests before it asks the trigram indexes.
+ * A common text fills a page within them (tested as the list walks, the cheapest way to find a
+ * page when matches are many); a rare one does not, and is then found through the indexes.
  */
-export const SEARCH_IDS_BY_NAME = 5000;
+export const SEARCH_WINDOW = 2000;
 
-/**
- * The search's condition on `job`: the title or the customer's name contains the text (case
- * ignored, wildcards taken literally), or it is the job's number.
- *
- * Row-level security keeps `ilike` from being an index condition for the app's role (it is not
- * leakproof), so the trigram indexes are reached through `job_search_ids` (migration 0016): a
- * security-definer function that reads the store from `app.store_id` itself and returns only ids.
- * Up to `cap` matches, the list reads those ids by primary key. A text so common that it
- * matches more is tested row by row as the list walks its sort order, which finds a page quickly
- * exactly because the matches are many. `matches`: how many, when the ids are all of them.
- */
-async function searchFilter(
-	tx: StoreTx,
-	q: string,
-	cap: number
-): Promise<{ filter: SQL; many: boolean; matches?: number }> {
-	const pattern = likePattern(q);
-	const asNumber = /^j?-?(\d{1,9})$/i.exec(q)?.[1];
-	const byNumber = asNumber ? eq(job.number, Number(asNumber)) : undefined;
-	const found = await tx.execute<{ id: string }>(
-		sql`select s.id from job_search_ids(${pattern}, ${cap + 1}) as s(id)`
-	);
-	if (found.rows.length <= cap) {
-		const ids = found.rows.map((r) => r.id);
-		return {
-			filter: or(sql`${job.id} = any(${sql.param(ids)}::text[])`, byNumber) as SQL,
-			many: false,
-			// The number may be one more job: then it is counted.
-			matches: byNumber ? undefined : ids.length
-		};
-	}
-	// The customers whose name matches, as a list of ids: the filter stays on `job` alone, so
-	// the count reads no customer rows (bench/README.md).
-	const named = tx
-		.select({ id: customer.id })
-		.from(customer)
-		.where(and(eq(customer.organizationId, tx.storeId), ilike(customer.name, pattern)));
-	return {
-		filter: or(
-			ilike(job.title, pattern),
-			sql`${job.customerId} = any(array(${named}))`,
-			byNumber
-		) as SQL,
-		many: true
-	};
-}
+type ListQuery = JobListQuery & { customerId?: string; salespersonId?: string };
+type Page = { rows: JobRow[]; total: number; totalCapped: boolean };
 
 /**
  * A page of the store's jobs as the viewer may see them, and how many there are: exact up to
- * COUNT_CAP past the page's start, then `totalCapped` says there are more than `total`.
+ * COUNT_CAP past the page's start, then `totalCapped` says there are more than `total`. A search
+ * that finds a page among the list's first SEARCH_WINDOW rows says only that more match than
+ * the page shows (`total` is then the page's end, capped).
  */
-export async function list(
-	tx: StoreTx,
-	query: JobListQuery & { customerId?: string; salespersonId?: string },
-	viewer: JobViewer
-) {
+export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Promise<Page> {
 	const filters = [eq(job.organizationId, tx.storeId), viewerFilter(viewer)];
 	if (query.status) filters.push(eq(job.status, query.status));
 	if (query.customerId) filters.push(eq(job.customerId, query.customerId));
 	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
+	const order = query.dir === 'asc' ? asc : desc;
+	const sortColumn = sortColumns[query.sort];
+	const orderBy = [order(sortColumn), desc(job.number)];
+	const offset = (query.page - 1) * query.pageSize;
+	if (!query.q) return pageOf(tx, and(...filters), orderBy, offset, query.pageSize);
+
+	const pattern = likePattern(query.q);
+	const asNumber = /^j?-?(\d{1,9})$/i.exec(query.q)?.[1];
+	// Wildcards in the text are taken literally (likePattern); the number is a job's number.
+	const found = (title: SQLWrapper, name: SQLWrapper, number: SQLWrapper) =>
+		or(
+			ilike(title as AnyColumn, pattern),
+			ilike(name as AnyColumn, pattern),
+			asNumber ? eq(number as AnyColumn, Number(asNumber)) : undefined
+		) as SQL;
+
 	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
 	const narrowed = filters.length > 2 || viewer.kind !== 'store';
-	const searchCap = query.sort === 'customer' ? SEARCH_IDS_BY_NAME : COUNT_CAP;
-	const search = query.q ? await searchFilter(tx, query.q, searchCap) : undefined;
-	if (search) filters.push(search.filter);
-	const where = and(...filters);
-	const order = query.dir === 'asc' ? asc : desc;
-	const orderBy = [order(sortColumns[query.sort]), desc(job.number)];
-	const offset = (query.page - 1) * query.pageSize;
-	// A later page skips its offset on `job` alone (with the customer only to sort by its name),
-	// then reads its people for the page's rows: not for every row skipped.
-	const rows = offset
-		? await selectJobs(tx)
-				.where(
-					and(
-						eq(job.organizationId, tx.storeId),
-						inArray(
-							job.id,
-							(query.sort === 'customer'
-								? tx
-										.select({ id: job.id })
-										.from(job)
-										.innerJoin(
-											customer,
-											and(
-												eq(customer.id, job.customerId),
-												eq(customer.organizationId, job.organizationId)
-											)
-										)
-								: tx.select({ id: job.id }).from(job)
-							)
-								.where(where)
-								.orderBy(...orderBy)
-								.limit(query.pageSize)
-								.offset(offset)
-						)
+
+	// Sorted by customer, matches sit together in name order (all of a matching customer's jobs),
+	// far from the start as often as not: the trigram indexes find them all, and the function sorts
+	// them and hands over one page of ids with how many there are (migration 0017).
+	if (query.sort === 'customer' && !narrowed && !asNumber && offset <= 10_000) {
+		const page = await tx.execute<{ id: string; matches: string }>(
+			sql`select s.id, s.matches from job_search_by_customer(${pattern}, ${query.dir === 'desc'}, ${query.pageSize}, ${offset}) as s`
+		);
+		const ids = page.rows.map((r) => r.id);
+		const rows = ids.length
+			? await selectJobs(tx)
+					.where(
+						and(eq(job.organizationId, tx.storeId), sql`${job.id} = any(${sql.param(ids)}::text[])`)
 					)
-				)
+					.orderBy(...orderBy)
+			: [];
+		// No row on a page past the end says nothing of how many there are: counted below.
+		if (rows.length || !offset) {
+			const matches = Number(page.rows[0]?.matches ?? 0);
+			const upTo = offset + COUNT_CAP;
+			return { rows, total: Math.min(matches, upTo), totalCapped: matches > upTo };
+		}
+	}
+
+	// 1. The list's first SEARCH_WINDOW rows in its order, tested row by row: a page and one more
+	// match among them is the page, and says that more match (not how many: counting them would
+	// read on through the store). Not sorted by customer: there the matches sit together.
+	if (query.sort !== 'customer' && offset + query.pageSize < SEARCH_WINDOW) {
+		const w = tx
+			.select({
+				id: job.id,
+				title: job.title,
+				customerName: job.customerName,
+				number: job.number,
+				key: sql`${sortColumn}`.as('sort_key')
+			})
+			.from(job)
+			.where(and(...filters))
+			.orderBy(...orderBy)
+			.limit(SEARCH_WINDOW)
+			.as('w');
+		const matched = tx
+			.select({ id: w.id })
+			.from(w)
+			.where(found(w.title, w.customerName, w.number))
+			.orderBy(order(w.key), desc(w.number))
+			.limit(query.pageSize + 1)
+			.offset(offset);
+		const rows = await runNamed(
+			selectJobs(tx)
+				.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, matched)))
 				.orderBy(...orderBy)
-		: await selectJobs(tx)
-				.where(where)
-				.orderBy(...orderBy)
-				.limit(query.pageSize);
-	// Every job has its store's customer (`job_customer_same_store_fk`): counted from `job` alone,
-	// and only as far as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
-	const upTo = offset + COUNT_CAP;
-	// Nothing but the search narrows the list: what it found says how many, without a count.
-	if (search && !narrowed) {
-		if (search.many && searchCap >= upTo) return { rows, total: upTo, totalCapped: true };
-		if (search.matches !== undefined) {
+		);
+		if (rows.length > query.pageSize) {
 			return {
-				rows,
-				total: Math.min(search.matches, upTo),
-				totalCapped: search.matches > upTo
+				rows: rows.slice(0, query.pageSize),
+				total: offset + query.pageSize,
+				totalCapped: true
 			};
 		}
 	}
+
+	// 2. Few matches there: the search function reads the trigram indexes (row-level security keeps
+	// `ilike` from being an index condition for the app's role; migration 0016). Up to COUNT_CAP
+	// matches, the list reads them by primary key and knows how many there are.
+	const ids = (
+		await tx.execute<{ id: string }>(
+			sql`select s.id from job_search_ids(${pattern}, ${COUNT_CAP + 1}) as s(id)`
+		)
+	).rows.map((r) => r.id);
+	if (ids.length <= COUNT_CAP) {
+		const byIds = or(
+			sql`${job.id} = any(${sql.param(ids)}::text[])`,
+			asNumber ? eq(job.number, Number(asNumber)) : undefined
+		) as SQL;
+		// The number may be one more job: then it is counted.
+		const known = narrowed || asNumber ? undefined : ids.length;
+		return pageOf(tx, and(...filters, byIds), orderBy, offset, query.pageSize, known);
+	}
+	// 3. More than COUNT_CAP, though not among the list's first rows: tested as the list walks on.
+	const where = and(...filters, found(job.title, job.customerName, job.number));
+	const known = !narrowed && offset === 0 ? COUNT_CAP + 1 : undefined;
+	return pageOf(tx, where, orderBy, offset, query.pageSize, known);
+}
+
+/**
+ * The page of the jobs `where` selects, and how many there are (up to COUNT_CAP past the page's
+ * start): counted, unless the caller already `knows` how many.
+ */
+async function pageOf(
+	tx: StoreTx,
+	where: SQL | undefined,
+	orderBy: SQL[],
+	offset: number,
+	pageSize: number,
+	knows?: number
+): Promise<Page> {
+	// A later page skips its offset on `job` alone, then reads its people for the page's rows:
+	// not for every row skipped.
+	const rows = offset
+		? await runNamed(
+				selectJobs(tx)
+					.where(
+						and(
+							eq(job.organizationId, tx.storeId),
+							inArray(
+								job.id,
+								tx
+									.select({ id: job.id })
+									.from(job)
+									.where(where)
+									.orderBy(...orderBy)
+									.limit(pageSize)
+									.offset(offset)
+							)
+						)
+					)
+					.orderBy(...orderBy)
+			)
+		: await runNamed(
+				selectJobs(tx)
+					.where(where)
+					.orderBy(...orderBy)
+					.limit(pageSize)
+			);
+	const upTo = offset + COUNT_CAP;
+	if (knows !== undefined) return { rows, total: Math.min(knows, upTo), totalCapped: knows > upTo };
+	// Fewer than a page on the first page: they are all there are.
+	if (!offset && rows.length < pageSize) return { rows, total: rows.length, totalCapped: false };
+	// Every job has its store's customer (`job_customer_same_store_fk`): counted from `job` alone,
+	// and only as far as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
 	const counted = tx
 		.select({ one: sql`1`.as('one') })
 		.from(job)
 		.where(where)
 		.limit(upTo + 1)
 		.as('counted');
-	const [{ n }] = await tx.select({ n: count() }).from(counted);
+	const [{ n }] = await runNamed(tx.select({ n: count() }).from(counted));
 	return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
 }
 
-export type JobRow = Awaited<ReturnType<typeof list>>['rows'][number];
+export type JobRow = Awaited<ReturnType<ReturnType<typeof selectJobs>['execute']>>[number];
 
 /** One job with its people as the viewer may see it: undefined when not the store's or not theirs. */
 export async function readForViewer(tx: StoreTx, id: string, viewer: JobViewer) {
