@@ -35,6 +35,7 @@ const store = Number(process.env.BENCH_STORE ?? 1);
 const seconds = Number(process.env.BENCH_SECONDS ?? 10);
 
 const { clusterAt, startCluster, databaseUrl } = await import('../scripts/lib/postgres.js');
+const { serverMemoryEnv } = await import('../scripts/lib/system.js');
 const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_PG_PORT ?? 54322));
 startCluster(cluster);
 const database = process.env.FLUSHLINE_BENCH_DB ?? 'flushline_bench';
@@ -66,8 +67,8 @@ const server = spawn(process.execPath, ['build'], {
 		PORT: String(port),
 		BODY_SIZE_LIMIT: '3M',
 		LOG_LEVEL: 'warn',
-		// As `npm start` and the README's deployment settings run it (glibc arenas, for sharp).
-		MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2'
+		// As `npm start` and the README's deployment settings run it (glibc arenas, V8's heap cap).
+		...serverMemoryEnv()
 	},
 	stdio: ['ignore', 'ignore', 'inherit']
 });

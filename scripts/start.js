@@ -6,7 +6,7 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
-import { ensurePackages, root, run, step } from './lib/system.js';
+import { ensurePackages, root, run, serverMemoryEnv, step } from './lib/system.js';
 
 const host = process.env.HOST ?? '127.0.0.1';
 const port = Number(process.env.PORT ?? 3000);
@@ -65,17 +65,16 @@ async function main() {
 			// Logo uploads are up to 2 MB; adapter-node refuses bodies over 512 kB by default.
 			BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '3M',
 			// The demo runs on the local fakes, on purpose (a real key still switches its fake off).
-			FLUSHLINE_FAKES: process.env.FLUSHLINE_FAKES ?? '1',
-			// glibc gives each thread its own malloc arena; sharp's decoding threads then leave
-			// hundreds of MB of fragments. Two arenas keep a photo-heavy server near its real use.
-			MALLOC_ARENA_MAX: process.env.MALLOC_ARENA_MAX ?? '2'
+			FLUSHLINE_FAKES: process.env.FLUSHLINE_FAKES ?? '1'
 		};
+		// Only the server's: the seed and the build run without the heap cap.
+		const serverEnv = { ...env, ...serverMemoryEnv() };
 		step('Seeding the demo store when the database is empty');
 		run('npx', ['tsx', 'scripts/seed.ts'], { env });
 		step('Building');
 		run('npx', ['vite', 'build', '--logLevel', 'warn'], { env });
 
-		server = spawn(process.execPath, ['build'], { cwd: root, env, stdio: 'inherit' });
+		server = spawn(process.execPath, ['build'], { cwd: root, env: serverEnv, stdio: 'inherit' });
 		const demo = JSON.parse(readFileSync(path.join(root, 'scripts/demo-people.json'), 'utf8'));
 		console.log(`\n  Flushline is on \x1b[1m${origin}\x1b[0m\n`);
 		console.log(`  Demo logins of Tallow Creek Floors (password for all: ${demo.password}):`);

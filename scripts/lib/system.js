@@ -9,6 +9,32 @@ export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '
 
 export const isRoot = typeof process.getuid === 'function' && process.getuid() === 0;
 
+/**
+ * V8's cap on the server's old space, in MB. The cap also sets how far V8 lets the heap grow past
+ * what survived the last full collection before it collects again: up to 4× when the cap is 2 GB
+ * or more (Node's default on a machine with 16 GB or more), 1.3–2× when it is smaller, scaled
+ * between 256 MB and 2 GB (V8, src/heap/heap-controller.cc, `MaxGrowingFactor`). The server keeps
+ * 40–65 MB alive under the bench's load; with the default cap the old space grew to 140–200 MB of
+ * mostly garbage, so the process held 250–360 MB; with 384 MB it stays near 50–60 MB.
+ */
+export const SERVER_HEAP_MB = 384;
+
+/**
+ * The memory settings `node build` runs with (`npm start`, `npm run bench`, the server tests):
+ * glibc's arenas and V8's old-space cap, unless the environment already sets them.
+ */
+export function serverMemoryEnv(env = process.env) {
+	const options = env.NODE_OPTIONS ?? '';
+	return {
+		// glibc gives each thread its own malloc arena; sharp's decoding threads then leave
+		// hundreds of MB of fragments. Two arenas keep a photo-heavy server near its real use.
+		MALLOC_ARENA_MAX: env.MALLOC_ARENA_MAX ?? '2',
+		NODE_OPTIONS: /--max-old-space-size\b/.test(options)
+			? options
+			: `${options} --max-old-space-size=${SERVER_HEAP_MB}`.trim()
+	};
+}
+
 /** Prints a step the way both commands do. */
 export function step(message) {
 	console.log(`\x1b[1m›\x1b[0m ${message}`);

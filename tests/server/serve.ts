@@ -43,13 +43,21 @@ function baseEnv(port: number): NodeJS.ProcessEnv {
 	};
 }
 
+/** The memory settings `npm start` and the bench give `node build` (scripts/lib/system.js). */
+async function memoryEnv(): Promise<Record<string, string>> {
+	const system = (await import(
+		/* @vite-ignore */ pathToFileURL(path.resolve('scripts/lib/system.js')).href
+	)) as { serverMemoryEnv(env: Record<string, string | undefined>): Record<string, string> };
+	return system.serverMemoryEnv({});
+}
+
 /**
  * Starts the build. Resolves once it answers `GET /`, or once it exits (a server that refuses to
  * start): check `exited` and `output()` then.
  */
 export async function serve(slot: number, env: Record<string, string | undefined> = {}) {
 	const port = portFor(slot);
-	const merged = { ...baseEnv(port), ...env };
+	const merged = { ...baseEnv(port), ...(await memoryEnv()), ...env };
 	for (const [k, v] of Object.entries(merged)) if (v === undefined) delete merged[k];
 	const child: ChildProcess = spawn(process.execPath, ['build'], {
 		env: merged,
