@@ -34,13 +34,16 @@ const origin = `http://127.0.0.1:${port}`;
 const store = Number(process.env.BENCH_STORE ?? 1);
 const seconds = Number(process.env.BENCH_SECONDS ?? 10);
 
-const { clusterAt, startCluster, databaseUrl } = await import('../scripts/lib/postgres.js');
+const { clusterAt, startCluster, databaseUrl, migrate, OWNER_ROLE } =
+	await import('../scripts/lib/postgres.js');
 const { serverMemoryEnv } = await import('../scripts/lib/system.js');
 const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_PG_PORT ?? 54322));
 startCluster(cluster);
 const database = process.env.FLUSHLINE_BENCH_DB ?? 'flushline_bench';
 const appUrl = databaseUrl(cluster, 'flushline_app', database);
 const superUrl = databaseUrl(cluster, 'postgres', database);
+// A database seeded before the latest migrations gets them first (as a release step would).
+await migrate(databaseUrl(cluster, OWNER_ROLE, database));
 
 if (!existsSync(path.join(root, 'build/index.js')) || process.env.BENCH_BUILD === '1') {
 	console.log('Building…');

@@ -90,7 +90,13 @@ async function runOnce<T, M extends TxMode>(
 	let result: T;
 	try {
 		await client.query(BEGIN[mode]);
-		await client.query(`select set_config('app.store_id', $1, true)`, [storeId]);
+		// The store for row-level security; and no parallel workers: a store's transaction reads a
+		// page or a few rows, and starting a worker (tens of milliseconds on a busy two-core host)
+		// costs more than any scan here saves (bench/README.md, the installer's today page).
+		await client.query(
+			`select set_config('app.store_id', $1, true), set_config('max_parallel_workers_per_gather', '0', true)`,
+			[storeId]
+		);
 		const tx = drizzle(client, { casing: 'snake_case' }) as unknown as StoreTx<M>;
 		Object.defineProperty(tx, 'storeId', { value: storeId, enumerable: true });
 		internals.set(tx, own);
