@@ -233,7 +233,14 @@ export const job = pgTable(
 	(t) => [
 		index('job_organization_id_idx').on(t.organizationId),
 		index('job_organization_status_idx').on(t.organizationId, t.status),
-		index('job_organization_installer_idx').on(t.organizationId, t.installerId),
+		// An installer's jobs, by last change too (the installer's today page lists them so; an
+		// installer of a large store has tens of thousands to sort otherwise).
+		index('job_organization_installer_updated_idx').on(
+			t.organizationId,
+			t.installerId,
+			t.updatedAt,
+			t.number
+		),
 		index('job_customer_idx').on(t.customerId),
 		// The job list's shapes (bench/README.md): a store's jobs by last change, newest first, and
 		// by customer (sorted by customer, or one customer's). Not by status: under row-level

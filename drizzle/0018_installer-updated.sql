@@ -1,0 +1,2 @@
+DROP INDEX "job_organization_installer_idx";--> statement-breakpoint
+CREATE INDEX "job_organization_installer_updated_idx" ON "job" USING btree ("organization_id","installer_id","updated_at","number");
