@@ -7,7 +7,7 @@ import { and, eq } from 'drizzle-orm';
 import { PHOTO_MAX_BYTES } from '$lib/schemas/field';
 import * as field from '../db/queries/field';
 import { changeOrder } from '../db/schema';
-import { inStore, type StoreTx, type StoreWriteTx } from '../db/tenant';
+import { inStore, readInStore, type StoreTx, type StoreWriteTx } from '../db/tenant';
 import { imageWork } from '../images';
 import { log } from '../log';
 import { storage, type StoredFile } from '../storage';
@@ -97,12 +97,15 @@ export interface PhotoMeta {
 	takenAt: Date | null;
 }
 
+/** The folder of the store's photos in the file store. */
+const photosOf = (storeId: string) => `${storeId}/photos/`;
+
 /** Where a photo's files go: under the store's folder, named by a fresh id. */
 function keysFor(storeId: string, jobId: string) {
 	const name = crypto.randomUUID();
 	return {
-		fileKey: `${storeId}/photos/${jobId}/${name}.jpg`,
-		thumbKey: `${storeId}/photos/${jobId}/${name}-thumb.jpg`
+		fileKey: `${photosOf(storeId)}${jobId}/${name}.jpg`,
+		thumbKey: `${photosOf(storeId)}${jobId}/${name}-thumb.jpg`
 	};
 }
 
@@ -153,10 +156,10 @@ export async function checkPhotoFiles(
 	storeId: string,
 	files: { clientId: string; fileKey: string; thumbKey: string }
 ): Promise<'kept' | 'removed'> {
-	const photo = await inStore(storeId, (tx) => field.readPhotoByClientId(tx, files.clientId));
+	const photo = await readInStore(storeId, (tx) => field.readPhotoByClientId(tx, files.clientId));
 	if (photo && photo.fileKey === files.fileKey && photo.thumbKey === files.thumbKey) return 'kept';
 	for (const key of [files.fileKey, files.thumbKey]) {
-		if (!key.startsWith(`${storeId}/photos/`)) throw new Error(`Not this store's photo: ${key}`);
+		if (!key.startsWith(photosOf(storeId))) throw new Error(`Not this store's photo: ${key}`);
 		await storage().delete(key);
 	}
 	return 'removed';

@@ -100,6 +100,9 @@ export const COUNT_CAP = 1000;
  */
 export const SEARCH_WINDOW = 2000;
 
+/** The jobs of these ids, as one array parameter (one statement text for any number of ids). */
+const idIn = (ids: string[]) => sql`${job.id} = any(${sql.param(ids)}::text[])`;
+
 type ListQuery = JobListQuery & { customerId?: string; salespersonId?: string };
 type Page = { rows: JobRow[]; total: number; totalCapped: boolean };
 
@@ -143,9 +146,7 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		const ids = page.rows.map((r) => r.id);
 		const rows = ids.length
 			? await selectJobs(tx)
-					.where(
-						and(eq(job.organizationId, tx.storeId), sql`${job.id} = any(${sql.param(ids)}::text[])`)
-					)
+					.where(and(eq(job.organizationId, tx.storeId), idIn(ids)))
 					.orderBy(...orderBy)
 			: [];
 		// No row on a page past the end says nothing of how many there are: counted below.
@@ -203,10 +204,7 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		)
 	).rows.map((r) => r.id);
 	if (ids.length <= COUNT_CAP) {
-		const byIds = or(
-			sql`${job.id} = any(${sql.param(ids)}::text[])`,
-			asNumber ? eq(job.number, Number(asNumber)) : undefined
-		) as SQL;
+		const byIds = or(idIn(ids), asNumber ? eq(job.number, Number(asNumber)) : undefined) as SQL;
 		// The number may be one more job: then it is counted.
 		const known = narrowed || asNumber ? undefined : ids.length;
 		return pageOf(tx, and(...filters, byIds), orderBy, offset, query.pageSize, known);
