@@ -10,10 +10,11 @@
  *   BENCH_STORE (1)  the seeded store to sign in to (1000: the big one)
  *   FLUSHLINE_BENCH_DB (flushline_bench)  the database   BENCH_SECONDS (10)  length of each run            BENCH_SKIP_BROWSER=1  no Chromium figures
  *   BENCH_ONLY  a comma-separated list of parts of route names to run (with the baseline)
+ *   BENCH_NODE_ARGS  extra flags for the server's node (a CPU profile: `--cpu-prof --cpu-prof-dir=…`)
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
 import autocannon from 'autocannon';
@@ -56,7 +57,9 @@ if (!existsSync(path.join(root, 'build/index.js')) || process.env.BENCH_BUILD ==
 
 // From here, not from the script's start: a build (BENCH_BUILD=1) is not the server's start-up.
 const started = performance.now();
-const server = spawn(process.execPath, ['build'], {
+// BENCH_NODE_ARGS: extra flags for the server's node, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof`.
+const nodeArgs = process.env.BENCH_NODE_ARGS?.split(' ').filter(Boolean) ?? [];
+const server = spawn(process.execPath, [...nodeArgs, 'build'], {
 	cwd: root,
 	env: {
 		...process.env,
@@ -282,6 +285,9 @@ interface Figures {
 	p99At50: number;
 	errors: number;
 	statuses: string;
+	/** CPU ms per request at 10 connections: the server's process, and PostgreSQL's. */
+	serverMs?: number;
+	postgresMs?: number;
 }
 
 function run(
@@ -363,11 +369,43 @@ async function steady(t: Target, rate: number, duration = seconds) {
 await run({ ...targets[0] }, 5);
 for (const t of targets.slice(1)) await run(t, 1);
 
+/**
+ * CPU time (ms) used so far by the server's process and by the cluster's processes (the
+ * postmaster's children: the pool's backends among them), from /proc: where a route's time goes.
+ */
+function cpuNow(): { server: number; postgres: number } {
+	const ticks = (pid: number | string) => {
+		try {
+			const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+			return { ppid: Number(fields[1]), cpu: (Number(fields[11]) + Number(fields[12])) * 10 };
+		} catch {
+			return { ppid: 0, cpu: 0 };
+		}
+	};
+	let postgres = 0;
+	try {
+		const master = Number(
+			readFileSync(path.join(cluster.dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]
+		);
+		for (const pid of readdirSync('/proc').filter((p) => /^\d+$/.test(p))) {
+			const t = ticks(pid);
+			if (t.ppid === master) postgres += t.cpu;
+		}
+	} catch {
+		/* no figure */
+	}
+	return { server: ticks(server.pid!).cpu, postgres };
+}
+
 const results = new Map<string, Figures>();
 for (const t of targets) {
+	const before = cpuNow();
 	const full = await run(t);
+	const after = cpuNow();
 	const at50 = await steady(t, 50);
 	results.set(t.name, {
+		serverMs: (after.server - before.server) / Math.max(1, full.requests.total),
+		postgresMs: (after.postgres - before.postgres) / Math.max(1, full.requests.total),
 		rps: full.requests.average,
 		p50: full.latency.p50,
 		p99: full.latency.p99,
@@ -381,10 +419,14 @@ for (const t of targets) {
 // ratios are read against the mean of the two.
 {
 	const t = targets[0];
+	const before = cpuNow();
 	const full = await run(t);
+	const after = cpuNow();
 	const at50 = await steady(t, 50);
 	const first = results.get(t.name)!;
 	results.set('baseline, again at the end', {
+		serverMs: (after.server - before.server) / Math.max(1, full.requests.total),
+		postgresMs: (after.postgres - before.postgres) / Math.max(1, full.requests.total),
 		rps: full.requests.average,
 		p50: full.latency.p50,
 		p99: full.latency.p99,
@@ -419,11 +461,11 @@ console.log(
 );
 // `p99@50 ×`: the route's p99 at a steady 50 requests/s over the baseline's at the same rate.
 console.log(
-	`${'route'.padEnd(38)} ${'req/s'.padStart(7)} ${'× base'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'p99@50'.padStart(7)} ${'p99@50 ×'.padStart(9)}  statuses`
+	`${'route'.padEnd(38)} ${'req/s'.padStart(7)} ${'× base'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'p99@50'.padStart(7)} ${'p99@50 ×'.padStart(9)} ${'cpu ms: app'.padStart(11)} ${'pg'.padStart(5)}  statuses`
 );
 for (const [name, f] of results) {
 	console.log(
-		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${f.p99At50.toFixed(1).padStart(7)} ${(f.p99At50 / base.p99At50).toFixed(2).padStart(9)}  ${f.statuses}`
+		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${f.p99At50.toFixed(1).padStart(7)} ${(f.p99At50 / base.p99At50).toFixed(2).padStart(9)} ${(f.serverMs?.toFixed(2) ?? '').padStart(11)} ${(f.postgresMs?.toFixed(2) ?? '').padStart(5)}  ${f.statuses}`
 	);
 }
 console.log(`\nserver peak memory (VmHWM): ${hwm.toFixed(0)} MB`);
