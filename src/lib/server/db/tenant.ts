@@ -89,13 +89,13 @@ async function runOnce<T, M extends TxMode>(
 	let broken: Error | undefined;
 	let result: T;
 	try {
-		await client.query(BEGIN[mode]);
 		// The store for row-level security; and no parallel workers: a store's transaction reads a
 		// page or a few rows, and starting a worker (tens of milliseconds on a busy two-core host)
-		// costs more than any scan here saves (bench/README.md, the installer's today page).
+		// costs more than any scan here saves (bench/README.md, the installer's today page). Sent
+		// with BEGIN as one simple query, one round trip for both: the id is therefore quoted as a
+		// literal (pg's escapeLiteral), not sent as a parameter, which a simple query cannot carry.
 		await client.query(
-			`select set_config('app.store_id', $1, true), set_config('max_parallel_workers_per_gather', '0', true)`,
-			[storeId]
+			`${BEGIN[mode]}; select set_config('app.store_id', ${client.escapeLiteral(storeId)}, true), set_config('max_parallel_workers_per_gather', '0', true)`
 		);
 		const tx = drizzle(client, { casing: 'snake_case' }) as unknown as StoreTx<M>;
 		Object.defineProperty(tx, 'storeId', { value: storeId, enumerable: true });
