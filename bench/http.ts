@@ -339,6 +339,11 @@ function run(
 	});
 }
 
+// At the steady rate, answers that were not 2xx (a photo queue that is full answers 503) are not
+// timed: how many there were.
+const steadyText = (s: { count: number; other: number }) =>
+	s.other ? `; at 50/s 2xx:${s.count} other:${s.other}` : '';
+
 const statusText = (r: autocannon.Result) =>
 	(['1xx', '2xx', '3xx', '4xx', '5xx'] as const)
 		.filter((k) => r[k] > 0)
@@ -433,7 +438,7 @@ for (const t of targets) {
 		p99: full.latency.p99,
 		p99At50: at50.p99,
 		errors: full.errors + full.timeouts + full.non2xx,
-		statuses: statusText(full)
+		statuses: statusText(full) + steadyText(at50)
 	});
 	process.stderr.write('.');
 }
@@ -454,7 +459,7 @@ for (const t of targets) {
 		p99: full.latency.p99,
 		p99At50: at50.p99,
 		errors: full.errors + full.timeouts + full.non2xx,
-		statuses: statusText(full)
+		statuses: statusText(full) + steadyText(at50)
 	});
 	results.set('baseline: mean of the two', {
 		rps: (first.rps + full.requests.average) / 2,

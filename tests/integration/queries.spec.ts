@@ -199,7 +199,14 @@ describe('jobs across stores', () => {
 			totalCapped: true
 		});
 		const byCustomer = await find({ q: 'lot', sort: 'customer', dir: 'asc', pageSize: 5 });
-		expect(byCustomer.numbers).toEqual(desc(6100, 5, 10));
+		// Sorted by customer too, a page among the first rows is that page: Greta Oakhurst's first.
+		expect(byCustomer).toEqual({ numbers: desc(6100, 5, 10), total: 5, totalCapped: true });
+		// Not a page there: the function sorts every match by name and counts them.
+		expect(await find({ q: 'maple', sort: 'customer', dir: 'asc' })).toEqual({
+			numbers: desc(6007, 11, 100),
+			total: 11,
+			totalCapped: false
+		});
 		expect(await find({ q: 'lot', status: 'draft', pageSize: 5 })).toMatchObject({
 			total: 5,
 			totalCapped: true

@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { IMAGE_CONCURRENCY, imageWork } from './images';
+import {
+	IMAGE_CONCURRENCY,
+	IMAGE_WAITING_LIMIT,
+	imageWork,
+	ImagesBusy,
+	imagesBusy
+} from './images';
 
 describe('imageWork', () => {
 	it('runs at most IMAGE_CONCURRENCY at once and every piece of work once', async () => {
@@ -26,5 +32,30 @@ describe('imageWork', () => {
 			'broken image'
 		);
 		await expect(imageWork(async () => 'next')).resolves.toBe('next');
+	});
+
+	it('refuses new work while IMAGE_WAITING_LIMIT images wait, and takes it again after', async () => {
+		let release!: () => void;
+		const gate = new Promise<void>((r) => (release = r));
+		let ran = 0;
+		const held = Array.from({ length: IMAGE_CONCURRENCY + IMAGE_WAITING_LIMIT }, () =>
+			imageWork(async () => {
+				ran++;
+				await gate;
+			})
+		);
+		expect(imagesBusy()).toBe(true);
+		let refusedRan = false;
+		await expect(
+			imageWork(async () => {
+				refusedRan = true;
+			})
+		).rejects.toBeInstanceOf(ImagesBusy);
+		release();
+		await Promise.all(held);
+		expect(ran).toBe(IMAGE_CONCURRENCY + IMAGE_WAITING_LIMIT);
+		expect(refusedRan).toBe(false);
+		expect(imagesBusy()).toBe(false);
+		await expect(imageWork(async () => 'after')).resolves.toBe('after');
 	});
 });

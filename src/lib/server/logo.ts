@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import sharp from 'sharp';
 import { readProfile, saveLogoKey } from './db/queries/stores';
-import { imageWork } from './images';
+import { imageWork, ImagesBusy } from './images';
 import { inStore, type StoreTx } from './db/tenant';
 import { storage, type Storage, type StoredFile } from './storage';
 
@@ -44,7 +44,10 @@ export async function prepareLogo(bytes: Buffer): Promise<LogoResult> {
 				: image.jpeg({ quality: 85, mozjpeg: true }).toBuffer();
 		});
 		return { ok: true, bytes: out, type: format === 'png' ? 'image/png' : 'image/jpeg' };
-	} catch {
+	} catch (err) {
+		if (err instanceof ImagesBusy) {
+			return { ok: false, message: 'The server is busy with other images: try again in a moment' };
+		}
 		return { ok: false, message: 'The image could not be read: it may be damaged' };
 	}
 }

@@ -8,12 +8,15 @@ import { PHOTO_MAX_BYTES } from '$lib/schemas/field';
 import * as field from '../db/queries/field';
 import { changeOrder } from '../db/schema';
 import { inStore, readInStore, type StoreTx, type StoreWriteTx } from '../db/tenant';
-import { imageWork } from '../images';
+import { imageWork, ImagesBusy } from '../images';
 import { log } from '../log';
 import { storage, type StoredFile } from '../storage';
 import { enqueue } from '../tasks';
 
 export { PHOTO_MAX_BYTES };
+
+/** The answer while the image queue is full: the phone keeps the photo and sends it again. */
+export const BUSY = 'The server is busy with other photos: this one will be sent again shortly.';
 
 /** What the server takes, by content. HEIC is not among them: the phone sends JPEG. */
 const ACCEPTED = new Set(['image/jpeg', 'image/png', 'image/webp']);
@@ -24,7 +27,7 @@ const THUMB_SIDE = 360;
 /** Pixels sharp will decode at most (a "decompression bomb" is refused). */
 const MAX_PIXELS = 60_000_000;
 
-export type PhotoRefusal = { ok: false; status: 400 | 413 | 415; message: string };
+export type PhotoRefusal = { ok: false; status: 400 | 413 | 415 | 503; message: string };
 
 export interface ProcessedPhoto {
 	ok: true;
@@ -79,6 +82,7 @@ export async function processPhoto(bytes: Uint8Array): Promise<ProcessedPhoto | 
 		});
 		return { ok: true, image, thumb, width: info.width, height: info.height };
 	} catch (err) {
+		if (err instanceof ImagesBusy) return { ok: false, status: 503, message: BUSY };
 		log.info({ err: String(err) }, 'photo refused: not decodable');
 		return {
 			ok: false,

@@ -1,6 +1,7 @@
 import { endpoint } from '$lib/server/api';
 import { inStore } from '$lib/server/db/tenant';
-import { processPhoto, putPhotoFiles, savePhoto } from '$lib/server/field/photos';
+import { BUSY, processPhoto, putPhotoFiles, savePhoto } from '$lib/server/field/photos';
+import { imagesBusy } from '$lib/server/images';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { canComplete, canReport } from '$lib/jobs/status';
@@ -21,6 +22,9 @@ function refuse(status: number, message: string, issues: { path: string; message
 export const POST: RequestHandler = endpoint(async ({ params, request }) => {
 	const member = requirePermission({ assignedJob: ['report'] });
 	await requireJob(member, params.id);
+	// A full image queue answers before the body is read: waiting uploads would hold it in memory.
+	if (imagesBusy())
+		return json({ message: BUSY }, { status: 503, headers: { 'retry-after': '5' } });
 	if (!request.headers.get('content-type')?.includes('multipart/form-data')) {
 		return refuse(415, 'Send the photo as multipart/form-data with a "file" field');
 	}
@@ -45,6 +49,9 @@ export const POST: RequestHandler = endpoint(async ({ params, request }) => {
 	}
 	const meta = parsed.data;
 	const processed = await processPhoto(new Uint8Array(await file.arrayBuffer()));
+	if (!processed.ok && processed.status === 503) {
+		return json({ message: BUSY }, { status: 503, headers: { 'retry-after': '5' } });
+	}
 	if (!processed.ok) {
 		return refuse(processed.status, processed.message, [
 			{ path: 'file', message: processed.message }
