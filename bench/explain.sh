@@ -44,9 +44,9 @@ if [ "$SHAPE" = new ]; then
 	# trigram indexes (`list` in queries/jobs.ts).
 	# The customer's phone and the people's names are per-row subqueries (planned in about half
 	# the time of the joins); a first page carries its capped count (`firstpage`).
-	SEL17="select j.id, j.number, j.title, j.status, j.customer_id, j.customer_name, (select c.phone from customer c where c.id = j.customer_id and c.organization_id = j.organization_id), j.site_id, j.installer_id, (select u.name from \"user\" u where u.id = j.installer_id), j.salesperson_id, (select u.name from \"user\" u where u.id = j.salesperson_id), j.notes, j.status_changed_at, j.updated_at, j.created_at"
-	firstpage() { echo "$SEL17, (select count(*)::int from (select 1 from job where $1 limit 1001) counted) from job j where $1 order by $2 limit 50"; }
-	SEL17="$SEL17 from job j"
+	COLS17="select j.id, j.number, j.title, j.status, j.customer_id, j.customer_name, (select c.phone from customer c where c.id = j.customer_id and c.organization_id = j.organization_id), j.site_id, j.installer_id, (select u.name from \"user\" u where u.id = j.installer_id), j.salesperson_id, (select u.name from \"user\" u where u.id = j.salesperson_id), j.notes, j.status_changed_at, j.updated_at, j.created_at"
+	firstpage() { echo "$COLS17, (select count(*)::int from (select 1 from job where $1 limit 1001) counted) from job j where $1 order by $2 limit 50"; }
+	SEL17="$COLS17 from job j"
 	capped() { echo "select count(*) from (select 1 from job j where $1 limit $(($2 + 1001))) counted"; }
 	# window <sort column> <asc|desc> <text>: the page and one more match among the first 2,000 rows.
 	window() { echo "$SEL17 where j.organization_id = '$S' and j.id in (select w.id from (select id, title, customer_name, number, $1 as sort_key from job where organization_id = '$S' order by $1 $2, number desc limit 2000) w where (w.title ilike '%$3%' or w.customer_name ilike '%$3%') order by w.sort_key $2, w.number desc limit 51) order by j.$1 $2, j.number desc"; }
