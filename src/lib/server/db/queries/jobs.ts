@@ -263,7 +263,10 @@ async function pageOf(
 		return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
 	}
 	// A later page skips its offset on `job` alone, then reads its people for the page's rows:
-	// not for every row skipped.
+	// not for every row skipped. It skips by the job's number, not its id: the number is unique in
+	// the store and ends the indexes of the sorts by number, last change and customer, so the
+	// skipping reads the index alone, not the rows (a page 5,000 into the big store's sold jobs:
+	// 42 ms by id, 1.2 ms by number; bench/README.md).
 	const rows = offset
 		? await runNamed(
 				selectJobs(tx)
@@ -271,9 +274,9 @@ async function pageOf(
 						and(
 							eq(job.organizationId, tx.storeId),
 							inArray(
-								job.id,
+								job.number,
 								tx
-									.select({ id: job.id })
+									.select({ number: job.number })
 									.from(job)
 									.where(where)
 									.orderBy(...orderBy)
