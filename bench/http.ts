@@ -424,6 +424,18 @@ function cpuNow(): { server: number; postgres: number } {
 	return { server: ticks(server.pid!).cpu, postgres };
 }
 
+/** The CPU each side spent per request between two readings of `cpuNow()`. */
+function cpuPerRequest(
+	before: ReturnType<typeof cpuNow>,
+	after: ReturnType<typeof cpuNow>,
+	requests: number
+) {
+	return {
+		serverMs: (after.server - before.server) / Math.max(1, requests),
+		postgresMs: (after.postgres - before.postgres) / Math.max(1, requests)
+	};
+}
+
 const results = new Map<string, Figures>();
 for (const t of targets) {
 	const before = cpuNow();
@@ -431,8 +443,7 @@ for (const t of targets) {
 	const after = cpuNow();
 	const at50 = await steady(t, 50);
 	results.set(t.name, {
-		serverMs: (after.server - before.server) / Math.max(1, full.requests.total),
-		postgresMs: (after.postgres - before.postgres) / Math.max(1, full.requests.total),
+		...cpuPerRequest(before, after, full.requests.total),
 		rps: full.requests.average,
 		p50: full.latency.p50,
 		p99: full.latency.p99,
@@ -452,8 +463,7 @@ for (const t of targets) {
 	const at50 = await steady(t, 50);
 	const first = results.get(t.name)!;
 	results.set('baseline, again at the end', {
-		serverMs: (after.server - before.server) / Math.max(1, full.requests.total),
-		postgresMs: (after.postgres - before.postgres) / Math.max(1, full.requests.total),
+		...cpuPerRequest(before, after, full.requests.total),
 		rps: full.requests.average,
 		p50: full.latency.p50,
 		p99: full.latency.p99,

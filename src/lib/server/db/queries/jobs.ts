@@ -79,9 +79,9 @@ const sortColumns = {
  * The job columns every view uses, with the customer's phone and the people's names. These are
  * looked up per row (a subquery each, written out in full: drizzle leaves out the table's name
  * when a query reads one table, and the lookups' own columns would then be taken for `job`'s),
- * not joined: the planner then has one table to order, not
- * four, and a page of the list planned in under half the time (bench/README.md); the lookups run
- * for the page's rows only. Every job has its store's customer (`job_customer_same_store_fk`).
+ * not joined: the planner then has one table to order, not four, and a page of the list planned
+ * in under half the time (bench/README.md); the lookups run for the page's rows only. Every job
+ * has its store's customer (`job_customer_same_store_fk`).
  */
 function selectJobs(tx: StoreTx) {
 	return tx.select(jobColumns).from(job);
