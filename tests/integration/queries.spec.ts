@@ -279,6 +279,91 @@ describe('jobs across stores', () => {
 		expect(there?.customerName).toBe('Bo Elsewhere');
 	});
 
+	// Migration 0019: sorted by customer, a search walks the names holding its rarest trigram.
+	it('finds a search sorted by customer by walking names, as sorting every match would', async () => {
+		const store = await makeStore('Walking Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const names = ['Zed Birch', 'Hana Oakes', 'ann lee', 'Hana Oakes', 'Bo Young', 'Cy Oak-Hall'];
+		const titles = ['Oak hardwood, living room', 'Tile in the bath', 'Vinyl plank kitchen'];
+		for (const [i, name] of names.entries()) {
+			const c = await makeCustomer(store.id, name);
+			await inStore(store.id, async (tx) => {
+				for (let k = 0; k < 4; k++)
+					await jobs.create(
+						tx,
+						{ customerId: c.id, title: titles[(i + k) % titles.length] },
+						store.owner.id
+					);
+			});
+		}
+		// A title changed after the job was made: its new words are found too.
+		const [retitled] = (
+			await inStore(store.id, (tx) => jobs.list(tx, { ...jobPage, q: 'bo young' }, staff))
+		).rows;
+		await inStore(store.id, (tx) => jobs.update(tx, retitled.id, { title: 'Cork in the den' }));
+
+		const walk = (words: string, budget = 5000) =>
+			inStore(store.id, async (tx) => {
+				const pattern = `%${words}%`;
+				const { rows } = await tx.execute<{ ids: string[] | null; matches: number | null }>(
+					sql`select w.ids, w.matches from job_search_by_name_walk(${words}, ${pattern}, false, 100, 0, ${budget}) as w`
+				);
+				return rows[0];
+			});
+		// Every job of every name sorted by name, newest first within one: the list's order.
+		const expected = (words: string, descending: boolean) =>
+			inStore(store.id, async (tx) => {
+				const { rows } = await tx.execute<{ id: string }>(
+					sql`select id from job where title ilike ${`%${words}%`} or customer_name ilike ${`%${words}%`}
+					    order by customer_name ${sql.raw(descending ? 'desc' : 'asc')}, number desc`
+				);
+				return rows.map((r) => r.id);
+			});
+		for (const words of [
+			'oak',
+			'hana oak',
+			'OAK-HALL',
+			'in the',
+			'cork',
+			'ann',
+			'lee',
+			'zzz',
+			'ee'
+		]) {
+			for (const dir of ['asc', 'desc'] as const) {
+				const want = await expected(words, dir === 'desc');
+				const got: string[] = [];
+				for (let pageNo = 1; pageNo <= 30; pageNo++) {
+					const found = await inStore(store.id, (tx) =>
+						jobs.list(tx, { q: words, sort: 'customer', dir, page: pageNo, pageSize: 5 }, staff)
+					);
+					got.push(...found.rows.map((r) => r.id));
+					if (found.totalCapped) expect(found.total, words).toBe(got.length);
+					else expect(found.total, `${words} ${dir} page ${pageNo}`).toBe(want.length);
+					if (found.rows.length < 5) break;
+				}
+				expect(got, `${words} ${dir}`).toEqual(want);
+			}
+		}
+		expect(await expected('cork', false)).toEqual([retitled.id]);
+		// The walk itself answered (not the full sort) where the text has a trigram inside a word.
+		expect((await walk('oak'))?.ids).toEqual(await expected('oak', false));
+		expect((await walk('cork'))?.ids).toEqual([retitled.id]);
+		expect((await walk('cork'))?.matches).toBe(1);
+		// Nothing to walk (no trigram inside a word), or read past its budget: the caller sorts all.
+		expect((await walk('ee'))?.ids).toBeNull();
+		expect((await walk('oak', 1))?.ids).toBeNull();
+		// Another store's names are not walked.
+		expect(
+			await inStore(a.id, async (tx) => {
+				const { rows } = await tx.execute<{ ids: string[] | null }>(
+					sql`select w.ids from job_search_by_name_walk('oak', '%oak%', false, 100, 0, 5000) as w`
+				);
+				return rows[0]?.ids;
+			})
+		).toEqual([]);
+	});
+
 	it('numbers jobs per store from 1001', async () => {
 		const store = await makeStore('Numbering Floors');
 		const first = await makeJob(store.id, store.owner.id);

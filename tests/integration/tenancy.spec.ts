@@ -212,10 +212,11 @@ describe('the job search function', () => {
 			        r.rolsuper, pg_has_role(current_user, r.oid, 'member') as app_is_member,
 			        (select count(*)::int from pg_tables t where t.tableowner = r.rolname) as owns
 			 from pg_proc p join pg_roles r on r.oid = p.proowner
-			 where p.proname = 'job_search_ids'`
+			 where p.proname in ('job_search_ids', 'job_search_by_customer', 'job_search_by_name_walk')`
 		);
-		expect(rows).toEqual([
-			{
+		expect(rows).toHaveLength(3);
+		expect(rows).toEqual(
+			Array(3).fill({
 				prosecdef: true,
 				owner: 'flushline_search',
 				rolcanlogin: false,
@@ -223,14 +224,14 @@ describe('the job search function', () => {
 				rolsuper: false,
 				app_is_member: false,
 				owns: 0
-			}
-		]);
+			})
+		);
 		await expect(asStore(a.id, (c) => c.query(`set role flushline_search`))).rejects.toThrow(
 			/permission denied/
 		);
 	});
 
-	it('gives its role nothing to read but the searched columns of jobs and customers', async () => {
+	it("gives its role nothing to write, and nothing to read but jobs' searched columns and names' trigrams", async () => {
 		const { rows } = await pool.query<{ col: string }>(
 			`select c.relname || '.' || a.attname as col
 			 from pg_class c join pg_attribute a on a.attrelid = c.oid
@@ -249,7 +250,10 @@ describe('the job search function', () => {
 			'job.id',
 			'job.number',
 			'job.organization_id',
-			'job.title'
+			'job.title',
+			'job_name_trigram.customer_name',
+			'job_name_trigram.organization_id',
+			'job_name_trigram.trigram'
 		]);
 	});
 

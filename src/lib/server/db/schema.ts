@@ -278,6 +278,24 @@ export const job = pgTable(
 ).enableRLS();
 
 /**
+ * Which of a store's customer names have a job whose title or name holds a trigram (pg_trgm's,
+ * lower case, inside one word): the job list's search sorted by customer walks one trigram's names
+ * in name order and tests only those names' jobs, so a page of a common word is found without
+ * reading and sorting every match (migration 0019). Kept by triggers on `job`, never by the app;
+ * a name or title changed away leaves its old rows behind, which only cost a look at jobs that no
+ * longer match.
+ */
+export const jobNameTrigram = pgTable(
+	'job_name_trigram',
+	{
+		organizationId: storeId(),
+		trigram: text('trigram').notNull(),
+		customerName: text('customer_name').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.organizationId, t.trigram, t.customerName] }), storeIsolation]
+).enableRLS();
+
+/**
  * The last job number a store gave. Numbers are never given twice, even after a job is deleted:
  * the next job takes this plus one (the row lock serialises two people creating at once).
  */

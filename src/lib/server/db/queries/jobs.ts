@@ -148,10 +148,41 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
 	const narrowed = filters.length > 2 || viewer.kind !== 'store';
 
+	// Sorted by customer, the store's whole list: the names holding the searched text's rarest
+	// trigram are walked in name order, each name's jobs tested (migration 0019), so a page is found
+	// after a few names wherever the matches sit in the order. Where the walk does not apply, or
+	// reads too far, the steps below.
+	const byNames = query.sort === 'customer' && !narrowed && !asNumber && offset <= 10_000;
+	if (byNames) {
+		const walked = await walkNames(
+			tx,
+			query.q,
+			pattern,
+			query.dir === 'desc',
+			offset,
+			query.pageSize
+		);
+		if (walked) {
+			const ids = walked.ids.slice(0, query.pageSize);
+			const rows = ids.length
+				? await selectJobs(tx)
+						.where(and(eq(job.organizationId, tx.storeId), idIn(ids)))
+						.orderBy(...orderBy)
+				: [];
+			if (walked.matches === null)
+				return { rows, total: offset + query.pageSize, totalCapped: true };
+			const upTo = offset + COUNT_CAP;
+			return {
+				rows,
+				total: Math.min(walked.matches, upTo),
+				totalCapped: walked.matches > upTo
+			};
+		}
+	}
+
 	// 1. The list's first SEARCH_WINDOW rows in its order, tested row by row: a page and one more
 	// match among them is the page, and says that more match (not how many: counting them would
-	// read on through the store). Sorted by customer too: a word common in jobs' titles ("oak")
-	// matches all through the names' order, and a page of it is found in the first rows.
+	// read on through the store). Sorted by customer too, when the walk above did not apply.
 	if (offset + query.pageSize < SEARCH_WINDOW) {
 		const w = tx
 			.select({
@@ -187,11 +218,10 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		}
 	}
 
-	// 2. Sorted by customer, matches that are not in the first rows sit together in name order (all
-	// of a matching customer's jobs), far from the start: the trigram indexes find them all, and
-	// the function sorts them and hands over one page of ids with how many there are (migration
-	// 0017).
-	if (query.sort === 'customer' && !narrowed && !asNumber && offset <= 10_000) {
+	// 2. Sorted by customer, matches that the walk did not reach sit together in name order (all of a
+	// matching customer's jobs), far from the start: the trigram indexes find them all, and the
+	// function sorts them and hands over one page of ids with how many there are (migration 0017).
+	if (byNames) {
 		const page = await tx.execute<{ id: string; matches: string }>(
 			sql`select s.id, s.matches from job_search_by_customer(${pattern}, ${query.dir === 'desc'}, ${query.pageSize}, ${offset}) as s`
 		);
@@ -227,6 +257,36 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 	const where = and(...filters, found(job.title, job.customerName, job.number));
 	const known = !narrowed && offset === 0 ? COUNT_CAP + 1 : undefined;
 	return pageOf(tx, where, orderBy, offset, query.pageSize, known);
+}
+
+/**
+ * How many jobs the walk of names (`job_search_by_name_walk`, migration 0019) may read before it
+ * gives up and every match is read and sorted instead: about 5 ms of its time.
+ */
+export const WALK_BUDGET = 5000;
+
+/**
+ * Sorted by customer, a page of a search found by walking the names that hold the searched text's
+ * rarest trigram, in name order (migration 0019): `ids` of the page and one more, and how many
+ * match in all when the walk read every candidate (null: at least the page and one more).
+ * Undefined when the walk does not apply (the text has no trigram inside a word, or is not plain
+ * ASCII, where pg_trgm's and `ilike`'s lower case might differ) or read more than WALK_BUDGET jobs.
+ */
+async function walkNames(
+	tx: StoreTx,
+	words: string,
+	pattern: string,
+	descending: boolean,
+	offset: number,
+	pageSize: number
+): Promise<{ ids: string[]; matches: number | null } | undefined> {
+	if (!/^[\x20-\x7e]+$/.test(words)) return undefined;
+	const { rows } = await tx.execute<{ ids: string[] | null; matches: number | null }>(
+		sql`select w.ids, w.matches from job_search_by_name_walk(${words}, ${pattern}, ${descending}, ${pageSize + 1}, ${offset}, ${WALK_BUDGET}) as w`
+	);
+	const walked = rows[0];
+	if (!walked?.ids) return undefined;
+	return { ids: walked.ids, matches: walked.matches };
 }
 
 /**
