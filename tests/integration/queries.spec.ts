@@ -15,6 +15,7 @@ import {
 	type TestStore
 } from './factories';
 import { jobScope } from '$lib/server/object-access';
+import { runShape } from '$lib/server/db/named';
 import { grantsOf } from '$lib/server/permissions';
 
 const page = { q: null, sort: 'name', dir: 'asc', page: 1, pageSize: 100 } as const;
@@ -362,6 +363,51 @@ describe('jobs across stores', () => {
 				return rows[0]?.ids;
 			})
 		).toEqual([]);
+	});
+
+	it('runs a statement built once per shape, in each transaction, and checks the shape', async () => {
+		const numbers = (limit: number, shape = 'test numbers') =>
+			inStore(b.id, (tx) =>
+				runShape(
+					tx,
+					shape,
+					() =>
+						tx
+							.select({ n: jobTable.number })
+							.from(jobTable)
+							.where(eq(jobTable.organizationId, sql.placeholder('store')))
+							.limit(sql.placeholder('limit')),
+					{ store: b.id, limit }
+				)
+			);
+		const all = await inStore(b.id, (tx) =>
+			jobs.list(tx, jobPage, jobScope(grantsOf('owner'), b.owner.id))
+		);
+		expect(all.rows.length).toBeGreaterThan(1);
+		expect(await numbers(1)).toHaveLength(1);
+		// Built once, then run with other values in another transaction (another store's too).
+		expect(await numbers(100)).toHaveLength(all.rows.length);
+		expect(
+			await inStore(a.id, (tx) =>
+				runShape(
+					tx,
+					'test numbers',
+					() =>
+						tx
+							.select({ n: jobTable.number })
+							.from(jobTable)
+							.where(eq(jobTable.organizationId, sql.placeholder('store')))
+							.limit(sql.placeholder('limit')),
+					{ store: b.id, limit: 5 }
+				)
+			)
+		).toEqual([]);
+		// A shape whose builder makes another text is a mistake in the caller: refused under test.
+		await expect(
+			inStore(b.id, (tx) =>
+				runShape(tx, 'test numbers', () => tx.select({ n: jobTable.number }).from(jobTable), {})
+			)
+		).rejects.toThrow(/names two different queries/);
 	});
 
 	it('numbers jobs per store from 1001', async () => {

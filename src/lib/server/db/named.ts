@@ -1,8 +1,20 @@
 import { createHash } from 'node:crypto';
+import { clientOf, type StoreTx } from './tenant';
+
+type Values = Record<string, unknown>;
+
+interface Prepared<R> {
+	execute(values?: Values): Promise<R>;
+}
 
 interface Preparable<R> {
 	toSQL(): { sql: string };
-	prepare(name: string): { execute(): Promise<R> };
+	prepare(name: string): Prepared<R>;
+}
+
+/** A prepared statement's name: from its SQL text, so one text is parsed once per connection. */
+function nameOf(text: string): string {
+	return `q_${createHash('sha1').update(text).digest('hex').slice(0, 24)}`;
 }
 
 /**
@@ -10,9 +22,43 @@ interface Preparable<R> {
  * parses it once, and PostgreSQL may then keep one generic plan instead of planning the query
  * again on every request (the job list's joins took longer to plan than to run; bench/README.md).
  * Only for queries whose text comes from a bounded set of shapes, every value a parameter: each
- * distinct text stays prepared on each connection for the connection's life.
+ * distinct text stays prepared on each connection for the connection's life. `values` fill the
+ * query's placeholders (`sql.placeholder`), if it has any.
  */
-export function runNamed<R>(query: Preparable<R>): Promise<R> {
-	const name = `q_${createHash('sha1').update(query.toSQL().sql).digest('hex').slice(0, 24)}`;
-	return query.prepare(name).execute();
+export function runNamed<R>(query: Preparable<R>, values?: Values): Promise<R> {
+	return query.prepare(nameOf(query.toSQL().sql)).execute(values);
+}
+
+/** Statements built once, by the shape that names them (a bounded set: SHAPE_LIMIT is a guard). */
+const shapes = new Map<string, { name: string; prepared: Prepared<unknown> }>();
+const SHAPE_LIMIT = 2000;
+/** Under vitest every call builds its query again and checks that its shape's text is the same. */
+const CHECK_SHAPES = process.env.VITEST !== undefined;
+
+/**
+ * Runs, in `tx`, the query that `build` makes, whose every changing value is a placeholder filled
+ * from `values`, and whose SQL text `shape` alone decides: built and prepared by drizzle the first
+ * time the shape is seen, then only run. Building a page of the job list took longer in the app
+ * than running it in PostgreSQL (bench/README.md, "Built once"). Like `runNamed`, a prepared
+ * statement named after its text.
+ */
+export function runShape<R>(
+	tx: StoreTx,
+	shape: string,
+	build: () => Preparable<R>,
+	values: Values
+): Promise<R> {
+	let kept = shapes.get(shape) as { name: string; prepared: Prepared<R> } | undefined;
+	if (!kept) {
+		const query = build();
+		const name = nameOf(query.toSQL().sql);
+		kept = { name, prepared: query.prepare(name) };
+		if (shapes.size < SHAPE_LIMIT) shapes.set(shape, kept);
+	} else if (CHECK_SHAPES && nameOf(build().toSQL().sql) !== kept.name) {
+		throw new Error(`The shape "${shape}" names two different queries`);
+	}
+	// drizzle's prepared query runs on the client it was first prepared on (`client`): this run's
+	// copy of it runs on this transaction's client instead.
+	const mine = Object.create(kept.prepared, { client: { value: clientOf(tx) } }) as Prepared<R>;
+	return mine.execute(values);
 }

@@ -36,8 +36,11 @@ interface Internals {
 // run once it commits), kept off the transaction's public face.
 const internals = new WeakMap<object, Internals>();
 
-/** The pg client of a store transaction, for libraries that run their own SQL in it (pg-boss). */
-export function clientOf(tx: StoreWriteTx): pg.PoolClient {
+/**
+ * The pg client of a store transaction, for libraries that run their own SQL in it (pg-boss), and
+ * for statements prepared once and run in any transaction (`runShape`).
+ */
+export function clientOf(tx: StoreTx): pg.PoolClient {
 	const found = internals.get(tx);
 	if (!found) throw new Error('Not a store transaction');
 	return found.client;

@@ -1,6 +1,6 @@
 // Rows for the object-access module ($lib/server/object-access): which of some ids are in a store
 // and within a member's scope of jobs. SQL only; the rules about who gets which scope live there.
-import { and, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { and, eq, inArray, sql, type Placeholder, type SQL } from 'drizzle-orm';
 import type { StoreAccess } from '../../permissions';
 import { customer, job, organization, payment, quote } from '../schema';
 import { db } from '../index';
@@ -19,15 +19,18 @@ export type JobScope =
 /** Every job of the store: for the store's own work (a customer's link, a webhook), not a member. */
 export const WHOLE_STORE: JobScope = Object.freeze({ kind: 'store' });
 
-/** The condition on `job` rows for a scope (undefined: no condition beyond the store). */
-export function jobScopeFilter(scope: JobScope): SQL | undefined {
+/**
+ * The condition on `job` rows for a scope (undefined: no condition beyond the store). `user` stands
+ * for the scope's user id in it: a placeholder, for a statement built once and run for anyone.
+ */
+export function jobScopeFilter(scope: JobScope, user?: Placeholder): SQL | undefined {
 	switch (scope.kind) {
 		case 'store':
 			return undefined;
 		case 'sold':
-			return eq(job.salespersonId, scope.userId);
+			return eq(job.salespersonId, user ?? scope.userId);
 		case 'assigned':
-			return eq(job.installerId, scope.userId);
+			return eq(job.installerId, user ?? scope.userId);
 		case 'none':
 			return sql`false`;
 	}

@@ -26,7 +26,7 @@ import {
 	quote,
 	user
 } from '../schema';
-import { runNamed } from '../named';
+import { runNamed, runShape } from '../named';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
@@ -125,24 +125,49 @@ type Page = { rows: JobRow[]; total: number; totalCapped: boolean };
  * the page shows (`total` is then the page's end, capped).
  */
 export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Promise<Page> {
-	const filters = [eq(job.organizationId, tx.storeId), viewerFilter(viewer)];
+	// Every value a placeholder, filled from `values`; `shape` names what the statement's text
+	// depends on (which filters, the status, the order), so a first page is built once per shape
+	// (runShape).
+	const values: Record<string, unknown> = { store: tx.storeId };
+	const shape: string[] = [viewer.kind, query.sort, query.dir, query.status ?? ''];
+	const filters = [
+		eq(job.organizationId, sql.placeholder('store')),
+		viewerFilter(viewer, sql.placeholder('viewer'))
+	];
+	if (viewer.kind === 'sold' || viewer.kind === 'assigned') values.viewer = viewer.userId;
 	if (query.status) filters.push(statusIs(query.status));
-	if (query.customerId) filters.push(eq(job.customerId, query.customerId));
-	if (query.salespersonId) filters.push(eq(job.salespersonId, query.salespersonId));
+	if (query.customerId) {
+		filters.push(eq(job.customerId, sql.placeholder('customer')));
+		values.customer = query.customerId;
+		shape.push('customer');
+	}
+	if (query.salespersonId) {
+		filters.push(eq(job.salespersonId, sql.placeholder('salesperson')));
+		values.salesperson = query.salespersonId;
+		shape.push('salesperson');
+	}
 	const order = query.dir === 'asc' ? asc : desc;
 	const sortColumn = sortColumns[query.sort];
 	const orderBy = [order(sortColumn), desc(job.number)];
 	const offset = (query.page - 1) * query.pageSize;
-	if (!query.q) return pageOf(tx, and(...filters), orderBy, offset, query.pageSize);
+	if (!query.q)
+		return pageOf(tx, and(...filters), orderBy, offset, query.pageSize, values, {
+			shape: shape.join(' ')
+		});
 
 	const pattern = likePattern(query.q);
 	const asNumber = /^j?-?(\d{1,9})$/i.exec(query.q)?.[1];
+	values.pattern = pattern;
+	if (asNumber) {
+		values.number = Number(asNumber);
+		shape.push('number');
+	}
 	// Wildcards in the text are taken literally (likePattern); the number is a job's number.
 	const found = (title: SQLWrapper, name: SQLWrapper, number: SQLWrapper) =>
 		or(
-			ilike(title as AnyColumn, pattern),
-			ilike(name as AnyColumn, pattern),
-			asNumber ? eq(number as AnyColumn, Number(asNumber)) : undefined
+			ilike(title as AnyColumn, sql.placeholder('pattern')),
+			ilike(name as AnyColumn, sql.placeholder('pattern')),
+			asNumber ? eq(number as AnyColumn, sql.placeholder('number')) : undefined
 		) as SQL;
 
 	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
@@ -184,30 +209,35 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 	// match among them is the page, and says that more match (not how many: counting them would
 	// read on through the store). Sorted by customer too, when the walk above did not apply.
 	if (offset + query.pageSize < SEARCH_WINDOW) {
-		const w = tx
-			.select({
-				id: job.id,
-				title: job.title,
-				customerName: job.customerName,
-				number: job.number,
-				key: sql`${sortColumn}`.as('sort_key')
-			})
-			.from(job)
-			.where(and(...filters))
-			.orderBy(...orderBy)
-			.limit(SEARCH_WINDOW)
-			.as('w');
-		const matched = tx
-			.select({ id: w.id })
-			.from(w)
-			.where(found(w.title, w.customerName, w.number))
-			.orderBy(order(w.key), desc(w.number))
-			.limit(query.pageSize + 1)
-			.offset(offset);
-		const rows = await runNamed(
-			selectJobs(tx)
-				.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, matched)))
-				.orderBy(...orderBy)
+		const rows = await runShape(
+			tx,
+			`window ${shape.join(' ')}`,
+			() => {
+				const w = tx
+					.select({
+						id: job.id,
+						title: job.title,
+						customerName: job.customerName,
+						number: job.number,
+						key: sql`${sortColumn}`.as('sort_key')
+					})
+					.from(job)
+					.where(and(...filters))
+					.orderBy(...orderBy)
+					.limit(SEARCH_WINDOW)
+					.as('w');
+				const matched = tx
+					.select({ id: w.id })
+					.from(w)
+					.where(found(w.title, w.customerName, w.number))
+					.orderBy(order(w.key), desc(w.number))
+					.limit(sql.placeholder('limit'))
+					.offset(sql.placeholder('offset'));
+				return selectJobs(tx)
+					.where(and(eq(job.organizationId, sql.placeholder('store')), inArray(job.id, matched)))
+					.orderBy(...orderBy);
+			},
+			{ ...values, limit: query.pageSize + 1, offset }
 		);
 		if (rows.length > query.pageSize) {
 			return {
@@ -251,12 +281,14 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		const byIds = or(idIn(ids), asNumber ? eq(job.number, Number(asNumber)) : undefined) as SQL;
 		// The number may be one more job: then it is counted.
 		const known = narrowed || asNumber ? undefined : ids.length;
-		return pageOf(tx, and(...filters, byIds), orderBy, offset, query.pageSize, known);
+		return pageOf(tx, and(...filters, byIds), orderBy, offset, query.pageSize, values, {
+			knows: known
+		});
 	}
 	// 4. More than COUNT_CAP, though not among the list's first rows: tested as the list walks on.
 	const where = and(...filters, found(job.title, job.customerName, job.number));
 	const known = !narrowed && offset === 0 ? COUNT_CAP + 1 : undefined;
-	return pageOf(tx, where, orderBy, offset, query.pageSize, known);
+	return pageOf(tx, where, orderBy, offset, query.pageSize, values, { knows: known });
 }
 
 /**
@@ -299,7 +331,8 @@ async function pageOf(
 	orderBy: SQL[],
 	offset: number,
 	pageSize: number,
-	knows?: number
+	values: Record<string, unknown>,
+	{ shape, knows }: { shape?: string; knows?: number } = {}
 ): Promise<Page> {
 	const upTo = offset + COUNT_CAP;
 	// A first page that is to be counted: the page and its count in one statement (one round trip
@@ -307,17 +340,20 @@ async function pageOf(
 	// its store's customer (`job_customer_same_store_fk`), so it reads `job` alone, and only as far
 	// as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
 	if (!offset && knows === undefined) {
-		const counted = await runNamed(
+		const build = () =>
 			tx
 				.select({
 					...jobColumns,
-					matches: sql<number>`(select count(*)::int from (select 1 from ${job} where ${where} limit ${upTo + 1}) counted)`
+					matches: sql<number>`(select count(*)::int from (select 1 from ${job} where ${where} limit ${sql.placeholder('countTo')}) counted)`
 				})
 				.from(job)
 				.where(where)
 				.orderBy(...orderBy)
-				.limit(pageSize)
-		);
+				.limit(sql.placeholder('pageSize'));
+		const all = { ...values, countTo: upTo + 1, pageSize };
+		const counted = shape
+			? await runShape(tx, `first ${shape}`, build, all)
+			: await runNamed(build(), all);
 		const n = counted[0]?.matches ?? 0;
 		const rows: JobRow[] = counted.map(({ matches: _, ...row }) => row);
 		return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
@@ -345,13 +381,15 @@ async function pageOf(
 							)
 						)
 					)
-					.orderBy(...orderBy)
+					.orderBy(...orderBy),
+				values
 			)
 		: await runNamed(
 				selectJobs(tx)
 					.where(where)
 					.orderBy(...orderBy)
-					.limit(pageSize)
+					.limit(pageSize),
+				values
 			);
 	if (knows !== undefined) return { rows, total: Math.min(knows, upTo), totalCapped: knows > upTo };
 	const counted = tx
@@ -360,7 +398,7 @@ async function pageOf(
 		.where(where)
 		.limit(upTo + 1)
 		.as('counted');
-	const [{ n }] = await runNamed(tx.select({ n: count() }).from(counted));
+	const [{ n }] = await runNamed(tx.select({ n: count() }).from(counted), values);
 	return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
 }
 
