@@ -437,7 +437,11 @@ function cpuPerRequest(
 }
 
 const results = new Map<string, Figures>();
-for (const t of targets) {
+// The baseline's rate just before each route: `× near` reads a route against the mean of the runs
+// either side of it, which a load moving on the shared host during the run moves alike.
+const nearBefore = new Map<string, number>();
+for (const [i, t] of targets.entries()) {
+	if (i > 0) nearBefore.set(t.name, (await run(targets[0])).requests.average);
 	const before = cpuNow();
 	const full = await run(t);
 	const after = cpuNow();
@@ -471,7 +475,10 @@ for (const t of targets) {
 		errors: full.errors + full.timeouts + full.non2xx,
 		statuses: statusText(full) + steadyText(at50)
 	});
+	const again = results.get('baseline, again at the end')!;
 	results.set('baseline: mean of the two', {
+		serverMs: (first.serverMs! + again.serverMs!) / 2,
+		postgresMs: (first.postgresMs! + again.postgresMs!) / 2,
 		rps: (first.rps + full.requests.average) / 2,
 		p50: (first.p50 + full.latency.p50) / 2,
 		p99: (first.p99 + full.latency.p99) / 2,
@@ -497,12 +504,27 @@ console.log(
 		`${seconds} s per run, 10 connections; p99@50 at a steady 50 requests/s\n`
 );
 // `p99@50 ×`: the route's p99 at a steady 50 requests/s over the baseline's at the same rate.
+// `cpu ×`: the baseline's CPU per request (server and PostgreSQL) over the route's. At 10
+// connections on two cores the rate is bound by CPU, so this is the ratio `× base` would show on
+// a machine to itself, though the host's other work slows both too. `× near`: the route's rate over
+// the mean of the baseline's runs just before and just after it.
+const cpuOf = (f: Figures) =>
+	f.serverMs === undefined || f.postgresMs === undefined ? undefined : f.serverMs + f.postgresMs;
+const baseCpu = cpuOf(base);
 console.log(
-	`${'route'.padEnd(38)} ${'req/s'.padStart(7)} ${'× base'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'p99@50'.padStart(7)} ${'p99@50 ×'.padStart(9)} ${'cpu ms: app'.padStart(11)} ${'pg'.padStart(5)}  statuses`
+	`${'route'.padEnd(38)} ${'req/s'.padStart(7)} ${'× base'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'p99@50'.padStart(7)} ${'p99@50 ×'.padStart(9)} ${'cpu ms: app'.padStart(11)} ${'pg'.padStart(5)} ${'cpu ×'.padStart(6)} ${'× near'.padStart(7)}  statuses`
 );
+// The baseline run after each route: the next route's run before, and for the last the end's.
+const routeNames = targets.map((t) => t.name);
+const nearAfter = (i: number) =>
+	nearBefore.get(routeNames[i + 1]) ?? results.get('baseline, again at the end')!.rps;
 for (const [name, f] of results) {
+	const cpu = cpuOf(f);
+	const at = routeNames.indexOf(name);
+	const near = at > 0 ? (f.rps / ((nearBefore.get(name)! + nearAfter(at)) / 2)).toFixed(2) : '';
+	const cpuRatio = cpu && baseCpu ? (baseCpu / cpu).toFixed(2) : '';
 	console.log(
-		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${f.p99At50.toFixed(1).padStart(7)} ${(f.p99At50 / base.p99At50).toFixed(2).padStart(9)} ${(f.serverMs?.toFixed(2) ?? '').padStart(11)} ${(f.postgresMs?.toFixed(2) ?? '').padStart(5)}  ${f.statuses}`
+		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${f.p99At50.toFixed(1).padStart(7)} ${(f.p99At50 / base.p99At50).toFixed(2).padStart(9)} ${(f.serverMs?.toFixed(2) ?? '').padStart(11)} ${(f.postgresMs?.toFixed(2) ?? '').padStart(5)} ${cpuRatio.padStart(6)} ${near.padStart(7)}  ${f.statuses}`
 	);
 }
 console.log(`\nserver peak memory (VmHWM): ${hwm.toFixed(0)} MB`);

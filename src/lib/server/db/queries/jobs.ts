@@ -189,11 +189,7 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		);
 		if (walked) {
 			const ids = walked.ids.slice(0, query.pageSize);
-			const rows = ids.length
-				? await selectJobs(tx)
-						.where(and(eq(job.organizationId, tx.storeId), idIn(ids)))
-						.orderBy(...orderBy)
-				: [];
+			const rows = await readIds(tx, ids, orderBy, shape);
 			if (walked.matches === null)
 				return { rows, total: offset + query.pageSize, totalCapped: true };
 			const upTo = offset + COUNT_CAP;
@@ -256,11 +252,7 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 			sql`select s.id, s.matches from job_search_by_customer(${pattern}, ${query.dir === 'desc'}, ${query.pageSize}, ${offset}) as s`
 		);
 		const ids = page.rows.map((r) => r.id);
-		const rows = ids.length
-			? await selectJobs(tx)
-					.where(and(eq(job.organizationId, tx.storeId), idIn(ids)))
-					.orderBy(...orderBy)
-			: [];
+		const rows = await readIds(tx, ids, orderBy, shape);
 		// No row on a page past the end says nothing of how many there are: counted below.
 		if (rows.length || !offset) {
 			const matches = Number(page.rows[0]?.matches ?? 0);
@@ -289,6 +281,25 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 	const where = and(...filters, found(job.title, job.customerName, job.number));
 	const known = !narrowed && offset === 0 ? COUNT_CAP + 1 : undefined;
 	return pageOf(tx, where, orderBy, offset, query.pageSize, values, { knows: known });
+}
+
+/** The jobs of `ids` (a page found by a search function) with their people, in the list's order. */
+async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], shape: string[]) {
+	if (!ids.length) return [];
+	return runShape(
+		tx,
+		`ids ${shape.slice(1, 3).join(' ')}`,
+		() =>
+			selectJobs(tx)
+				.where(
+					and(
+						eq(job.organizationId, sql.placeholder('store')),
+						sql`${job.id} = any(${sql.placeholder('ids')}::text[])`
+					)
+				)
+				.orderBy(...orderBy),
+		{ store: tx.storeId, ids }
+	);
 }
 
 /**
