@@ -5,7 +5,12 @@
 // setting, never an installer.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { changeOrderFromReport } from '$lib/server/change-orders/from-report';
-import { inStore } from '$lib/server/db/tenant';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import * as jobs from '$lib/server/db/queries/jobs';
+import { jobStory } from '$lib/server/jobs/story';
+import { moveFacts } from '$lib/server/jobs/move';
+import { jobScope } from '$lib/server/object-access';
+import { grantsOf } from '$lib/server/permissions';
 import { startApp, type App, type PageData, type Visitor } from './app-server';
 import {
 	addMember,
@@ -81,6 +86,20 @@ async function setSalesSeeCosts(on: boolean) {
 	});
 	expect(answer.json()).toMatchObject({ type: 'success' });
 }
+
+describe('the moves by hand the page offers', () => {
+	it('are checked against the same facts a move reads for itself', async () => {
+		const grants = grantsOf('owner');
+		for (const [name, { id }] of Object.entries(made)) {
+			const [fromStory, ownRead] = await readInStore(store.id, async (tx) => {
+				const job = await jobs.readForViewer(tx, id, jobScope(grants, store.owner.id));
+				if (!job) throw new Error(`no job ${name}`);
+				return [(await jobStory(tx, job, grants)).moveFacts, await moveFacts(tx, id)];
+			});
+			expect(fromStory, name).toEqual(ownRead);
+		}
+	});
+});
 
 describe('the next step', { timeout: 60_000 }, () => {
 	it('follows the job from measure to booking, for the manager', async () => {

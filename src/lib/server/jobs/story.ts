@@ -5,7 +5,7 @@
 // may read, and says no amount.
 import { nextAction, type JobFacts, type JobPowers } from '$lib/jobs/next-action';
 import { changeOrderLabel } from '$lib/jobs/change-order-status';
-import { JOB_STATUS_LABELS } from '$lib/jobs/status';
+import { JOB_STATUS_LABELS, type MoveFacts } from '$lib/jobs/status';
 import { formatMoney } from '$lib/format';
 import * as bookings from '../db/queries/bookings';
 import * as changeOrders from '../db/queries/change-orders';
@@ -68,7 +68,11 @@ function eventText(e: Awaited<ReturnType<typeof jobs.events>>[number]): string {
 	}
 }
 
-/** Everything the job page shows, as this member may see it, read in the caller's transaction. */
+/**
+ * Everything the job page shows, as this member may see it, read in the caller's transaction;
+ * and, apart (`moveFacts`, not for the page's data), what the moves by hand are checked against,
+ * from the same reads (`moveFacts` in ../jobs/move.ts reads them on its own for a move).
+ */
 export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 	const may = {
 		quotes: can(grants, { quote: ['read'] }),
@@ -204,7 +208,7 @@ export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 
 	const reportPhotos = photos.filter((p) => p.purpose === 'report');
 
-	return {
+	const story = {
 		next: nextAction(facts, powers),
 		measure,
 		quotes: may.quotes
@@ -275,4 +279,13 @@ export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 		timeline,
 		storeFigures
 	};
+	const moveFacts: MoveFacts = {
+		quoteSent: versions.some((v) => v.status === 'sent'),
+		quoteAccepted: versions.some((v) => v.status === 'accepted'),
+		depositDue: money.ledger.depositDueCents > 0,
+		balanceDue: money.ledger.balanceDueCents > 0,
+		booked: Boolean(booking),
+		signedOff: completion ? Boolean(completion.signedAt) : undefined
+	};
+	return { story, moveFacts };
 }

@@ -1,12 +1,12 @@
 import * as jobs from '$lib/server/db/queries/jobs';
-import { inStore, readInStore, type StoreTx } from '$lib/server/db/tenant';
-import type { JobStatus } from '$lib/jobs/status';
+import { inStore, readInStore } from '$lib/server/db/tenant';
+import type { JobStatus, MoveFacts } from '$lib/jobs/status';
 import { parseForm } from '$lib/server/forms';
 import { requirePermission } from '$lib/server/guards';
 import { requireJob } from '$lib/server/object-access';
 import { can } from '$lib/server/permissions';
 import { canBook, canDelete, handMove, nextStatuses } from '$lib/jobs/status';
-import { moveByHand, moveFacts } from '$lib/server/jobs/move';
+import { moveByHand } from '$lib/server/jobs/move';
 import { jobStory } from '$lib/server/jobs/story';
 import { jobAssignSchema, jobMoveSchema, jobUpdateSchema } from '$lib/schemas/job';
 import { error, fail, redirect } from '@sveltejs/kit';
@@ -14,8 +14,7 @@ import type { Actions, PageServerLoad } from './$types';
 import { loadJobSite, siteAction } from './site.server';
 
 /** The moves staff can make by hand now, with what the job has. */
-async function movesByHand(tx: StoreTx, jobId: string, from: JobStatus) {
-	const facts = await moveFacts(tx, jobId);
+function movesByHand(from: JobStatus, facts: MoveFacts) {
 	return nextStatuses(from).filter((to) => handMove(from, to, facts).ok);
 }
 
@@ -26,11 +25,12 @@ export const load: PageServerLoad = async ({ params }) => {
 		if (!job) error(404, 'Not found');
 		const canAssign = can(grants, { job: ['assign'] });
 		const installers = canAssign ? await jobs.listInstallers(tx) : [];
+		const { story, moveFacts } = await jobStory(tx, job, grants);
 		return {
 			job,
-			...(await jobStory(tx, job, grants)),
+			...story,
 			installers,
-			moves: can(grants, { job: ['schedule'] }) ? await movesByHand(tx, job.id, job.status) : [],
+			moves: can(grants, { job: ['schedule'] }) ? movesByHand(job.status, moveFacts) : [],
 			canAssign,
 			// The schedule books it (and moves a booking); the page links there.
 			canBook: can(grants, { job: ['schedule'] }) && canBook(job.status),
