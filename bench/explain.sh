@@ -6,8 +6,9 @@
 # `old` is the query shape before the scale indexes (count joined to customer, the customer's name
 # matched in the join), `0015` the shape of migration 0015 (exact count on `job` alone, the
 # customer's name as a list of ids), `new` (the default) today's (migration 0017; the 0016 shapes
-# are in bench/plans-0016.txt): capped counts, the search's first-rows walk, and the search
-# functions, whose own queries are shown as their role runs them. FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
+# are in bench/plans-0016.txt): capped counts, the search's first-rows walk, the search
+# functions, whose own queries are shown as their role runs them, and the walk of names sorted by
+# customer (migration 0019). FLUSHLINE_BENCH_PG_PORT: the cluster (54322).
 set -euo pipefail
 PORT=${FLUSHLINE_BENCH_PG_PORT:-54322}
 N=${1:-1}
@@ -70,6 +71,15 @@ if [ "$SHAPE" = new ]; then
 	for term in oak orwin 'otto orwin'; do
 		echo "== search \"$term\", by customer: job_search_by_customer's own query, as flushline_search"; qs "$(by_customer "%$term%")" "set local enable_indexscan = off; set local enable_seqscan = off;"
 		echo "== search \"$term\", by customer: job_search_by_customer, as the app calls it"; q "select s.id, s.matches from job_search_by_customer('%$term%', false, 50, 0) as s"
+	done
+	# Migration 0019: sorted by customer, the names holding the text's rarest trigram are walked in
+	# name order, each name's jobs read newest first until the page is full.
+	for term in oak orwin; do
+		T=$(psql_ -U postgres flushline_bench -Atc "select t from unnest(show_trgm('$term')) t where strpos(t, ' ') = 0 order by (select count(*) from job_name_trigram n where n.organization_id = '$S' and n.trigram = t), t limit 1")
+		echo "== search \"$term\", by customer: the names holding its rarest trigram \"$T\", in name order (the walk's cursor)"; qs "select n.customer_name from public.job_name_trigram n where n.organization_id = '$S' and n.trigram = '$T' order by n.customer_name limit 10"
+		NAME=$(psql_ -U postgres flushline_bench -Atc "select customer_name from job_name_trigram where organization_id = '$S' and trigram = '$T' order by customer_name limit 1")
+		echo "== search \"$term\", by customer: the first name's jobs, newest first, until a page and one more match"; qs "select r.id from (select j.id, j.title, j.customer_name from public.job j where j.organization_id = '$S' and j.customer_name = '$NAME' order by j.number desc limit 5000) r where r.title ilike '%$term%' or r.customer_name ilike '%$term%' limit 51" "set local enable_bitmapscan = off;"
+		echo "== search \"$term\", by customer: job_search_by_name_walk, as the app calls it"; q "select cardinality(w.ids), w.matches from job_search_by_name_walk('$term', '%$term%', false, 51, 0, 5000) as w"
 	done
 	echo "== customers: search ash"; q "select * from customer where organization_id = '$S' and (name ilike '%ash%' or email ilike '%ash%' or phone ilike '%ash%') order by name asc, id asc limit 25"
 	echo "== customers: count ash"; q "select count(*) from customer where organization_id = '$S' and (name ilike '%ash%' or email ilike '%ash%' or phone ilike '%ash%')"
