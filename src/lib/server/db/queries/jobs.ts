@@ -304,7 +304,9 @@ async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], shape: string
 
 /**
  * How many jobs the walk of names (`job_search_by_name_walk`, migration 0019) may read before it
- * gives up and every match is read and sorted instead: about 5 ms of its time.
+ * gives up and every match is read and sorted instead: in the big store of the scale seed, a text
+ * whose names hold 3,700 jobs and none matching took 14 ms to walk, against 26 ms to find through
+ * the trigram indexes that nothing matches (bench/README.md).
  */
 export const WALK_BUDGET = 5000;
 
