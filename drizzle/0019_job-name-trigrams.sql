@@ -25,6 +25,13 @@ ALTER TABLE "job_name_trigram" FORCE ROW LEVEL SECURITY;--> statement-breakpoint
 -- writer, through the store policy: a store's trigger writes only that store's rows. Nothing is
 -- deleted: a name or title changed away leaves rows that cost a look at jobs no longer matching,
 -- never a wrong answer (the jobs themselves are tested with `ilike`).
+-- The inner trigrams of a text: pg_trgm's, without the padded ones at a word's ends.
+CREATE FUNCTION job_inner_trigrams(words text) RETURNS SETOF text
+	LANGUAGE sql IMMUTABLE STRICT
+	SET search_path = pg_catalog, public
+AS $$
+	SELECT DISTINCT t FROM unnest(public.show_trgm(words)) t WHERE strpos(t, ' ') = 0;
+$$;--> statement-breakpoint
 CREATE FUNCTION job_name_trigrams_of_new() RETURNS trigger
 	LANGUAGE plpgsql
 	SET search_path = pg_catalog, public
@@ -32,8 +39,7 @@ AS $$
 BEGIN
 	INSERT INTO public.job_name_trigram (organization_id, trigram, customer_name)
 	SELECT DISTINCT n.organization_id, t, n.customer_name
-	FROM new_jobs n, unnest(public.show_trgm(n.title || ' ' || n.customer_name)) t
-	WHERE strpos(t, ' ') = 0
+	FROM new_jobs n, public.job_inner_trigrams(n.title || ' ' || n.customer_name) t
 	ON CONFLICT DO NOTHING;
 	RETURN NULL;
 END
@@ -47,9 +53,8 @@ CREATE FUNCTION job_name_trigrams_of_changed() RETURNS trigger
 AS $$
 BEGIN
 	INSERT INTO public.job_name_trigram (organization_id, trigram, customer_name)
-	SELECT DISTINCT NEW.organization_id, t, NEW.customer_name
-	FROM unnest(public.show_trgm(NEW.title || ' ' || NEW.customer_name)) t
-	WHERE strpos(t, ' ') = 0
+	SELECT NEW.organization_id, t, NEW.customer_name
+	FROM public.job_inner_trigrams(NEW.title || ' ' || NEW.customer_name) t
 	ON CONFLICT DO NOTHING;
 	RETURN NULL;
 END
@@ -67,8 +72,8 @@ CREATE FUNCTION job_name_trigrams_fill(store text) RETURNS void
 AS $$
 	INSERT INTO public.job_name_trigram (organization_id, trigram, customer_name)
 	SELECT DISTINCT j.organization_id, t, j.customer_name
-	FROM public.job j, unnest(public.show_trgm(j.title || ' ' || j.customer_name)) t
-	WHERE strpos(t, ' ') = 0 AND (store IS NULL OR j.organization_id = store)
+	FROM public.job j, public.job_inner_trigrams(j.title || ' ' || j.customer_name) t
+	WHERE store IS NULL OR j.organization_id = store
 	ON CONFLICT DO NOTHING;
 $$;--> statement-breakpoint
 ALTER TABLE "job" NO FORCE ROW LEVEL SECURITY;--> statement-breakpoint
@@ -121,7 +126,7 @@ BEGIN
 	-- The inner trigram with the fewest names: of at most 24 (any one will do; a long text has a
 	-- hundred), each counted on the index to 2,001 at most.
 	SELECT c.t INTO rarest
-	FROM (SELECT DISTINCT t FROM unnest(show_trgm(words)) t WHERE strpos(t, ' ') = 0 LIMIT 24) c
+	FROM (SELECT t FROM public.job_inner_trigrams(words) t LIMIT 24) c
 	ORDER BY (SELECT count(*) FROM (SELECT 1 FROM public.job_name_trigram n
 		WHERE n.organization_id = store AND n.trigram = c.t LIMIT 2001) k), c.t
 	LIMIT 1;
