@@ -16,6 +16,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
+import { connect } from 'node:net';
 import { gzipSync } from 'node:zlib';
 import autocannon from 'autocannon';
 import pg from 'pg';
@@ -55,6 +56,22 @@ if (!existsSync(path.join(root, 'build/index.js')) || process.env.BENCH_BUILD ==
 	if (built.status !== 0) process.exit(1);
 }
 
+// Another server on the port would be measured instead of this build's (and one left running
+// from before a rebuild answers 500s): refuse to start.
+const taken = await new Promise<boolean>((resolve) => {
+	const probe = connect({ host: '127.0.0.1', port }, () => {
+		probe.destroy();
+		resolve(true);
+	});
+	probe.on('error', () => resolve(false));
+});
+if (taken) {
+	console.error(
+		`Something already listens on 127.0.0.1:${port}: stop it, or set FLUSHLINE_BENCH_PORT.`
+	);
+	process.exit(1);
+}
+
 // From here, not from the script's start: a build (BENCH_BUILD=1) is not the server's start-up.
 const started = performance.now();
 // BENCH_NODE_ARGS: extra flags for the server's node, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof`.
@@ -80,6 +97,14 @@ const server = spawn(process.execPath, [...nodeArgs, 'build'], {
 });
 const stop = () => server.kill('SIGTERM');
 process.on('exit', stop);
+/** When the server first answered: unset until then. */
+const up: { at?: number } = {};
+server.on('exit', (code) => {
+	if (up.at === undefined) {
+		console.error(`The server exited (${code}) before it answered.`);
+		process.exit(1);
+	}
+});
 
 async function waitForServer() {
 	for (let i = 0; i < 100; i++) {
@@ -94,7 +119,7 @@ async function waitForServer() {
 	throw new Error('The server did not start');
 }
 await waitForServer();
-const ready = performance.now();
+const ready = (up.at = performance.now());
 
 async function signIn(local: string): Promise<string> {
 	const email = `${local}+s${store}@tallowcreek.example`;
