@@ -4,7 +4,8 @@ import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { booking, job as jobTable } from '$lib/server/db/schema';
 import { inStore, readInStore } from '$lib/server/db/tenant';
-import { storeDay, todayIn, weekOf, type StoreDay } from '$lib/server/desk/day';
+import { storeDay, weekOf, type StoreDay } from '$lib/server/desk/day';
+import { today } from '$lib/schedule/days';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { grantsOf, type Role } from '$lib/server/permissions';
 import {
@@ -64,7 +65,7 @@ beforeAll(async () => {
 			organizationId: store.id,
 			jobId: booked.job.id,
 			installerId: installer.id,
-			startsOn: weekOf(todayIn('UTC')).from,
+			startsOn: weekOf(today('UTC')).from,
 			days: 2,
 			proposedDays: 2,
 			proposal: booked.quote.result.schedule,
@@ -116,6 +117,6 @@ describe("the desk's day", { timeout: 60_000 }, () => {
 	it('works out the week from the store time zone, Monday to Sunday', () => {
 		expect(weekOf('2026-12-02')).toEqual({ from: '2026-11-30', to: '2026-12-06' });
 		expect(weekOf('2026-12-06')).toEqual({ from: '2026-11-30', to: '2026-12-06' });
-		expect(todayIn('Pacific/Auckland', new Date('2026-12-02T12:00:00Z'))).toBe('2026-12-03');
+		expect(today('Pacific/Auckland', new Date('2026-12-02T12:00:00Z'))).toBe('2026-12-03');
 	});
 });

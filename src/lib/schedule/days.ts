@@ -61,15 +61,24 @@ export function monthLength(day: string): number {
 	return new Date(Date.UTC(y, m, 0)).getUTCDate();
 }
 
+/** One formatter per time zone: making one costs more than formatting with it many times. */
+const dayFormats = new Map<string, Intl.DateTimeFormat>();
+
 /** Today in a time zone, as a day. */
 export function today(timeZone: string, now = new Date()): string {
-	// en-CA formats dates as YYYY-MM-DD.
-	return new Intl.DateTimeFormat('en-CA', {
-		timeZone,
-		year: 'numeric',
-		month: '2-digit',
-		day: '2-digit'
-	}).format(now);
+	let format = dayFormats.get(timeZone);
+	if (!format) {
+		// en-CA formats dates as YYYY-MM-DD.
+		format = new Intl.DateTimeFormat('en-CA', {
+			timeZone,
+			year: 'numeric',
+			month: '2-digit',
+			day: '2-digit'
+		});
+		// Stores' zones are a few hundred at most (the IANA names); the cap is a guard.
+		if (dayFormats.size < 1000) dayFormats.set(timeZone, format);
+	}
+	return format.format(now);
 }
 
 /** A weekday's short name (for headers), from an ISO weekday. */

@@ -1,5 +1,6 @@
 import { jobLabel } from '$lib/jobs/status';
 import { formatMoney } from '$lib/format';
+import { today } from '$lib/schedule/days';
 import * as desk from '../db/queries/desk';
 import { moneyFor } from '../db/queries/payments';
 import type { StoreTx } from '../db/tenant';
@@ -56,16 +57,6 @@ const DAY_MS = 86_400_000;
 
 function daysSince(when: Date, now: Date): number {
 	return Math.max(0, Math.floor((now.getTime() - when.getTime()) / DAY_MS));
-}
-
-/** Today's date in a time zone, as YYYY-MM-DD. */
-export function todayIn(timeZone: string, now = new Date()): string {
-	return new Intl.DateTimeFormat('en-CA', {
-		timeZone,
-		year: 'numeric',
-		month: '2-digit',
-		day: '2-digit'
-	}).format(now);
 }
 
 /** Monday and Sunday of the week holding `day` (YYYY-MM-DD), as YYYY-MM-DD. */
@@ -258,7 +249,7 @@ export async function storeDay(
 
 	let week: StoreDay['week'] = null;
 	if (can(grants, { job: ['read'] })) {
-		const { from, to } = weekOf(todayIn(member.store.timeZone, now));
+		const { from, to } = weekOf(today(member.store.timeZone, now));
 		const booked = await desk.bookingsBetween(tx, scope, from, to);
 		const byInstaller = new Map<string, SiteWeekRow>();
 		for (const b of booked) {
