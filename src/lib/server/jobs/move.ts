@@ -10,19 +10,31 @@ export type HandMoveResult =
 	| { ok: false; reason: 'not_found' }
 	| { ok: false; reason: 'refused'; message: string };
 
+/** What `handMove` checks, from what was read of a job: one reading for a move and the job page. */
+export function factsFrom(read: {
+	quoteStatuses: readonly quotes.QuoteStatus[];
+	ledger: { depositDueCents: number; balanceDueCents: number };
+	booked: boolean;
+	completion: { signedAt: Date | null } | undefined;
+}): MoveFacts {
+	return {
+		quoteSent: read.quoteStatuses.includes('sent'),
+		quoteAccepted: read.quoteStatuses.includes('accepted'),
+		depositDue: read.ledger.depositDueCents > 0,
+		balanceDue: read.ledger.balanceDueCents > 0,
+		booked: read.booked,
+		signedOff: read.completion ? Boolean(read.completion.signedAt) : undefined
+	};
+}
+
 /** What `handMove` needs to know about a job, read in the caller's transaction. */
 export async function moveFacts(tx: StoreTx, jobId: string): Promise<MoveFacts> {
-	const quote = await quotes.standing(tx, jobId);
-	const { ledger } = await payments.moneyFor(tx, jobId);
-	const completion = await completions.read(tx, jobId);
-	return {
-		quoteSent: quote.sent,
-		quoteAccepted: quote.accepted,
-		depositDue: ledger.depositDueCents > 0,
-		balanceDue: ledger.balanceDueCents > 0,
+	return factsFrom({
+		quoteStatuses: await quotes.statusesOf(tx, jobId),
+		ledger: (await payments.moneyFor(tx, jobId)).ledger,
 		booked: await jobs.isBooked(tx, jobId),
-		signedOff: completion ? Boolean(completion.signedAt) : undefined
-	};
+		completion: await completions.read(tx, jobId)
+	});
 }
 
 /**

@@ -5,7 +5,7 @@
 // may read, and says no amount.
 import { nextAction, type JobFacts, type JobPowers } from '$lib/jobs/next-action';
 import { changeOrderLabel } from '$lib/jobs/change-order-status';
-import { JOB_STATUS_LABELS, type MoveFacts } from '$lib/jobs/status';
+import { JOB_STATUS_LABELS } from '$lib/jobs/status';
 import { formatMoney } from '$lib/format';
 import * as bookings from '../db/queries/bookings';
 import * as changeOrders from '../db/queries/change-orders';
@@ -18,6 +18,7 @@ import type { StoreTx } from '../db/tenant';
 import { seesCosts, visibleLedger } from '../figures';
 import { can, type Grants } from '../permissions';
 import { measureSummary } from './measure-summary';
+import { factsFrom } from './move';
 
 export type ViewedJob = NonNullable<Awaited<ReturnType<typeof jobs.readForViewer>>>;
 
@@ -279,13 +280,11 @@ export async function jobStory(tx: StoreTx, job: ViewedJob, grants: Grants) {
 		timeline,
 		storeFigures
 	};
-	const moveFacts: MoveFacts = {
-		quoteSent: versions.some((v) => v.status === 'sent'),
-		quoteAccepted: versions.some((v) => v.status === 'accepted'),
-		depositDue: money.ledger.depositDueCents > 0,
-		balanceDue: money.ledger.balanceDueCents > 0,
+	const moveFacts = factsFrom({
+		quoteStatuses: versions.map((v) => v.status),
+		ledger: money.ledger,
 		booked: Boolean(booking),
-		signedOff: completion ? Boolean(completion.signedAt) : undefined
-	};
+		completion
+	});
 	return { story, moveFacts };
 }

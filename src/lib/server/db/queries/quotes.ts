@@ -175,14 +175,11 @@ export async function withdrawOpen(tx: StoreWriteTx, jobId: string) {
 		);
 }
 
-/** Whether the job has a version sent and waiting, and one accepted. */
-export async function standing(tx: StoreTx, jobId: string) {
+/** The statuses of the job's quote versions (what the moves by hand check: `factsFrom`). */
+export async function statusesOf(tx: StoreTx, jobId: string): Promise<QuoteStatus[]> {
 	const rows = await tx
 		.select({ status: quote.status })
 		.from(quote)
 		.where(and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, jobId)));
-	return {
-		sent: rows.some((r) => r.status === 'sent'),
-		accepted: rows.some((r) => r.status === 'accepted')
-	};
+	return rows.map((r) => r.status);
 }
