@@ -9,6 +9,7 @@ import {
 	or,
 	sql,
 	type AnyColumn,
+	type Placeholder,
 	type SQL,
 	type SQLWrapper
 } from 'drizzle-orm';
@@ -112,8 +113,21 @@ function statusIs(status: JobStatus): SQL {
 	return sql`${job.status} = ${sql.raw(`'${status}'`)}`;
 }
 
-/** The jobs of these ids, as one array parameter (one statement text for any number of ids). */
-const idIn = (ids: string[]) => sql`${job.id} = any(${sql.param(ids)}::text[])`;
+/**
+ * The jobs of these ids, as one array parameter (one statement text for any number of ids), or of
+ * the ids a placeholder stands for.
+ */
+const idIn = (ids: string[] | Placeholder) =>
+	sql`${job.id} = any(${Array.isArray(ids) ? sql.param(ids) : ids}::text[])`;
+
+/**
+ * A page with how many jobs there are, `matches` counted or known: exact up to COUNT_CAP past the
+ * page's start, then capped.
+ */
+function counted(rows: JobRow[], matches: number, offset: number): Page {
+	const upTo = offset + COUNT_CAP;
+	return { rows, total: Math.min(matches, upTo), totalCapped: matches > upTo };
+}
 
 type ListQuery = JobListQuery & { customerId?: string; salespersonId?: string };
 type Page = { rows: JobRow[]; total: number; totalCapped: boolean };
@@ -189,15 +203,10 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		);
 		if (walked) {
 			const ids = walked.ids.slice(0, query.pageSize);
-			const rows = await readIds(tx, ids, orderBy, shape);
+			const rows = await readIds(tx, ids, orderBy, `${query.sort} ${query.dir}`);
 			if (walked.matches === null)
 				return { rows, total: offset + query.pageSize, totalCapped: true };
-			const upTo = offset + COUNT_CAP;
-			return {
-				rows,
-				total: Math.min(walked.matches, upTo),
-				totalCapped: walked.matches > upTo
-			};
+			return counted(rows, walked.matches, offset);
 		}
 	}
 
@@ -252,12 +261,10 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 			sql`select s.id, s.matches from job_search_by_customer(${pattern}, ${query.dir === 'desc'}, ${query.pageSize}, ${offset}) as s`
 		);
 		const ids = page.rows.map((r) => r.id);
-		const rows = await readIds(tx, ids, orderBy, shape);
+		const rows = await readIds(tx, ids, orderBy, `${query.sort} ${query.dir}`);
 		// No row on a page past the end says nothing of how many there are: counted below.
 		if (rows.length || !offset) {
-			const matches = Number(page.rows[0]?.matches ?? 0);
-			const upTo = offset + COUNT_CAP;
-			return { rows, total: Math.min(matches, upTo), totalCapped: matches > upTo };
+			return counted(rows, Number(page.rows[0]?.matches ?? 0), offset);
 		}
 	}
 
@@ -283,20 +290,18 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 	return pageOf(tx, where, orderBy, offset, query.pageSize, values, { knows: known });
 }
 
-/** The jobs of `ids` (a page found by a search function) with their people, in the list's order. */
-async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], shape: string[]) {
+/**
+ * The jobs of `ids` (a page found by a search function) with their people, in the list's order
+ * (`order`, the sort and direction it is built from, names the statement's shape).
+ */
+async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], order: string) {
 	if (!ids.length) return [];
 	return runShape(
 		tx,
-		`ids ${shape.slice(1, 3).join(' ')}`,
+		`ids ${order}`,
 		() =>
 			selectJobs(tx)
-				.where(
-					and(
-						eq(job.organizationId, sql.placeholder('store')),
-						sql`${job.id} = any(${sql.placeholder('ids')}::text[])`
-					)
-				)
+				.where(and(eq(job.organizationId, sql.placeholder('store')), idIn(sql.placeholder('ids'))))
 				.orderBy(...orderBy),
 		{ store: tx.storeId, ids }
 	);
@@ -364,12 +369,11 @@ async function pageOf(
 				.orderBy(...orderBy)
 				.limit(sql.placeholder('pageSize'));
 		const all = { ...values, countTo: upTo + 1, pageSize };
-		const counted = shape
+		const withCount = shape
 			? await runShape(tx, `first ${shape}`, build, all)
 			: await runNamed(build(), all);
-		const n = counted[0]?.matches ?? 0;
-		const rows: JobRow[] = counted.map(({ matches: _, ...row }) => row);
-		return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
+		const rows: JobRow[] = withCount.map(({ matches: _, ...row }) => row);
+		return counted(rows, withCount[0]?.matches ?? 0, offset);
 	}
 	// A later page skips its offset on `job` alone, then reads its people for the page's rows:
 	// not for every row skipped. It skips by the job's number, not its id: the number is unique in
@@ -404,15 +408,15 @@ async function pageOf(
 					.limit(pageSize),
 				values
 			);
-	if (knows !== undefined) return { rows, total: Math.min(knows, upTo), totalCapped: knows > upTo };
-	const counted = tx
+	if (knows !== undefined) return counted(rows, knows, offset);
+	const capped = tx
 		.select({ one: sql`1`.as('one') })
 		.from(job)
 		.where(where)
 		.limit(upTo + 1)
 		.as('counted');
-	const [{ n }] = await runNamed(tx.select({ n: count() }).from(counted), values);
-	return { rows, total: Math.min(n, upTo), totalCapped: n > upTo };
+	const [{ n }] = await runNamed(tx.select({ n: count() }).from(capped), values);
+	return counted(rows, n, offset);
 }
 
 export type JobRow = Awaited<ReturnType<ReturnType<typeof selectJobs>['execute']>>[number];
