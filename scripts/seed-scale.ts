@@ -326,9 +326,10 @@ async function copyStore(s: number, jobs: number, customers: number) {
 			 where t.organization_id = $2 and $1::int > 0 and $3 <> '' and $4::int > 0 ${json.length ? '' : 'and $5::text[] is not null'}`;
 		await client.query(sql, [...params, templateJobs, priceIds]);
 	}
-	// The trigrams of the store's job titles and names (migration 0019), which the job triggers
-	// (off for the copy) would have written.
+	// The trigrams of the store's job titles and names (migration 0019) and its tally of jobs per
+	// status (0020), which the job triggers (off for the copy) would have written.
 	await client.query('select job_name_trigrams_fill($1)', [storeId]);
+	await client.query('select job_tally_fill($1)', [storeId]);
 	await client.query('commit');
 	return { storeId, jobs: copies * templateJobs, customers: customerCopies * templateCustomers };
 }

@@ -145,7 +145,7 @@ describe('jobs across stores', () => {
 		expect(all.total).toBe(3);
 	});
 
-	it('counts a large list only to 1,000 past the page, and searches it by index or as it walks', async () => {
+	it("totals a large list from the store's tally, reads late pages from the end, and searches it", async () => {
 		const store = await makeStore('Big Count Floors');
 		const staff = jobScope(grantsOf('owner'), store.owner.id);
 		const oakhurst = await makeCustomer(store.id, 'Greta Oakhurst');
@@ -169,18 +169,43 @@ describe('jobs across stores', () => {
 		const desc = (from: number, n: number, step = 1) =>
 			Array.from({ length: n }, (_, i) => from - i * step);
 
-		// The count stops 1,000 past the page's start; later pages count on from there.
+		// Not searched, the list's total is the store's tally of jobs (migration 0020): exact on
+		// every page, without counting.
 		expect(await find({ pageSize: 50 })).toEqual({
 			numbers: desc(6100, 50),
-			total: 1000,
-			totalCapped: true
+			total: 1100,
+			totalCapped: false
 		});
 		expect(await find({ page: 2 })).toMatchObject({ total: 1100, totalCapped: false });
+		expect(await find({ status: 'draft', page: 2 })).toMatchObject({ total: 1100 });
+		expect(await find({ status: 'sold' })).toEqual({ numbers: [], total: 0, totalCapped: false });
+		// A page past the middle is read from the far end of the order: the same rows, in order.
 		expect(await find({ page: 11 })).toEqual({
 			numbers: desc(5100, 100),
 			total: 1100,
 			totalCapped: false
 		});
+		expect(await find({ page: 3, pageSize: 500 })).toEqual({
+			numbers: desc(5100, 100),
+			total: 1100,
+			totalCapped: false
+		});
+		expect((await find({ sort: 'number', dir: 'asc', page: 21, pageSize: 50 })).numbers).toEqual(
+			Array.from({ length: 50 }, (_, i) => 6001 + i)
+		);
+		expect(await find({ page: 12 })).toEqual({ numbers: [], total: 1100, totalCapped: false });
+		// Sorted by customer, descending, near the end: Ivo Thistle's last forty jobs (each name's
+		// newest first), then Greta Oakhurst's first ten; every page, forwards or from the end, the
+		// same as the whole list cut into pages.
+		const ivoDesc = desc(6100, 1100).filter((n) => n % 10 !== 0);
+		expect((await find({ sort: 'customer', dir: 'desc', page: 20, pageSize: 50 })).numbers).toEqual(
+			[...ivoDesc.slice(950, 990), ...desc(6100, 10, 10)]
+		);
+		const whole = [...ivoDesc, ...desc(6100, 110, 10)];
+		for (const page of [1, 7, 11, 12, 13, 22]) {
+			const { numbers } = await find({ sort: 'customer', dir: 'desc', page, pageSize: 50 });
+			expect(numbers).toEqual(whole.slice((page - 1) * 50, page * 50));
+		}
 
 		// Few matches (fewer than a page among the list's first rows): found through the search
 		// function, counted exactly.

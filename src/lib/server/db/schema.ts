@@ -296,6 +296,23 @@ export const jobNameTrigram = pgTable(
 ).enableRLS();
 
 /**
+ * How many of a store's jobs are in each status, per salesperson ('' for none): kept by triggers
+ * on `job` in the same transaction as the change, never by the app (migration 0020). The job list
+ * reads its total here instead of counting a large store's index entries, and with the total it
+ * reads a page past the middle from the far end of the order.
+ */
+export const jobTally = pgTable(
+	'job_tally',
+	{
+		organizationId: storeId(),
+		status: jobStatus('status').notNull(),
+		salespersonId: text('salesperson_id').notNull().default(''),
+		jobs: integer('jobs').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.organizationId, t.status, t.salespersonId] }), storeIsolation]
+).enableRLS();
+
+/**
  * The last job number a store gave. Numbers are never given twice, even after a job is deleted:
  * the next job takes this plus one (the row lock serialises two people creating at once).
  */

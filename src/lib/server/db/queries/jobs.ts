@@ -22,6 +22,7 @@ import {
 	job,
 	jobEvent,
 	jobNumberCounter,
+	jobTally,
 	member,
 	payment,
 	quote,
@@ -108,9 +109,9 @@ export const SEARCH_WINDOW = 2000;
  * depends on a parameter, so PostgreSQL planned the list's page again on every request and
  * counted through the wrong index (bench/README.md). One statement text per status: a closed set.
  */
-function statusIs(status: JobStatus): SQL {
+function statusIs(status: JobStatus, column: AnyColumn = job.status): SQL {
 	if (!JOB_STATUSES.includes(status)) throw new Error(`Not a job status: ${status}`);
-	return sql`${job.status} = ${sql.raw(`'${status}'`)}`;
+	return sql`${column} = ${sql.raw(`'${status}'`)}`;
 }
 
 /**
@@ -129,12 +130,31 @@ function counted(rows: JobRow[], matches: number, offset: number): Page {
 	return { rows, total: Math.min(matches, upTo), totalCapped: matches > upTo };
 }
 
+/**
+ * How many jobs the list holds, read from the store's tally (migration 0020) instead of counted:
+ * for a list that nothing but the viewer, the status and the salesperson narrows (the tally's
+ * keys); undefined for any other. Its values are the list's placeholders.
+ */
+function tallyOf(tx: StoreTx, viewer: JobViewer, query: ListQuery) {
+	if (query.customerId || (viewer.kind !== 'store' && viewer.kind !== 'sold')) return undefined;
+	const where = [eq(jobTally.organizationId, sql.placeholder('store'))];
+	if (viewer.kind === 'sold') where.push(eq(jobTally.salespersonId, sql.placeholder('viewer')));
+	if (query.salespersonId) where.push(eq(jobTally.salespersonId, sql.placeholder('salesperson')));
+	if (query.status) where.push(statusIs(query.status, jobTally.status));
+	return tx
+		.select({ n: sql<number>`coalesce(sum(${jobTally.jobs}), 0)::int`.as('n') })
+		.from(jobTally)
+		.where(and(...where));
+}
+
 type ListQuery = JobListQuery & { customerId?: string; salespersonId?: string };
 type Page = { rows: JobRow[]; total: number; totalCapped: boolean };
 
 /**
- * A page of the store's jobs as the viewer may see them, and how many there are: exact up to
- * COUNT_CAP past the page's start, then `totalCapped` says there are more than `total`. A search
+ * A page of the store's jobs as the viewer may see them, and how many there are. Not searched, and
+ * narrowed by nothing but the viewer's scope, the status and the salesperson, the total is the
+ * store's tally (exact, never capped). Otherwise it is exact up to COUNT_CAP past the page's start,
+ * then `totalCapped` says there are more than `total`. A search
  * that finds a page among the list's first SEARCH_WINDOW rows says only that more match than
  * the page shows (`total` is then the page's end, capped).
  */
@@ -164,10 +184,20 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 	const sortColumn = sortColumns[query.sort];
 	const orderBy = [order(sortColumn), desc(job.number)];
 	const offset = (query.page - 1) * query.pageSize;
-	if (!query.q)
+	if (!query.q) {
+		const tally = tallyOf(tx, viewer, query);
+		if (tally) {
+			const reversed = [(order === asc ? desc : asc)(sortColumn), asc(job.number)];
+			return talliedPage(tx, and(...filters), { orderBy, reversed }, offset, query.pageSize, {
+				values,
+				shape: shape.join(' '),
+				tally
+			});
+		}
 		return pageOf(tx, and(...filters), orderBy, offset, query.pageSize, values, {
 			shape: shape.join(' ')
 		});
+	}
 
 	const pattern = likePattern(query.q);
 	const asNumber = /^j?-?(\d{1,9})$/i.exec(query.q)?.[1];
@@ -338,6 +368,54 @@ async function walkNames(
 	if (!walked?.ids) return undefined;
 	return { ids: walked.ids, matches: walked.matches };
 }
+
+/**
+ * The page of the jobs `where` selects when the store's tally (`tally`, migration 0020) says how
+ * many there are: exactly, without counting. A first page reads the tally in the same statement; a
+ * later page reads it first, and a page past the middle is read from the far end of the order
+ * (`reversed`, the same index read backwards), so it skips what lies after it rather than what lies
+ * before: the last page but one of 100,000 jobs skips 50 entries, not 99,900.
+ */
+async function talliedPage(
+	tx: StoreTx,
+	where: SQL | undefined,
+	{ orderBy, reversed }: { orderBy: SQL[]; reversed: SQL[] },
+	offset: number,
+	pageSize: number,
+	{ values, shape, tally }: { values: Record<string, unknown>; shape: string; tally: Tally }
+): Promise<Page> {
+	if (!offset) {
+		const build = () =>
+			tx
+				.select({ ...jobColumns, matches: sql<number>`(${tally})` })
+				.from(job)
+				.where(where)
+				.orderBy(...orderBy)
+				.limit(sql.placeholder('pageSize'));
+		const withTotal = await runShape(tx, `tallied ${shape}`, build, { ...values, pageSize });
+		const rows: JobRow[] = withTotal.map(({ matches: _, ...row }) => row);
+		return { rows, total: withTotal[0]?.matches ?? 0, totalCapped: false };
+	}
+	const [{ n: total }] = await runNamed(tally, values);
+	if (offset >= total) return { rows: [], total, totalCapped: false };
+	const fromEnd = offset * 2 > total;
+	const numbers = tx
+		.select({ number: job.number })
+		.from(job)
+		.where(where)
+		.orderBy(...(fromEnd ? reversed : orderBy))
+		.limit(fromEnd ? Math.min(pageSize, total - offset) : pageSize)
+		.offset(fromEnd ? Math.max(0, total - offset - pageSize) : offset);
+	const rows = await runNamed(
+		selectJobs(tx)
+			.where(and(eq(job.organizationId, tx.storeId), inArray(job.number, numbers)))
+			.orderBy(...orderBy),
+		values
+	);
+	return { rows, total, totalCapped: false };
+}
+
+type Tally = NonNullable<ReturnType<typeof tallyOf>>;
 
 /**
  * The page of the jobs `where` selects, and how many there are (up to COUNT_CAP past the page's
