@@ -1,6 +1,6 @@
 // The job list's pages as the browser gets them (server-rendered HTML through the real hooks): a
 // search whose count stops at the page (a page and one more found, not how many) still offers the
-// next page, from the first page on.
+// next page, from the first page on; the store's list, whose total is exact, its first and last.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { inStore } from '$lib/server/db/tenant';
 import * as jobs from '$lib/server/db/queries/jobs';
@@ -52,5 +52,19 @@ describe('the job list pager', { timeout: 60_000 }, () => {
 		expect(second).toContain('Page 2 of 2 · 30 in all');
 		expect(second).toContain('Oak hall 1 ');
 		expect(second).toContain('Previous');
+	});
+
+	it("offers the first and last pages of the store's list, whose total is exact", async () => {
+		const first = await owner.request('/app/jobs?pageSize=10');
+		expect(first.text).toMatch(/href="\?pageSize=10&amp;page=3"[^>]*>Last</);
+		expect(await textOf('/app/jobs?pageSize=10')).toContain('Page 1 of 3 · 30 in all');
+		// The last page, read from the end of the order: the oldest jobs, and a way back.
+		const last = await owner.request('/app/jobs?pageSize=10&page=3');
+		expect(last.text).toMatch(/href="\?pageSize=10&amp;page=1"[^>]*>First</);
+		const lastText = await textOf('/app/jobs?pageSize=10&page=3');
+		expect(lastText).toContain('Page 3 of 3 · 30 in all');
+		expect(lastText).toContain('Oak hall 1 ');
+		expect(lastText).not.toContain('Oak hall 11 ');
+		expect(lastText).not.toMatch(/\bLast\b/);
 	});
 });
