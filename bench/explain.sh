@@ -44,19 +44,30 @@ if [ "$SHAPE" = new ]; then
 	# job's copy of it; a search tests the list's first 2,000 rows in its order, then asks the
 	# trigram indexes (`list` in queries/jobs.ts).
 	# The customer's phone and the people's names are per-row subqueries (planned in about half
-	# the time of the joins); a first page carries its capped count (`firstpage`).
+	# the time of the joins). Not searched, a list's total is the store's tally (migration 0020):
+	# a first page carries it (`firstpage`), and a page past the middle is read from the end of the
+	# order (`fromend`).
 	COLS17="select j.id, j.number, j.title, j.status, j.customer_id, j.customer_name, (select c.phone from customer c where c.id = j.customer_id and c.organization_id = j.organization_id), j.site_id, j.installer_id, (select u.name from \"user\" u where u.id = j.installer_id), j.salesperson_id, (select u.name from \"user\" u where u.id = j.salesperson_id), j.notes, j.status_changed_at, j.updated_at, j.created_at"
-	firstpage() { echo "$COLS17, (select count(*)::int from (select 1 from job where $1 limit 1001) counted) from job j where $1 order by $2 limit 50"; }
+	# firstpage <where on job> <where on job_tally> <order>
+	firstpage() { echo "$COLS17, (select coalesce(sum(t.jobs), 0)::int from job_tally t where $2) from job j where $1 order by $3 limit 50"; }
+	# fromend <where> <reversed order> <order> <limit> <offset from the end>
+	fromend() { echo "$COLS17 from job j where j.organization_id = '$S' and j.number in (select number from job where $1 order by $2 limit $4 offset $5) order by $3"; }
 	SEL17="$COLS17 from job j"
 	capped() { echo "select count(*) from (select 1 from job j where $1 limit $(($2 + 1001))) counted"; }
 	# window <sort column> <asc|desc> <text>: the page and one more match among the first 2,000 rows.
 	window() { echo "$SEL17 where j.organization_id = '$S' and j.id in (select w.id from (select id, title, customer_name, number, $1 as sort_key from job where organization_id = '$S' order by $1 $2, number desc limit 2000) w where (w.title ilike '%$3%' or w.customer_name ilike '%$3%') order by w.sort_key $2, w.number desc limit 51) order by j.$1 $2, j.number desc"; }
 	echo "== store $N (new query shape)"
-	echo "== list: sold, by updated, with its capped count"; q "$(firstpage "organization_id = '$S' and status = 'sold'" "updated_at desc, number desc")"
-	echo "== list: all, by number, with its capped count"; q "$(firstpage "organization_id = '$S'" "number desc, number desc")"
-	echo "== list: all, by customer, with its capped count"; q "$(firstpage "organization_id = '$S'" "customer_name asc, number desc")"
-	echo "== list: all, by number, page 1000 of 50"; q "$SEL17 where j.organization_id = '$S' and j.id in (select j.id from job j where j.organization_id = '$S' order by j.number desc, j.number desc limit 50 offset 49950) order by j.number desc, j.number desc"
-	echo "== count: all, page 1000 of 50, capped"; q "$(capped "j.organization_id = '$S'" 49950)"
+	echo "== list: sold, by updated, with its total from the tally"; q "$(firstpage "organization_id = '$S' and status = 'sold'" "t.organization_id = '$S' and t.status = 'sold'" "updated_at desc, number desc")"
+	echo "== list: all, by number, with its total from the tally"; q "$(firstpage "organization_id = '$S'" "t.organization_id = '$S'" "number desc, number desc")"
+	echo "== list: all, by customer, with its total from the tally"; q "$(firstpage "organization_id = '$S'" "t.organization_id = '$S'" "customer_name asc, number desc")"
+	echo "== list: the tally's total alone (a later page reads it first)"; q "select coalesce(sum(t.jobs), 0)::int from job_tally t where t.organization_id = '$S'"
+	TOTAL=$(psql_ -U postgres flushline_bench -Atc "select count(*) from job where organization_id = '$S'")
+	LATE=$((TOTAL / 50 - 1))
+	SKIP=$(((LATE - 1) * 50))
+	FROM_END=$((TOTAL - SKIP - 50 > 0 ? TOTAL - SKIP - 50 : 0))
+	echo "== list: all, by number, page $LATE of 50 (the bench's last page but one), read from the end"; q "$(fromend "organization_id = '$S'" "number asc, number asc" "number desc, number desc" 50 $FROM_END)"
+	echo "== list: all, by number, page $LATE of 50 skipped to from the start (before migration 0020)"; q "$SEL17 where j.organization_id = '$S' and j.number in (select number from job where organization_id = '$S' order by number desc, number desc limit 50 offset $SKIP) order by j.number desc, j.number desc"
+	echo "== count: all, page $LATE of 50, capped (before migration 0020)"; q "$(capped "j.organization_id = '$S'" $SKIP)"
 	echo "== search \"oak\", by number: the first 2,000 rows in the list's order hold a page"; q "$(window number desc oak)"
 	echo "== search \"orwin\", by number: the same"; q "$(window number desc orwin)"
 	echo "== search \"oak\", by customer: the first 2,000 rows in name order (no page there here, so then the function)"; q "$(window customer_name asc oak)"

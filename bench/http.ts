@@ -26,6 +26,7 @@ import { defaultSettings } from '../src/lib/estimating/index';
 import { samplePriceBook, sampleJob } from '../src/lib/estimating/sample';
 import { signatureHeader } from '../mocks/stripe/webhooks';
 import sharp from 'sharp';
+import { ensureChromium } from '../scripts/lib/system.js';
 
 /** The fake's signing secret (`LOCAL_STRIPE_WEBHOOK_SECRET` in src/lib/server/config.ts, which needs SvelteKit). */
 const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_flushline_local_fake_not_a_real_secret';
@@ -556,7 +557,8 @@ console.log(`\nserver peak memory (VmHWM): ${hwm.toFixed(0)} MB`);
 console.log(`server start to answering: ${((ready - started) / 1000).toFixed(1)} s`);
 
 if (process.env.BENCH_SKIP_BROWSER !== '1') {
-	const browser = await chromium.launch({ executablePath: '/usr/bin/chromium' });
+	// Debian's Chromium, installed as `npm test` installs it when a fresh machine has none.
+	const browser = await chromium.launch({ executablePath: ensureChromium() });
 	const pages: { who: string; cookie: string; path: string }[] = [
 		{ who: 'staff', cookie: owner, path: '/app' },
 		{ who: 'staff', cookie: owner, path: '/app/jobs' },

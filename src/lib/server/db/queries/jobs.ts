@@ -396,21 +396,31 @@ async function talliedPage(
 		const rows: JobRow[] = withTotal.map(({ matches: _, ...row }) => row);
 		return { rows, total: withTotal[0]?.matches ?? 0, totalCapped: false };
 	}
-	const [{ n: total }] = await runNamed(tally, values);
+	const [{ n: total }] = await runShape(tx, `tally ${shape}`, () => tally, values);
 	if (offset >= total) return { rows: [], total, totalCapped: false };
 	const fromEnd = offset * 2 > total;
-	const numbers = tx
-		.select({ number: job.number })
-		.from(job)
-		.where(where)
-		.orderBy(...(fromEnd ? reversed : orderBy))
-		.limit(fromEnd ? Math.min(pageSize, total - offset) : pageSize)
-		.offset(fromEnd ? Math.max(0, total - offset - pageSize) : offset);
-	const rows = await runNamed(
-		selectJobs(tx)
-			.where(and(eq(job.organizationId, tx.storeId), inArray(job.number, numbers)))
-			.orderBy(...orderBy),
-		values
+	const rows = await runShape(
+		tx,
+		`${fromEnd ? 'from the end' : 'later'} ${shape}`,
+		() => {
+			const numbers = tx
+				.select({ number: job.number })
+				.from(job)
+				.where(where)
+				.orderBy(...(fromEnd ? reversed : orderBy))
+				.limit(sql.placeholder('limit'))
+				.offset(sql.placeholder('skip'));
+			return selectJobs(tx)
+				.where(and(eq(job.organizationId, sql.placeholder('store')), inArray(job.number, numbers)))
+				.orderBy(...orderBy);
+		},
+		fromEnd
+			? {
+					...values,
+					limit: Math.min(pageSize, total - offset),
+					skip: Math.max(0, total - offset - pageSize)
+				}
+			: { ...values, limit: pageSize, skip: offset }
 	);
 	return { rows, total, totalCapped: false };
 }
