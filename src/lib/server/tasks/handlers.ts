@@ -1,12 +1,14 @@
 import type PgBoss from 'pg-boss';
 import type Stripe from 'stripe';
 import type { z } from 'zod';
+import { mendTally } from '../db/queries/jobs';
 import { stripeAccount } from '../db/queries/settings';
 import { listStoreIds } from '../db/queries/stores';
 import { inStore } from '../db/tenant';
 import { checkPhotoFiles } from '../field/photos';
 import type { SendMail } from '../mail/send';
 import { syncStripeActivity } from '../payments/stripe-activity';
+import { log } from '../log';
 import { enqueue } from './index';
 import { TASK_KINDS, type TaskKind } from './kinds';
 
@@ -58,6 +60,9 @@ export const handlers: Handlers = {
 	},
 	periodic: async (_payload, _ctx, deps) => {
 		for (const storeId of await listStoreIds()) {
+			// The job list's totals (migration 0020), checked against counting the store's jobs.
+			if (await inStore(storeId, mendTally))
+				log.warn({ storeId }, "The store's tally of jobs differed from its jobs: mended");
 			await inStore(storeId, async (tx) => {
 				if (!(await stripeAccount(tx))) return;
 				await enqueue(
