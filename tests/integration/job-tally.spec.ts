@@ -149,7 +149,7 @@ describe("the store's tally of jobs", () => {
 		for (let i = 0; i < 3; i++) await makeJob(store.id, store.owner.id, customer.id);
 		await makeJob(other.id, other.owner.id);
 		expect(await inStore(store.id, jobs.mendTally)).toBe(false);
-		// As a copy made with triggers off would leave it: one row wrong, one missing, one extra.
+		// As a copy made with triggers off might leave it: a count wrong, and a row of no jobs.
 		await inStore(store.id, (tx) =>
 			tx.execute(sql`update job_tally set jobs = 7 where organization_id = ${store.id}`)
 		);
