@@ -2,14 +2,13 @@
 // its totals from: kept by the database in the same transaction as every change to `job`, whoever
 // makes it, and always equal to counting the jobs; checked and mended by the periodic task.
 import { describe, expect, it } from 'vitest';
-import { sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import * as jobs from '$lib/server/db/queries/jobs';
 import { user } from '$lib/server/db/schema';
 import { jobScope } from '$lib/server/object-access';
 import { grantsOf } from '$lib/server/permissions';
-import { eq } from 'drizzle-orm';
 import { addMember, makeCustomer, makeJob, makeStore } from './factories';
 
 type Row = { status: string; salesperson: string; jobs: number };

@@ -385,44 +385,96 @@ async function talliedPage(
 	{ values, shape, tally }: { values: Record<string, unknown>; shape: string; tally: Tally }
 ): Promise<Page> {
 	if (!offset) {
-		const build = () =>
-			tx
-				.select({ ...jobColumns, matches: sql<number>`(${tally})` })
-				.from(job)
-				.where(where)
-				.orderBy(...orderBy)
-				.limit(sql.placeholder('pageSize'));
-		const withTotal = await runShape(tx, `tallied ${shape}`, build, { ...values, pageSize });
-		const rows: JobRow[] = withTotal.map(({ matches: _, ...row }) => row);
-		return { rows, total: withTotal[0]?.matches ?? 0, totalCapped: false };
+		const first = await firstPage(tx, where, orderBy, pageSize, sql`(${tally})`, values, {
+			shape: `tallied ${shape}`
+		});
+		return { rows: first.rows, total: first.matches, totalCapped: false };
 	}
 	const [{ n: total }] = await runShape(tx, `tally ${shape}`, () => tally, values);
 	if (offset >= total) return { rows: [], total, totalCapped: false };
-	const fromEnd = offset * 2 > total;
-	const rows = await runShape(
-		tx,
-		`${fromEnd ? 'from the end' : 'later'} ${shape}`,
-		() => {
-			const numbers = tx
-				.select({ number: job.number })
-				.from(job)
-				.where(where)
-				.orderBy(...(fromEnd ? reversed : orderBy))
-				.limit(sql.placeholder('limit'))
-				.offset(sql.placeholder('skip'));
-			return selectJobs(tx)
-				.where(and(eq(job.organizationId, sql.placeholder('store')), inArray(job.number, numbers)))
-				.orderBy(...orderBy);
-		},
-		fromEnd
-			? {
-					...values,
-					limit: Math.min(pageSize, total - offset),
-					skip: Math.max(0, total - offset - pageSize)
-				}
-			: { ...values, limit: pageSize, skip: offset }
-	);
+	const rows =
+		offset * 2 > total
+			? await laterPage(
+					tx,
+					where,
+					{ skipOrder: reversed, orderBy },
+					Math.min(pageSize, total - offset),
+					Math.max(0, total - offset - pageSize),
+					values,
+					{ shape: `from the end ${shape}` }
+				)
+			: await laterPage(tx, where, { skipOrder: orderBy, orderBy }, pageSize, offset, values, {
+					shape: `later ${shape}`
+				});
 	return { rows, total, totalCapped: false };
+}
+
+/**
+ * A first page in the list's order, and `matches` (an uncorrelated subquery, so it runs once, not
+ * per row) in the same statement: one round trip for the page and how many there are. Built once
+ * per `shape` when there is one (runShape).
+ */
+async function firstPage(
+	tx: StoreTx,
+	where: SQL | undefined,
+	orderBy: SQL[],
+	pageSize: number,
+	matches: SQL,
+	values: Record<string, unknown>,
+	{ shape }: { shape?: string } = {}
+): Promise<{ rows: JobRow[]; matches: number }> {
+	const build = () =>
+		tx
+			.select({ ...jobColumns, matches: sql<number>`${matches}` })
+			.from(job)
+			.where(where)
+			.orderBy(...orderBy)
+			.limit(sql.placeholder('pageSize'));
+	const all = { ...values, pageSize };
+	const found = shape ? await runShape(tx, shape, build, all) : await runNamed(build(), all);
+	return {
+		rows: found.map(({ matches: _, ...row }) => row),
+		matches: found[0]?.matches ?? 0
+	};
+}
+
+/**
+ * A later page: `limit` rows after `skip` in `skipOrder`, skipped on `job` alone, then read with
+ * their people for the page's rows only (not for every row skipped), in the list's `orderBy`. It
+ * skips by the job's number, not its id: the number is unique in the store and ends the indexes of
+ * the sorts by number, last change and customer, so the skipping reads the index alone, not the
+ * rows (a page 5,000 into the big store's sold jobs: 42 ms by id, 1.2 ms by number;
+ * bench/README.md). Built once per `shape` when there is one (runShape).
+ */
+function laterPage(
+	tx: StoreTx,
+	where: SQL | undefined,
+	{ skipOrder, orderBy }: { skipOrder: SQL[]; orderBy: SQL[] },
+	limit: number,
+	skip: number,
+	values: Record<string, unknown>,
+	{ shape }: { shape?: string } = {}
+): Promise<JobRow[]> {
+	const build = () =>
+		selectJobs(tx)
+			.where(
+				and(
+					eq(job.organizationId, sql.placeholder('store')),
+					inArray(
+						job.number,
+						tx
+							.select({ number: job.number })
+							.from(job)
+							.where(where)
+							.orderBy(...skipOrder)
+							.limit(sql.placeholder('limit'))
+							.offset(sql.placeholder('skip'))
+					)
+				)
+			)
+			.orderBy(...orderBy);
+	const all = { ...values, limit, skip };
+	return shape ? runShape(tx, shape, build, all) : runNamed(build(), all);
 }
 
 type Tally = NonNullable<ReturnType<typeof tallyOf>>;
@@ -442,53 +494,23 @@ async function pageOf(
 ): Promise<Page> {
 	const upTo = offset + COUNT_CAP;
 	// A first page that is to be counted: the page and its count in one statement (one round trip
-	// fewer on every list). The count is uncorrelated, so it runs once, not per row; every job has
-	// its store's customer (`job_customer_same_store_fk`), so it reads `job` alone, and only as far
-	// as `upTo`: an exact count of 100,000 jobs reads 100,000 index entries.
+	// fewer on every list). Every job has its store's customer (`job_customer_same_store_fk`), so
+	// the count reads `job` alone, and only as far as `upTo`: an exact count of 100,000 jobs reads
+	// 100,000 index entries.
 	if (!offset && knows === undefined) {
-		const build = () =>
-			tx
-				.select({
-					...jobColumns,
-					matches: sql<number>`(select count(*)::int from (select 1 from ${job} where ${where} limit ${sql.placeholder('countTo')}) counted)`
-				})
-				.from(job)
-				.where(where)
-				.orderBy(...orderBy)
-				.limit(sql.placeholder('pageSize'));
-		const all = { ...values, countTo: upTo + 1, pageSize };
-		const withCount = shape
-			? await runShape(tx, `first ${shape}`, build, all)
-			: await runNamed(build(), all);
-		const rows: JobRow[] = withCount.map(({ matches: _, ...row }) => row);
-		return counted(rows, withCount[0]?.matches ?? 0, offset);
+		const first = await firstPage(
+			tx,
+			where,
+			orderBy,
+			pageSize,
+			sql`(select count(*)::int from (select 1 from ${job} where ${where} limit ${sql.placeholder('countTo')}) counted)`,
+			{ ...values, countTo: upTo + 1 },
+			{ shape: shape && `first ${shape}` }
+		);
+		return counted(first.rows, first.matches, offset);
 	}
-	// A later page skips its offset on `job` alone, then reads its people for the page's rows:
-	// not for every row skipped. It skips by the job's number, not its id: the number is unique in
-	// the store and ends the indexes of the sorts by number, last change and customer, so the
-	// skipping reads the index alone, not the rows (a page 5,000 into the big store's sold jobs:
-	// 42 ms by id, 1.2 ms by number; bench/README.md).
 	const rows = offset
-		? await runNamed(
-				selectJobs(tx)
-					.where(
-						and(
-							eq(job.organizationId, tx.storeId),
-							inArray(
-								job.number,
-								tx
-									.select({ number: job.number })
-									.from(job)
-									.where(where)
-									.orderBy(...orderBy)
-									.limit(pageSize)
-									.offset(offset)
-							)
-						)
-					)
-					.orderBy(...orderBy),
-				values
-			)
+		? await laterPage(tx, where, { skipOrder: orderBy, orderBy }, pageSize, offset, values)
 		: await runNamed(
 				selectJobs(tx)
 					.where(where)
@@ -590,10 +612,8 @@ export async function mendTally(tx: StoreWriteTx): Promise<boolean> {
 	if (!(await tx.execute(differs)).rows.length) return false;
 	await tx.execute(sql`lock table ${job} in share mode`);
 	if (!(await tx.execute(differs)).rows.length) return false;
-	await tx.delete(jobTally).where(eq(jobTally.organizationId, tx.storeId));
-	await tx.execute(sql`insert into ${jobTally} (organization_id, status, salesperson_id, jobs)
-		select organization_id, status, coalesce(salesperson_id, ''), count(*)::int
-		from ${job} where organization_id = ${tx.storeId} group by 1, 2, 3`);
+	// The migration's own count (run as the app, under the store policy: this store's rows only).
+	await tx.execute(sql`select job_tally_fill(${tx.storeId})`);
 	return true;
 }
 
