@@ -99,4 +99,22 @@ test.describe(() => {
 		await expect(page.getByRole('row', { name: /Living room oak/ })).toBeVisible();
 		await expect(page.getByRole('row', { name: /Upstairs landing carpet/ })).toHaveCount(0);
 	});
+
+	test('a calculator sent empty before the page is live comes back pointing at the first missing field', async ({
+		page
+	}) => {
+		const release = await holdScripts(page);
+		await page.goto('/app/calculators?c=leveller', { waitUntil: 'domcontentloaded' });
+		const area = page.getByLabel('Area to level');
+		await area.focus();
+		await page.keyboard.press('Enter');
+		// The plain post came back with the server's answer, still before the page is live.
+		await expect(area).toHaveAttribute('aria-invalid', 'true');
+		await expect(html(page)).not.toHaveAttribute('data-hydrated');
+
+		release();
+		await expect(html(page)).toHaveAttribute('data-hydrated', '');
+		await expect(area).toBeFocused();
+		await expect(area).toHaveAccessibleDescription(/Enter the area to level/);
+	});
 });
