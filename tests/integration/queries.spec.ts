@@ -435,6 +435,28 @@ describe('jobs across stores', () => {
 		).rejects.toThrow(/names two different queries/);
 	});
 
+	it("keeps one plan for a first page of the list's usual sizes, and pages any other size", async () => {
+		const staff = jobScope(grantsOf('owner'), b.owner.id);
+		const plans = await inStore(b.id, async (tx) => {
+			// PostgreSQL tries a prepared statement's custom plan five times, then keeps the generic
+			// one if it costs no more; a `LIMIT` that is a parameter never got there.
+			for (let i = 0; i < 8; i++) await jobs.list(tx, { ...jobPage, pageSize: 25 }, staff);
+			const { rows } = await tx.execute<{ generic: number; custom: number }>(
+				sql`select generic_plans::int as generic, custom_plans::int as custom
+				    from pg_prepared_statements
+				    where statement like '%job_tally%' and statement like '%limit 25'`
+			);
+			return rows;
+		});
+		expect(plans).toHaveLength(1);
+		expect(plans[0].generic).toBeGreaterThanOrEqual(3);
+		// Another size is a parameter: the same jobs, cut there.
+		const all = await inStore(b.id, (tx) => jobs.list(tx, jobPage, staff));
+		const odd = await inStore(b.id, (tx) => jobs.list(tx, { ...jobPage, pageSize: 1 }, staff));
+		expect(odd.rows.map((r) => r.id)).toEqual(all.rows.slice(0, 1).map((r) => r.id));
+		expect(odd.total).toBe(all.total);
+	});
+
 	it('numbers jobs per store from 1001', async () => {
 		const store = await makeStore('Numbering Floors');
 		const first = await makeJob(store.id, store.owner.id);
