@@ -40,10 +40,12 @@ const CHECK_SHAPES = process.env.VITEST !== undefined;
  * from `values`, and whose SQL text `shape` alone decides: built and prepared by drizzle the first
  * time the shape is seen, then only run. Building a page of the job list took longer in the app
  * than running it in PostgreSQL (bench/README.md, "Built once"). Like `runNamed`, a prepared
- * statement named after its text.
+ * statement named after its text. With `tx` null it runs on the pool, outside any store (a read
+ * made before the store is known, such as the member's own); such a shape is built on `db`, and
+ * always run with null.
  */
 export function runShape<R>(
-	tx: StoreTx,
+	tx: StoreTx | null,
 	shape: string,
 	build: () => Preparable<R>,
 	values: Values
@@ -57,6 +59,7 @@ export function runShape<R>(
 	} else if (CHECK_SHAPES && nameOf(build().toSQL().sql) !== kept.name) {
 		throw new Error(`The shape "${shape}" names two different queries`);
 	}
+	if (!tx) return kept.prepared.execute(values);
 	// drizzle's prepared query runs on the client it was first prepared on (`client`): this run's
 	// copy of it runs on this transaction's client instead.
 	const mine = Object.create(kept.prepared, { client: { value: clientOf(tx) } }) as Prepared<R>;

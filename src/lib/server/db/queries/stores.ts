@@ -2,6 +2,7 @@ import { and, asc, desc, eq, gt, isNotNull, sql, type SQL } from 'drizzle-orm';
 import { isRole, SALES_JOB_SCOPES, type Role, type StoreAccess } from '../../permissions';
 import { timeZoneOr } from '../../../time-zone';
 import { db } from '../index';
+import { runShape } from '../named';
 import { invitation, member, organization, session, storeProfile, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 
@@ -88,28 +89,29 @@ async function memberships(userId: string, order: SQL): Promise<Membership[]> {
 	return rows.map(toMembership).filter((m): m is Membership => m !== null);
 }
 
-const buildReadMembership = () =>
-	db
-		.select(membershipColumns)
-		.from(member)
-		.innerJoin(organization, eq(organization.id, member.organizationId))
-		.where(
-			and(
-				eq(member.userId, sql.placeholder('user')),
-				eq(member.organizationId, sql.placeholder('store'))
-			)
-		)
-		.prepare('read_membership');
-let membershipQuery: ReturnType<typeof buildReadMembership> | undefined;
-
 /**
  * The user's membership of one store, if any. Every signed-in request reads it (hooks.server.ts),
- * so it is built once and prepared by name: each pooled connection parses it once and keeps its
- * plan, where building and planning it again took about as long as the session's own read.
+ * so it is built once and prepared by name (runShape, on the pool): each pooled connection parses
+ * it once and keeps its plan, where building and planning it again took about as long as the
+ * session's own read.
  */
 export async function readMembership(userId: string, storeId: string): Promise<Membership | null> {
-	membershipQuery ??= buildReadMembership();
-	const [row] = await membershipQuery.execute({ user: userId, store: storeId });
+	const [row] = await runShape(
+		null,
+		'membership of a store',
+		() =>
+			db
+				.select(membershipColumns)
+				.from(member)
+				.innerJoin(organization, eq(organization.id, member.organizationId))
+				.where(
+					and(
+						eq(member.userId, sql.placeholder('user')),
+						eq(member.organizationId, sql.placeholder('store'))
+					)
+				),
+		{ user: userId, store: storeId }
+	);
 	return row ? toMembership(row) : null;
 }
 
