@@ -130,7 +130,7 @@ const LITERAL_PAGE_SIZES: readonly number[] = [10, 20, 25, 50, 100];
  * it is, so the literal goes in as raw SQL under a placeholder's type.
  */
 function pageLimit(pageSize: number): { limit: Placeholder; shape: string } {
-	if (!Number.isInteger(pageSize) || !LITERAL_PAGE_SIZES.includes(pageSize))
+	if (!LITERAL_PAGE_SIZES.includes(pageSize))
 		return { limit: sql.placeholder('pageSize'), shape: 'n' };
 	return { limit: sql.raw(String(pageSize)) as unknown as Placeholder, shape: String(pageSize) };
 }
