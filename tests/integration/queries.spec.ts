@@ -74,6 +74,94 @@ describe('customers across stores', () => {
 		expect(await find('%')).toEqual(['100% Wool Rugs']);
 	});
 
+	// Texts of three letters or digits go through the trigram indexes (customer_search_ids, migration
+	// 0021), shorter ones and texts matching more than SEARCH_CAP customers are tested row by row: each
+	// way, the page and the count are what testing every customer in JavaScript gives.
+	it('finds the same pages and counts through the trigram indexes as by testing every row', async () => {
+		const store = await makeStore('Trigram Floors');
+		const other = await makeStore('Other Trigram Floors');
+		const names = ['Ashby', 'Nash', 'Cashmere', 'Ásh Lane', 'Greta Oak', 'Oakley', 'Ash Ash'];
+		const made: customers.Customer[] = [];
+		for (const [i, name] of names.entries()) {
+			made.push(
+				await inStore(store.id, (tx) =>
+					customers.create(tx, {
+						name,
+						email: i % 2 ? `${name.split(' ')[0].toLowerCase()}@mail.example` : null,
+						phone: i % 3 ? `555-01${String(i).padStart(2, '0')}` : null,
+						notes: ''
+					})
+				)
+			);
+		}
+		// Many more, all matching "Filler", so that one text matches more than SEARCH_CAP.
+		await inStore(store.id, (tx) =>
+			tx.execute(sql`insert into customer (id, organization_id, name, email, phone)
+				select 'filler-' || n, ${store.id}, 'Filler ' || lpad(n::text, 4, '0'),
+				       case when n % 7 = 0 then 'ash' || n || '@mail.example' end, '555-9' || lpad(n::text, 3, '0')
+				from generate_series(1, ${customers.SEARCH_CAP + 5}) n`)
+		);
+		await makeCustomer(other.id, 'Ashby of another store');
+
+		const everyone = await inStore(store.id, (tx) =>
+			tx.execute<{ id: string; name: string; email: string | null; phone: string | null }>(
+				sql`select id, name, email, phone from customer`
+			)
+		);
+		// PostgreSQL sorts names by the database's collation: the reference takes its order from there.
+		const order = (
+			await inStore(store.id, (tx) =>
+				tx.execute<{ id: string }>(sql`select id from customer order by name asc, id asc`)
+			)
+		).rows.map((r) => r.id);
+		const rank = new Map(order.map((id, i) => [id, i]));
+		const expected = (q: string) =>
+			everyone.rows
+				.filter((c) =>
+					[c.name, c.email, c.phone].some((v) => v?.toLowerCase().includes(q.toLowerCase()))
+				)
+				.sort((x, y) => rank.get(x.id)! - rank.get(y.id)!)
+				.map((c) => c.id);
+
+		for (const q of ['ash', 'ASH', 'sh', 'oak', '0102', '555-01', 'filler 10', 'mail.exa', 'zzz']) {
+			const want = expected(q);
+			for (const [pageNo, pageSize] of [
+				[1, 25],
+				[2, 3],
+				[40, 25],
+				[999, 25]
+			]) {
+				const got = await inStore(store.id, (tx) =>
+					customers.list(tx, { q, sort: 'name', dir: 'asc', page: pageNo, pageSize })
+				);
+				const start = (pageNo - 1) * pageSize;
+				expect({ q, pageNo, ids: got.rows.map((r) => r.id), total: got.total }).toEqual({
+					q,
+					pageNo,
+					ids: want.slice(start, start + pageSize),
+					total: want.length
+				});
+			}
+		}
+		// "ash" matches the names above and every seventh filler's e-mail: the indexes' way.
+		expect(expected('ash').length).toBeLessThanOrEqual(customers.SEARCH_CAP);
+		expect(expected('ash')).toContain(made[0].id);
+		// "filler" matches more than the cap: tested row by row, still exact.
+		expect(expected('filler').length).toBeGreaterThan(customers.SEARCH_CAP);
+		const fillers = await inStore(store.id, (tx) =>
+			customers.list(tx, { q: 'filler', sort: 'name', dir: 'desc', page: 1, pageSize: 5 })
+		);
+		expect(fillers.total).toBe(customers.SEARCH_CAP + 5);
+		expect(fillers.rows.map((r) => r.name)).toEqual(
+			[5, 4, 3, 2, 1].map((k) => `Filler ${String(customers.SEARCH_CAP + k).padStart(4, '0')}`)
+		);
+		// Never another store's customer of the same name.
+		const ashby = await inStore(store.id, (tx) =>
+			customers.list(tx, { q: 'ashby', sort: 'name', dir: 'asc', page: 1, pageSize: 25 })
+		);
+		expect(ashby.rows.map((r) => r.name)).toEqual(['Ashby']);
+	});
+
 	it('keeps a customer who has jobs', async () => {
 		expect(await inStore(b.id, (tx) => customers.remove(tx, bCustomer.id))).toBe('has_jobs');
 	});

@@ -212,11 +212,12 @@ describe('the job search function', () => {
 			        r.rolsuper, pg_has_role(current_user, r.oid, 'member') as app_is_member,
 			        (select count(*)::int from pg_tables t where t.tableowner = r.rolname) as owns
 			 from pg_proc p join pg_roles r on r.oid = p.proowner
-			 where p.proname in ('job_search_ids', 'job_search_by_customer', 'job_search_by_name_walk')`
+			 where p.proname in ('job_search_ids', 'job_search_by_customer', 'job_search_by_name_walk',
+			                     'customer_search_ids')`
 		);
-		expect(rows).toHaveLength(3);
+		expect(rows).toHaveLength(4);
 		expect(rows).toEqual(
-			Array(3).fill({
+			Array(4).fill({
 				prosecdef: true,
 				owner: 'flushline_search',
 				rolcanlogin: false,
@@ -231,7 +232,7 @@ describe('the job search function', () => {
 		);
 	});
 
-	it("gives its role nothing to write, and nothing to read but jobs' searched columns and names' trigrams", async () => {
+	it("gives its role nothing to write, and nothing to read but the searched columns and names' trigrams", async () => {
 		const { rows } = await pool.query<{ col: string }>(
 			`select c.relname || '.' || a.attname as col
 			 from pg_class c join pg_attribute a on a.attrelid = c.oid
@@ -246,6 +247,11 @@ describe('the job search function', () => {
 		);
 		expect(writes.rows).toEqual([]);
 		expect(rows.map((r) => r.col)).toEqual([
+			'customer.email',
+			'customer.id',
+			'customer.name',
+			'customer.organization_id',
+			'customer.phone',
 			'job.customer_name',
 			'job.id',
 			'job.number',
@@ -295,5 +301,41 @@ describe('the job search function', () => {
 			 where p.proname = 'job_search_by_customer'`
 		);
 		expect(rows).toEqual([{ prosecdef: true, owner: 'flushline_search' }]);
+	});
+});
+
+// The customers search (migration 0021) runs as the same role, reading every store's customers'
+// names, e-mails and phones through its policy: the function's walls keep it to one store.
+describe('the customers search function', () => {
+	const search = (c: PoolClient, pattern: string, cap = 1001) =>
+		c
+			.query<{ id: string }>(`select s.id from customer_search_ids($1, $2) as s(id)`, [
+				pattern,
+				cap
+			])
+			.then((r) => r.rows.map((row) => row.id).sort());
+	let aWren: string;
+	let bWren: string;
+
+	beforeAll(async () => {
+		aWren = (await makeCustomer(a.id, 'Wrenfield of Alpha')).id;
+		bWren = (await makeCustomer(b.id, 'Wrenfield of Beta')).id;
+	});
+
+	it("finds the store's own customers, never another store's", async () => {
+		expect(await asStore(a.id, (c) => search(c, '%wrenfield%'))).toEqual([aWren]);
+		expect(await asStore(b.id, (c) => search(c, '%wrenfield%'))).toEqual([bWren]);
+		const all = await asStore(a.id, (c) => search(c, '%', 10001));
+		const ofA = await asStore(a.id, (c) => c.query<{ id: string }>(`select id from customer`));
+		expect(all).toEqual(ofA.rows.map((r) => r.id).sort());
+		expect(all).not.toContain(bWren);
+		expect(await asStore('no-such-store', (c) => search(c, '%'))).toEqual([]);
+	});
+
+	it('refuses to run outside a store transaction or beyond its bounds', async () => {
+		await expect(asStore(null, (c) => search(c, '%wren%'))).rejects.toThrow(/app\.store_id/);
+		await expect(asStore(a.id, (c) => search(c, '%', 0))).rejects.toThrow(/cap/);
+		await expect(asStore(a.id, (c) => search(c, '%', 10002))).rejects.toThrow(/cap/);
+		await expect(asStore(a.id, (c) => search(c, 'x'.repeat(401)))).rejects.toThrow(/pattern/);
 	});
 });
