@@ -367,8 +367,12 @@ function run(
 
 // At the steady rate, answers that were not 2xx (a photo queue that is full answers 503) are not
 // timed: how many there were.
-const steadyText = (s: { count: number; other: number }) =>
-	s.other ? `; at 50/s 2xx:${s.count} other:${s.other}` : '';
+const steadyText = (s: { count: number; other: number; kinds: Record<string, number> }) =>
+	s.other
+		? `; at 50/s 2xx:${s.count} other:${s.other} (${Object.entries(s.kinds)
+				.map(([kind, n]) => `${kind}:${n}`)
+				.join(' ')})`
+		: '';
 
 const statusText = (r: autocannon.Result) =>
 	(['1xx', '2xx', '3xx', '4xx', '5xx'] as const)
@@ -411,10 +415,15 @@ async function steady(t: Target, rate: number, duration = seconds) {
 	child.stdout.on('data', (chunk) => (out += chunk));
 	const code = await new Promise<number | null>((r) => child.on('close', r));
 	if (code !== 0) throw new Error(`bench/steady.js ended with ${code}`);
-	const { times, other } = JSON.parse(out) as { times: number[]; other: number; late: number };
+	const { times, other, kinds } = JSON.parse(out) as {
+		times: number[];
+		other: number;
+		kinds: Record<string, number>;
+		late: number;
+	};
 	times.sort((a, b) => a - b);
 	const at = (q: number) => (times.length ? times[Math.ceil(q * times.length) - 1] : NaN);
-	return { p50: at(0.5), p99: at(0.99), count: times.length, other };
+	return { p50: at(0.5), p99: at(0.99), count: times.length, other, kinds };
 }
 
 // Warm-up, not counted: the server's first seconds (JIT, the pool's connections) would otherwise
@@ -425,14 +434,20 @@ for (const t of targets.slice(1)) await run(t, 1);
 /**
  * CPU time (ms) used so far by the server's process and by the cluster's processes (the
  * postmaster's children: the pool's backends among them), from /proc: where a route's time goes.
+ * A child that has ended (a backend the pool closed, an autovacuum worker) is counted through the
+ * postmaster's own total for its ended children, not dropped from the sum.
  */
 function cpuNow(): { server: number; postgres: number } {
 	const ticks = (pid: number | string) => {
 		try {
 			const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
-			return { ppid: Number(fields[1]), cpu: (Number(fields[11]) + Number(fields[12])) * 10 };
+			return {
+				ppid: Number(fields[1]),
+				cpu: (Number(fields[11]) + Number(fields[12])) * 10,
+				ended: (Number(fields[13]) + Number(fields[14])) * 10
+			};
 		} catch {
-			return { ppid: 0, cpu: 0 };
+			return { ppid: 0, cpu: 0, ended: 0 };
 		}
 	};
 	let postgres = 0;
@@ -440,6 +455,7 @@ function cpuNow(): { server: number; postgres: number } {
 		const master = Number(
 			readFileSync(path.join(cluster.dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]
 		);
+		postgres += ticks(master).ended;
 		for (const pid of readdirSync('/proc').filter((p) => /^\d+$/.test(p))) {
 			const t = ticks(pid);
 			if (t.ppid === master) postgres += t.cpu;

@@ -12,8 +12,8 @@
 // `fresh`: a 36-character placeholder in the body, replaced by a new UUID in each request (a
 // photo's client id, a webhook's event id); `signWith`: a webhook secret, to sign each body as
 // Stripe does (`t=…,v1=HMAC-SHA256(secret, "t.body")`). Output (stdout, JSON):
-// { times: [ms…] for 2xx answers, other: how many were not 2xx or failed, late: sends over 2 ms
-// behind their time }.
+// { times: [ms…] for 2xx answers, other: how many were not 2xx or failed, kinds: those by status
+// or error code ({ "503": 2, "ECONNRESET": 1 }), late: sends over 2 ms behind their time }.
 import { createHmac, randomUUID } from 'node:crypto';
 import http from 'node:http';
 
@@ -56,6 +56,12 @@ const gap = 1000 / rate;
 const total = Math.round(rate * seconds);
 const times = [];
 let other = 0;
+/** The answers that were not 2xx, by status, and the failures, by error code. */
+const kinds = new Map();
+const count = (kind) => {
+	other++;
+	kinds.set(kind, (kinds.get(kind) ?? 0) + 1);
+};
 let late = 0;
 let sent = 0;
 let finished = 0;
@@ -84,13 +90,13 @@ await new Promise((done) => {
 					res.resume();
 					res.on('end', () => {
 						if (res.statusCode >= 200 && res.statusCode < 300) times.push(performance.now() - due);
-						else other++;
+						else count(String(res.statusCode));
 						settle();
 					});
 				}
 			);
-			req.on('error', () => {
-				other++;
+			req.on('error', (e) => {
+				count(e.code ?? 'error');
 				settle();
 			});
 			req.end(body);
@@ -100,4 +106,4 @@ await new Promise((done) => {
 	setTimeout(tick, 50);
 });
 agent.destroy();
-process.stdout.write(JSON.stringify({ times, other, late }));
+process.stdout.write(JSON.stringify({ times, other, kinds: Object.fromEntries(kinds), late }));
