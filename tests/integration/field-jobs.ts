@@ -9,7 +9,8 @@ import { makeInstaller } from './field-factories';
 export async function makeBookedJob(
 	store: TestStore,
 	installer?: Awaited<ReturnType<typeof makeInstaller>>,
-	startsOn = new Date().toISOString().slice(0, 10)
+	startsOn = new Date().toISOString().slice(0, 10),
+	days = 2
 ) {
 	const paid = await makePaidJob(store);
 	const who = installer ?? (await makeInstaller(store));
@@ -19,7 +20,7 @@ export async function makeBookedJob(
 			jobId: paid.job.id,
 			installerId: who.user.id,
 			startsOn,
-			days: 2,
+			days,
 			proposedDays: paid.quote.result.schedule.days,
 			proposal: paid.quote.result.schedule,
 			notes: 'Key under the blue pot',

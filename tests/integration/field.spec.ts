@@ -1,7 +1,12 @@
 // The installer's phone, through the app as a browser reaches it: only assigned jobs, a work
 // order with no price in it, check-in, items sent (and resent) by the phone's outbox, two phones
 // merged by item, the report submitted once, and the job marked complete.
+import * as fieldQueries from '$lib/server/db/queries/field';
+import * as jobs from '$lib/server/db/queries/jobs';
+import { addDays } from '$lib/schedule/days';
+import { MAX_BOOKING_DAYS } from '$lib/schemas/crew';
 import {
+	booking,
 	changeOrder,
 	customer,
 	fieldItem,
@@ -85,6 +90,33 @@ describe('what an installer sees', () => {
 		const theirs = data(await other.page('/field')) as { todays: unknown[]; open: unknown[] };
 		expect(theirs.todays).toEqual([]);
 		expect(theirs.open).toEqual([]);
+	});
+
+	// The query is written so that no estimate can make it read an installer's whole history
+	// (bench/README.md): its bound on the first day must keep every booking still running.
+	it("lists an installer's live bookings not yet over, the longest one too, and no other", async () => {
+		const today = new Date().toISOString().slice(0, 10);
+		const who = await makeInstaller(store);
+		const longest = await makeBookedJob(store, who, addDays(today, 1 - MAX_BOOKING_DAYS), 60);
+		await makeBookedJob(store, who, addDays(today, -MAX_BOOKING_DAYS), 60); // ended yesterday
+		const later = await makeBookedJob(store, who, addDays(today, 5), 3);
+		const handedOn = await makeBookedJob(store, who, today, 1);
+		const cancelled = await makeBookedJob(store, who, addDays(today, 1), 1);
+		await inStore(store.id, async (tx) => {
+			const next = await makeInstaller(store);
+			expect(await jobs.assign(tx, handedOn.job.id, next.user.id, store.owner.id)).toBe('assigned');
+			await tx
+				.update(booking)
+				.set({ cancelledAt: new Date() })
+				.where(and(eq(booking.organizationId, store.id), eq(booking.jobId, cancelled.job.id)));
+		});
+		const listed = await readInStore(store.id, (tx) =>
+			fieldQueries.listBookingsFor(tx, who.user.id, today)
+		);
+		expect(listed.map((b) => [b.jobId, b.startsOn, b.endsOn])).toEqual([
+			[longest.job.id, addDays(today, 1 - MAX_BOOKING_DAYS), today],
+			[later.job.id, addDays(today, 5), addDays(today, 7)]
+		]);
 	});
 
 	it('answers 404 for a job not assigned to them, on the page, the PDF and the API', async () => {

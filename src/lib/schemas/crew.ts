@@ -88,6 +88,9 @@ export const timeOffSchema = z
 
 export const removeTimeOffSchema = z.object({ timeOffId: id });
 
+/** The most days one booking lasts (the `booking_days` check on the table says the same). */
+export const MAX_BOOKING_DAYS = 60;
+
 export const bookSchema = z.object({
 	jobId: id,
 	installerId: z
@@ -101,7 +104,7 @@ export const bookSchema = z.object({
 		.trim()
 		.optional()
 		.transform((v) => v || null)
-		.pipe(wholeNumber('the days', 1, 60).nullable()),
+		.pipe(wholeNumber('the days', 1, MAX_BOOKING_DAYS).nullable()),
 	arrivesAt: timeOfDay,
 	notes: notes(1000)
 });
