@@ -18,7 +18,9 @@ test.describe(() => {
 		await expect(names(page)).toHaveText(['Beatrix Fallowfield', 'Cosmo Penhallow']);
 		await expect(page.getByText(/Page 1 of \d+/)).toBeVisible();
 
-		// The next page comes from the JSON API, and the URL follows.
+		// Once the page is live, the next page comes from the JSON API, and the URL follows. (A click
+		// before the scripts have loaded is a plain link: the server renders page 2 instead.)
+		await expect(page.locator('html')).toHaveAttribute('data-hydrated', '');
 		const next = page.waitForResponse((r) => r.url().includes('/api/v1/customers?'));
 		await page.getByRole('link', { name: 'Next' }).click();
 		expect((await next).status()).toBe(200);
