@@ -64,10 +64,6 @@ test.describe(() => {
 		// 100 ft² × 1/4 in ÷ 12 = 2.083 ft³ × 1.10 ÷ 0.45 ft³ = 5.09 → 6 bags (TRADE.md Quantities)
 		await expect(page.getByTestId('calc-headline')).toHaveText('6 bags');
 	});
-});
-
-test.describe(() => {
-	test.use({ signedInAs: 'manager' });
 
 	test('sent while the calculator is still loading, the focus stays where the typing went on', async ({
 		page
