@@ -15,7 +15,9 @@ import {
 	type TestStore
 } from './factories';
 import { jobScope } from '$lib/server/object-access';
-import { runShape } from '$lib/server/db/named';
+import { runNamed, runShape } from '$lib/server/db/named';
+import type { StoreTx } from '$lib/server/db/tenant';
+import { createHash } from 'node:crypto';
 import { grantsOf } from '$lib/server/permissions';
 
 const page = { q: null, sort: 'name', dir: 'asc', page: 1, pageSize: 100 } as const;
@@ -521,6 +523,39 @@ describe('jobs across stores', () => {
 				runShape(tx, 'test numbers', () => tx.select({ n: jobTable.number }).from(jobTable), {})
 			)
 		).rejects.toThrow(/names two different queries/);
+	});
+
+	it('runs a query as a statement named after its text, prepared once per connection', async () => {
+		const numbers = (tx: StoreTx, limit: number) =>
+			runNamed(
+				tx
+					.select({ n: jobTable.number })
+					.from(jobTable)
+					.where(eq(jobTable.organizationId, b.id))
+					.orderBy(jobTable.number)
+					.limit(limit)
+			);
+		const [first, prepared] = await inStore(b.id, async (tx) => {
+			const rows = await numbers(tx, 1);
+			// The same text on the same connection: run again, not parsed again.
+			await numbers(tx, 2);
+			const { rows: statements } = await tx.execute<{ name: string; statement: string }>(
+				sql`select name, statement from pg_prepared_statements
+				    where statement like '%"job"."number"%' and statement like '%limit $2'`
+			);
+			return [rows, statements] as const;
+		});
+		expect(first).toEqual([{ n: expect.any(Number) }]);
+		// One statement, named `q_` and the first 24 hex digits of the SHA-1 of its own text.
+		expect(prepared).toHaveLength(1);
+		const digest = createHash('sha1').update(prepared[0].statement).digest('hex');
+		expect(prepared[0].name).toBe(`q_${digest.slice(0, 24)}`);
+		// Rows mapped as drizzle maps them, from the store's jobs only.
+		const all = await inStore(b.id, (tx) => numbers(tx, 100));
+		const direct = await inStore(b.id, (tx) =>
+			tx.select({ n: jobTable.number }).from(jobTable).orderBy(jobTable.number)
+		);
+		expect(all).toEqual(direct);
 	});
 
 	it("keeps one plan for a first page of the list's usual sizes, and pages any other size", async () => {

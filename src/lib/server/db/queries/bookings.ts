@@ -2,6 +2,7 @@ import { and, asc, eq, gte, isNull, lte, ne, sql } from 'drizzle-orm';
 import type { Schedule } from '../../../estimating/schedule';
 import { booking, customer, job, jobEvent, site, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 
 export type Booking = typeof booking.$inferSelect;
 
@@ -57,11 +58,13 @@ export async function listLive(
 
 /** The job's live booking, if any. */
 export async function liveForJob(tx: StoreTx, jobId: string) {
-	const [row] = await selectBookings(tx).where(
-		and(
-			eq(booking.organizationId, tx.storeId),
-			eq(booking.jobId, jobId),
-			isNull(booking.cancelledAt)
+	const [row] = await runNamed(
+		selectBookings(tx).where(
+			and(
+				eq(booking.organizationId, tx.storeId),
+				eq(booking.jobId, jobId),
+				isNull(booking.cancelledAt)
+			)
 		)
 	);
 	return row;

@@ -9,6 +9,7 @@ import {
 	task
 } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 
 export type ChangeOrderRow = typeof changeOrder.$inferSelect;
 export type NewChangeOrder = Omit<typeof changeOrder.$inferInsert, 'organizationId' | 'id'>;
@@ -106,11 +107,13 @@ export async function lockOpen(tx: StoreWriteTx, jobId: string) {
 
 /** A job's change orders, newest first. */
 export async function listForJob(tx: StoreTx, jobId: string) {
-	return tx
-		.select()
-		.from(changeOrder)
-		.where(and(mine(tx), eq(changeOrder.jobId, jobId)))
-		.orderBy(desc(changeOrder.number));
+	return runNamed(
+		tx
+			.select()
+			.from(changeOrder)
+			.where(and(mine(tx), eq(changeOrder.jobId, jobId)))
+			.orderBy(desc(changeOrder.number))
+	);
 }
 
 /** The change orders a customer may see: those the store sent (never one still in review). */

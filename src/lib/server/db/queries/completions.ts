@@ -1,15 +1,18 @@
 import { and, eq } from 'drizzle-orm';
 import { jobCompletion } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 
 export type Completion = typeof jobCompletion.$inferSelect;
 
 /** A job's completion (the installer marked it complete); undefined when not yet. */
 export async function read(tx: StoreTx, jobId: string): Promise<Completion | undefined> {
-	const [row] = await tx
-		.select()
-		.from(jobCompletion)
-		.where(and(eq(jobCompletion.organizationId, tx.storeId), eq(jobCompletion.jobId, jobId)));
+	const [row] = await runNamed(
+		tx
+			.select()
+			.from(jobCompletion)
+			.where(and(eq(jobCompletion.organizationId, tx.storeId), eq(jobCompletion.jobId, jobId)))
+	);
 	return row;
 }
 

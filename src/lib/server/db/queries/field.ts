@@ -14,6 +14,7 @@ import {
 	site
 } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 import { addDays } from '../../../schedule/days';
 import { MAX_BOOKING_DAYS } from '../../../schemas/crew';
 
@@ -124,10 +125,12 @@ export async function readSite(tx: StoreTx, jobId: string) {
 }
 
 export async function readReport(tx: StoreTx, jobId: string): Promise<FieldReport | undefined> {
-	const [row] = await tx
-		.select()
-		.from(fieldReport)
-		.where(and(eq(fieldReport.organizationId, tx.storeId), eq(fieldReport.jobId, jobId)));
+	const [row] = await runNamed(
+		tx
+			.select()
+			.from(fieldReport)
+			.where(and(eq(fieldReport.organizationId, tx.storeId), eq(fieldReport.jobId, jobId)))
+	);
 	return row;
 }
 
@@ -162,11 +165,13 @@ export async function addEvent(
 
 /** Every item of a report, deleted ones too (they merge as well), oldest first. */
 export async function listItems(tx: StoreTx, reportId: string): Promise<FieldItem[]> {
-	return tx
-		.select()
-		.from(fieldItem)
-		.where(and(eq(fieldItem.organizationId, tx.storeId), eq(fieldItem.reportId, reportId)))
-		.orderBy(asc(fieldItem.recordedAt), asc(fieldItem.createdAt));
+	return runNamed(
+		tx
+			.select()
+			.from(fieldItem)
+			.where(and(eq(fieldItem.organizationId, tx.storeId), eq(fieldItem.reportId, reportId)))
+			.orderBy(asc(fieldItem.recordedAt), asc(fieldItem.createdAt))
+	);
 }
 
 export async function readItemByClientId(
@@ -299,29 +304,31 @@ export async function readPhotoById(tx: StoreTx, photoId: string) {
 
 /** A job's live photos, newest first. */
 export async function listPhotos(tx: StoreTx, jobId: string) {
-	return tx
-		.select({
-			id: fieldPhoto.id,
-			clientId: fieldPhoto.clientId,
-			purpose: fieldPhoto.purpose,
-			roomId: fieldPhoto.roomId,
-			itemClientId: fieldPhoto.itemClientId,
-			caption: fieldPhoto.caption,
-			width: fieldPhoto.width,
-			height: fieldPhoto.height,
-			takenAt: fieldPhoto.takenAt,
-			createdAt: fieldPhoto.createdAt
-		})
-		.from(fieldPhoto)
-		.where(
-			and(
-				eq(fieldPhoto.organizationId, tx.storeId),
-				eq(fieldPhoto.jobId, jobId),
-				isNull(fieldPhoto.deletedAt)
+	return runNamed(
+		tx
+			.select({
+				id: fieldPhoto.id,
+				clientId: fieldPhoto.clientId,
+				purpose: fieldPhoto.purpose,
+				roomId: fieldPhoto.roomId,
+				itemClientId: fieldPhoto.itemClientId,
+				caption: fieldPhoto.caption,
+				width: fieldPhoto.width,
+				height: fieldPhoto.height,
+				takenAt: fieldPhoto.takenAt,
+				createdAt: fieldPhoto.createdAt
+			})
+			.from(fieldPhoto)
+			.where(
+				and(
+					eq(fieldPhoto.organizationId, tx.storeId),
+					eq(fieldPhoto.jobId, jobId),
+					isNull(fieldPhoto.deletedAt)
+				)
 			)
-		)
-		.orderBy(desc(fieldPhoto.createdAt))
-		.limit(500);
+			.orderBy(desc(fieldPhoto.createdAt))
+			.limit(500)
+	);
 }
 
 export async function readCompletion(tx: StoreTx, jobId: string) {

@@ -557,8 +557,11 @@ export type JobRow = Awaited<ReturnType<ReturnType<typeof selectJobs>['execute']
 
 /** One job with its people as the viewer may see it: undefined when not the store's or not theirs. */
 export async function readForViewer(tx: StoreTx, id: string, viewer: JobViewer) {
-	const [row] = await selectJobs(tx).where(
-		and(eq(job.organizationId, tx.storeId), eq(job.id, id), viewerFilter(viewer))
+	// The viewer's scope changes the text by its kind only (a bounded set of statements).
+	const [row] = await runNamed(
+		selectJobs(tx).where(
+			and(eq(job.organizationId, tx.storeId), eq(job.id, id), viewerFilter(viewer))
+		)
 	);
 	return row;
 }
@@ -751,12 +754,14 @@ export async function move(
 
 /** The store's members with the installer role, for assigning jobs. */
 export async function listInstallers(tx: StoreTx) {
-	return tx
-		.select({ id: user.id, name: user.name, email: user.email })
-		.from(member)
-		.innerJoin(user, eq(user.id, member.userId))
-		.where(and(eq(member.organizationId, tx.storeId), assignable()))
-		.orderBy(asc(user.name));
+	return runNamed(
+		tx
+			.select({ id: user.id, name: user.name, email: user.email })
+			.from(member)
+			.innerJoin(user, eq(user.id, member.userId))
+			.where(and(eq(member.organizationId, tx.storeId), assignable()))
+			.orderBy(asc(user.name))
+	);
 }
 
 export type AssignResult = 'assigned' | 'not_found' | 'not_an_installer';
@@ -819,18 +824,20 @@ export async function remove(
 
 /** A job's history, newest first, with who did each step. */
 export async function events(tx: StoreTx, jobId: string) {
-	return tx
-		.select({
-			id: jobEvent.id,
-			kind: jobEvent.kind,
-			fromStatus: jobEvent.fromStatus,
-			toStatus: jobEvent.toStatus,
-			note: jobEvent.note,
-			createdAt: jobEvent.createdAt,
-			actorName: user.name
-		})
-		.from(jobEvent)
-		.leftJoin(user, eq(user.id, jobEvent.actorId))
-		.where(and(eq(jobEvent.organizationId, tx.storeId), eq(jobEvent.jobId, jobId)))
-		.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`));
+	return runNamed(
+		tx
+			.select({
+				id: jobEvent.id,
+				kind: jobEvent.kind,
+				fromStatus: jobEvent.fromStatus,
+				toStatus: jobEvent.toStatus,
+				note: jobEvent.note,
+				createdAt: jobEvent.createdAt,
+				actorName: user.name
+			})
+			.from(jobEvent)
+			.leftJoin(user, eq(user.id, jobEvent.actorId))
+			.where(and(eq(jobEvent.organizationId, tx.storeId), eq(jobEvent.jobId, jobId)))
+			.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`))
+	);
 }

@@ -2,6 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import type { MeasureDraft } from '../../../measure/draft';
 import { job, measure, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 
 export interface StoredMeasure {
 	draft: MeasureDraft;
@@ -24,11 +25,13 @@ const storedColumns = {
 
 /** The job's measure, or undefined when nothing was measured yet (or the job is not the store's). */
 export async function read(tx: StoreTx, jobId: string): Promise<StoredMeasure | undefined> {
-	const [row] = await tx
-		.select(storedColumns)
-		.from(measure)
-		.leftJoin(user, eq(user.id, measure.updatedBy))
-		.where(and(eq(measure.organizationId, tx.storeId), eq(measure.jobId, jobId)));
+	const [row] = await runNamed(
+		tx
+			.select(storedColumns)
+			.from(measure)
+			.leftJoin(user, eq(user.id, measure.updatedBy))
+			.where(and(eq(measure.organizationId, tx.storeId), eq(measure.jobId, jobId)))
+	);
 	return row;
 }
 

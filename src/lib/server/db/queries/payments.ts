@@ -2,6 +2,7 @@ import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import { ledger, type Ledger } from '../../../payments/ledger';
 import { changeOrder, job, payment, quote, refund, stripeEvent, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 
 export type Payment = typeof payment.$inferSelect;
 export type Refund = typeof refund.$inferSelect;
@@ -11,24 +12,26 @@ export type RefundReason = Refund['reason'];
 
 /** The accepted quote a job's money is owed on (the newest accepted version). */
 async function acceptedQuote(tx: StoreTx, jobId: string) {
-	const [row] = await tx
-		.select({
-			id: quote.id,
-			version: quote.version,
-			currency: quote.currency,
-			totalCents: quote.totalCents,
-			depositCents: quote.depositCents
-		})
-		.from(quote)
-		.where(
-			and(
-				eq(quote.organizationId, tx.storeId),
-				eq(quote.jobId, jobId),
-				eq(quote.status, 'accepted')
+	const [row] = await runNamed(
+		tx
+			.select({
+				id: quote.id,
+				version: quote.version,
+				currency: quote.currency,
+				totalCents: quote.totalCents,
+				depositCents: quote.depositCents
+			})
+			.from(quote)
+			.where(
+				and(
+					eq(quote.organizationId, tx.storeId),
+					eq(quote.jobId, jobId),
+					eq(quote.status, 'accepted')
+				)
 			)
-		)
-		.orderBy(desc(quote.version))
-		.limit(1);
+			.orderBy(desc(quote.version))
+			.limit(1)
+	);
 	return row;
 }
 
@@ -42,16 +45,18 @@ export interface JobMoney {
 
 /** The sum of a job's approved change orders, in cents (a credit is negative). */
 async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<number> {
-	const [row] = await tx
-		.select({ total: sql<string | null>`sum(${changeOrder.totalCents})` })
-		.from(changeOrder)
-		.where(
-			and(
-				eq(changeOrder.organizationId, tx.storeId),
-				eq(changeOrder.jobId, jobId),
-				eq(changeOrder.status, 'approved')
+	const [row] = await runNamed(
+		tx
+			.select({ total: sql<string | null>`sum(${changeOrder.totalCents})` })
+			.from(changeOrder)
+			.where(
+				and(
+					eq(changeOrder.organizationId, tx.storeId),
+					eq(changeOrder.jobId, jobId),
+					eq(changeOrder.status, 'approved')
+				)
 			)
-		);
+	);
 	return Number(row?.total ?? 0);
 }
 
@@ -62,16 +67,20 @@ async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<nu
 export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 	const accepted = await acceptedQuote(tx, jobId);
 	const changeOrdersCents = await approvedChangeOrdersCents(tx, jobId);
-	const [status] = await tx
-		.select({ status: job.status })
-		.from(job)
-		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
-	const payments = await tx
-		.select({ ...paymentColumns, recordedByName: user.name })
-		.from(payment)
-		.leftJoin(user, eq(user.id, payment.recordedBy))
-		.where(and(eq(payment.organizationId, tx.storeId), eq(payment.jobId, jobId)))
-		.orderBy(asc(payment.createdAt));
+	const [status] = await runNamed(
+		tx
+			.select({ status: job.status })
+			.from(job)
+			.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)))
+	);
+	const payments = await runNamed(
+		tx
+			.select({ ...paymentColumns, recordedByName: user.name })
+			.from(payment)
+			.leftJoin(user, eq(user.id, payment.recordedBy))
+			.where(and(eq(payment.organizationId, tx.storeId), eq(payment.jobId, jobId)))
+			.orderBy(asc(payment.createdAt))
+	);
 	const refunds = payments.length
 		? await tx
 				.select()

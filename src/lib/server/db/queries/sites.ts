@@ -1,6 +1,7 @@
 import { and, asc, count, eq, getTableColumns } from 'drizzle-orm';
 import { customer, job, site } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
+import { runNamed } from '../named';
 
 export type Site = typeof site.$inferSelect;
 
@@ -16,11 +17,13 @@ export interface SiteInput {
 
 /** A customer's sites, by label and address. */
 export async function listForCustomer(tx: StoreTx, customerId: string): Promise<Site[]> {
-	return tx
-		.select()
-		.from(site)
-		.where(and(eq(site.organizationId, tx.storeId), eq(site.customerId, customerId)))
-		.orderBy(asc(site.label), asc(site.address));
+	return runNamed(
+		tx
+			.select()
+			.from(site)
+			.where(and(eq(site.organizationId, tx.storeId), eq(site.customerId, customerId)))
+			.orderBy(asc(site.label), asc(site.address))
+	);
 }
 
 /** A customer's sites with how many jobs are at each (a site with jobs is kept when deleted). */
@@ -39,11 +42,13 @@ export async function listWithJobCounts(
 
 /** The site a job is at (undefined when none, or when the job is not the store's). */
 export async function forJob(tx: StoreTx, jobId: string): Promise<Site | undefined> {
-	const [row] = await tx
-		.select(getTableColumns(site))
-		.from(job)
-		.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
-		.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)));
+	const [row] = await runNamed(
+		tx
+			.select(getTableColumns(site))
+			.from(job)
+			.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
+			.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)))
+	);
 	return row;
 }
 
