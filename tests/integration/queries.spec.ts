@@ -99,7 +99,7 @@ describe('customers across stores', () => {
 		// Many more, all matching "Filler", so that one text matches more than SEARCH_CAP.
 		await inStore(store.id, (tx) =>
 			tx.execute(sql`insert into customer (id, organization_id, name, email, phone)
-				select 'filler-' || n, ${store.id}, 'Filler ' || lpad(n::text, 4, '0'),
+				select ${store.id} || '-filler-' || n, ${store.id}, 'Filler ' || lpad(n::text, 4, '0'),
 				       case when n % 7 = 0 then 'ash' || n || '@mail.example' end, '555-9' || lpad(n::text, 3, '0')
 				from generate_series(1, ${customers.SEARCH_CAP + 5}) n`)
 		);
@@ -562,17 +562,22 @@ describe('jobs across stores', () => {
 		const staff = jobScope(grantsOf('owner'), b.owner.id);
 		const plans = await inStore(b.id, async (tx) => {
 			// PostgreSQL tries a prepared statement's custom plan five times, then keeps the generic
-			// one if it costs no more; a `LIMIT` that is a parameter never got there.
+			// one if it costs no more; a `LIMIT` that is a parameter never got there. Whether it keeps
+			// it here depends on the test database's other stores (a store much smaller than the
+			// average is planned for itself), so this checks what lets it: one statement, run each
+			// time, with the limit in its text and only the store as a value. bench/README.md shows
+			// the plan kept on the scale seed.
 			for (let i = 0; i < 8; i++) await jobs.list(tx, { ...jobPage, pageSize: 25 }, staff);
-			const { rows } = await tx.execute<{ generic: number; custom: number }>(
-				sql`select generic_plans::int as generic, custom_plans::int as custom
+			const { rows } = await tx.execute<{ types: string; runs: number }>(
+				sql`select parameter_types::text as types, (generic_plans + custom_plans)::int as runs
 				    from pg_prepared_statements
 				    where statement like '%job_tally%' and statement like '%limit 25'`
 			);
 			return rows;
 		});
 		expect(plans).toHaveLength(1);
-		expect(plans[0].generic).toBeGreaterThanOrEqual(3);
+		expect(plans[0].runs).toBeGreaterThanOrEqual(8);
+		expect(plans[0].types).toBe('{text,text}');
 		// Another size is a parameter: the same jobs, cut there.
 		const all = await inStore(b.id, (tx) => jobs.list(tx, jobPage, staff));
 		const odd = await inStore(b.id, (tx) => jobs.list(tx, { ...jobPage, pageSize: 1 }, staff));
