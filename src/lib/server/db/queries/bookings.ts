@@ -2,7 +2,7 @@ import { and, asc, eq, gte, isNull, lte, ne, sql } from 'drizzle-orm';
 import type { Schedule } from '../../../estimating/schedule';
 import { booking, customer, job, jobEvent, site, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export type Booking = typeof booking.$inferSelect;
 
@@ -58,14 +58,18 @@ export async function listLive(
 
 /** The job's live booking, if any. */
 export async function liveForJob(tx: StoreTx, jobId: string) {
-	const [row] = await runNamed(
-		selectBookings(tx).where(
-			and(
-				eq(booking.organizationId, tx.storeId),
-				eq(booking.jobId, jobId),
-				isNull(booking.cancelledAt)
-			)
-		)
+	const [row] = await runShape(
+		tx,
+		'bookings.liveForJob',
+		() =>
+			selectBookings(tx).where(
+				and(
+					eq(booking.organizationId, sql.placeholder('store')),
+					eq(booking.jobId, sql.placeholder('job')),
+					isNull(booking.cancelledAt)
+				)
+			),
+		{ store: tx.storeId, job: jobId }
 	);
 	return row;
 }

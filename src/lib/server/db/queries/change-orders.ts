@@ -9,7 +9,7 @@ import {
 	task
 } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export type ChangeOrderRow = typeof changeOrder.$inferSelect;
 export type NewChangeOrder = Omit<typeof changeOrder.$inferInsert, 'organizationId' | 'id'>;
@@ -107,12 +107,21 @@ export async function lockOpen(tx: StoreWriteTx, jobId: string) {
 
 /** A job's change orders, newest first. */
 export async function listForJob(tx: StoreTx, jobId: string) {
-	return runNamed(
-		tx
-			.select()
-			.from(changeOrder)
-			.where(and(mine(tx), eq(changeOrder.jobId, jobId)))
-			.orderBy(desc(changeOrder.number))
+	return runShape(
+		tx,
+		'changeOrders.listForJob',
+		() =>
+			tx
+				.select()
+				.from(changeOrder)
+				.where(
+					and(
+						eq(changeOrder.organizationId, sql.placeholder('store')),
+						eq(changeOrder.jobId, sql.placeholder('job'))
+					)
+				)
+				.orderBy(desc(changeOrder.number)),
+		{ store: tx.storeId, job: jobId }
 	);
 }
 

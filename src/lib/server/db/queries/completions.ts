@@ -1,17 +1,26 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { jobCompletion } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export type Completion = typeof jobCompletion.$inferSelect;
 
 /** A job's completion (the installer marked it complete); undefined when not yet. */
 export async function read(tx: StoreTx, jobId: string): Promise<Completion | undefined> {
-	const [row] = await runNamed(
-		tx
-			.select()
-			.from(jobCompletion)
-			.where(and(eq(jobCompletion.organizationId, tx.storeId), eq(jobCompletion.jobId, jobId)))
+	const [row] = await runShape(
+		tx,
+		'completions.read',
+		() =>
+			tx
+				.select()
+				.from(jobCompletion)
+				.where(
+					and(
+						eq(jobCompletion.organizationId, sql.placeholder('store')),
+						eq(jobCompletion.jobId, sql.placeholder('job'))
+					)
+				),
+		{ store: tx.storeId, job: jobId }
 	);
 	return row;
 }

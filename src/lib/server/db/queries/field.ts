@@ -14,7 +14,7 @@ import {
 	site
 } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 import { addDays } from '../../../schedule/days';
 import { MAX_BOOKING_DAYS } from '../../../schemas/crew';
 
@@ -125,11 +125,20 @@ export async function readSite(tx: StoreTx, jobId: string) {
 }
 
 export async function readReport(tx: StoreTx, jobId: string): Promise<FieldReport | undefined> {
-	const [row] = await runNamed(
-		tx
-			.select()
-			.from(fieldReport)
-			.where(and(eq(fieldReport.organizationId, tx.storeId), eq(fieldReport.jobId, jobId)))
+	const [row] = await runShape(
+		tx,
+		'field.readReport',
+		() =>
+			tx
+				.select()
+				.from(fieldReport)
+				.where(
+					and(
+						eq(fieldReport.organizationId, sql.placeholder('store')),
+						eq(fieldReport.jobId, sql.placeholder('job'))
+					)
+				),
+		{ store: tx.storeId, job: jobId }
 	);
 	return row;
 }
@@ -165,12 +174,21 @@ export async function addEvent(
 
 /** Every item of a report, deleted ones too (they merge as well), oldest first. */
 export async function listItems(tx: StoreTx, reportId: string): Promise<FieldItem[]> {
-	return runNamed(
-		tx
-			.select()
-			.from(fieldItem)
-			.where(and(eq(fieldItem.organizationId, tx.storeId), eq(fieldItem.reportId, reportId)))
-			.orderBy(asc(fieldItem.recordedAt), asc(fieldItem.createdAt))
+	return runShape(
+		tx,
+		'field.listItems',
+		() =>
+			tx
+				.select()
+				.from(fieldItem)
+				.where(
+					and(
+						eq(fieldItem.organizationId, sql.placeholder('store')),
+						eq(fieldItem.reportId, sql.placeholder('report'))
+					)
+				)
+				.orderBy(asc(fieldItem.recordedAt), asc(fieldItem.createdAt)),
+		{ store: tx.storeId, report: reportId }
 	);
 }
 
@@ -304,30 +322,34 @@ export async function readPhotoById(tx: StoreTx, photoId: string) {
 
 /** A job's live photos, newest first. */
 export async function listPhotos(tx: StoreTx, jobId: string) {
-	return runNamed(
-		tx
-			.select({
-				id: fieldPhoto.id,
-				clientId: fieldPhoto.clientId,
-				purpose: fieldPhoto.purpose,
-				roomId: fieldPhoto.roomId,
-				itemClientId: fieldPhoto.itemClientId,
-				caption: fieldPhoto.caption,
-				width: fieldPhoto.width,
-				height: fieldPhoto.height,
-				takenAt: fieldPhoto.takenAt,
-				createdAt: fieldPhoto.createdAt
-			})
-			.from(fieldPhoto)
-			.where(
-				and(
-					eq(fieldPhoto.organizationId, tx.storeId),
-					eq(fieldPhoto.jobId, jobId),
-					isNull(fieldPhoto.deletedAt)
+	return runShape(
+		tx,
+		'field.listPhotos',
+		() =>
+			tx
+				.select({
+					id: fieldPhoto.id,
+					clientId: fieldPhoto.clientId,
+					purpose: fieldPhoto.purpose,
+					roomId: fieldPhoto.roomId,
+					itemClientId: fieldPhoto.itemClientId,
+					caption: fieldPhoto.caption,
+					width: fieldPhoto.width,
+					height: fieldPhoto.height,
+					takenAt: fieldPhoto.takenAt,
+					createdAt: fieldPhoto.createdAt
+				})
+				.from(fieldPhoto)
+				.where(
+					and(
+						eq(fieldPhoto.organizationId, sql.placeholder('store')),
+						eq(fieldPhoto.jobId, sql.placeholder('job')),
+						isNull(fieldPhoto.deletedAt)
+					)
 				)
-			)
-			.orderBy(desc(fieldPhoto.createdAt))
-			.limit(500)
+				.orderBy(desc(fieldPhoto.createdAt))
+				.limit(500),
+		{ store: tx.storeId, job: jobId }
 	);
 }
 

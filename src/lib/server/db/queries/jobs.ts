@@ -557,11 +557,20 @@ export type JobRow = Awaited<ReturnType<ReturnType<typeof selectJobs>['execute']
 
 /** One job with its people as the viewer may see it: undefined when not the store's or not theirs. */
 export async function readForViewer(tx: StoreTx, id: string, viewer: JobViewer) {
-	// The viewer's scope changes the text by its kind only (a bounded set of statements).
-	const [row] = await runNamed(
-		selectJobs(tx).where(
-			and(eq(job.organizationId, tx.storeId), eq(job.id, id), viewerFilter(viewer))
-		)
+	// One statement per kind of scope; the member it names is a value.
+	const user = viewer.kind === 'sold' || viewer.kind === 'assigned' ? viewer.userId : null;
+	const [row] = await runShape(
+		tx,
+		`jobs.readForViewer.${viewer.kind}`,
+		() =>
+			selectJobs(tx).where(
+				and(
+					eq(job.organizationId, sql.placeholder('store')),
+					eq(job.id, sql.placeholder('id')),
+					viewerFilter(viewer, sql.placeholder('user'))
+				)
+			),
+		user === null ? { store: tx.storeId, id } : { store: tx.storeId, id, user }
 	);
 	return row;
 }
@@ -754,13 +763,17 @@ export async function move(
 
 /** The store's members with the installer role, for assigning jobs. */
 export async function listInstallers(tx: StoreTx) {
-	return runNamed(
-		tx
-			.select({ id: user.id, name: user.name, email: user.email })
-			.from(member)
-			.innerJoin(user, eq(user.id, member.userId))
-			.where(and(eq(member.organizationId, tx.storeId), assignable()))
-			.orderBy(asc(user.name))
+	return runShape(
+		tx,
+		'jobs.listInstallers',
+		() =>
+			tx
+				.select({ id: user.id, name: user.name, email: user.email })
+				.from(member)
+				.innerJoin(user, eq(user.id, member.userId))
+				.where(and(eq(member.organizationId, sql.placeholder('store')), assignable()))
+				.orderBy(asc(user.name)),
+		{ store: tx.storeId }
 	);
 }
 
@@ -824,20 +837,29 @@ export async function remove(
 
 /** A job's history, newest first, with who did each step. */
 export async function events(tx: StoreTx, jobId: string) {
-	return runNamed(
-		tx
-			.select({
-				id: jobEvent.id,
-				kind: jobEvent.kind,
-				fromStatus: jobEvent.fromStatus,
-				toStatus: jobEvent.toStatus,
-				note: jobEvent.note,
-				createdAt: jobEvent.createdAt,
-				actorName: user.name
-			})
-			.from(jobEvent)
-			.leftJoin(user, eq(user.id, jobEvent.actorId))
-			.where(and(eq(jobEvent.organizationId, tx.storeId), eq(jobEvent.jobId, jobId)))
-			.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`))
+	return runShape(
+		tx,
+		'jobs.events',
+		() =>
+			tx
+				.select({
+					id: jobEvent.id,
+					kind: jobEvent.kind,
+					fromStatus: jobEvent.fromStatus,
+					toStatus: jobEvent.toStatus,
+					note: jobEvent.note,
+					createdAt: jobEvent.createdAt,
+					actorName: user.name
+				})
+				.from(jobEvent)
+				.leftJoin(user, eq(user.id, jobEvent.actorId))
+				.where(
+					and(
+						eq(jobEvent.organizationId, sql.placeholder('store')),
+						eq(jobEvent.jobId, sql.placeholder('job'))
+					)
+				)
+				.orderBy(desc(jobEvent.createdAt), desc(sql`${jobEvent.id}`)),
+		{ store: tx.storeId, job: jobId }
 	);
 }

@@ -1,8 +1,8 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type { MeasureDraft } from '../../../measure/draft';
 import { job, measure, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export interface StoredMeasure {
 	draft: MeasureDraft;
@@ -25,12 +25,21 @@ const storedColumns = {
 
 /** The job's measure, or undefined when nothing was measured yet (or the job is not the store's). */
 export async function read(tx: StoreTx, jobId: string): Promise<StoredMeasure | undefined> {
-	const [row] = await runNamed(
-		tx
-			.select(storedColumns)
-			.from(measure)
-			.leftJoin(user, eq(user.id, measure.updatedBy))
-			.where(and(eq(measure.organizationId, tx.storeId), eq(measure.jobId, jobId)))
+	const [row] = await runShape(
+		tx,
+		'measures.read',
+		() =>
+			tx
+				.select(storedColumns)
+				.from(measure)
+				.leftJoin(user, eq(user.id, measure.updatedBy))
+				.where(
+					and(
+						eq(measure.organizationId, sql.placeholder('store')),
+						eq(measure.jobId, sql.placeholder('job'))
+					)
+				),
+		{ store: tx.storeId, job: jobId }
 	);
 	return row;
 }

@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import { ledger, type Ledger } from '../../../payments/ledger';
 import { changeOrder, job, payment, quote, refund, stripeEvent, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export type Payment = typeof payment.$inferSelect;
 export type Refund = typeof refund.$inferSelect;
@@ -12,25 +12,29 @@ export type RefundReason = Refund['reason'];
 
 /** The accepted quote a job's money is owed on (the newest accepted version). */
 async function acceptedQuote(tx: StoreTx, jobId: string) {
-	const [row] = await runNamed(
-		tx
-			.select({
-				id: quote.id,
-				version: quote.version,
-				currency: quote.currency,
-				totalCents: quote.totalCents,
-				depositCents: quote.depositCents
-			})
-			.from(quote)
-			.where(
-				and(
-					eq(quote.organizationId, tx.storeId),
-					eq(quote.jobId, jobId),
-					eq(quote.status, 'accepted')
+	const [row] = await runShape(
+		tx,
+		'payments.acceptedQuote',
+		() =>
+			tx
+				.select({
+					id: quote.id,
+					version: quote.version,
+					currency: quote.currency,
+					totalCents: quote.totalCents,
+					depositCents: quote.depositCents
+				})
+				.from(quote)
+				.where(
+					and(
+						eq(quote.organizationId, sql.placeholder('store')),
+						eq(quote.jobId, sql.placeholder('job')),
+						eq(quote.status, 'accepted')
+					)
 				)
-			)
-			.orderBy(desc(quote.version))
-			.limit(1)
+				.orderBy(desc(quote.version))
+				.limit(1),
+		{ store: tx.storeId, job: jobId }
 	);
 	return row;
 }
@@ -45,17 +49,21 @@ export interface JobMoney {
 
 /** The sum of a job's approved change orders, in cents (a credit is negative). */
 async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<number> {
-	const [row] = await runNamed(
-		tx
-			.select({ total: sql<string | null>`sum(${changeOrder.totalCents})` })
-			.from(changeOrder)
-			.where(
-				and(
-					eq(changeOrder.organizationId, tx.storeId),
-					eq(changeOrder.jobId, jobId),
-					eq(changeOrder.status, 'approved')
-				)
-			)
+	const [row] = await runShape(
+		tx,
+		'payments.approvedChangeOrders',
+		() =>
+			tx
+				.select({ total: sql<string | null>`sum(${changeOrder.totalCents})` })
+				.from(changeOrder)
+				.where(
+					and(
+						eq(changeOrder.organizationId, sql.placeholder('store')),
+						eq(changeOrder.jobId, sql.placeholder('job')),
+						eq(changeOrder.status, 'approved')
+					)
+				),
+		{ store: tx.storeId, job: jobId }
 	);
 	return Number(row?.total ?? 0);
 }
@@ -67,19 +75,34 @@ async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<nu
 export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 	const accepted = await acceptedQuote(tx, jobId);
 	const changeOrdersCents = await approvedChangeOrdersCents(tx, jobId);
-	const [status] = await runNamed(
-		tx
-			.select({ status: job.status })
-			.from(job)
-			.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)))
+	const [status] = await runShape(
+		tx,
+		'payments.jobStatus',
+		() =>
+			tx
+				.select({ status: job.status })
+				.from(job)
+				.where(
+					and(eq(job.organizationId, sql.placeholder('store')), eq(job.id, sql.placeholder('job')))
+				),
+		{ store: tx.storeId, job: jobId }
 	);
-	const payments = await runNamed(
-		tx
-			.select({ ...paymentColumns, recordedByName: user.name })
-			.from(payment)
-			.leftJoin(user, eq(user.id, payment.recordedBy))
-			.where(and(eq(payment.organizationId, tx.storeId), eq(payment.jobId, jobId)))
-			.orderBy(asc(payment.createdAt))
+	const payments = await runShape(
+		tx,
+		'payments.forJob',
+		() =>
+			tx
+				.select({ ...paymentColumns, recordedByName: user.name })
+				.from(payment)
+				.leftJoin(user, eq(user.id, payment.recordedBy))
+				.where(
+					and(
+						eq(payment.organizationId, sql.placeholder('store')),
+						eq(payment.jobId, sql.placeholder('job'))
+					)
+				)
+				.orderBy(asc(payment.createdAt)),
+		{ store: tx.storeId, job: jobId }
 	);
 	const refunds = payments.length
 		? await tx

@@ -1,7 +1,7 @@
 import { and, desc, eq, ne, sql } from 'drizzle-orm';
 import { quote, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export type Quote = typeof quote.$inferSelect;
 export type QuoteStatus = Quote['status'];
@@ -32,23 +32,41 @@ export type QuoteSummary = Awaited<ReturnType<typeof list>>[number];
 
 /** Every version of a job's quote, newest first. */
 export async function list(tx: StoreTx, jobId: string) {
-	return runNamed(
-		tx
-			.select(summaryColumns)
-			.from(quote)
-			.leftJoin(user, eq(user.id, quote.createdBy))
-			.where(and(eq(quote.organizationId, tx.storeId), eq(quote.jobId, jobId)))
-			.orderBy(desc(quote.version))
+	return runShape(
+		tx,
+		'quotes.list',
+		() =>
+			tx
+				.select(summaryColumns)
+				.from(quote)
+				.leftJoin(user, eq(user.id, quote.createdBy))
+				.where(
+					and(
+						eq(quote.organizationId, sql.placeholder('store')),
+						eq(quote.jobId, sql.placeholder('job'))
+					)
+				)
+				.orderBy(desc(quote.version)),
+		{ store: tx.storeId, job: jobId }
 	);
 }
 
 /** One version with what it was built from and what the engine said. */
 export async function read(tx: StoreTx, id: string): Promise<Quote | undefined> {
-	const [row] = await runNamed(
-		tx
-			.select()
-			.from(quote)
-			.where(and(eq(quote.organizationId, tx.storeId), eq(quote.id, id)))
+	const [row] = await runShape(
+		tx,
+		'quotes.read',
+		() =>
+			tx
+				.select()
+				.from(quote)
+				.where(
+					and(
+						eq(quote.organizationId, sql.placeholder('store')),
+						eq(quote.id, sql.placeholder('id'))
+					)
+				),
+		{ store: tx.storeId, id }
 	);
 	return row;
 }

@@ -6,7 +6,7 @@ import { settingsSchema } from '../../../schemas/estimate';
 import { storeSettings } from '../schema';
 import { db } from '../index';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export interface StoreTradeSettings {
 	settings: StoreSettings;
@@ -67,8 +67,15 @@ export type CheckedSettings =
  * issue, never a default.
  */
 export async function readChecked(tx: StoreTx): Promise<CheckedSettings> {
-	const [row] = await runNamed(
-		tx.select().from(storeSettings).where(eq(storeSettings.organizationId, tx.storeId))
+	const [row] = await runShape(
+		tx,
+		'settings.readChecked',
+		() =>
+			tx
+				.select()
+				.from(storeSettings)
+				.where(eq(storeSettings.organizationId, sql.placeholder('store'))),
+		{ store: tx.storeId }
 	);
 	if (!row) {
 		return { ok: true, trade: { settings: defaultSettings, currency: 'USD', quoteValidDays: 30 } };

@@ -1,7 +1,7 @@
-import { and, asc, count, eq, getTableColumns } from 'drizzle-orm';
+import { and, asc, count, eq, getTableColumns, sql } from 'drizzle-orm';
 import { customer, job, site } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runNamed } from '../named';
+import { runShape } from '../named';
 
 export type Site = typeof site.$inferSelect;
 
@@ -17,12 +17,21 @@ export interface SiteInput {
 
 /** A customer's sites, by label and address. */
 export async function listForCustomer(tx: StoreTx, customerId: string): Promise<Site[]> {
-	return runNamed(
-		tx
-			.select()
-			.from(site)
-			.where(and(eq(site.organizationId, tx.storeId), eq(site.customerId, customerId)))
-			.orderBy(asc(site.label), asc(site.address))
+	return runShape(
+		tx,
+		'sites.listForCustomer',
+		() =>
+			tx
+				.select()
+				.from(site)
+				.where(
+					and(
+						eq(site.organizationId, sql.placeholder('store')),
+						eq(site.customerId, sql.placeholder('customer'))
+					)
+				)
+				.orderBy(asc(site.label), asc(site.address)),
+		{ store: tx.storeId, customer: customerId }
 	);
 }
 
@@ -42,12 +51,18 @@ export async function listWithJobCounts(
 
 /** The site a job is at (undefined when none, or when the job is not the store's). */
 export async function forJob(tx: StoreTx, jobId: string): Promise<Site | undefined> {
-	const [row] = await runNamed(
-		tx
-			.select(getTableColumns(site))
-			.from(job)
-			.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
-			.where(and(eq(job.organizationId, tx.storeId), eq(job.id, jobId)))
+	const [row] = await runShape(
+		tx,
+		'sites.forJob',
+		() =>
+			tx
+				.select(getTableColumns(site))
+				.from(job)
+				.innerJoin(site, and(eq(site.id, job.siteId), eq(site.organizationId, job.organizationId)))
+				.where(
+					and(eq(job.organizationId, sql.placeholder('store')), eq(job.id, sql.placeholder('job')))
+				),
+		{ store: tx.storeId, job: jobId }
 	);
 	return row;
 }
