@@ -260,6 +260,7 @@ const targets: Target[] = [
 	{ name: 'customers: search "ash"', path: '/api/v1/customers?q=ash', cookie: owner },
 	{ name: 'job page (SSR)', path: `/app/jobs/${someJob}`, cookie: owner },
 	{ name: 'jobs page (SSR)', path: '/app/jobs', cookie: owner },
+	{ name: "desk, the store's day (SSR)", path: '/app', cookie: owner },
 	{ name: "installer's today (/field)", path: '/field', cookie: installer },
 	{
 		name: 'estimate preview, 20 rooms',

@@ -2,7 +2,7 @@
 // now, for the store's office, and only their own for a salesperson.
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { booking, job as jobTable } from '$lib/server/db/schema';
+import { booking, changeOrder, job as jobTable } from '$lib/server/db/schema';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { storeDay, weekOf, type StoreDay } from '$lib/server/desk/day';
 import { today } from '$lib/schedule/days';
@@ -18,6 +18,7 @@ import {
 	type TestStore
 } from './factories';
 import { makeInstaller } from './field-factories';
+import { seedChangeOrder } from './change-order-jobs';
 
 let store: TestStore;
 let salesId: string;
@@ -112,6 +113,35 @@ describe("the desk's day", { timeout: 60_000 }, () => {
 		expect(day.groups.map((g) => g.kind)).not.toContain('book');
 		expect(day.groups.map((g) => g.kind)).not.toContain('reconcile');
 		expect(day.week?.rows).toEqual([]);
+	});
+
+	// Read from the change orders sent (migration 0022, bench/README.md): after the other tests,
+	// as its jobs would join their groups.
+	it('lists the jobs whose change order waits for review, oldest sent first', async () => {
+		const older = await makePaidJob(store);
+		const newer = await makePaidJob(store);
+		const reviewed = await makePaidJob(store);
+		const first = await seedChangeOrder(store, older);
+		await seedChangeOrder(store, newer);
+		const done = await seedChangeOrder(store, reviewed);
+		await inStore(store.id, async (tx) => {
+			await tx
+				.update(changeOrder)
+				.set({ createdAt: new Date(Date.now() - 3 * 86_400_000) })
+				.where(eq(changeOrder.id, first.id));
+			await tx.update(changeOrder).set({ status: 'reviewed' }).where(eq(changeOrder.id, done.id));
+		});
+		const manager = await addMember(store.id, 'manager', 'Ada Reyes');
+		const day = await dayAs('manager', manager.id);
+		expect(numbers(day, 'change-orders')).toEqual([
+			`J-${older.job.number}`,
+			`J-${newer.job.number}`
+		]);
+		expect(group(day, 'change-orders').total).toBe(2);
+		expect(group(day, 'change-orders').lines[0]).toMatchObject({ waitingDays: 3 });
+		// A salesperson reviews none: no such group.
+		const sales = await dayAs('sales', salesId);
+		expect(sales.groups.map((g) => g.kind)).not.toContain('change-orders');
 	});
 
 	it('works out the week from the store time zone, Monday to Sunday', () => {

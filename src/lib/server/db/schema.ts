@@ -232,7 +232,14 @@ export const job = pgTable(
 	},
 	(t) => [
 		index('job_organization_id_idx').on(t.organizationId),
-		index('job_organization_status_idx').on(t.organizationId, t.status),
+		// A store's jobs in one state, longest in it first: the desk's lines (its oldest few of
+		// each kind) walk this and stop, and its totals count from it (migration 0022).
+		index('job_organization_status_since_idx').on(
+			t.organizationId,
+			t.status,
+			t.statusChangedAt,
+			t.number
+		),
 		// An installer's jobs, by last change too (the installer's today page lists them so; an
 		// installer of a large store has tens of thousands to sort otherwise).
 		index('job_organization_installer_updated_idx').on(
@@ -372,6 +379,11 @@ export const measure = pgTable(
 	},
 	(t) => [
 		unique('measure_job_uq').on(t.organizationId, t.jobId),
+		// The measures with a room: whether a job is measured, answered from the index alone, never
+		// by reading the draft (the desk asks it of every draft job; migration 0022).
+		index('measure_measured_idx')
+			.on(t.organizationId, t.jobId)
+			.where(sql`jsonb_array_length(coalesce(${t.draft} -> 'rooms', '[]'::jsonb)) > 0`),
 		foreignKey({
 			name: 'measure_job_same_store_fk',
 			columns: [t.jobId, t.organizationId],

@@ -104,10 +104,47 @@ export function toBook(tx: StoreTx, scope: JobScope) {
 	return jobsWhere(tx, scope, and(eq(job.status, 'sold'), not(liveBooking)));
 }
 
-/** Jobs with a change order the installer sent that no one has reviewed. */
-export function changeOrdersToReview(tx: StoreTx, scope: JobScope) {
-	const submitted = sql<Date>`(select min(${changeOrder.createdAt}) from ${changeOrder} where ${changeOrder.organizationId} = ${job.organizationId} and ${changeOrder.jobId} = ${job.id} and ${changeOrder.status} = 'submitted')`;
-	return jobsWhere(tx, scope, isNotNull(submitted), submitted);
+/**
+ * Jobs with a change order the installer sent that no one has reviewed, oldest sent first. Read
+ * from the change orders sent, not by testing every job of the store for one: a job has at most
+ * one open change order (`change_order_one_open_uq`), so its sent one is its oldest, and each
+ * line and each count is one job.
+ */
+export async function changeOrdersToReview(tx: StoreTx, scope: JobScope): Promise<DeskRows> {
+	const filter = and(
+		eq(changeOrder.organizationId, tx.storeId),
+		eq(changeOrder.status, 'submitted'),
+		eq(job.organizationId, tx.storeId),
+		jobScopeFilter(scope)
+	);
+	const ofJob = and(
+		eq(job.id, changeOrder.jobId),
+		eq(job.organizationId, changeOrder.organizationId)
+	);
+	const rows = await tx
+		.select({
+			id: job.id,
+			number: job.number,
+			title: job.title,
+			status: job.status,
+			customerName: customer.name,
+			since: changeOrder.createdAt
+		})
+		.from(changeOrder)
+		.innerJoin(job, ofJob)
+		.innerJoin(
+			customer,
+			and(eq(customer.id, job.customerId), eq(customer.organizationId, job.organizationId))
+		)
+		.where(filter)
+		.orderBy(asc(changeOrder.createdAt), asc(job.number))
+		.limit(DESK_LINES);
+	const [{ total }] = await tx
+		.select({ total: count() })
+		.from(changeOrder)
+		.innerJoin(job, ofJob)
+		.where(filter);
+	return { rows, total };
 }
 
 /** Completed jobs (the balance is asked for once the work is done), oldest first. */
