@@ -2,7 +2,17 @@
 // now, for the store's office, and only their own for a salesperson.
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { booking, changeOrder, job as jobTable } from '$lib/server/db/schema';
+import {
+	booking,
+	changeOrder,
+	job as jobTable,
+	measure as measureTable,
+	quote as quoteTable
+} from '$lib/server/db/schema';
+import { DESK_COUNT_MAX } from '$lib/server/db/queries/desk';
+import * as measures from '$lib/server/db/queries/measures';
+import { balancesFor, moneyFor } from '$lib/server/db/queries/payments';
+import { formatMoney } from '$lib/format';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { storeDay, weekOf, type StoreDay } from '$lib/server/desk/day';
 import { today } from '$lib/schedule/days';
@@ -10,10 +20,12 @@ import * as jobs from '$lib/server/db/queries/jobs';
 import { grantsOf, type Role } from '$lib/server/permissions';
 import {
 	addMember,
+	makeCustomer,
 	makeJob,
 	makePaidJob,
 	makeQuotedJob,
 	makeStore,
+	roomDraft,
 	sendAndAccept,
 	type TestStore
 } from './factories';
@@ -142,6 +154,107 @@ describe("the desk's day", { timeout: 60_000 }, () => {
 		// A salesperson reviews none: no such group.
 		const sales = await dayAs('sales', salesId);
 		expect(sales.groups.map((g) => g.kind)).not.toContain('change-orders');
+	});
+
+	// Migration 0023: the desk's kinds read two facts kept on the job by triggers, never the app.
+	it('keeps on the job whether it is measured and when its quote was last sent', async () => {
+		const facts = (id: string) =>
+			readInStore(store.id, async (tx) => {
+				const [row] = await tx
+					.select({ measured: jobTable.roomsMeasured, sentAt: jobTable.quoteSentAt })
+					.from(jobTable)
+					.where(and(eq(jobTable.organizationId, store.id), eq(jobTable.id, id)));
+				return row;
+			});
+		const fresh = await makeJob(store.id, store.owner.id);
+		expect(await facts(fresh.id)).toEqual({ measured: false, sentAt: null });
+		const room = roomDraft('r1', 'Hall', 'any-product');
+		const save = (rooms: (typeof room)[], version: number) =>
+			inStore(store.id, (tx) =>
+				measures.save(tx, fresh.id, { builtYear: '1990', rooms }, version, store.owner.id)
+			);
+		expect((await save([], 0)).ok).toBe(true);
+		expect((await facts(fresh.id)).measured).toBe(false);
+		expect((await save([room], 1)).ok).toBe(true);
+		expect((await facts(fresh.id)).measured).toBe(true);
+		expect((await save([], 2)).ok).toBe(true);
+		expect((await facts(fresh.id)).measured).toBe(false);
+		expect((await save([room], 3)).ok).toBe(true);
+		await inStore(store.id, (tx) =>
+			tx
+				.delete(measureTable)
+				.where(and(eq(measureTable.organizationId, store.id), eq(measureTable.jobId, fresh.id)))
+		);
+		expect((await facts(fresh.id)).measured).toBe(false);
+		// The accepted job's quote was sent: the job keeps when.
+		const [sent] = await readInStore(store.id, (tx) =>
+			tx
+				.select({ at: quoteTable.sentAt })
+				.from(quoteTable)
+				.where(and(eq(quoteTable.organizationId, store.id), eq(quoteTable.jobId, made.accepted.id)))
+		);
+		expect(sent.at).toBeInstanceOf(Date);
+		expect(await facts(made.accepted.id)).toEqual({ measured: true, sentAt: sent.at });
+	});
+
+	it("works out balances by the job's own ledger, the rows read for all at once", async () => {
+		const finished = await makePaidJob(store);
+		await inStore(store.id, (tx) =>
+			tx
+				.update(jobTable)
+				.set({ status: 'completed' })
+				.where(and(eq(jobTable.organizationId, store.id), eq(jobTable.id, finished.job.id)))
+		);
+		const ids = [finished.job.id, made.accepted.id, made.bare.id, made.sold.id];
+		await readInStore(store.id, async (tx) => {
+			const all = await balancesFor(tx, [...ids, 'no-such-job']);
+			expect([...all.keys()].sort()).toEqual([...ids].sort());
+			for (const id of ids) {
+				const one = await moneyFor(tx, id);
+				expect(all.get(id)).toEqual({
+					balanceDueCents: one.ledger.balanceDueCents,
+					currency: one.currency
+				});
+			}
+		});
+		const manager = await addMember(store.id, 'manager', 'Pia Lund');
+		const balances = group(await dayAs('manager', manager.id), 'balances');
+		expect(balances).toMatchObject({ total: 1, totalCapped: false });
+		const due = await readInStore(store.id, (tx) => moneyFor(tx, finished.job.id));
+		expect(due.ledger.balanceDueCents).toBeGreaterThan(0);
+		expect(balances.lines[0].todo).toContain(formatMoney(due.ledger.balanceDueCents, due.currency));
+	});
+
+	it('counts a kind as far as 1,000, and says there are more', async () => {
+		const big = await makeStore('Quarry Lane Floors');
+		const customer = await makeCustomer(big.id);
+		await inStore(big.id, (tx) =>
+			tx.insert(jobTable).values(
+				Array.from({ length: DESK_COUNT_MAX + 1 }, (_, i) => ({
+					organizationId: big.id,
+					number: 5001 + i,
+					customerId: customer.id,
+					title: `Hall ${i}`,
+					status: 'accepted' as const,
+					statusChangedAt: new Date(Date.UTC(2026, 0, 1) + i * 60_000)
+				}))
+			)
+		);
+		const manager = await addMember(big.id, 'manager', 'Tove Hart');
+		const day = await readInStore(big.id, (tx) =>
+			storeDay(tx, {
+				grants: grantsOf('manager'),
+				user: { id: manager.id },
+				store: { timeZone: 'UTC' }
+			})
+		);
+		const deposits = group(day, 'deposits');
+		expect(deposits).toMatchObject({ total: DESK_COUNT_MAX, totalCapped: true });
+		// The oldest first, from the kind's own index.
+		expect(deposits.lines.map((l) => l.job.split(' · ')[0])).toEqual(
+			Array.from({ length: 8 }, (_, i) => `J-${5001 + i}`)
+		);
+		expect(group(day, 'measure')).toMatchObject({ total: 0, totalCapped: false });
 	});
 
 	it('works out the week from the store time zone, Monday to Sunday', () => {

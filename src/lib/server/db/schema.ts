@@ -201,6 +201,9 @@ export const site = pgTable(
 	]
 ).enableRLS();
 
+/** The states the desk lists by when jobs entered them (see `job`'s indexes). */
+const DESK_SINCE_STATUSES = ['accepted', 'sold', 'completed'] as const;
+
 export const job = pgTable(
 	'job',
 	{
@@ -227,18 +230,40 @@ export const job = pgTable(
 		 * (migration 0017).
 		 */
 		customerName: text('customer_name').notNull().default(''),
+		/**
+		 * Whether the job's measure has a room. Set by the database, never by the app: triggers on
+		 * `measure` keep it (migration 0023), so the desk finds the drafts to measure and those to
+		 * quote from an index of its own instead of reading every draft's measure.
+		 */
+		roomsMeasured: boolean('rooms_measured').notNull().default(false),
+		/**
+		 * When the job's latest quote version was sent (none: never). Set by the database, never by
+		 * the app: a trigger on `quote` keeps it (migration 0023); the desk lists the quotes with the
+		 * customer by it, longest waiting first.
+		 */
+		quoteSentAt: timestamp('quote_sent_at', { withTimezone: true }),
 		statusChangedAt: timestamp('status_changed_at', { withTimezone: true }).defaultNow().notNull(),
 		...timestamps
 	},
 	(t) => [
 		index('job_organization_id_idx').on(t.organizationId),
-		// A store's jobs in one state, longest in it first: the desk's lines (its oldest few of
-		// each kind) walk this and stop, and its totals count from it (migration 0022).
-		index('job_organization_status_since_idx').on(
-			t.organizationId,
-			t.status,
-			t.statusChangedAt,
-			t.number
+		// The desk's kinds (the staff's front page), each a partial index in the order its lines
+		// are listed, longest waiting first: the oldest few are its first entries, and its total is
+		// counted from it alone. Partial, because the enum's `=` is never an index condition for
+		// the app's role (see the job list's below); migration 0023.
+		index('job_draft_unmeasured_since_idx')
+			.on(t.organizationId, t.statusChangedAt, t.number)
+			.where(sql`${t.status} = 'draft' and not ${t.roomsMeasured}`),
+		index('job_draft_measured_since_idx')
+			.on(t.organizationId, t.statusChangedAt, t.number)
+			.where(sql`${t.status} = 'draft' and ${t.roomsMeasured}`),
+		index('job_quoted_since_idx')
+			.on(t.organizationId, sql`coalesce(${t.quoteSentAt}, ${t.statusChangedAt})`, t.number)
+			.where(sql`${t.status} = 'quoted'`),
+		...DESK_SINCE_STATUSES.map((s) =>
+			index(`job_${s}_since_idx`)
+				.on(t.organizationId, t.statusChangedAt, t.number)
+				.where(sql`${t.status} = ${sql.raw(`'${s}'`)}`)
 		),
 		// An installer's jobs, by last change too (the installer's today page lists them so; an
 		// installer of a large store has tens of thousands to sort otherwise).
@@ -379,11 +404,6 @@ export const measure = pgTable(
 	},
 	(t) => [
 		unique('measure_job_uq').on(t.organizationId, t.jobId),
-		// The measures with a room: whether a job is measured, answered from the index alone, never
-		// by reading the draft (the desk asks it of every draft job; migration 0022).
-		index('measure_measured_idx')
-			.on(t.organizationId, t.jobId)
-			.where(sql`jsonb_array_length(coalesce(${t.draft} -> 'rooms', '[]'::jsonb)) > 0`),
 		foreignKey({
 			name: 'measure_job_same_store_fk',
 			columns: [t.jobId, t.organizationId],
@@ -505,6 +525,10 @@ export const payment = pgTable(
 	(t) => [
 		index('payment_job_idx').on(t.organizationId, t.jobId),
 		index('payment_created_idx').on(t.organizationId, t.createdAt),
+		// The desk's payments that don't reconcile, oldest first (migration 0023).
+		index('payment_mismatch_idx')
+			.on(t.organizationId, t.updatedAt)
+			.where(sql`${t.mismatch} is not null`),
 		unique('payment_id_organization_uq').on(t.id, t.organizationId),
 		foreignKey({
 			name: 'payment_job_same_store_fk',
@@ -689,6 +713,9 @@ export const installerTimeOff = pgTable(
  * zone. `version` rises with every change of days or installer (the calendar file's SEQUENCE;
  * the id is its UID). Cancelled bookings are kept; a job has at most one live booking.
  */
+/** The most days one booking runs (its `booking_days` check). */
+export const BOOKING_MAX_DAYS = 60;
+
 export const booking = pgTable(
 	'booking',
 	{
@@ -734,7 +761,7 @@ export const booking = pgTable(
 			columns: [t.organizationId, t.installerId],
 			foreignColumns: [installerProfile.organizationId, installerProfile.userId]
 		}),
-		check('booking_days', sql`${t.days} between 1 and 60`),
+		check('booking_days', sql`${t.days} between 1 and ${sql.raw(String(BOOKING_MAX_DAYS))}`),
 		check('booking_proposed_days', sql`${t.proposedDays} between 0 and 366`),
 		check('booking_version', sql`${t.version} >= 1`),
 		storeIsolation
@@ -972,6 +999,10 @@ export const changeOrder = pgTable(
 	},
 	(t) => [
 		index('change_order_job_idx').on(t.organizationId, t.jobId),
+		// The desk's change orders to review, oldest sent first (migration 0023).
+		index('change_order_submitted_idx')
+			.on(t.organizationId, t.createdAt)
+			.where(sql`${t.status} = 'submitted'`),
 		unique('change_order_id_organization_uq').on(t.id, t.organizationId),
 		unique('change_order_id_job_organization_uq').on(t.id, t.jobId, t.organizationId),
 		unique('change_order_job_number_uq').on(t.organizationId, t.jobId, t.number),

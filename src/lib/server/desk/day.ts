@@ -2,7 +2,7 @@ import { jobLabel } from '$lib/jobs/status';
 import { formatMoney } from '$lib/format';
 import { today } from '$lib/schedule/days';
 import * as desk from '../db/queries/desk';
-import { moneyFor } from '../db/queries/payments';
+import { BALANCES_MAX, balancesFor } from '../db/queries/payments';
 import type { StoreTx } from '../db/tenant';
 import type { JobScope } from '../object-access';
 import { can, type Grants } from '../permissions';
@@ -33,7 +33,10 @@ export interface DayGroup {
 	title: string;
 	/** Shown when there is nothing of this kind. */
 	empty: string;
+	/** How many there are, counted as far as the desk counts (`DESK_COUNT_MAX`). */
 	total: number;
+	/** Whether there are more than `total`: shown as 1,000+. */
+	totalCapped: boolean;
 	lines: DayLine[];
 }
 
@@ -51,7 +54,7 @@ export interface StoreDay {
 }
 
 /** The most completed jobs whose balance is worked out for the desk (one ledger each). */
-const BALANCE_SCAN = 40;
+const BALANCE_SCAN = Math.min(40, BALANCES_MAX);
 
 const DAY_MS = 86_400_000;
 
@@ -124,6 +127,7 @@ export async function storeDay(
 			title: 'Measures to do',
 			empty: 'Every job has its rooms measured.',
 			total: measure.total,
+			totalCapped: measure.totalCapped,
 			lines: lines(
 				measure.rows,
 				now,
@@ -138,6 +142,7 @@ export async function storeDay(
 			title: 'Quotes to build or send',
 			empty: 'No measured job is waiting for its quote.',
 			total: quote.total,
+			totalCapped: quote.totalCapped,
 			lines: lines(
 				quote.rows,
 				now,
@@ -154,6 +159,7 @@ export async function storeDay(
 			title: 'Installs to book',
 			empty: 'Every sold job is booked.',
 			total: book.total,
+			totalCapped: book.totalCapped,
 			lines: lines(book.rows, now, job, (_, d) => `Book an installer · sold ${ago(d)}`)
 		});
 	}
@@ -165,6 +171,7 @@ export async function storeDay(
 			title: 'Change orders to review',
 			empty: 'No change order is waiting for review.',
 			total: review.total,
+			totalCapped: review.totalCapped,
 			lines: lines(
 				review.rows,
 				now,
@@ -181,6 +188,7 @@ export async function storeDay(
 			title: "Payments that don't reconcile",
 			empty: 'Every payment matches what it asked for.',
 			total: odd.total,
+			totalCapped: odd.totalCapped,
 			lines: odd.rows.map((p) => ({
 				key: p.id,
 				href: `/app/jobs/${p.jobId}/payments`,
@@ -198,6 +206,7 @@ export async function storeDay(
 		title: 'Quotes with the customer',
 		empty: 'No quote is waiting for an answer.',
 		total: waiting.total,
+		totalCapped: waiting.totalCapped,
 		lines: lines(waiting.rows, now, job, (_, d) =>
 			d >= 7 ? `Sent ${ago(d)}: call to follow up` : `Sent ${ago(d)}`
 		)
@@ -209,6 +218,7 @@ export async function storeDay(
 		title: 'Deposits due',
 		empty: 'No accepted quote is waiting for its deposit.',
 		total: deposits.total,
+		totalCapped: deposits.totalCapped,
 		lines: lines(
 			deposits.rows,
 			now,
@@ -217,13 +227,18 @@ export async function storeDay(
 		)
 	});
 
-	// Balances: the one ledger function per completed job (bounded), never a sum of our own.
+	// Balances: the one ledger function per completed job (bounded), never a sum of our own; the
+	// rows it reads are read for all of them at once.
 	const done = await desk.completed(tx, scope, BALANCE_SCAN);
+	const balances = await balancesFor(
+		tx,
+		done.map((j) => j.id)
+	);
 	const owing: { id: string; dueCents: number; currency: string }[] = [];
 	for (const { id } of done) {
-		const money = await moneyFor(tx, id);
-		if (money.ledger.balanceDueCents > 0)
-			owing.push({ id, dueCents: money.ledger.balanceDueCents, currency: money.currency });
+		const money = balances.get(id);
+		if (money && money.balanceDueCents > 0)
+			owing.push({ id, dueCents: money.balanceDueCents, currency: money.currency });
 	}
 	const owingRows = await desk.deskJobs(
 		tx,
@@ -236,6 +251,8 @@ export async function storeDay(
 		title: 'Balances due',
 		empty: 'No finished job owes a balance.',
 		total: owing.length,
+		// Only the oldest completed jobs are worked out: past them, there may be more.
+		totalCapped: done.length >= BALANCE_SCAN && owing.length > 0,
 		lines: lines(
 			owingRows,
 			now,

@@ -68,6 +68,96 @@ async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<nu
 	return Number(row?.total ?? 0);
 }
 
+/** The refunds of `paymentIds`, oldest first. */
+async function refundsOf(tx: StoreTx, paymentIds: string[]): Promise<Refund[]> {
+	if (!paymentIds.length) return [];
+	return tx
+		.select()
+		.from(refund)
+		.where(and(eq(refund.organizationId, tx.storeId), inArray(refund.paymentId, paymentIds)))
+		.orderBy(asc(refund.createdAt));
+}
+
+/** The most jobs `balancesFor` works out at once (its lists are bound by it). */
+export const BALANCES_MAX = 100;
+
+/**
+ * The balance of each of `jobIds` (at most `BALANCES_MAX`), by the same ledger as `moneyFor` and
+ * from the same rows, read for all of them in five statements instead of five each. A job not
+ * in the store is left out.
+ */
+export async function balancesFor(
+	tx: StoreTx,
+	jobIds: string[]
+): Promise<Map<string, { balanceDueCents: number; currency: string }>> {
+	const ids = [...new Set(jobIds)];
+	if (ids.length > BALANCES_MAX) throw new Error(`At most ${BALANCES_MAX} jobs at once`);
+	const out = new Map<string, { balanceDueCents: number; currency: string }>();
+	if (!ids.length) return out;
+	const jobs = await tx
+		.select({ id: job.id, status: job.status })
+		.from(job)
+		.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, ids)));
+	// The newest accepted version of each job, as `acceptedQuote` reads it.
+	const quotes = await tx
+		.selectDistinctOn([quote.jobId], {
+			jobId: quote.jobId,
+			currency: quote.currency,
+			totalCents: quote.totalCents,
+			depositCents: quote.depositCents
+		})
+		.from(quote)
+		.where(
+			and(
+				eq(quote.organizationId, tx.storeId),
+				inArray(quote.jobId, ids),
+				eq(quote.status, 'accepted')
+			)
+		)
+		.orderBy(quote.jobId, desc(quote.version));
+	const changeOrders = await tx
+		.select({ jobId: changeOrder.jobId, total: sql<string | null>`sum(${changeOrder.totalCents})` })
+		.from(changeOrder)
+		.where(
+			and(
+				eq(changeOrder.organizationId, tx.storeId),
+				inArray(changeOrder.jobId, ids),
+				eq(changeOrder.status, 'approved')
+			)
+		)
+		.groupBy(changeOrder.jobId);
+	const payments = await tx
+		.select(paymentColumns)
+		.from(payment)
+		.where(and(eq(payment.organizationId, tx.storeId), inArray(payment.jobId, ids)))
+		.orderBy(asc(payment.createdAt));
+	// Each job has a few payments; 100 jobs, a few hundred at most.
+	const refunds = await refundsOf(
+		tx,
+		payments.map((p) => p.id)
+	);
+	const quoteOf = new Map(quotes.map((q) => [q.jobId, q]));
+	const changeOrdersOf = new Map(changeOrders.map((c) => [c.jobId, Number(c.total ?? 0)]));
+	const jobOfPayment = new Map(payments.map((p) => [p.id, p.jobId]));
+	for (const { id, status } of jobs) {
+		const accepted = quoteOf.get(id);
+		const paid = payments.filter((p) => p.jobId === id);
+		const l = ledger({
+			quoteTotalCents: accepted?.totalCents ?? 0,
+			depositCents: accepted?.depositCents ?? 0,
+			changeOrdersCents: changeOrdersOf.get(id) ?? 0,
+			payments: paid,
+			refunds: refunds.filter((r) => jobOfPayment.get(r.paymentId) === id),
+			cancelled: status === 'cancelled'
+		});
+		out.set(id, {
+			balanceDueCents: l.balanceDueCents,
+			currency: accepted?.currency ?? paid[0]?.currency ?? 'USD'
+		});
+	}
+	return out;
+}
+
 /**
  * A job's payments, refunds and balance: what it owes is its accepted quote plus the change
  * orders the customer approved.
@@ -104,21 +194,10 @@ export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 				.orderBy(asc(payment.createdAt)),
 		{ store: tx.storeId, job: jobId }
 	);
-	const refunds = payments.length
-		? await tx
-				.select()
-				.from(refund)
-				.where(
-					and(
-						eq(refund.organizationId, tx.storeId),
-						inArray(
-							refund.paymentId,
-							payments.map((p) => p.id)
-						)
-					)
-				)
-				.orderBy(asc(refund.createdAt))
-		: [];
+	const refunds = await refundsOf(
+		tx,
+		payments.map((p) => p.id)
+	);
 	return {
 		quote: accepted,
 		payments,
