@@ -270,7 +270,7 @@ const targets: Target[] = [
 		name: "desk, the store's day (SSR)",
 		path: '/app',
 		cookie: owner,
-		noSteady: 'not run at 50/s: it answers a few a second on the big store'
+		noSteady: 'not run at 50/s: it answers fewer than 50 a second on the big store'
 	},
 	{ name: "installer's today (/field)", path: '/field', cookie: installer },
 	{
