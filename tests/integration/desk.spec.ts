@@ -9,7 +9,8 @@ import {
 	measure as measureTable,
 	quote as quoteTable
 } from '$lib/server/db/schema';
-import { DESK_COUNT_MAX } from '$lib/server/db/queries/desk';
+import { DESK_COUNT_MAX, WEEK_BOOKINGS } from '$lib/server/db/queries/desk';
+import type { Schedule } from '$lib/estimating/schedule';
 import * as measures from '$lib/server/db/queries/measures';
 import { balancesFor, moneyFor } from '$lib/server/db/queries/payments';
 import { formatMoney } from '$lib/format';
@@ -34,6 +35,8 @@ import { seedChangeOrder } from './change-order-jobs';
 
 let store: TestStore;
 let salesId: string;
+/** A quote's schedule, as bookings made outside the app carry. */
+let aSchedule: Schedule;
 const made: Record<string, { id: string; number: number }> = {};
 
 const dayAs = (role: Role, userId: string, now = new Date()) =>
@@ -73,6 +76,7 @@ beforeAll(async () => {
 	await inStore(store.id, (tx) => jobs.move(tx, booked.job.id, 'sold', store.owner.id));
 	made.booked = booked.job;
 	const { user: installer } = await makeInstaller(store);
+	aSchedule = booked.quote.result.schedule;
 	await inStore(store.id, async (tx) => {
 		await tx.insert(booking).values({
 			organizationId: store.id,
@@ -255,6 +259,47 @@ describe("the desk's day", { timeout: 60_000 }, () => {
 			Array.from({ length: 8 }, (_, i) => `J-${5001 + i}`)
 		);
 		expect(group(day, 'measure')).toMatchObject({ total: 0, totalCapped: false });
+
+		// The week: two installers of one name, 201 bookings between them. The desk lists the first
+		// 200, says there are more, and keeps the installers apart.
+		const first = await makeInstaller(big);
+		const second = await makeInstaller(big);
+		const monday = weekOf(today('UTC')).from;
+		await inStore(big.id, async (tx) => {
+			const jobs = await tx
+				.select({ id: jobTable.id })
+				.from(jobTable)
+				.where(eq(jobTable.organizationId, big.id))
+				.orderBy(jobTable.number)
+				.limit(WEEK_BOOKINGS + 1);
+			await tx.insert(booking).values(
+				jobs.map((j, i) => ({
+					organizationId: big.id,
+					jobId: j.id,
+					installerId: (i % 2 ? second : first).user.id,
+					startsOn: monday,
+					days: 1,
+					proposedDays: 1,
+					proposal: aSchedule,
+					bookedBy: big.owner.id
+				}))
+			);
+		});
+		const week = (
+			await readInStore(big.id, (tx) =>
+				storeDay(tx, {
+					grants: grantsOf('manager'),
+					user: { id: manager.id },
+					store: { timeZone: 'UTC' }
+				})
+			)
+		).week;
+		expect(week?.more).toBe(true);
+		expect(week?.rows.map((r) => r.installerName)).toEqual(['An installer', 'An installer']);
+		expect(new Set(week?.rows.map((r) => r.installerId))).toEqual(
+			new Set([first.user.id, second.user.id])
+		);
+		expect(week?.rows.reduce((n, r) => n + r.jobs.length, 0)).toBe(WEEK_BOOKINGS);
 	});
 
 	it('works out the week from the store time zone, Monday to Sunday', () => {

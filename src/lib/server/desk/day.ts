@@ -41,6 +41,7 @@ export interface DayGroup {
 }
 
 export interface SiteWeekRow {
+	installerId: string;
 	installerName: string;
 	jobs: { key: string; href: string; job: string; days: string }[];
 }
@@ -50,7 +51,13 @@ export interface StoreDay {
 	wholeStore: boolean;
 	groups: DayGroup[];
 	/** Installs on this week, by installer (Monday to Sunday in the store's time zone). */
-	week: { from: string; to: string; rows: SiteWeekRow[] } | null;
+	week: {
+		from: string;
+		to: string;
+		rows: SiteWeekRow[];
+		/** The week has more bookings than the desk lists (the schedule has them all). */
+		more: boolean;
+	} | null;
 }
 
 /** The most completed jobs whose balance is worked out for the desk (one ledger each). */
@@ -112,7 +119,7 @@ function lines(
 }
 
 const ago = (days: number) =>
-	days === 0 ? 'today' : days === 1 ? 'a day ago' : `${days} days ago`;
+	days === 0 ? 'today' : days === 1 ? 'a day ago' : `${days.toLocaleString('en-US')} days ago`;
 
 export async function storeDay(
 	tx: StoreTx,
@@ -273,10 +280,11 @@ export async function storeDay(
 	let week: StoreDay['week'] = null;
 	if (can(grants, { job: ['read'] })) {
 		const { from, to } = weekOf(today(member.store.timeZone, now));
-		const booked = await desk.bookingsBetween(tx, scope, from, to);
+		const { bookings: booked, more } = await desk.bookingsBetween(tx, scope, from, to);
 		const byInstaller = new Map<string, SiteWeekRow>();
 		for (const b of booked) {
 			const row = byInstaller.get(b.installerId) ?? {
+				installerId: b.installerId,
 				installerName: b.installerName ?? 'An installer no longer in the store',
 				jobs: []
 			};
@@ -289,7 +297,7 @@ export async function storeDay(
 			});
 			byInstaller.set(b.installerId, row);
 		}
-		week = { from: dayText(from), to: dayText(to), rows: [...byInstaller.values()] };
+		week = { from: dayText(from), to: dayText(to), rows: [...byInstaller.values()], more };
 	}
 	return { wholeStore, groups, week };
 }

@@ -250,9 +250,12 @@ const daysBefore = (day: string, n: number) =>
 	new Date(Date.parse(`${day}T00:00:00Z`) - n * 86_400_000).toISOString().slice(0, 10);
 
 /** The most bookings the desk's week shows. */
-const WEEK_BOOKINGS = 200;
+export const WEEK_BOOKINGS = 200;
 
-/** Live bookings on any of the days from `from` to `to` (store dates, both included). */
+/**
+ * Live bookings on any of the days from `from` to `to` (store dates, both included): the first
+ * `WEEK_BOOKINGS` by installer and day, and whether there are more.
+ */
 export async function bookingsBetween(tx: StoreTx, scope: JobScope, from: string, to: string) {
 	// The week's bookings first, alone (joined to the job only to narrow to a scope), then their
 	// jobs by id. As one join, PostgreSQL guessed thousands of bookings for a week of a big store
@@ -289,15 +292,18 @@ export async function bookingsBetween(tx: StoreTx, scope: JobScope, from: string
 				.leftJoin(installer, eq(installer.id, booking.installerId))
 				.where(where)
 				.orderBy(...order)
-				.limit(WEEK_BOOKINGS)
+				.limit(WEEK_BOOKINGS + 1)
 		: await tx
 				.select(columns)
 				.from(booking)
 				.leftJoin(installer, eq(installer.id, booking.installerId))
 				.where(where)
 				.orderBy(...order)
-				.limit(WEEK_BOOKINGS);
-	if (!week.length) return [];
+				.limit(WEEK_BOOKINGS + 1);
+	// One past the most says whether there are more than the desk shows.
+	const more = week.length > WEEK_BOOKINGS;
+	if (more) week.length = WEEK_BOOKINGS;
+	if (!week.length) return { bookings: [], more };
 	const jobs = await tx
 		.select({ id: job.id, number: job.number, title: job.title, customerName: customer.name })
 		.from(job)
@@ -312,9 +318,10 @@ export async function bookingsBetween(tx: StoreTx, scope: JobScope, from: string
 			)
 		);
 	const byId = new Map(jobs.map((j) => [j.id, j]));
-	return week.flatMap((b) => {
+	const bookings = week.flatMap((b) => {
 		const j = byId.get(b.jobId);
 		// Every booking has its job (the same-store foreign key); none is made up if it had not.
 		return j ? [{ ...b, number: j.number, title: j.title, customerName: j.customerName }] : [];
 	});
+	return { bookings, more };
 }
