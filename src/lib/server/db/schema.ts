@@ -713,9 +713,6 @@ export const installerTimeOff = pgTable(
  * zone. `version` rises with every change of days or installer (the calendar file's SEQUENCE;
  * the id is its UID). Cancelled bookings are kept; a job has at most one live booking.
  */
-/** The most days one booking runs (its `booking_days` check). */
-export const BOOKING_MAX_DAYS = 60;
-
 export const booking = pgTable(
 	'booking',
 	{
@@ -761,7 +758,7 @@ export const booking = pgTable(
 			columns: [t.organizationId, t.installerId],
 			foreignColumns: [installerProfile.organizationId, installerProfile.userId]
 		}),
-		check('booking_days', sql`${t.days} between 1 and ${sql.raw(String(BOOKING_MAX_DAYS))}`),
+		check('booking_days', sql`${t.days} between 1 and 60`),
 		check('booking_proposed_days', sql`${t.proposedDays} between 0 and 366`),
 		check('booking_version', sql`${t.version} >= 1`),
 		storeIsolation

@@ -1,6 +1,6 @@
 import { jobLabel } from '$lib/jobs/status';
 import { formatMoney } from '$lib/format';
-import { today } from '$lib/schedule/days';
+import { addDays, today } from '$lib/schedule/days';
 import * as desk from '../db/queries/desk';
 import { BALANCES_MAX, balancesFor } from '../db/queries/payments';
 import type { StoreTx } from '../db/tenant';
@@ -91,10 +91,6 @@ const dayFormat = new Intl.DateTimeFormat('en-US', {
 /** A store date (YYYY-MM-DD) as people read it: Mon, Dec 7. */
 function dayText(day: string): string {
 	return dayFormat.format(new Date(`${day}T00:00:00Z`));
-}
-
-function addDays(day: string, n: number): string {
-	return new Date(new Date(`${day}T00:00:00Z`).getTime() + n * DAY_MS).toISOString().slice(0, 10);
 }
 
 const jobText = (j: { number: number; title: string; customerName: string }) =>

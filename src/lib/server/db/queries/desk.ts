@@ -19,9 +19,12 @@ import {
 } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { JobStatus } from '../../../jobs/status';
-import { BOOKING_MAX_DAYS, booking, changeOrder, customer, job, payment, user } from '../schema';
+import { addDays } from '../../../schedule/days';
+import { MAX_BOOKING_DAYS } from '../../../schemas/crew';
+import { booking, changeOrder, customer, job, payment, user } from '../schema';
 import type { StoreTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
+import { statusIs } from './jobs';
 
 /** The most lines of one kind the desk lists; the count says how many there are in all. */
 export const DESK_LINES = 8;
@@ -63,9 +66,9 @@ async function countUpTo(
 
 const one = () => sql<number>`1`.as('one');
 
-// Each kind's state written as SQL text, not a bound value: the planner then proves the kind's
-// partial index (see `job` in ../schema.ts, migration 0023) from it in every plan, generic or not.
-const draft = sql`${job.status} = 'draft'`;
+// Each kind's state written as SQL text, not a bound value (`statusIs`): the planner then proves
+// the kind's partial index (see `job` in ../schema.ts, migration 0023) from it in every plan.
+const draft = statusIs('draft');
 const measured = sql`${job.roomsMeasured}`;
 const notMeasured = sql`not ${job.roomsMeasured}`;
 
@@ -115,17 +118,17 @@ export function toQuote(tx: StoreTx, scope: JobScope) {
 export function waitingOnCustomer(tx: StoreTx, scope: JobScope) {
 	// The same expression as `job_quoted_since_idx`'s, so its order is the index's.
 	const sentAt = sql<Date>`coalesce(${job.quoteSentAt}, ${job.statusChangedAt})`;
-	return jobsWhere(tx, scope, sql`${job.status} = 'quoted'`, sentAt);
+	return jobsWhere(tx, scope, statusIs('quoted'), sentAt);
 }
 
 /** Accepted jobs whose deposit is not in yet. */
 export function depositsDue(tx: StoreTx, scope: JobScope) {
-	return jobsWhere(tx, scope, sql`${job.status} = 'accepted'`);
+	return jobsWhere(tx, scope, statusIs('accepted'));
 }
 
 /** Sold jobs with no live booking. */
 export function toBook(tx: StoreTx, scope: JobScope) {
-	return jobsWhere(tx, scope, and(sql`${job.status} = 'sold'`, not(liveBooking)));
+	return jobsWhere(tx, scope, and(statusIs('sold'), not(liveBooking)));
 }
 
 /**
@@ -135,12 +138,12 @@ export function toBook(tx: StoreTx, scope: JobScope) {
  * line and each count is one job.
  */
 export async function changeOrdersToReview(tx: StoreTx, scope: JobScope): Promise<DeskRows> {
-	const filter = and(
+	const sent = and(
 		eq(changeOrder.organizationId, tx.storeId),
-		sql`${changeOrder.status} = 'submitted'`,
-		eq(job.organizationId, tx.storeId),
-		jobScopeFilter(scope)
+		sql`${changeOrder.status} = 'submitted'`
 	);
+	const scoped = jobScopeFilter(scope);
+	const filter = and(sent, eq(job.organizationId, tx.storeId), scoped);
 	const ofJob = and(
 		eq(job.id, changeOrder.jobId),
 		eq(job.organizationId, changeOrder.organizationId)
@@ -165,15 +168,9 @@ export async function changeOrdersToReview(tx: StoreTx, scope: JobScope): Promis
 		.limit(DESK_LINES);
 	// The whole store's are counted from `change_order_submitted_idx` alone: each is of one of the
 	// store's jobs (its same-store foreign key), so the join only narrows to a scope.
-	const scoped = jobScopeFilter(scope);
 	const counted = scoped
 		? tx.select({ one: one() }).from(changeOrder).innerJoin(job, ofJob).where(filter)
-		: tx
-				.select({ one: one() })
-				.from(changeOrder)
-				.where(
-					and(eq(changeOrder.organizationId, tx.storeId), sql`${changeOrder.status} = 'submitted'`)
-				);
+		: tx.select({ one: one() }).from(changeOrder).where(sent);
 	return { rows, ...(await countUpTo(tx, counted)) };
 }
 
@@ -182,13 +179,7 @@ export function completed(tx: StoreTx, scope: JobScope, limit: number) {
 	return tx
 		.select({ id: job.id })
 		.from(job)
-		.where(
-			and(
-				eq(job.organizationId, tx.storeId),
-				jobScopeFilter(scope),
-				sql`${job.status} = 'completed'`
-			)
-		)
+		.where(and(eq(job.organizationId, tx.storeId), jobScopeFilter(scope), statusIs('completed')))
 		.orderBy(asc(job.statusChangedAt), asc(job.number))
 		.limit(limit);
 }
@@ -245,10 +236,6 @@ export async function paymentMismatches(tx: StoreTx, scope: JobScope) {
 
 const installer = alias(user, 'installer');
 
-/** The store date `n` days before `day` (both YYYY-MM-DD). */
-const daysBefore = (day: string, n: number) =>
-	new Date(Date.parse(`${day}T00:00:00Z`) - n * 86_400_000).toISOString().slice(0, 10);
-
 /** The most bookings the desk's week shows. */
 export const WEEK_BOOKINGS = 200;
 
@@ -269,7 +256,7 @@ export async function bookingsBetween(tx: StoreTx, scope: JobScope, from: string
 		gte(booking.endsOn, from),
 		// No booking is longer than its check allows: those reaching into the week started at most
 		// that many days before it, so the days index is read from there, not from the first.
-		gte(booking.startsOn, daysBefore(from, BOOKING_MAX_DAYS - 1)),
+		gte(booking.startsOn, addDays(from, 1 - MAX_BOOKING_DAYS)),
 		scoped
 	);
 	const columns = {
@@ -280,26 +267,20 @@ export async function bookingsBetween(tx: StoreTx, scope: JobScope, from: string
 		startsOn: booking.startsOn,
 		days: booking.days
 	};
-	const order = [asc(installer.name), asc(booking.startsOn), asc(booking.id)] as const;
-	const week = scoped
-		? await tx
-				.select(columns)
-				.from(booking)
-				.innerJoin(
-					job,
-					and(eq(job.id, booking.jobId), eq(job.organizationId, booking.organizationId))
-				)
-				.leftJoin(installer, eq(installer.id, booking.installerId))
-				.where(where)
-				.orderBy(...order)
-				.limit(WEEK_BOOKINGS + 1)
-		: await tx
-				.select(columns)
-				.from(booking)
-				.leftJoin(installer, eq(installer.id, booking.installerId))
-				.where(where)
-				.orderBy(...order)
-				.limit(WEEK_BOOKINGS + 1);
+	const query = tx
+		.select(columns)
+		.from(booking)
+		.leftJoin(installer, eq(installer.id, booking.installerId))
+		.$dynamic();
+	if (scoped)
+		query.innerJoin(
+			job,
+			and(eq(job.id, booking.jobId), eq(job.organizationId, booking.organizationId))
+		);
+	const week = await query
+		.where(where)
+		.orderBy(asc(installer.name), asc(booking.startsOn), asc(booking.id))
+		.limit(WEEK_BOOKINGS + 1);
 	// One past the most says whether there are more than the desk shows.
 	const more = week.length > WEEK_BOOKINGS;
 	if (more) week.length = WEEK_BOOKINGS;

@@ -109,7 +109,7 @@ export const SEARCH_WINDOW = 2000;
  * depends on a parameter, so PostgreSQL planned the list's page again on every request and
  * counted through the wrong index (bench/README.md). One statement text per status: a closed set.
  */
-function statusIs(status: JobStatus, column: AnyColumn = job.status): SQL {
+export function statusIs(status: JobStatus, column: AnyColumn = job.status): SQL {
 	if (!JOB_STATUSES.includes(status)) throw new Error(`Not a job status: ${status}`);
 	return sql`${column} = ${sql.raw(`'${status}'`)}`;
 }
