@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
+import type { JobStatus } from '../../../jobs/status';
 import { ledger, type Ledger } from '../../../payments/ledger';
 import { changeOrder, job, payment, quote, refund, stripeEvent, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
@@ -10,6 +11,13 @@ export type PaymentPurpose = Payment['purpose'];
 export type PaymentMethod = Payment['method'];
 export type RefundReason = Refund['reason'];
 
+/** What a job's money is owed on, of its accepted quote. */
+const quoteMoney = {
+	currency: quote.currency,
+	totalCents: quote.totalCents,
+	depositCents: quote.depositCents
+};
+
 /** The accepted quote a job's money is owed on (the newest accepted version). */
 async function acceptedQuote(tx: StoreTx, jobId: string) {
 	const [row] = await runShape(
@@ -17,13 +25,7 @@ async function acceptedQuote(tx: StoreTx, jobId: string) {
 		'payments.acceptedQuote',
 		() =>
 			tx
-				.select({
-					id: quote.id,
-					version: quote.version,
-					currency: quote.currency,
-					totalCents: quote.totalCents,
-					depositCents: quote.depositCents
-				})
+				.select({ id: quote.id, version: quote.version, ...quoteMoney })
 				.from(quote)
 				.where(
 					and(
@@ -78,6 +80,31 @@ async function refundsOf(tx: StoreTx, paymentIds: string[]): Promise<Refund[]> {
 		.orderBy(asc(refund.createdAt));
 }
 
+/**
+ * A job's ledger and currency from its rows: its accepted quote (none: nothing owed on a quote),
+ * its approved change orders, payments and refunds, and its state. `moneyFor` and `balancesFor`
+ * read the rows; this is the one place they become a balance.
+ */
+function jobLedger(
+	accepted: { currency: string; totalCents: number; depositCents: number } | undefined,
+	changeOrdersCents: number,
+	payments: Payment[],
+	refunds: Refund[],
+	status: JobStatus | undefined
+): { ledger: Ledger; currency: string } {
+	return {
+		currency: accepted?.currency ?? payments[0]?.currency ?? 'USD',
+		ledger: ledger({
+			quoteTotalCents: accepted?.totalCents ?? 0,
+			depositCents: accepted?.depositCents ?? 0,
+			changeOrdersCents,
+			payments,
+			refunds,
+			cancelled: status === 'cancelled'
+		})
+	};
+}
+
 /** The most jobs `balancesFor` works out at once (its lists are bound by it). */
 export const BALANCES_MAX = 100;
 
@@ -100,12 +127,7 @@ export async function balancesFor(
 		.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, ids)));
 	// The newest accepted version of each job, as `acceptedQuote` reads it.
 	const quotes = await tx
-		.selectDistinctOn([quote.jobId], {
-			jobId: quote.jobId,
-			currency: quote.currency,
-			totalCents: quote.totalCents,
-			depositCents: quote.depositCents
-		})
+		.selectDistinctOn([quote.jobId], { jobId: quote.jobId, ...quoteMoney })
 		.from(quote)
 		.where(
 			and(
@@ -140,20 +162,15 @@ export async function balancesFor(
 	const changeOrdersOf = new Map(changeOrders.map((c) => [c.jobId, Number(c.total ?? 0)]));
 	const jobOfPayment = new Map(payments.map((p) => [p.id, p.jobId]));
 	for (const { id, status } of jobs) {
-		const accepted = quoteOf.get(id);
 		const paid = payments.filter((p) => p.jobId === id);
-		const l = ledger({
-			quoteTotalCents: accepted?.totalCents ?? 0,
-			depositCents: accepted?.depositCents ?? 0,
-			changeOrdersCents: changeOrdersOf.get(id) ?? 0,
-			payments: paid,
-			refunds: refunds.filter((r) => jobOfPayment.get(r.paymentId) === id),
-			cancelled: status === 'cancelled'
-		});
-		out.set(id, {
-			balanceDueCents: l.balanceDueCents,
-			currency: accepted?.currency ?? paid[0]?.currency ?? 'USD'
-		});
+		const money = jobLedger(
+			quoteOf.get(id),
+			changeOrdersOf.get(id) ?? 0,
+			paid,
+			refunds.filter((r) => jobOfPayment.get(r.paymentId) === id),
+			status
+		);
+		out.set(id, { balanceDueCents: money.ledger.balanceDueCents, currency: money.currency });
 	}
 	return out;
 }
@@ -202,15 +219,7 @@ export async function moneyFor(tx: StoreTx, jobId: string): Promise<JobMoney> {
 		quote: accepted,
 		payments,
 		refunds,
-		currency: accepted?.currency ?? payments[0]?.currency ?? 'USD',
-		ledger: ledger({
-			quoteTotalCents: accepted?.totalCents ?? 0,
-			depositCents: accepted?.depositCents ?? 0,
-			changeOrdersCents,
-			payments,
-			refunds,
-			cancelled: status?.status === 'cancelled'
-		})
+		...jobLedger(accepted, changeOrdersCents, payments, refunds, status?.status)
 	};
 }
 
