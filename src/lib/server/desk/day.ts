@@ -41,7 +41,8 @@ export interface DayGroup {
 }
 
 export interface SiteWeekRow {
-	installerId: string;
+	/** The row's key on the page: its first booking's id (a member's id is not the page's). */
+	key: string;
 	installerName: string;
 	jobs: { key: string; href: string; job: string; days: string }[];
 }
@@ -280,7 +281,7 @@ export async function storeDay(
 		const byInstaller = new Map<string, SiteWeekRow>();
 		for (const b of booked) {
 			const row = byInstaller.get(b.installerId) ?? {
-				installerId: b.installerId,
+				key: b.id,
 				installerName: b.installerName ?? 'An installer no longer in the store',
 				jobs: []
 			};
