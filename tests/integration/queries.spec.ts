@@ -525,6 +525,45 @@ describe('jobs across stores', () => {
 		).rejects.toThrow(/names two different queries/);
 	});
 
+	it('maps rows as drizzle does: columns, SQL with its decoder, aliases and nulls', async () => {
+		// Every kind of field a flat select holds: a timestamp column (text to Date), an integer
+		// column, a nullable column, SQL mapped by a decoder, SQL kept as the driver gives it, and
+		// an aliased subquery column (the search window's shape).
+		const select = (tx: StoreTx) => {
+			const w = tx
+				.select({ id: jobTable.id, key: sql`${jobTable.number}`.mapWith(Number).as('k') })
+				.from(jobTable)
+				.where(eq(jobTable.organizationId, sql.placeholder('store')))
+				.as('w');
+			return tx
+				.select({
+					number: jobTable.number,
+					createdAt: jobTable.createdAt,
+					installerId: jobTable.installerId,
+					doubled: sql`${jobTable.number} * 2`.mapWith(Number),
+					asText: sql<string>`${jobTable.number}::text`,
+					none: sql<null>`null`,
+					key: w.key
+				})
+				.from(jobTable)
+				.innerJoin(w, eq(w.id, jobTable.id))
+				.where(eq(jobTable.organizationId, sql.placeholder('store')))
+				.orderBy(jobTable.number);
+		};
+		const [shaped, named, drizzles] = await inStore(b.id, async (tx) => [
+			await runShape(tx, 'test every field kind', () => select(tx), { store: b.id }),
+			await runNamed(select(tx), { store: b.id }),
+			await select(tx).execute({ store: b.id })
+		]);
+		expect(drizzles.length).toBeGreaterThan(1);
+		expect(drizzles[0].createdAt).toBeInstanceOf(Date);
+		expect(typeof drizzles[0].doubled).toBe('number');
+		expect(shaped).toEqual(drizzles);
+		expect(named).toEqual(drizzles);
+		// The same keys in the same order (the API's JSON is written from them).
+		expect(Object.keys(shaped[0])).toEqual(Object.keys(drizzles[0]));
+	});
+
 	it('runs a query as a statement named after its text, prepared once per connection', async () => {
 		const numbers = (tx: StoreTx, limit: number) =>
 			runNamed(
