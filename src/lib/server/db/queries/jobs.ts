@@ -619,16 +619,6 @@ export async function isBooked(tx: StoreTx, id: string): Promise<boolean> {
 	return Boolean(row);
 }
 
-/** Counts of the viewer's jobs per status. */
-export async function countByStatus(tx: StoreTx, viewer: JobViewer) {
-	const rows = await tx
-		.select({ status: job.status, n: count() })
-		.from(job)
-		.where(and(eq(job.organizationId, tx.storeId), viewerFilter(viewer)))
-		.groupBy(job.status);
-	return Object.fromEntries(rows.map((r) => [r.status, r.n])) as Partial<Record<JobStatus, number>>;
-}
-
 /**
  * Checks the store's tally of jobs (migration 0020) against counting its jobs, and mends it when
  * they differ: nothing in the app writes `job` with its triggers off, so a difference means a
