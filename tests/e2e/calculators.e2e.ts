@@ -1,6 +1,7 @@
 // The Calculators page for staff: structural answers carry their cautions, and the page works
 // without JavaScript through its form action.
 import { expect, test } from './fixtures';
+import { untilLive } from './helpers';
 
 test.describe(() => {
 	test.use({ signedInAs: 'sales' });
@@ -69,7 +70,7 @@ test.describe(() => {
 		page
 	}) => {
 		await page.goto('/app/calculators?c=leveller');
-		await expect(page.locator('html')).toHaveAttribute('data-hydrated', '');
+		await untilLive(page);
 		// Live now; every script asked for from here on (the calculator's engine) is held back.
 		let release!: () => void;
 		const held = new Promise<void>((resolve) => (release = resolve));

@@ -1,6 +1,7 @@
 import type { Page } from '@playwright/test';
 import { demoCustomer, makeJob, makeStore, personOf } from './factories';
 import { expect, pageAs, signInAs, test } from './fixtures';
+import { untilLive } from './helpers';
 
 const names = (page: Page) =>
 	page.getByRole('table', { name: 'Customers' }).locator('tbody tr td:first-child');
@@ -20,7 +21,7 @@ test.describe(() => {
 
 		// Once the page is live, the next page comes from the JSON API, and the URL follows. (A click
 		// before the scripts have loaded is a plain link: the server renders page 2 instead.)
-		await expect(page.locator('html')).toHaveAttribute('data-hydrated', '');
+		await untilLive(page);
 		const next = page.waitForResponse((r) => r.url().includes('/api/v1/customers?'));
 		await page.getByRole('link', { name: 'Next' }).click();
 		expect((await next).status()).toBe(200);

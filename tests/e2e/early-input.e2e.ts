@@ -4,6 +4,7 @@
 import type { Page } from '@playwright/test';
 import { demoCustomer, makeStore, personOf } from './factories';
 import { expect, signInAs, test } from './fixtures';
+import { notLiveYet, untilLive } from './helpers';
 
 /** Holds back the app's scripts until the returned function is called. */
 async function holdScripts(page: Page) {
@@ -15,8 +16,6 @@ async function holdScripts(page: Page) {
 	});
 	return release;
 }
-
-const html = (page: Page) => page.locator('html');
 
 test('a job started with "A new address…" chosen before the page is live goes to that address', async ({
 	page,
@@ -34,10 +33,10 @@ test('a job started with "A new address…" chosen before the page is live goes 
 	await page.getByLabel('Street address').fill('88 Copse End');
 	await page.getByLabel('Year built').fill('2004');
 	// All of that happened before the page was live.
-	await expect(html(page)).not.toHaveAttribute('data-hydrated');
+	await notLiveYet(page);
 
 	release();
-	await expect(html(page)).toHaveAttribute('data-hydrated', '');
+	await untilLive(page);
 	// Live now: the customer's own sites have come, and the choice and the address stayed.
 	await expect(
 		page.getByLabel('Site').getByRole('option', { name: /3 Larkspur Court/ })
@@ -66,10 +65,10 @@ test('a kind of floor chosen before the page is live keeps its fields and what w
 	// Without scripts every field shows; the person picks hardwood and types its board width.
 	await page.getByLabel('Kind of floor').selectOption('hardwood');
 	await page.getByLabel('Board width').fill('6 in');
-	await expect(html(page)).not.toHaveAttribute('data-hydrated');
+	await notLiveYet(page);
 
 	release();
-	await expect(html(page)).toHaveAttribute('data-hydrated', '');
+	await untilLive(page);
 	await expect(page.getByLabel('Kind of floor')).toHaveValue('hardwood');
 	// Only a hardwood's fields are offered, and the width typed is still there.
 	await expect(page.getByLabel('Roll width')).toHaveCount(0);
@@ -86,10 +85,10 @@ test.describe(() => {
 		await page.goto('/app/jobs', { waitUntil: 'domcontentloaded' });
 		await page.getByRole('searchbox', { name: 'Search' }).fill('Ruskin');
 		await page.getByLabel('Sold by me').check();
-		await expect(html(page)).not.toHaveAttribute('data-hydrated');
+		await notLiveYet(page);
 
 		release();
-		await expect(html(page)).toHaveAttribute('data-hydrated', '');
+		await untilLive(page);
 		await expect(page.getByRole('searchbox', { name: 'Search' })).toHaveValue('Ruskin');
 		await expect(page.getByLabel('Sold by me')).toBeChecked();
 
@@ -110,10 +109,10 @@ test.describe(() => {
 		await page.keyboard.press('Enter');
 		// The plain post came back with the server's answer, still before the page is live.
 		await expect(area).toHaveAttribute('aria-invalid', 'true');
-		await expect(html(page)).not.toHaveAttribute('data-hydrated');
+		await notLiveYet(page);
 
 		release();
-		await expect(html(page)).toHaveAttribute('data-hydrated', '');
+		await untilLive(page);
 		await expect(area).toBeFocused();
 		await expect(area).toHaveAccessibleDescription(/Enter the area to level/);
 	});

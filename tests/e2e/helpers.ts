@@ -32,3 +32,16 @@ export async function lastMailLink(page: Page, to: string) {
 	await expect(message).toBeVisible();
 	return (await message.getByRole('link').first().getAttribute('href'))!;
 }
+
+/**
+ * Waits until the page is live: its scripts have run and it has hydrated (the root layout marks
+ * `<html>` with `data-hydrated`). A click before then is the page as the server sent it.
+ */
+export async function untilLive(page: Page) {
+	await expect(page.locator('html')).toHaveAttribute('data-hydrated', '');
+}
+
+/** Checks that the page is not live yet: what the test did so far was done without scripts. */
+export async function notLiveYet(page: Page) {
+	await expect(page.locator('html')).not.toHaveAttribute('data-hydrated');
+}
