@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { sql, type AnyColumn, type Placeholder, type SQL } from 'drizzle-orm';
 import { clientOf, type StoreTx } from './tenant';
 
 type Values = Record<string, unknown>;
@@ -152,4 +153,13 @@ export function runShape<R>(
 	// copy of it runs on this transaction's client instead.
 	const mine = Object.create(kept.prepared, { client: { value: clientOf(tx) } }) as Prepared<R>;
 	return mine.execute(values);
+}
+
+/**
+ * `column` is one of `ids`: one array parameter, so a statement kept by its text (`runShape`,
+ * `runNamed`) has one text for any number of ids, where drizzle's `inArray` writes a parameter per
+ * id. `ids` is the list itself or the placeholder standing for it.
+ */
+export function oneOf(column: AnyColumn, ids: string[] | Placeholder): SQL {
+	return sql`${column} = any(${Array.isArray(ids) ? sql.param(ids) : ids}::text[])`;
 }

@@ -1,9 +1,9 @@
-import { and, asc, desc, eq, inArray, isNotNull, or, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, isNotNull, or, sql } from 'drizzle-orm';
 import type { JobStatus } from '../../../jobs/status';
 import { ledger, type Ledger } from '../../../payments/ledger';
 import { changeOrder, job, payment, quote, refund, stripeEvent, user } from '../schema';
 import type { StoreTx, StoreWriteTx } from '../tenant';
-import { runShape } from '../named';
+import { oneOf, runShape } from '../named';
 
 export type Payment = typeof payment.$inferSelect;
 export type Refund = typeof refund.$inferSelect;
@@ -70,14 +70,24 @@ async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<nu
 	return Number(row?.total ?? 0);
 }
 
+/** The store and the ids a statement kept by its text (`runShape`) reads rows of. */
+const STORE = sql.placeholder('store');
+const IDS = sql.placeholder('ids');
+
 /** The refunds of `paymentIds`, oldest first. */
 async function refundsOf(tx: StoreTx, paymentIds: string[]): Promise<Refund[]> {
 	if (!paymentIds.length) return [];
-	return tx
-		.select()
-		.from(refund)
-		.where(and(eq(refund.organizationId, tx.storeId), inArray(refund.paymentId, paymentIds)))
-		.orderBy(asc(refund.createdAt));
+	return runShape(
+		tx,
+		'payments.refundsOf',
+		() =>
+			tx
+				.select()
+				.from(refund)
+				.where(and(eq(refund.organizationId, STORE), oneOf(refund.paymentId, IDS)))
+				.orderBy(asc(refund.createdAt)),
+		{ store: tx.storeId, ids: paymentIds }
+	);
 }
 
 /**
@@ -121,38 +131,68 @@ export async function balancesFor(
 	if (ids.length > BALANCES_MAX) throw new Error(`At most ${BALANCES_MAX} jobs at once`);
 	const out = new Map<string, { balanceDueCents: number; currency: string }>();
 	if (!ids.length) return out;
-	const jobs = await tx
-		.select({ id: job.id, status: job.status })
-		.from(job)
-		.where(and(eq(job.organizationId, tx.storeId), inArray(job.id, ids)));
+	// Each read is kept by its text (`runShape`), its ids one array parameter: one statement for
+	// any number of jobs, parsed once per connection.
+	const values = { store: tx.storeId, ids };
+	const jobs = await runShape(
+		tx,
+		'payments.balances jobs',
+		() =>
+			tx
+				.select({ id: job.id, status: job.status })
+				.from(job)
+				.where(and(eq(job.organizationId, STORE), oneOf(job.id, IDS))),
+		values
+	);
 	// The newest accepted version of each job, as `acceptedQuote` reads it.
-	const quotes = await tx
-		.selectDistinctOn([quote.jobId], { jobId: quote.jobId, ...quoteMoney })
-		.from(quote)
-		.where(
-			and(
-				eq(quote.organizationId, tx.storeId),
-				inArray(quote.jobId, ids),
-				eq(quote.status, 'accepted')
-			)
-		)
-		.orderBy(quote.jobId, desc(quote.version));
-	const changeOrders = await tx
-		.select({ jobId: changeOrder.jobId, total: sql<string | null>`sum(${changeOrder.totalCents})` })
-		.from(changeOrder)
-		.where(
-			and(
-				eq(changeOrder.organizationId, tx.storeId),
-				inArray(changeOrder.jobId, ids),
-				eq(changeOrder.status, 'approved')
-			)
-		)
-		.groupBy(changeOrder.jobId);
-	const payments = await tx
-		.select(paymentColumns)
-		.from(payment)
-		.where(and(eq(payment.organizationId, tx.storeId), inArray(payment.jobId, ids)))
-		.orderBy(asc(payment.createdAt));
+	const quotes = await runShape(
+		tx,
+		'payments.balances quotes',
+		() =>
+			tx
+				.selectDistinctOn([quote.jobId], { jobId: quote.jobId, ...quoteMoney })
+				.from(quote)
+				.where(
+					and(
+						eq(quote.organizationId, STORE),
+						oneOf(quote.jobId, IDS),
+						eq(quote.status, 'accepted')
+					)
+				)
+				.orderBy(quote.jobId, desc(quote.version)),
+		values
+	);
+	const changeOrders = await runShape(
+		tx,
+		'payments.balances change orders',
+		() =>
+			tx
+				.select({
+					jobId: changeOrder.jobId,
+					total: sql<string | null>`sum(${changeOrder.totalCents})`
+				})
+				.from(changeOrder)
+				.where(
+					and(
+						eq(changeOrder.organizationId, STORE),
+						oneOf(changeOrder.jobId, IDS),
+						eq(changeOrder.status, 'approved')
+					)
+				)
+				.groupBy(changeOrder.jobId),
+		values
+	);
+	const payments = await runShape(
+		tx,
+		'payments.balances payments',
+		() =>
+			tx
+				.select(paymentColumns)
+				.from(payment)
+				.where(and(eq(payment.organizationId, STORE), oneOf(payment.jobId, IDS)))
+				.orderBy(asc(payment.createdAt)),
+		values
+	);
 	// Each job has a few payments; 100 jobs, a few hundred at most.
 	const refunds = await refundsOf(
 		tx,
