@@ -1,6 +1,6 @@
 // The desk as the store's day (issue 11, item 1): each group lists the jobs that need someone
 // now, for the store's office, and only their own for a salesperson.
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
 	booking,
@@ -118,6 +118,33 @@ describe("the desk's day", { timeout: 60_000 }, () => {
 			})
 		]);
 		for (const g of day.groups) expect(g.total).toBeGreaterThanOrEqual(g.lines.length);
+	});
+
+	it('keeps its reads as statements named by their text, one for any number of ids', async () => {
+		const manager = await addMember(store.id, 'manager', 'Ada Quill');
+		// In one transaction, so on one connection: what the desk prepared there.
+		const prepared = await readInStore(store.id, async (tx) => {
+			await storeDay(tx, {
+				grants: grantsOf('manager'),
+				user: { id: manager.id },
+				store: { timeZone: 'UTC' }
+			});
+			// The balances of one job, then of three: the same statements.
+			await balancesFor(tx, [made.bare.id]);
+			await balancesFor(tx, [made.bare.id, made.measured.id, made.sent.id]);
+			const { rows } = await tx.execute<{ statement: string }>(
+				sql`select statement from pg_prepared_statements where name like 'q\_%'`
+			);
+			return rows.map((r) => r.statement);
+		});
+		// Each kind's count, its limit in the text (a plan kept, not made again on every run).
+		const counts = prepared.filter((t) => t.includes('limit 1001'));
+		expect(counts.length).toBeGreaterThanOrEqual(6);
+		// The sold jobs with no live booking are tested job by job, never hashed as a join.
+		expect(prepared.some((t) => t.includes('"cancelled_at" is null offset 0'))).toBe(true);
+		// The balances' reads take their jobs as one array, whatever their number.
+		const quoteReads = prepared.filter((t) => /"quote"\."job_id" = any\(\$\d+::text\[\]\)/.test(t));
+		expect(quoteReads).toHaveLength(1);
 	});
 
 	it('gives a salesperson only the jobs they sell, and no office groups', async () => {
