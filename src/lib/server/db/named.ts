@@ -163,3 +163,16 @@ export function runShape<R>(
 export function oneOf(column: AnyColumn, ids: string[] | Placeholder): SQL {
 	return sql`${column} = any(${Array.isArray(ids) ? sql.param(ids) : ids}::text[])`;
 }
+
+/**
+ * A `LIMIT` written into the statement's text, for a statement built once and kept (`runShape`):
+ * with a limit that is a parameter PostgreSQL plans it again on every run (its generic plan prices
+ * an unknown limit as a tenth of the table, so it is never kept; bench/README.md). drizzle's
+ * `limit` is typed for a number or a placeholder, and writes a number as a parameter; it writes any
+ * SQL it is given as it is, so the literal goes in as raw SQL under a placeholder's type. Only for
+ * the code's own constants and closed sets: each value is another statement text.
+ */
+export function literalLimit(n: number): Placeholder {
+	if (!Number.isSafeInteger(n) || n < 0) throw new Error(`Not a limit: ${n}`);
+	return sql.raw(String(n)) as unknown as Placeholder;
+}

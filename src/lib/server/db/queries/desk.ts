@@ -23,10 +23,10 @@ import type { JobStatus } from '../../../jobs/status';
 import { addDays } from '../../../schedule/days';
 import { MAX_BOOKING_DAYS } from '../../../schemas/crew';
 import { booking, changeOrder, customer, job, payment, user } from '../schema';
-import { oneOf, runShape } from '../named';
+import { literalLimit, oneOf, runShape } from '../named';
 import type { StoreTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
-import { literalLimit, statusIs } from './jobs';
+import { statusIs } from './jobs';
 
 /** The most lines of one kind the desk lists; the count says how many there are in all. */
 export const DESK_LINES = 8;

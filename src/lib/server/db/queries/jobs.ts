@@ -28,7 +28,7 @@ import {
 	quote,
 	user
 } from '../schema';
-import { oneOf, runNamed, runShape } from '../named';
+import { literalLimit, oneOf, runNamed, runShape } from '../named';
 import type { StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
@@ -124,30 +124,12 @@ export function statusIs(status: JobStatus, column: AnyColumn = job.status): SQL
  */
 const LITERAL_PAGE_SIZES: readonly number[] = [10, 20, 25, 50, 100];
 
-/**
- * A `LIMIT` written into the statement's text, for a statement built once and kept (`runShape`):
- * with a limit that is a parameter PostgreSQL plans it again on every run (above). drizzle's
- * `limit` is typed for a number or a placeholder, and writes a number as a parameter; it writes any
- * SQL it is given as it is, so the literal goes in as raw SQL under a placeholder's type. Only for
- * the code's own constants and closed sets: each value is another statement text.
- */
-export function literalLimit(n: number): Placeholder {
-	if (!Number.isSafeInteger(n) || n < 0) throw new Error(`Not a limit: ${n}`);
-	return sql.raw(String(n)) as unknown as Placeholder;
-}
-
 /** A first page's `LIMIT`, and what it adds to the statement's shape. */
 function pageLimit(pageSize: number): { limit: Placeholder; shape: string } {
 	if (!LITERAL_PAGE_SIZES.includes(pageSize))
 		return { limit: sql.placeholder('pageSize'), shape: 'n' };
 	return { limit: literalLimit(pageSize), shape: String(pageSize) };
 }
-
-/**
- * The jobs of these ids, as one array parameter (one statement text for any number of ids), or of
- * the ids a placeholder stands for.
- */
-const idIn = (ids: string[] | Placeholder) => oneOf(job.id, ids);
 
 /**
  * A page with how many jobs there are, `matches` counted or known: exact up to COUNT_CAP past the
@@ -335,7 +317,10 @@ export async function list(tx: StoreTx, query: ListQuery, viewer: JobViewer): Pr
 		)
 	).rows.map((r) => r.id);
 	if (ids.length <= COUNT_CAP) {
-		const byIds = or(idIn(ids), asNumber ? eq(job.number, Number(asNumber)) : undefined) as SQL;
+		const byIds = or(
+			oneOf(job.id, ids),
+			asNumber ? eq(job.number, Number(asNumber)) : undefined
+		) as SQL;
 		// The number may be one more job: then it is counted.
 		const known = narrowed || asNumber ? undefined : ids.length;
 		return pageOf(tx, and(...filters, byIds), orderBy, offset, query.pageSize, values, {
@@ -359,7 +344,12 @@ async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], order: string
 		`ids ${order}`,
 		() =>
 			selectJobs(tx)
-				.where(and(eq(job.organizationId, sql.placeholder('store')), idIn(sql.placeholder('ids'))))
+				.where(
+					and(
+						eq(job.organizationId, sql.placeholder('store')),
+						oneOf(job.id, sql.placeholder('ids'))
+					)
+				)
 				.orderBy(...orderBy),
 		{ store: tx.storeId, ids }
 	);

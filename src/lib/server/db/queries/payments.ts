@@ -70,10 +70,6 @@ async function approvedChangeOrdersCents(tx: StoreTx, jobId: string): Promise<nu
 	return Number(row?.total ?? 0);
 }
 
-/** The store and the ids a statement kept by its text (`runShape`) reads rows of. */
-const STORE = sql.placeholder('store');
-const IDS = sql.placeholder('ids');
-
 /** The refunds of `paymentIds`, oldest first. */
 async function refundsOf(tx: StoreTx, paymentIds: string[]): Promise<Refund[]> {
 	if (!paymentIds.length) return [];
@@ -84,7 +80,12 @@ async function refundsOf(tx: StoreTx, paymentIds: string[]): Promise<Refund[]> {
 			tx
 				.select()
 				.from(refund)
-				.where(and(eq(refund.organizationId, STORE), oneOf(refund.paymentId, IDS)))
+				.where(
+					and(
+						eq(refund.organizationId, sql.placeholder('store')),
+						oneOf(refund.paymentId, sql.placeholder('ids'))
+					)
+				)
 				.orderBy(asc(refund.createdAt)),
 		{ store: tx.storeId, ids: paymentIds }
 	);
@@ -141,7 +142,12 @@ export async function balancesFor(
 			tx
 				.select({ id: job.id, status: job.status })
 				.from(job)
-				.where(and(eq(job.organizationId, STORE), oneOf(job.id, IDS))),
+				.where(
+					and(
+						eq(job.organizationId, sql.placeholder('store')),
+						oneOf(job.id, sql.placeholder('ids'))
+					)
+				),
 		values
 	);
 	// The newest accepted version of each job, as `acceptedQuote` reads it.
@@ -154,8 +160,8 @@ export async function balancesFor(
 				.from(quote)
 				.where(
 					and(
-						eq(quote.organizationId, STORE),
-						oneOf(quote.jobId, IDS),
+						eq(quote.organizationId, sql.placeholder('store')),
+						oneOf(quote.jobId, sql.placeholder('ids')),
 						eq(quote.status, 'accepted')
 					)
 				)
@@ -174,8 +180,8 @@ export async function balancesFor(
 				.from(changeOrder)
 				.where(
 					and(
-						eq(changeOrder.organizationId, STORE),
-						oneOf(changeOrder.jobId, IDS),
+						eq(changeOrder.organizationId, sql.placeholder('store')),
+						oneOf(changeOrder.jobId, sql.placeholder('ids')),
 						eq(changeOrder.status, 'approved')
 					)
 				)
@@ -189,7 +195,12 @@ export async function balancesFor(
 			tx
 				.select(paymentColumns)
 				.from(payment)
-				.where(and(eq(payment.organizationId, STORE), oneOf(payment.jobId, IDS)))
+				.where(
+					and(
+						eq(payment.organizationId, sql.placeholder('store')),
+						oneOf(payment.jobId, sql.placeholder('ids'))
+					)
+				)
 				.orderBy(asc(payment.createdAt)),
 		values
 	);
