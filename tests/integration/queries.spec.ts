@@ -395,6 +395,66 @@ describe('jobs across stores', () => {
 		expect(there?.customerName).toBe('Bo Elsewhere');
 	});
 
+	// Migration 0024: the phone is the job's copy too, kept by the same triggers as the name.
+	it("shows the customer's phone as it is now, which the database keeps", async () => {
+		const store = await makeStore('Phoned Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const cy = await inStore(store.id, (tx) =>
+			customers.create(tx, { name: 'Cy Marlow', email: null, phone: '555-0101', notes: '' })
+		);
+		const dee = await makeCustomer(store.id, 'Dee Ostrander');
+		const cyJob = await makeJob(store.id, store.owner.id, cy.id);
+		const deeJob = await makeJob(store.id, store.owner.id, dee.id);
+		const phones = async () =>
+			Object.fromEntries(
+				(await inStore(store.id, (tx) => jobs.list(tx, jobPage, staff))).rows.map((r) => [
+					r.id,
+					[r.customerName, r.customerPhone]
+				])
+			);
+		expect(await phones()).toEqual({
+			[cyJob.id]: ['Cy Marlow', '555-0101'],
+			[deeJob.id]: ['Dee Ostrander', null]
+		});
+		// A new phone alone, a new name and phone, a phone taken away: each reaches the jobs.
+		await inStore(store.id, (tx) => customers.update(tx, dee.id, { phone: '555-0199' }));
+		await inStore(store.id, (tx) =>
+			customers.update(tx, cy.id, { name: 'Cy Marlowe', phone: '555-0102' })
+		);
+		expect(await phones()).toEqual({
+			[cyJob.id]: ['Cy Marlowe', '555-0102'],
+			[deeJob.id]: ['Dee Ostrander', '555-0199']
+		});
+		await inStore(store.id, (tx) => customers.update(tx, cy.id, { phone: null }));
+		expect((await phones())[cyJob.id]).toEqual(['Cy Marlowe', null]);
+		// A job moved to another customer takes that customer's phone; a copy written by hand does
+		// not stay.
+		await inStore(store.id, (tx) =>
+			tx.update(jobTable).set({ customerId: dee.id }).where(eq(jobTable.id, cyJob.id))
+		);
+		await inStore(store.id, (tx) =>
+			tx.update(jobTable).set({ customerPhone: '555-0000' }).where(eq(jobTable.id, deeJob.id))
+		);
+		expect(await phones()).toEqual({
+			[cyJob.id]: ['Dee Ostrander', '555-0199'],
+			[deeJob.id]: ['Dee Ostrander', '555-0199']
+		});
+		// The job page reads the same copy.
+		const one = await inStore(store.id, (tx) => jobs.readForViewer(tx, deeJob.id, staff));
+		expect(one?.customerPhone).toBe('555-0199');
+		// Another store's customer with the same phone keeps its own when this one's changes.
+		const elsewhere = await inStore(b.id, (tx) =>
+			customers.create(tx, { name: 'Dee Ostrander', email: null, phone: '555-0199', notes: '' })
+		);
+		const elsewhereJob = await makeJob(b.id, b.owner.id, elsewhere.id);
+		await inStore(store.id, (tx) => customers.update(tx, dee.id, { phone: '555-0177' }));
+		const there = await inStore(b.id, (tx) =>
+			jobs.readForViewer(tx, elsewhereJob.id, jobScope(grantsOf('owner'), b.owner.id))
+		);
+		expect(there?.customerPhone).toBe('555-0199');
+		expect((await phones())[deeJob.id]).toEqual(['Dee Ostrander', '555-0177']);
+	});
+
 	// Migration 0019: sorted by customer, a search walks the names holding its rarest trigram.
 	it('finds a search sorted by customer by walking names, as sorting every match would', async () => {
 		const store = await makeStore('Walking Floors');

@@ -231,6 +231,12 @@ export const job = pgTable(
 		 */
 		customerName: text('customer_name').notNull().default(''),
 		/**
+		 * The customer's phone, kept here beside the name so a page of the job list reads `job`
+		 * alone, not one customer row per job. Kept by the same triggers as the name (migration
+		 * 0024), never by the app.
+		 */
+		customerPhone: text('customer_phone'),
+		/**
 		 * Whether the job's measure has a room. Set by the database, never by the app: triggers on
 		 * `measure` keep it (migration 0023), so the desk finds the drafts to measure and those to
 		 * quote from an index of its own instead of reading every draft's measure.

@@ -51,9 +51,8 @@ const jobColumns = {
 	customerId: job.customerId,
 	// The job's copy of the name (migration 0017), the one the list sorts and searches by.
 	customerName: job.customerName,
-	customerPhone: sql<
-		string | null
-	>`(select c.phone from customer c where c.id = "job"."customer_id" and c.organization_id = "job"."organization_id")`,
+	// The job's copy of the phone (migration 0024): a page reads no customer row.
+	customerPhone: job.customerPhone,
 	siteId: job.siteId,
 	installerId: job.installerId,
 	installerName: sql<
@@ -78,12 +77,12 @@ const sortColumns = {
 } as const;
 
 /**
- * The job columns every view uses, with the customer's phone and the people's names. These are
- * looked up per row (a subquery each, written out in full: drizzle leaves out the table's name
- * when a query reads one table, and the lookups' own columns would then be taken for `job`'s),
- * not joined: the planner then has one table to order, not four, and a page of the list planned
- * in under half the time (bench/README.md); the lookups run for the page's rows only. Every job
- * has its store's customer (`job_customer_same_store_fk`).
+ * The job columns every view uses, with the customer's name and phone (the job's copies) and the
+ * people's names. The names are looked up per row (a subquery each, written out in full: drizzle
+ * leaves out the table's name when a query reads one table, and the lookups' own columns would
+ * then be taken for `job`'s), not joined: the planner then has one table to order, not three, and
+ * a page of the list planned in under half the time (bench/README.md); the lookups run for the
+ * page's rows only.
  */
 function selectJobs(tx: StoreTx) {
 	return tx.select(jobColumns).from(job);
