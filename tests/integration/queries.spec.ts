@@ -1,5 +1,5 @@
 // The first wall: every query module takes the store id first and never crosses it.
-import { inStore } from '$lib/server/db/tenant';
+import { inStore, readInStore } from '$lib/server/db/tenant';
 import * as customers from '$lib/server/db/queries/customers';
 import * as jobs from '$lib/server/db/queries/jobs';
 import type { JobListQuery } from '$lib/schemas/job';
@@ -453,6 +453,59 @@ describe('jobs across stores', () => {
 		);
 		expect(there?.customerPhone).toBe('555-0199');
 		expect((await phones())[deeJob.id]).toEqual(['Dee Ostrander', '555-0177']);
+	});
+
+	// Generic plans for a first page of the whole store's list (readInStore's `plans`).
+	it('finds the same pages with the plans listPlans asks for as with PostgreSQL’s own', async () => {
+		const store = await makeStore('Planned Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const ann = await makeCustomer(store.id, 'Ann Planner');
+		for (let i = 0; i < 12; i++) await makeJob(store.id, store.owner.id, ann.id);
+		const queries: JobListQuery[] = [
+			{ ...jobPage, pageSize: 5 },
+			{ ...jobPage, pageSize: 50, sort: 'customer', dir: 'asc' },
+			{ ...jobPage, pageSize: 10, sort: 'updated', status: 'draft' },
+			{ ...jobPage, pageSize: 5, page: 2 },
+			{ ...jobPage, pageSize: 5, q: 'planner' }
+		];
+		const asked = queries.map((q) => jobs.listPlans(q, staff));
+		expect(asked).toEqual(['generic', 'generic', 'generic', undefined, undefined]);
+		// Run often enough on one connection that PostgreSQL's own choice moves to its generic plan.
+		for (let round = 0; round < 7; round++) {
+			for (const [i, q] of queries.entries()) {
+				const own = await readInStore(store.id, (tx) => jobs.list(tx, q, staff));
+				const planned = await readInStore(store.id, (tx) => jobs.list(tx, q, staff), {
+					plans: asked[i]
+				});
+				expect(planned).toEqual(own);
+				expect(own.rows.length).toBeGreaterThan(0);
+			}
+		}
+		// Only the whole store's list: a member who sees their own jobs keeps PostgreSQL's choice.
+		expect(jobs.listPlans(jobPage, jobScope(grantsOf('installer'), store.owner.id))).toBe(
+			undefined
+		);
+		expect(jobs.listPlans({ ...jobPage, customerId: ann.id }, staff)).toBe(undefined);
+		// The setting is the transaction's own: the next one on the connection plans as usual.
+		const modes = await Promise.all(
+			[0, 1].map((i) =>
+				readInStore(
+					store.id,
+					async (tx) =>
+						(await tx.execute<{ m: string }>(sql`select current_setting('plan_cache_mode') as m`))
+							.rows[0].m,
+					{ plans: i ? 'generic' : undefined }
+				)
+			)
+		);
+		expect(modes).toEqual(['auto', 'force_generic_plan']);
+		const after = await readInStore(
+			store.id,
+			async (tx) =>
+				(await tx.execute<{ m: string }>(sql`select current_setting('plan_cache_mode') as m`))
+					.rows[0].m
+		);
+		expect(after).toBe('auto');
 	});
 
 	// Migration 0019: sorted by customer, a search walks the names holding its rarest trigram.

@@ -69,10 +69,11 @@ async function run<T, M extends TxMode>(
 	mode: M,
 	storeId: string,
 	work: (tx: StoreTx<M>) => Promise<T>,
-	pool: pg.Pool
+	pool: pg.Pool,
+	plans?: Plans
 ): Promise<T> {
 	try {
-		return await runOnce(mode, storeId, work, pool);
+		return await runOnce(mode, storeId, work, pool, plans);
 	} catch (e) {
 		if (!isDatabaseUnavailable(e)) throw e;
 		log.warn({ err: e instanceof Error ? e.message : String(e), storeId }, 'Database unavailable');
@@ -84,7 +85,8 @@ async function runOnce<T, M extends TxMode>(
 	mode: M,
 	storeId: string,
 	work: (tx: StoreTx<M>) => Promise<T>,
-	pool: pg.Pool
+	pool: pg.Pool,
+	plans?: Plans
 ): Promise<T> {
 	if (!storeId) throw new Error('A store transaction needs a store id');
 	const client = await pool.connect();
@@ -97,8 +99,11 @@ async function runOnce<T, M extends TxMode>(
 		// costs more than any scan here saves (bench/README.md, the installer's today page). Sent
 		// with BEGIN as one simple query, one round trip for both: the id is therefore quoted as a
 		// literal (pg's escapeLiteral), not sent as a parameter, which a simple query cannot carry.
+		// Generic plans, when asked for, are set the same way, for this transaction only.
+		const generic =
+			plans === 'generic' ? `, set_config('plan_cache_mode', 'force_generic_plan', true)` : '';
 		await client.query(
-			`${BEGIN[mode]}; select set_config('app.store_id', ${client.escapeLiteral(storeId)}, true), set_config('max_parallel_workers_per_gather', '0', true)`
+			`${BEGIN[mode]}; select set_config('app.store_id', ${client.escapeLiteral(storeId)}, true), set_config('max_parallel_workers_per_gather', '0', true)${generic}`
 		);
 		const tx = drizzle(client, { casing: 'snake_case' }) as unknown as StoreTx<M>;
 		Object.defineProperty(tx, 'storeId', { value: storeId, enumerable: true });
@@ -139,11 +144,21 @@ export function inStore<T>(
 	return run('write', storeId, work, pool);
 }
 
+/**
+ * How a read transaction's statements are planned. By default as PostgreSQL chooses: a kept
+ * statement is planned for its values on each of its first five runs, then keeps one generic plan
+ * unless that is priced above the plans for the values. `generic`: every statement takes its
+ * generic plan, made once per connection for a kept statement; for a read whose plan PostgreSQL
+ * would otherwise make again on every run although the generic one reads the same way (a first
+ * page of the big store's job list: bench/README.md).
+ */
+export type Plans = 'generic';
+
 /** Runs `work` in one read-only transaction of the store: every read sees the same snapshot. */
 export function readInStore<T>(
 	storeId: string,
 	work: (tx: StoreTx<'read'>) => Promise<T>,
-	pool: pg.Pool = appPool
+	{ pool = appPool, plans }: { pool?: pg.Pool; plans?: Plans } = {}
 ): Promise<T> {
-	return run('read', storeId, work, pool);
+	return run('read', storeId, work, pool, plans);
 }

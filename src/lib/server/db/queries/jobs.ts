@@ -29,7 +29,7 @@ import {
 	user
 } from '../schema';
 import { literalLimit, oneOf, runNamed, runShape } from '../named';
-import type { StoreTx, StoreWriteTx } from '../tenant';
+import type { Plans, StoreTx, StoreWriteTx } from '../tenant';
 import { jobScopeFilter, type JobScope } from './access';
 import { likePattern } from './customers';
 
@@ -158,6 +158,26 @@ function tallyOf(tx: StoreTx, viewer: JobViewer, query: ListQuery) {
 
 type ListQuery = JobListQuery & { customerId?: string; salespersonId?: string };
 type Page = { rows: JobRow[]; total: number; totalCapped: boolean };
+
+/**
+ * How the reads of a list (`list`, alone in its transaction) are best planned (readInStore's
+ * `plans`). A first page of the whole store's list, not searched, is one statement with the
+ * tally's total in it: for the big store of the scale seed PostgreSQL priced the plan for its
+ * 100,000 jobs below the generic plan, and so planned the page again on every run, though both
+ * read the same index the same way; the generic plan, made once per connection, saves that
+ * planning (bench/README.md, "Generic plans for a first page"). Other lists keep PostgreSQL's own
+ * choice: a later page's `LIMIT` and `OFFSET` are parameters, which a generic plan prices blind,
+ * and a search's functions and an installer's own jobs planned worse generic.
+ */
+export function listPlans(query: ListQuery, viewer: JobViewer): Plans | undefined {
+	const firstOfStore =
+		viewer.kind === 'store' &&
+		!query.q &&
+		query.page === 1 &&
+		!query.customerId &&
+		!query.salespersonId;
+	return firstOfStore ? 'generic' : undefined;
+}
 
 /**
  * A page of the store's jobs as the viewer may see them, and how many there are. Not searched, and

@@ -1,5 +1,5 @@
 import { endpoint, readJson, readQuery } from '$lib/server/api';
-import { list } from '$lib/server/db/queries/jobs';
+import { list, listPlans } from '$lib/server/db/queries/jobs';
 import { inStore, readInStore } from '$lib/server/db/tenant';
 import { requirePermission } from '$lib/server/guards';
 import { createJob } from '$lib/server/jobs/create';
@@ -11,7 +11,9 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ url }) => {
 	const { store, scope } = requirePermission({ job: ['read'] }, { assignedJob: ['read'] });
 	const query = readQuery(url, jobListSchema);
-	const { rows, total, totalCapped } = await readInStore(store.id, (tx) => list(tx, query, scope));
+	const { rows, total, totalCapped } = await readInStore(store.id, (tx) => list(tx, query, scope), {
+		plans: listPlans(query, scope)
+	});
 	return json({ rows, total, totalCapped, page: query.page, pageSize: query.pageSize });
 });
 
