@@ -279,6 +279,16 @@ export const job = pgTable(
 			t.updatedAt,
 			t.number
 		),
+		// One member's own jobs by number (the list's default order): a salesperson who sees only
+		// the jobs they sold, an installer those given to them. Without these a salesperson with
+		// few jobs had the whole table read to find them, and an installer's tens of thousands were
+		// sorted (migration 0025); in any other order their jobs are read through these and sorted.
+		index('job_organization_salesperson_number_idx').on(
+			t.organizationId,
+			t.salespersonId,
+			t.number
+		),
+		index('job_organization_installer_number_idx').on(t.organizationId, t.installerId, t.number),
 		index('job_customer_idx').on(t.customerId),
 		// The job list's shapes (bench/README.md): a store's jobs by last change, newest first, and
 		// by customer (sorted by customer, or one customer's). Not by status: under row-level
