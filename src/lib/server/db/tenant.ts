@@ -149,8 +149,8 @@ export function inStore<T>(
  * statement is planned for its values on each of its first five runs, then keeps one generic plan
  * unless that is priced above the plans for the values. `generic`: every statement takes its
  * generic plan, made once per connection for a kept statement; for a read whose plan PostgreSQL
- * would otherwise make again on every run although the generic one reads the same way (a first
- * page of the big store's job list: bench/README.md).
+ * would otherwise make again on every run although the generic one reads the same way (a page
+ * of the big store's job list: bench/README.md).
  */
 export type Plans = 'generic';
 
