@@ -338,4 +338,17 @@ describe('the customers search function', () => {
 		await expect(asStore(a.id, (c) => search(c, '%', 10002))).rejects.toThrow(/cap/);
 		await expect(asStore(a.id, (c) => search(c, 'x'.repeat(401)))).rejects.toThrow(/pattern/);
 	});
+
+	// Migration 0026: a written customer's entries go straight into the trigram indexes, never to a
+	// pending list that makes the planner turn from them until a vacuum.
+	it('reads through trigram indexes that keep no pending list', async () => {
+		const { rows } = await pool.query<{ relname: string; reloptions: string[] | null }>(
+			`select c.relname, c.reloptions from pg_class c
+			 where c.relname in ('customer_organization_name_trgm_idx',
+			   'customer_organization_email_trgm_idx', 'customer_organization_phone_trgm_idx')
+			 order by c.relname`
+		);
+		expect(rows.map((r) => r.relname)).toHaveLength(3);
+		for (const row of rows) expect(row.reloptions).toContain('fastupdate=off');
+	});
 });
