@@ -488,24 +488,17 @@ describe('jobs across stores', () => {
 		);
 		expect(jobs.listPlans({ ...jobPage, customerId: ann.id }, staff)).toBe(undefined);
 		// The setting is the transaction's own: the next one on the connection plans as usual.
+		const planMode = async (tx: StoreTx) => {
+			const { rows } = await tx.execute<{ m: string }>(
+				sql`select current_setting('plan_cache_mode') as m`
+			);
+			return rows[0].m;
+		};
 		const modes = await Promise.all(
-			[0, 1].map((i) =>
-				readInStore(
-					store.id,
-					async (tx) =>
-						(await tx.execute<{ m: string }>(sql`select current_setting('plan_cache_mode') as m`))
-							.rows[0].m,
-					{ plans: i ? 'generic' : undefined }
-				)
-			)
+			[undefined, 'generic' as const].map((plans) => readInStore(store.id, planMode, { plans }))
 		);
 		expect(modes).toEqual(['auto', 'force_generic_plan']);
-		const after = await readInStore(
-			store.id,
-			async (tx) =>
-				(await tx.execute<{ m: string }>(sql`select current_setting('plan_cache_mode') as m`))
-					.rows[0].m
-		);
+		const after = await readInStore(store.id, planMode);
 		expect(after).toBe('auto');
 	});
 
