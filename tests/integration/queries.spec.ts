@@ -587,6 +587,72 @@ describe('jobs across stores', () => {
 		).toEqual([]);
 	});
 
+	// The API's list takes each row as JSON text written by PostgreSQL (`RowForm`).
+	it('writes each row as JSON text exactly as the row read into an object is written', async () => {
+		const store = await makeStore('Written Floors');
+		const staff = jobScope(grantsOf('owner'), store.owner.id);
+		const fitter = await addMember(store.id, 'installer', 'Ivo "Ike" Fitter');
+		const names = [
+			'Ann "Oak" Quote',
+			'Back\\slash Oakley',
+			'Zoë Ñandú Oakes 🌲',
+			'Tab\tand\u0001Oak\u2028'
+		];
+		const made: string[] = [];
+		for (const [i, name] of names.entries()) {
+			const c = await makeCustomer(store.id, name);
+			for (let k = 0; k < 3; k++) {
+				const j = await makeJob(store.id, store.owner.id, c.id);
+				await inStore(store.id, (tx) =>
+					jobs.update(tx, j.id, {
+						title: `Oak plank ${i}-${k} "den" \\ </script>`,
+						notes: k ? `line one\nline two\r\t"q" \\ ${name}` : ''
+					})
+				);
+				made.push(j.id);
+			}
+		}
+		await inStore(store.id, async (tx) => {
+			await jobs.assign(tx, made[1], fitter.id, store.owner.id);
+			// Times the app's Date cuts to the millisecond: microseconds, before 1970, a leap day.
+			await tx.execute(
+				sql`update job set status_changed_at = '2024-02-29 23:59:59.999999+00',
+					created_at = '1969-07-20 20:17:40.0005+00', updated_at = '2030-01-01 00:00:00+00'
+					where id = ${made[2]}`
+			);
+		});
+		const [firstCustomer] = (await inStore(store.id, (tx) => jobs.list(tx, jobPage, staff))).rows
+			.filter((r) => r.id === made[0])
+			.map((r) => r.customerId);
+		const queries: [Parameters<typeof jobs.list>[1], typeof staff][] = [
+			[{ ...jobPage, pageSize: 5 }, staff],
+			[{ ...jobPage, pageSize: 7, page: 2 }, staff],
+			[{ ...jobPage, pageSize: 5, page: 3, sort: 'customer', dir: 'asc' }, staff],
+			[{ ...jobPage, pageSize: 10, sort: 'updated', status: 'draft' }, staff],
+			[{ ...jobPage, pageSize: 4, q: 'oak' }, staff],
+			[{ ...jobPage, pageSize: 3, page: 2, q: 'oak' }, staff],
+			[{ ...jobPage, pageSize: 4, q: 'oak', sort: 'customer', dir: 'asc' }, staff],
+			[{ ...jobPage, q: 'ñandú', sort: 'customer', dir: 'desc' }, staff],
+			[{ ...jobPage, q: String(1001 + made.length - 1) }, staff],
+			[{ ...jobPage, pageSize: 2, customerId: firstCustomer }, staff],
+			[{ ...jobPage, pageSize: 2, page: 2, customerId: firstCustomer }, staff],
+			[jobPage, jobScope(grantsOf('installer'), fitter.id)]
+		];
+		for (const [query, viewer] of queries) {
+			const objects = await readInStore(store.id, (tx) => jobs.list(tx, query, viewer));
+			const texts = await readInStore(store.id, (tx) => jobs.list(tx, query, viewer, 'json'), {
+				plans: jobs.listPlans(query, viewer)
+			});
+			const label = JSON.stringify(query);
+			expect(objects.rows.length, label).toBeGreaterThan(0);
+			expect(`[${texts.rows.join(',')}]`, label).toBe(JSON.stringify(objects.rows));
+			expect({ ...texts, rows: null }, label).toEqual({ ...objects, rows: null });
+		}
+		const odd = await readInStore(store.id, (tx) => jobs.readForViewer(tx, made[2], staff));
+		expect(odd?.statusChangedAt.toISOString()).toBe('2024-02-29T23:59:59.999Z');
+		expect(odd?.createdAt.toISOString()).toBe('1969-07-20T20:17:40.000Z');
+	});
+
 	it('runs a statement built once per shape, in each transaction, and checks the shape', async () => {
 		const numbers = (limit: number, shape = 'test numbers') =>
 			inStore(b.id, (tx) =>
