@@ -306,20 +306,16 @@ async function listIn(
 	// reads too far, the steps below.
 	const byNames = query.sort === 'customer' && !narrowed && !asNumber && offset <= 10_000;
 	if (byNames) {
-		const walked = await walkNames(
-			tx,
-			query.q,
-			pattern,
-			query.dir === 'desc',
-			offset,
-			query.pageSize
-		);
+		const walked = await walkedPage(tx, query.q, pattern, query.dir === 'desc', offset, {
+			pageSize: query.pageSize,
+			orderBy,
+			order: `${query.sort} ${query.dir}`,
+			form
+		});
 		if (walked) {
-			const ids = walked.ids.slice(0, query.pageSize);
-			const rows = await readIds(tx, ids, orderBy, `${query.sort} ${query.dir}`, form);
 			if (walked.matches === null)
-				return { rows, total: offset + query.pageSize, totalCapped: true };
-			return counted(rows, walked.matches, offset);
+				return { rows: walked.rows, total: offset + query.pageSize, totalCapped: true };
+			return counted(walked.rows, walked.matches, offset);
 		}
 	}
 
@@ -435,26 +431,64 @@ export const WALK_BUDGET = 5000;
 
 /**
  * Sorted by customer, a page of a search found by walking the names that hold the searched text's
- * rarest trigram, in name order (migration 0019): `ids` of the page and one more, and how many
- * match in all when the walk read every candidate (null: at least the page and one more).
- * Undefined when the walk does not apply (the text has no trigram inside a word, or is not plain
- * ASCII, where pg_trgm's and `ilike`'s lower case might differ) or read more than WALK_BUDGET jobs.
+ * rarest trigram, in name order (migration 0019): the page's rows in `form`, and how many match in
+ * all when the walk read every candidate (null: at least the page and one more). Undefined when the
+ * walk does not apply (the text has no trigram inside a word, or is not plain ASCII, where pg_trgm's
+ * and `ilike`'s lower case might differ) or read more than WALK_BUDGET jobs. One statement: the
+ * walk's one row joined to its page's jobs (none when it found none or gave up), in the list's
+ * `orderBy` (`order` names the statement's shape).
  */
-async function walkNames(
+async function walkedPage(
 	tx: StoreTx,
 	words: string,
 	pattern: string,
 	descending: boolean,
 	offset: number,
-	pageSize: number
-): Promise<{ ids: string[]; matches: number | null } | undefined> {
+	{
+		pageSize,
+		orderBy,
+		order,
+		form
+	}: { pageSize: number; orderBy: SQL[]; order: string; form: RowForm }
+): Promise<{ rows: JobRow[] | string[]; matches: number | null } | undefined> {
 	if (!/^[\x20-\x7e]+$/.test(words)) return undefined;
-	const { rows } = await tx.execute<{ ids: string[] | null; matches: number | null }>(
-		sql`select w.ids, w.matches from job_search_by_name_walk(${words}, ${pattern}, ${descending}, ${pageSize + 1}, ${offset}, ${WALK_BUDGET}) as w`
+	const walk = sql`job_search_by_name_walk(${sql.placeholder('words')}, ${sql.placeholder('pattern')}, ${sql.placeholder('descending')}, ${sql.placeholder('lim')}, ${sql.placeholder('skip')}, ${sql.placeholder('budget')}) as w`;
+	const read = await runShape(
+		tx,
+		`${form} walk ${order}`,
+		() =>
+			tx
+				.select({
+					...rowFields(form),
+					walked: sql<boolean>`w.ids is not null`,
+					matches: sql<number | null>`w.matches`,
+					found: sql<boolean>`${job.id} is not null`
+				})
+				.from(walk)
+				.leftJoin(
+					job,
+					and(
+						eq(job.organizationId, sql.placeholder('store')),
+						sql`${job.id} = any(w.ids[1:${sql.placeholder('pageSize')}])`
+					)
+				)
+				.orderBy(...orderBy),
+		{
+			store: tx.storeId,
+			words,
+			pattern,
+			descending,
+			lim: pageSize + 1,
+			skip: offset,
+			budget: WALK_BUDGET,
+			pageSize
+		}
 	);
-	const walked = rows[0];
-	if (!walked?.ids) return undefined;
-	return { ids: walked.ids, matches: walked.matches };
+	if (!read[0]?.walked) return undefined;
+	const rows = read
+		.filter((r) => r.found)
+		.map(({ walked: _, matches: __, found: ___, ...row }) => row);
+	return { rows: rowsIn(form, rows), matches: read[0].matches };
 }
 
 /**
