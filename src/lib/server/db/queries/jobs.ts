@@ -10,8 +10,7 @@ import {
 	sql,
 	type AnyColumn,
 	type Placeholder,
-	type SQL,
-	type SQLWrapper
+	type SQL
 } from 'drizzle-orm';
 import { canDelete, canMove, JOB_STATUSES, type JobStatus } from '../../../jobs/status';
 import type { JobListQuery } from '../../../schemas/job';
@@ -69,9 +68,6 @@ const jobColumns = {
 	createdAt: job.createdAt
 };
 
-/** A column that drizzle reads into a `Date` (timestamps in the schema's default mode). */
-const isDate = (field: unknown): boolean => field instanceof PgTimestamp;
-
 /**
  * A job row as JSON text, written by PostgreSQL: the keys of `jobColumns` in their order, each
  * value as JSON.stringify writes the row that drizzle reads (a time as `Date#toISOString` writes it,
@@ -83,9 +79,11 @@ const isDate = (field: unknown): boolean => field instanceof PgTimestamp;
  */
 const jobJson = sql<string>`(select row_to_json(r)::text from (select ${sql.join(
 	Object.entries(jobColumns).map(([key, field]) => {
-		const value = isDate(field)
-			? sql`to_char(${field} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`
-			: field;
+		// A column drizzle reads into a `Date` (timestamps in the schema's default mode).
+		const value =
+			field instanceof PgTimestamp
+				? sql`to_char(${field} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`
+				: field;
 		return sql`${value} as ${sql.identifier(key)}`;
 	}),
 	sql`, `
@@ -290,12 +288,11 @@ async function listIn(
 		shape.push('number');
 	}
 	// Wildcards in the text are taken literally (likePattern); the number is a job's number.
-	const found = (title: SQLWrapper, name: SQLWrapper, number: SQLWrapper) =>
-		or(
-			ilike(title as AnyColumn, sql.placeholder('pattern')),
-			ilike(name as AnyColumn, sql.placeholder('pattern')),
-			asNumber ? eq(number as AnyColumn, sql.placeholder('number')) : undefined
-		) as SQL;
+	const found = or(
+		ilike(job.title, sql.placeholder('pattern')),
+		ilike(job.customerName, sql.placeholder('pattern')),
+		asNumber ? eq(job.number, sql.placeholder('number')) : undefined
+	) as SQL;
 
 	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
 	const narrowed = filters.length > 2 || viewer.kind !== 'store';
@@ -340,7 +337,7 @@ async function listIn(
 				return tx
 					.select(rowFields(form))
 					.from(window)
-					.where(found(job.title, job.customerName, job.number))
+					.where(found)
 					.orderBy(...orderBy)
 					.limit(sql.placeholder('limit'))
 					.offset(sql.placeholder('offset'));
@@ -393,7 +390,7 @@ async function listIn(
 		});
 	}
 	// 4. More than COUNT_CAP, though not among the list's first rows: tested as the list walks on.
-	const where = and(...filters, found(job.title, job.customerName, job.number));
+	const where = and(...filters, found);
 	const known = !narrowed && offset === 0 ? COUNT_CAP + 1 : undefined;
 	return pageOf(tx, where, orderBy, offset, query.pageSize, values, { knows: known, form });
 }
@@ -452,7 +449,6 @@ async function walkedPage(
 	}: { pageSize: number; orderBy: SQL[]; order: string; form: RowForm }
 ): Promise<{ rows: JobRow[] | string[]; matches: number | null } | undefined> {
 	if (!/^[\x20-\x7e]+$/.test(words)) return undefined;
-	const walk = sql`job_search_by_name_walk(${sql.placeholder('words')}, ${sql.placeholder('pattern')}, ${sql.placeholder('descending')}, ${sql.placeholder('lim')}, ${sql.placeholder('skip')}, ${sql.placeholder('budget')}) as w`;
 	const read = await runShape(
 		tx,
 		`${form} walk ${order}`,
@@ -464,7 +460,9 @@ async function walkedPage(
 					matches: sql<number | null>`w.matches`,
 					found: sql<boolean>`${job.id} is not null`
 				})
-				.from(walk)
+				.from(
+					sql`job_search_by_name_walk(${sql.placeholder('words')}, ${sql.placeholder('pattern')}, ${sql.placeholder('descending')}, ${sql.placeholder('lim')}, ${sql.placeholder('skip')}, ${sql.placeholder('budget')}) as w`
+				)
 				.leftJoin(
 					job,
 					and(
