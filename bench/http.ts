@@ -36,6 +36,9 @@ const port = Number(process.env.FLUSHLINE_BENCH_PORT ?? 4271);
 const origin = `http://127.0.0.1:${port}`;
 const store = Number(process.env.BENCH_STORE ?? 1);
 const seconds = Number(process.env.BENCH_SECONDS ?? 10);
+/** `× near`'s turns: how many pairs of slices, and each slice's seconds (`paired`). */
+const NEAR_PAIRS = 5;
+const NEAR_SECONDS = 2;
 
 const { clusterAt, startCluster, databaseUrl, migrate, OWNER_ROLE } =
 	await import('../scripts/lib/postgres.js');
@@ -490,14 +493,34 @@ function cpuPerRequest(
 	};
 }
 
+/**
+ * A route's rate against the baseline's, the two taken in turns: a baseline slice, then
+ * `pairs` times the route's slice and a baseline slice, each `slice` seconds at 10 connections.
+ * Each route slice is read against the mean of the baseline slices either side of it, and the
+ * median of those ratios kept: the other work of a shared host, which moves the rate of the same
+ * route by a third within a run, moves both sides of a pair alike, and a slice it hit hard is the
+ * one the median leaves out (bench/README.md, "`× near` in turns").
+ */
+async function paired(t: Target, pairs = NEAR_PAIRS, slice = NEAR_SECONDS) {
+	const baseline = [(await run(targets[0], slice)).requests.total];
+	const ratios: number[] = [];
+	for (let i = 0; i < pairs; i++) {
+		const route = (await run(t, slice)).requests.total;
+		baseline.push((await run(targets[0], slice)).requests.total);
+		ratios.push(route / Math.max(1, (baseline[i] + baseline[i + 1]) / 2));
+	}
+	ratios.sort((a, b) => a - b);
+	const mid = ratios.length >> 1;
+	return ratios.length % 2 ? ratios[mid] : (ratios[mid - 1] + ratios[mid]) / 2;
+}
+
 const results = new Map<string, Figures>();
-// The baseline's rate just before each route: `× near` reads a route against the mean of the runs
-// either side of it, which a load moving on the shared host during the run moves alike.
-const nearBefore = new Map<string, number>();
+// `× near` of each route but the baseline: `paired`, before the route's own run.
+const near = new Map<string, number>();
 /** The peak memory before the routes not run at 50/s (the desk): the figure for the rest. */
 let peakBeforeSlow: number | null = null;
 for (const [i, t] of targets.entries()) {
-	if (i > 0) nearBefore.set(t.name, (await run(targets[0])).requests.average);
+	if (i > 0) near.set(t.name, await paired(t));
 	if (t.noSteady && peakBeforeSlow === null) peakBeforeSlow = peakMemory();
 	const before = cpuNow();
 	const full = await run(t);
@@ -566,27 +589,22 @@ console.log(
 // `cpu ×`: the baseline's CPU per request (server and PostgreSQL) over the route's. At 10
 // connections on two cores the rate is bound by CPU, so this is the ratio `× base` would show on
 // a machine to itself, though the host's other work slows both too. `× near`: the route's rate over
-// the mean of the baseline's runs just before and just after it.
+// the baseline's, the two taken in turns of NEAR_SECONDS (`paired`).
 const cpuOf = (f: Figures) =>
 	f.serverMs === undefined || f.postgresMs === undefined ? undefined : f.serverMs + f.postgresMs;
 const baseCpu = cpuOf(base);
 console.log(
 	`${'route'.padEnd(38)} ${'req/s'.padStart(7)} ${'× base'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'p99@50'.padStart(7)} ${'p99@50 ×'.padStart(9)} ${'cpu ms: app'.padStart(11)} ${'pg'.padStart(5)} ${'cpu ×'.padStart(6)} ${'× near'.padStart(7)}  statuses`
 );
-// The baseline run after each route: the next route's run before, and for the last the end's.
-const routeNames = targets.map((t) => t.name);
-const nearAfter = (i: number) =>
-	nearBefore.get(routeNames[i + 1]) ?? results.get('baseline, again at the end')!.rps;
 /** A figure at the steady rate, or a dash for a route not run at it. */
 const at50Text = (v: number, digits: number) => (Number.isNaN(v) ? '—' : v.toFixed(digits));
 
 for (const [name, f] of results) {
 	const cpu = cpuOf(f);
-	const at = routeNames.indexOf(name);
-	const near = at > 0 ? (f.rps / ((nearBefore.get(name)! + nearAfter(at)) / 2)).toFixed(2) : '';
+	const nearText = near.get(name)?.toFixed(2) ?? '';
 	const cpuRatio = cpu && baseCpu ? (baseCpu / cpu).toFixed(2) : '';
 	console.log(
-		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${at50Text(f.p99At50, 1).padStart(7)} ${at50Text(f.p99At50 / base.p99At50, 2).padStart(9)} ${(f.serverMs?.toFixed(2) ?? '').padStart(11)} ${(f.postgresMs?.toFixed(2) ?? '').padStart(5)} ${cpuRatio.padStart(6)} ${near.padStart(7)}  ${f.statuses}`
+		`${name.padEnd(38)} ${f.rps.toFixed(0).padStart(7)} ${(f.rps / base.rps).toFixed(2).padStart(7)} ${String(f.p50).padStart(7)} ${String(f.p99).padStart(7)} ${at50Text(f.p99At50, 1).padStart(7)} ${at50Text(f.p99At50 / base.p99At50, 2).padStart(9)} ${(f.serverMs?.toFixed(2) ?? '').padStart(11)} ${(f.postgresMs?.toFixed(2) ?? '').padStart(5)} ${cpuRatio.padStart(6)} ${nearText.padStart(7)}  ${f.statuses}`
 	);
 }
 console.log(`\nserver peak memory (VmHWM): ${hwm.toFixed(0)} MB`);
