@@ -626,13 +626,20 @@ describe('jobs across stores', () => {
 		).rows;
 		await inStore(store.id, (tx) => jobs.update(tx, retitled.id, { title: 'Cork in the den' }));
 
+		// The walk (migration 0028): the ids of the jobs it hands over, or null when it did not walk.
 		const walk = (words: string, budget = 5000) =>
 			inStore(store.id, async (tx) => {
 				const pattern = `%${words}%`;
-				const { rows } = await tx.execute<{ ids: string[] | null; matches: number | null }>(
-					sql`select w.ids, w.matches from job_search_by_name_walk(${words}, ${pattern}, false, 100, 0, ${budget}) as w`
+				const { rows } = await tx.execute<{
+					ids: string[];
+					walked: boolean;
+					matches: number | null;
+				}>(
+					sql`select array(select (x).id from unnest(w.jobs) x) as ids, w.walked, w.matches
+					    from job_search_by_name_page(${words}, ${pattern}, false, 100, 0, ${budget}) as w`
 				);
-				return rows[0];
+				const [row] = rows;
+				return { ids: row.walked ? row.ids : null, matches: row.matches };
 			});
 		// Every job of every name sorted by name, newest first within one: the list's order.
 		const expected = (words: string, descending: boolean) =>
@@ -677,15 +684,16 @@ describe('jobs across stores', () => {
 		// Nothing to walk (no trigram inside a word), or read past its budget: the caller sorts all.
 		expect((await walk('ee'))?.ids).toBeNull();
 		expect((await walk('oak', 1))?.ids).toBeNull();
-		// Another store's names are not walked.
+		// Another store's names are not walked, and it hands over none of this store's jobs.
 		expect(
 			await inStore(a.id, async (tx) => {
-				const { rows } = await tx.execute<{ ids: string[] | null }>(
-					sql`select w.ids from job_search_by_name_walk('oak', '%oak%', false, 100, 0, 5000) as w`
+				const { rows } = await tx.execute<{ ids: string[]; walked: boolean }>(
+					sql`select array(select (x).id from unnest(w.jobs) x) as ids, w.walked
+					    from job_search_by_name_page('oak', '%oak%', false, 100, 0, 5000) as w`
 				);
-				return rows[0]?.ids;
+				return rows[0];
 			})
-		).toEqual([]);
+		).toEqual({ ids: [], walked: true });
 	});
 
 	// The API's list takes each row as JSON text written by PostgreSQL (`RowForm`).

@@ -212,12 +212,11 @@ describe('the job search function', () => {
 			        r.rolsuper, pg_has_role(current_user, r.oid, 'member') as app_is_member,
 			        (select count(*)::int from pg_tables t where t.tableowner = r.rolname) as owns
 			 from pg_proc p join pg_roles r on r.oid = p.proowner
-			 where p.proname in ('job_search_ids', 'job_search_by_customer', 'job_search_by_name_walk',
-			                     'customer_search_ids')`
+			 where p.proname in ('job_search_ids', 'job_search_by_customer', 'customer_search_ids')`
 		);
-		expect(rows).toHaveLength(4);
+		expect(rows).toHaveLength(3);
 		expect(rows).toEqual(
-			Array(4).fill({
+			Array(3).fill({
 				prosecdef: true,
 				owner: 'flushline_search',
 				rolcanlogin: false,
@@ -301,6 +300,51 @@ describe('the job search function', () => {
 			 where p.proname = 'job_search_by_customer'`
 		);
 		expect(rows).toEqual([{ prosecdef: true, owner: 'flushline_search' }]);
+	});
+
+	// The walk of names (migration 0028) hands over whole jobs, so it runs as its caller, under the
+	// store's row security, not as the search role.
+	const walkPage = (c: PoolClient, words: string, lim = 10, skip = 0, budget = 5000) =>
+		c
+			.query<{ ids: string[]; walked: boolean; matches: number | null }>(
+				`select array(select (x).id from unnest(w.jobs) x) as ids, w.walked, w.matches
+				 from job_search_by_name_page($1, '%' || $1 || '%', false, $2, $3, $4) as w`,
+				[words, lim, skip, budget]
+			)
+			.then((r) => r.rows[0]);
+
+	it("walking names, hands over the store's own matching jobs, never another's", async () => {
+		expect(await asStore(a.id, (c) => walkPage(c, 'oak'))).toEqual({
+			ids: [aOak.byName, aOak.job],
+			walked: true,
+			matches: 2
+		});
+		// A full page says only that at least that many match.
+		expect(await asStore(b.id, (c) => walkPage(c, 'oak', 1, 1))).toEqual({
+			ids: [bOak.job],
+			walked: true,
+			matches: null
+		});
+		expect(await asStore('no-such-store', (c) => walkPage(c, 'oak'))).toEqual({
+			ids: [],
+			walked: true,
+			matches: 0
+		});
+		const { rows } = await pool.query(
+			`select p.prosecdef, pg_get_userbyid(p.proowner) <> 'flushline_search' as not_search
+			 from pg_proc p where p.proname = 'job_search_by_name_page'`
+		);
+		expect(rows).toEqual([{ prosecdef: false, not_search: true }]);
+	});
+
+	it('walking names, refuses to run outside a store or beyond its bounds', async () => {
+		await expect(asStore(null, (c) => walkPage(c, 'oak'))).rejects.toThrow(/app\.store_id/);
+		await expect(asStore(a.id, (c) => walkPage(c, 'oak', 0))).rejects.toThrow(/page/);
+		await expect(asStore(a.id, (c) => walkPage(c, 'oak', 102))).rejects.toThrow(/page/);
+		await expect(asStore(a.id, (c) => walkPage(c, 'oak', 10, -1))).rejects.toThrow(/start/);
+		await expect(asStore(a.id, (c) => walkPage(c, 'oak', 10, 10001))).rejects.toThrow(/start/);
+		await expect(asStore(a.id, (c) => walkPage(c, 'oak', 10, 0, 0))).rejects.toThrow(/budget/);
+		await expect(asStore(a.id, (c) => walkPage(c, 'o'.repeat(201)))).rejects.toThrow(/text/);
 	});
 });
 

@@ -428,21 +428,21 @@ async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], order: string
 }
 
 /**
- * How many jobs the walk of names (`job_search_by_name_walk`, migration 0019) may read before it
- * gives up and every match is read and sorted instead: in the big store of the scale seed, a text
- * whose names hold 3,700 jobs and none matching took 14 ms to walk, against 26 ms to find through
- * the trigram indexes that nothing matches (bench/README.md).
+ * How many jobs the walk of names (`job_search_by_name_page`, migrations 0019 and 0028) may read
+ * before it gives up and every match is read and sorted instead: in the big store of the scale
+ * seed, a text whose names hold 3,700 jobs and none matching took 14 ms to walk, against 26 ms to
+ * find through the trigram indexes that nothing matches (bench/README.md).
  */
 export const WALK_BUDGET = 5000;
 
 /**
  * Sorted by customer, a page of a search found by walking the names that hold the searched text's
- * rarest trigram, in name order (migration 0019): the page's rows in `form`, and how many match in
- * all when the walk read every candidate (null: at least the page and one more). Undefined when the
- * walk does not apply (the text has no trigram inside a word, or is not plain ASCII, where pg_trgm's
- * and `ilike`'s lower case might differ) or read more than WALK_BUDGET jobs. One statement: the
- * walk's one row joined to its page's jobs (none when it found none or gave up), in the list's
- * `orderBy` (`order` names the statement's shape).
+ * rarest trigram, in name order (migrations 0019 and 0028): the page's rows in `form`, and how many
+ * match in all when the walk read every candidate (null: at least the page and one more). Undefined
+ * when the walk does not apply (the text has no trigram inside a word, or is not plain ASCII, where
+ * pg_trgm's and `ilike`'s lower case might differ) or read more than WALK_BUDGET jobs. One
+ * statement: the walk's one row joined to the jobs it hands over, read as the list's `job` (none
+ * when it found none or gave up), in the list's `orderBy` (`order` names the statement's shape).
  */
 async function walkedPage(
 	tx: StoreTx,
@@ -461,27 +461,29 @@ async function walkedPage(
 	const read = await runShape(
 		tx,
 		`${form} walk ${order}`,
-		() =>
-			tx
+		() => {
+			// The walk's one row joined to the jobs it hands over, named `job` for the list's
+			// columns and order: the page's jobs as the function read them, not read again by id.
+			const page = tx
+				.$with('job', {
+					walked: sql<boolean>`walked`.as('walked'),
+					matches: sql<number | null>`matches`.as('matches')
+				})
+				.as(
+					sql`select w.walked, w.matches, j.* from job_search_by_name_page(${sql.placeholder('words')}, ${sql.placeholder('pattern')}, ${sql.placeholder('descending')}, ${sql.placeholder('lim')}, ${sql.placeholder('skip')}, ${sql.placeholder('budget')}) as w left join lateral unnest(w.jobs[1:${sql.placeholder('pageSize')}]) as j on true`
+				);
+			return tx
+				.with(page)
 				.select({
 					...rowFields(form),
-					walked: sql<boolean>`w.ids is not null`,
-					matches: sql<number | null>`w.matches`,
+					walked: page.walked,
+					matches: page.matches,
 					found: sql<boolean>`${job.id} is not null`
 				})
-				.from(
-					sql`job_search_by_name_walk(${sql.placeholder('words')}, ${sql.placeholder('pattern')}, ${sql.placeholder('descending')}, ${sql.placeholder('lim')}, ${sql.placeholder('skip')}, ${sql.placeholder('budget')}) as w`
-				)
-				.leftJoin(
-					job,
-					and(
-						eq(job.organizationId, sql.placeholder('store')),
-						sql`${job.id} = any(w.ids[1:${sql.placeholder('pageSize')}])`
-					)
-				)
-				.orderBy(...orderBy),
+				.from(page)
+				.orderBy(...orderBy);
+		},
 		{
-			store: tx.storeId,
 			words,
 			pattern,
 			descending,
