@@ -607,7 +607,17 @@ describe('jobs across stores', () => {
 	it('finds a search sorted by customer by walking names, as sorting every match would', async () => {
 		const store = await makeStore('Walking Floors');
 		const staff = jobScope(grantsOf('owner'), store.owner.id);
-		const names = ['Zed Birch', 'Hana Oakes', 'ann lee', 'Hana Oakes', 'Bo Young', 'Cy Oak-Hall'];
+		// "Abe Oakley" comes first and "ann lee" last: a page of "oak" fits in the first name only one
+		// way round.
+		const names = [
+			'Zed Birch',
+			'Hana Oakes',
+			'ann lee',
+			'Hana Oakes',
+			'Bo Young',
+			'Cy Oak-Hall',
+			'Abe Oakley'
+		];
 		const titles = ['Oak hardwood, living room', 'Tile in the bath', 'Vinyl plank kitchen'];
 		for (const [i, name] of names.entries()) {
 			const c = await makeCustomer(store.id, name);
@@ -661,19 +671,26 @@ describe('jobs across stores', () => {
 			'zzz',
 			'ee'
 		]) {
-			for (const dir of ['asc', 'desc'] as const) {
+			// Pages of 2 lie within the first name's matches ("oak": 4 jobs of "Abe Oakley"; "hana oak":
+			// 8 of "Hana Oakes"), then run past them (firstNamePage, then the walk).
+			for (const [dir, pageSize] of [
+				['asc', 5],
+				['desc', 5],
+				['asc', 2],
+				['desc', 2]
+			] as const) {
 				const want = await expected(words, dir === 'desc');
 				const got: string[] = [];
-				for (let pageNo = 1; pageNo <= 30; pageNo++) {
+				for (let pageNo = 1; pageNo <= 40; pageNo++) {
 					const found = await inStore(store.id, (tx) =>
-						jobs.list(tx, { q: words, sort: 'customer', dir, page: pageNo, pageSize: 5 }, staff)
+						jobs.list(tx, { q: words, sort: 'customer', dir, page: pageNo, pageSize }, staff)
 					);
 					got.push(...found.rows.map((r) => r.id));
 					if (found.totalCapped) expect(found.total, words).toBe(got.length);
 					else expect(found.total, `${words} ${dir} page ${pageNo}`).toBe(want.length);
-					if (found.rows.length < 5) break;
+					if (found.rows.length < pageSize) break;
 				}
-				expect(got, `${words} ${dir}`).toEqual(want);
+				expect(got, `${words} ${dir} by ${pageSize}`).toEqual(want);
 			}
 		}
 		expect(await expected('cork', false)).toEqual([retitled.id]);

@@ -21,6 +21,7 @@ import {
 	customer,
 	job,
 	jobEvent,
+	jobNameTrigram,
 	jobNumberCounter,
 	jobTally,
 	member,
@@ -312,6 +313,13 @@ async function listIn(
 	// reads too far, the steps below.
 	const byNames = query.sort === 'customer' && !narrowed && !asNumber && offset <= 10_000;
 	if (byNames) {
+		const first = await firstNamePage(tx, query.q, found, query.dir === 'desc', offset, {
+			pageSize: query.pageSize,
+			order: `${query.sort} ${query.dir}`,
+			form,
+			values
+		});
+		if (first) return { rows: first, total: offset + query.pageSize, totalCapped: true };
 		const walked = await walkedPage(tx, query.q, pattern, query.dir === 'desc', offset, {
 			pageSize: query.pageSize,
 			orderBy,
@@ -434,6 +442,62 @@ async function readIds(tx: StoreTx, ids: string[], orderBy: SQL[], order: string
  * find through the trigram indexes that nothing matches (bench/README.md).
  */
 export const WALK_BUDGET = 5000;
+
+/**
+ * Sorted by customer, a page of a search that lies among the matching jobs of the first name the
+ * walk (`walkedPage`) would read: the first name, in the list's order, of those holding the
+ * searched text's rarest trigram. Every job that matches holds that trigram, so no name before it
+ * has a match, and when its own newest WALK_BUDGET jobs hold the page and one more match, they are
+ * the page, in the name's order (newest number first). A common text ("oak", a customer's name)
+ * is found so, in one plain statement read as the list's window is (bench/README.md, "The first
+ * name's page"): plpgsql's walk cost PostgreSQL more, the more requests ran at once. Undefined
+ * when the name holds fewer: the walk then reads on from it.
+ */
+async function firstNamePage(
+	tx: StoreTx,
+	words: string,
+	found: SQL,
+	descending: boolean,
+	offset: number,
+	{
+		pageSize,
+		order,
+		form,
+		values
+	}: { pageSize: number; order: string; form: RowForm; values: Record<string, unknown> }
+): Promise<JobRow[] | string[] | undefined> {
+	if (!/^[\x20-\x7e]+$/.test(words)) return undefined;
+	const read = await runShape(
+		tx,
+		`${form} first name ${order}`,
+		() => {
+			const store = sql.placeholder('store');
+			// The inner trigrams of the text (pg_trgm's, without a word's padded ends), the one with
+			// the fewest names first, each counted on the index to 2,001 at most: as the walk chooses.
+			const rarest = sql`(select c.t from (select t from unnest(show_trgm(${sql.placeholder('words')})) t where strpos(t, ' ') = 0 limit 24) c order by (select count(*) from (select 1 from ${jobNameTrigram} k where k.organization_id = ${store} and k.trigram = c.t limit 2001) x), c.t limit 1)`;
+			const name = sql`(select n.customer_name from ${jobNameTrigram} n where n.organization_id = ${store} and n.trigram = ${rarest} order by n.customer_name ${sql.raw(descending ? 'desc' : 'asc')} limit 1)`;
+			// Ordered by number alone: the name is one, and the planner then reads the name's index
+			// in order and stops at the page (with the name in the order too, it sorts them all).
+			const window = tx
+				.select()
+				.from(job)
+				.where(and(eq(job.organizationId, store), eq(job.customerName, name)))
+				.orderBy(desc(job.number))
+				.limit(sql.placeholder('budget'))
+				.as('job');
+			return tx
+				.select(rowFields(form))
+				.from(window)
+				.where(found)
+				.orderBy(desc(job.number))
+				.limit(sql.placeholder('limit'))
+				.offset(sql.placeholder('offset'));
+		},
+		{ ...values, words, budget: WALK_BUDGET, limit: pageSize + 1, offset }
+	);
+	const rows = rowsIn(form, read);
+	return rows.length > pageSize ? (rows.slice(0, pageSize) as JobRow[] | string[]) : undefined;
+}
 
 /**
  * Sorted by customer, a page of a search found by walking the names that hold the searched text's
