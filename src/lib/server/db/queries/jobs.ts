@@ -564,25 +564,83 @@ async function walkedPage(
 	return { rows: rowsIn(form, rows), matches: read[0].matches };
 }
 
+/** A tallied list's order, and the same order reversed (read from the far end). */
+type TalliedOrder = { orderBy: SQL[]; reversed: SQL[] };
+/** A tallied list's statement values and shape, its tally, and the rows' form. */
+type TalliedRead = { values: Record<string, unknown>; shape: string; tally: Tally; form: RowForm };
+
+/**
+ * How many rows a later page of a tallied list may skip by reading them: within that many of either
+ * end of the list, a page is read with its tally in one statement (`nearPage`). Deeper in, the
+ * skipped rows are counted on the index alone (`laterPage`), which costs a second statement and a
+ * look-up of each of the page's rows by number (bench/README.md, "Later pages near an end").
+ */
+const NEAR_SKIP = 500;
+
+/**
+ * A later page of a tallied list in one statement: the tally, and the page read from the end of the
+ * order it lies nearer to, when it skips at most NEAR_SKIP rows from there. Its rows, none when it
+ * lies deeper (or past the end), and the tally's total.
+ */
+async function nearPage(
+	tx: StoreTx,
+	where: SQL | undefined,
+	{ orderBy, reversed }: TalliedOrder,
+	offset: number,
+	pageSize: number,
+	{ values, shape, tally, form }: TalliedRead
+): Promise<{ rows: JobRow[] | string[]; total: number }> {
+	const read = await runShape(
+		tx,
+		`near ${shape}`,
+		() => {
+			const skip = sql`${sql.placeholder('offset')}::int`;
+			const size = sql`${sql.placeholder('pageSize')}::int`;
+			const near = sql`${sql.placeholder('near')}::int`;
+			const chosen = where ?? sql`true`;
+			// One branch or none reads: from the far end past the middle, else from the start. From
+			// the far end the page is the rows between `total - offset - pageSize` and
+			// `total - offset` in the reversed order (fewer on the last page).
+			const fromEnd = sql`select * from ${job} where ${chosen} and 2 * ${skip} > t.n and t.n - ${skip} - ${size} <= ${near} order by ${sql.join(reversed, sql`, `)} limit greatest(0, least(${size}, t.n - ${skip})) offset greatest(0, t.n - ${skip} - ${size})`;
+			const fromStart = sql`select * from ${job} where ${chosen} and 2 * ${skip} <= t.n and ${skip} <= ${near} order by ${sql.join(orderBy, sql`, `)} limit ${size} offset ${skip}`;
+			// Named `job`, so the list's columns and order read the page's rows as they would the
+			// table's (as the search's window is).
+			const page = tx
+				.$with('job', { total: sql<number>`total`.as('total') })
+				.as(
+					sql`select t.n as total, j.* from (${tally}) t left join lateral ((${fromEnd}) union all (${fromStart})) j on true`
+				);
+			return tx
+				.with(page)
+				.select({
+					...rowFields(form),
+					total: page.total,
+					found: sql<boolean>`${job.id} is not null`
+				})
+				.from(page)
+				.orderBy(...orderBy);
+		},
+		{ ...values, offset, pageSize, near: NEAR_SKIP }
+	);
+	const rows = read.filter((r) => r.found).map(({ total: _, found: __, ...row }) => row);
+	return { rows: rowsIn(form, rows), total: Number(read[0]?.total ?? 0) };
+}
+
 /**
  * The page of the jobs `where` selects when the store's tally (`tally`, migration 0020) says how
- * many there are: exactly, without counting. A first page reads the tally in the same statement; a
- * later page reads it first, and a page past the middle is read from the far end of the order
- * (`reversed`, the same index read backwards), so it skips what lies after it rather than what lies
- * before: the last page but one of 100,000 jobs skips 50 entries, not 99,900.
+ * many there are: exactly, without counting. A page past the middle is read from the far end of the
+ * order (`reversed`, the same index read backwards), so it skips what lies after it rather than
+ * what lies before: the last page but one of 100,000 jobs skips 50 entries, not 99,900. A first
+ * page, and a later one that skips at most NEAR_SKIP rows from its end of the list, are read with
+ * the tally in one statement (`nearPage`); a page deep inside reads on with the total it found.
  */
 async function talliedPage(
 	tx: StoreTx,
 	where: SQL | undefined,
-	{ orderBy, reversed }: { orderBy: SQL[]; reversed: SQL[] },
+	{ orderBy, reversed }: TalliedOrder,
 	offset: number,
 	pageSize: number,
-	{
-		values,
-		shape,
-		tally,
-		form
-	}: { values: Record<string, unknown>; shape: string; tally: Tally; form: RowForm }
+	{ values, shape, tally, form }: TalliedRead
 ): Promise<Page> {
 	if (!offset) {
 		const first = await firstPage(tx, where, orderBy, pageSize, sql`(${tally})`, values, {
@@ -591,8 +649,14 @@ async function talliedPage(
 		});
 		return { rows: first.rows, total: first.matches, totalCapped: false };
 	}
-	const [{ n: total }] = await runShape(tx, `tally ${shape}`, () => tally, values);
-	if (offset >= total) return { rows: [], total, totalCapped: false };
+	const near = await nearPage(tx, where, { orderBy, reversed }, offset, pageSize, {
+		values,
+		shape,
+		tally,
+		form
+	});
+	const total = near.total;
+	if (near.rows.length || offset >= total) return { rows: near.rows, total, totalCapped: false };
 	const rows =
 		offset * 2 > total
 			? await laterPage(
