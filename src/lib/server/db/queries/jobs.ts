@@ -269,6 +269,8 @@ async function listIn(
 	const sortColumn = sortColumns[query.sort];
 	const orderBy = [order(sortColumn), desc(job.number)];
 	const offset = (query.page - 1) * query.pageSize;
+	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
+	const narrowed = filters.length > 2 || viewer.kind !== 'store';
 	if (!query.q) {
 		const tally = tallyOf(tx, viewer, query);
 		if (tally) {
@@ -276,11 +278,10 @@ async function listIn(
 			// Only the whole store's list is read near its ends in one go (`nearPage`): narrowed by
 			// a status or a person, the planner, not knowing how many rows the page skips, read all of
 			// them through a bitmap and sorted them (bench/README.md, "Later pages near an end").
-			const nearEnds = filters.length === 2 && viewer.kind === 'store';
 			return talliedPage(
 				tx,
 				and(...filters),
-				{ orderBy, reversed, nearEnds },
+				{ orderBy, reversed, nearEnds: !narrowed },
 				offset,
 				query.pageSize,
 				{
@@ -315,15 +316,13 @@ async function listIn(
 		asNumber ? eq(job.number, sql.placeholder('number')) : undefined
 	) as SQL;
 
-	// Whether anything but the search narrows the store's jobs (viewerFilter is undefined for all).
-	const narrowed = filters.length > 2 || viewer.kind !== 'store';
-
 	// Sorted by customer, the store's whole list: the names holding the searched text's rarest
 	// trigram are walked in name order, each name's jobs tested (migration 0019), so a page is found
 	// after a few names wherever the matches sit in the order. Where the walk does not apply, or
-	// reads too far, the steps below.
+	// reads too far, the steps below. Only for plain ASCII, where pg_trgm's and `ilike`'s lower case
+	// cannot differ.
 	const byNames = query.sort === 'customer' && !narrowed && !asNumber && offset <= 10_000;
-	if (byNames) {
+	if (byNames && /^[\x20-\x7e]+$/.test(query.q)) {
 		const first = await firstNamePage(tx, query.q, found, query.dir === 'desc', offset, {
 			pageSize: query.pageSize,
 			order: `${query.sort} ${query.dir}`,
@@ -477,7 +476,6 @@ async function firstNamePage(
 		values
 	}: { pageSize: number; order: string; form: RowForm; values: Record<string, unknown> }
 ): Promise<JobRow[] | string[] | undefined> {
-	if (!/^[\x20-\x7e]+$/.test(words)) return undefined;
 	const read = await runShape(
 		tx,
 		`${form} first name ${order}`,
@@ -514,8 +512,8 @@ async function firstNamePage(
  * Sorted by customer, a page of a search found by walking the names that hold the searched text's
  * rarest trigram, in name order (migrations 0019 and 0028): the page's rows in `form`, and how many
  * match in all when the walk read every candidate (null: at least the page and one more). Undefined
- * when the walk does not apply (the text has no trigram inside a word, or is not plain ASCII, where
- * pg_trgm's and `ilike`'s lower case might differ) or read more than WALK_BUDGET jobs. One
+ * when the walk does not apply (the text has no trigram inside a word) or read more than
+ * WALK_BUDGET jobs. For plain ASCII only, as `firstNamePage` (the caller checks). One
  * statement: the walk's one row joined to the jobs it hands over, read as the list's `job` (none
  * when it found none or gave up), in the list's `orderBy` (`order` names the statement's shape).
  */
@@ -532,7 +530,6 @@ async function walkedPage(
 		form
 	}: { pageSize: number; orderBy: SQL[]; order: string; form: RowForm }
 ): Promise<{ rows: JobRow[] | string[]; matches: number | null } | undefined> {
-	if (!/^[\x20-\x7e]+$/.test(words)) return undefined;
 	const read = await runShape(
 		tx,
 		`${form} walk ${order}`,
