@@ -42,7 +42,7 @@ const NEAR_SECONDS = 2;
 
 const { clusterAt, startCluster, databaseUrl, migrate, OWNER_ROLE } =
 	await import('../scripts/lib/postgres.js');
-const { serverMemoryEnv } = await import('../scripts/lib/system.js');
+const { serverMemoryEnv, serverNodeArgs } = await import('../scripts/lib/system.js');
 const cluster = clusterAt('postgres-bench', Number(process.env.FLUSHLINE_BENCH_PG_PORT ?? 54322));
 startCluster(cluster);
 const database = process.env.FLUSHLINE_BENCH_DB ?? 'flushline_bench';
@@ -78,9 +78,10 @@ if (taken) {
 
 // From here, not from the script's start: a build (BENCH_BUILD=1) is not the server's start-up.
 const started = performance.now();
-// BENCH_NODE_ARGS: extra flags for the server's node, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof`.
+// BENCH_NODE_ARGS: extra flags for the server's node, after the ones `npm start` gives it, e.g.
+// `--cpu-prof --cpu-prof-dir=/tmp/prof`, or `--no-single-threaded-gc` to compare.
 const nodeArgs = process.env.BENCH_NODE_ARGS?.split(' ').filter(Boolean) ?? [];
-const server = spawn(process.execPath, [...nodeArgs, 'build'], {
+const server = spawn(process.execPath, [...serverNodeArgs(), ...nodeArgs, 'build'], {
 	cwd: root,
 	env: {
 		...process.env,

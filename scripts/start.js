@@ -6,7 +6,7 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
-import { ensurePackages, root, run, serverMemoryEnv, step } from './lib/system.js';
+import { ensurePackages, root, run, serverMemoryEnv, serverNodeArgs, step } from './lib/system.js';
 
 const host = process.env.HOST ?? '127.0.0.1';
 const port = Number(process.env.PORT ?? 3000);
@@ -74,7 +74,11 @@ async function main() {
 		step('Building');
 		run('npx', ['vite', 'build', '--logLevel', 'warn'], { env });
 
-		server = spawn(process.execPath, ['build'], { cwd: root, env: serverEnv, stdio: 'inherit' });
+		server = spawn(process.execPath, [...serverNodeArgs(), 'build'], {
+			cwd: root,
+			env: serverEnv,
+			stdio: 'inherit'
+		});
 		const demo = JSON.parse(readFileSync(path.join(root, 'scripts/demo-people.json'), 'utf8'));
 		console.log(`\n  Flushline is on \x1b[1m${origin}\x1b[0m\n`);
 		console.log(`  Demo logins of Tallow Creek Floors (password for all: ${demo.password}):`);

@@ -2,6 +2,7 @@
 // commands as the `postgres` user. Uses only Node's standard library, so it runs before `npm ci`.
 import { spawnSync } from 'node:child_process';
 import { existsSync, statSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -33,6 +34,24 @@ export function serverMemoryEnv(env = process.env) {
 			? options
 			: `${options} --max-old-space-size=${SERVER_HEAP_MB}`.trim()
 	};
+}
+
+/**
+ * The flags `node build` runs with (`npm start`, `npm run bench`, the server tests), before the
+ * entry point: V8 refuses its garbage collector's flags in NODE_OPTIONS.
+ *
+ * On a machine of two cores or fewer, `--single-threaded-gc`: V8 then collects on the main thread
+ * alone, without helper threads for the young generation's scavenges and the old generation's
+ * marking. With two cores shared by the server, PostgreSQL and the clients, a helper thread waits
+ * for a core while the main thread waits for the helper, and a 3–5 ms scavenge or a 10 ms marking
+ * step stretched that way is most of the tail: at a steady 50 requests/s on this kind of machine
+ * the job list's p99 went from 25–29 ms to 14–18 ms, and the CPU a request costs did not grow
+ * (bench/README.md, "The tail is the collector's"). With more cores the helpers have cores of
+ * their own, and V8's default stays.
+ * @param {number} [cores] the cores this process may use (Node's `availableParallelism()`)
+ */
+export function serverNodeArgs(cores = availableParallelism()) {
+	return cores <= 2 ? ['--single-threaded-gc'] : [];
 }
 
 /** Prints a step the way both commands do. */

@@ -43,12 +43,18 @@ function baseEnv(port: number): NodeJS.ProcessEnv {
 	};
 }
 
-/** The memory settings `npm start` and the bench give `node build` (scripts/lib/system.js). */
-async function memoryEnv(): Promise<Record<string, string>> {
+/**
+ * The memory settings and node's flags `npm start` and the bench give `node build`
+ * (scripts/lib/system.js).
+ */
+async function serverSettings(): Promise<{ env: Record<string, string>; args: string[] }> {
 	const system = (await import(
 		/* @vite-ignore */ pathToFileURL(path.resolve('scripts/lib/system.js')).href
-	)) as { serverMemoryEnv(env: Record<string, string | undefined>): Record<string, string> };
-	return system.serverMemoryEnv({});
+	)) as {
+		serverMemoryEnv(env: Record<string, string | undefined>): Record<string, string>;
+		serverNodeArgs(): string[];
+	};
+	return { env: system.serverMemoryEnv({}), args: system.serverNodeArgs() };
 }
 
 /**
@@ -57,9 +63,10 @@ async function memoryEnv(): Promise<Record<string, string>> {
  */
 export async function serve(slot: number, env: Record<string, string | undefined> = {}) {
 	const port = portFor(slot);
-	const merged = { ...baseEnv(port), ...(await memoryEnv()), ...env };
+	const settings = await serverSettings();
+	const merged = { ...baseEnv(port), ...settings.env, ...env };
 	for (const [k, v] of Object.entries(merged)) if (v === undefined) delete merged[k];
-	const child: ChildProcess = spawn(process.execPath, ['build'], {
+	const child: ChildProcess = spawn(process.execPath, [...settings.args, 'build'], {
 		env: merged,
 		stdio: ['ignore', 'pipe', 'pipe']
 	});
