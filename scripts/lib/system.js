@@ -38,7 +38,7 @@ export function serverMemoryEnv(env = process.env) {
 
 /**
  * The flags `node build` runs with (`npm start`, `npm run bench`, the server tests), before the
- * entry point: V8 refuses its garbage collector's flags in NODE_OPTIONS.
+ * entry point: V8 refuses its garbage collector's threading flags in NODE_OPTIONS.
  *
  * On a machine of two cores or fewer, `--single-threaded-gc`: V8 then collects on the main thread
  * alone, without helper threads for the young generation's scavenges and the old generation's
@@ -46,12 +46,17 @@ export function serverMemoryEnv(env = process.env) {
  * for a core while the main thread waits for the helper, and a 3–5 ms scavenge or a 10 ms marking
  * step stretched that way is most of the tail: at a steady 50 requests/s on this kind of machine
  * the job list's p99 went from 25–29 ms to 14–18 ms, and the CPU a request costs did not grow
- * (bench/README.md, "The tail is the collector's"). With more cores the helpers have cores of
- * their own, and V8's default stays.
+ * (bench/README.md, "The tail is the collector's"). Collecting on one thread, V8 held 10–15 MB
+ * more at the peak; a young generation of 8 MB semi-spaces instead of 16 gives that back, unless
+ * NODE_OPTIONS sets its own size. With more cores the helpers have cores of their own, and V8's
+ * defaults stay.
  * @param {number} [cores] the cores this process may use (Node's `availableParallelism()`)
+ * @param {Record<string, string | undefined>} [env] the environment the server gets
  */
-export function serverNodeArgs(cores = availableParallelism()) {
-	return cores <= 2 ? ['--single-threaded-gc'] : [];
+export function serverNodeArgs(cores = availableParallelism(), env = process.env) {
+	if (cores > 2) return [];
+	const semiSpaceSet = /--max-semi-space-size\b/.test(env.NODE_OPTIONS ?? '');
+	return ['--single-threaded-gc', ...(semiSpaceSet ? [] : ['--max-semi-space-size=8'])];
 }
 
 /** Prints a step the way both commands do. */
