@@ -52,9 +52,10 @@ async function serverSettings(): Promise<{ env: Record<string, string>; args: st
 		/* @vite-ignore */ pathToFileURL(path.resolve('scripts/lib/system.js')).href
 	)) as {
 		serverMemoryEnv(env: Record<string, string | undefined>): Record<string, string>;
-		serverNodeArgs(): string[];
+		serverNodeArgs(cores?: number, env?: Record<string, string | undefined>): string[];
 	};
-	return { env: system.serverMemoryEnv({}), args: system.serverNodeArgs() };
+	// Both from an empty environment: a NODE_OPTIONS of the test run's own never reaches the servers.
+	return { env: system.serverMemoryEnv({}), args: system.serverNodeArgs(undefined, {}) };
 }
 
 /**
