@@ -1,6 +1,6 @@
 // The project's own PostgreSQL: a cluster in a git-ignored folder of the project, on 127.0.0.1,
 // started and stopped by `npm start` and `npm test`. Debian's own cluster (port 5432) is left alone.
-import { chmodSync, existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { aptInstall, capture, isRoot, root, run, runAsPostgres, step } from './system.js';
 
@@ -159,10 +159,43 @@ export function startCluster(cluster) {
 		run('touch', [cluster.logFile]);
 		run('chown', ['postgres', cluster.logFile]);
 	}
-	pgCtl(bin, cluster, ['-l', cluster.logFile, '-w', '-t', '60', '-o', settings, 'start'], {
-		quiet: true
-	});
-	return { bin, startedHere: true };
+	for (let attempt = 1; ; attempt++) {
+		const logged = existsSync(cluster.logFile) ? statSync(cluster.logFile).size : 0;
+		try {
+			pgCtl(bin, cluster, ['-l', cluster.logFile, '-w', '-t', '60', '-o', settings, 'start'], {
+				quiet: true
+			});
+			return { bin, startedHere: true };
+		} catch (e) {
+			if (!portWasTaken(cluster.logFile, logged)) throw e;
+			if (attempt >= PORT_TRIES) {
+				throw new Error(
+					`PostgreSQL could not listen on 127.0.0.1:${cluster.port}: another program holds that port. Stop it, or give this cluster another port (README, "Environment").`,
+					{ cause: e }
+				);
+			}
+			step(
+				`127.0.0.1:${cluster.port} is taken for now; trying again (${attempt} of ${PORT_TRIES})`
+			);
+			Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 1_000 * attempt);
+		}
+	}
+}
+
+/**
+ * How often to start a cluster whose port is taken. The project's ports (54320 and up) lie in
+ * Linux's range for outgoing connections' own ports (`/proc/sys/net/ipv4/ip_local_port_range`,
+ * 32768–60999 by default): while a cluster is stopped, as when a test restarts it, any outgoing
+ * connection on the machine may be given its port for a moment, and PostgreSQL then cannot bind
+ * it ("Address already in use"). Such a connection is most often a short one (a request, a test's
+ * query), so the start is tried again after 1, 2, 3 and 4 s before it gives up.
+ */
+const PORT_TRIES = 5;
+
+/** Whether what the cluster logged since `from` says its port was in use. */
+function portWasTaken(logFile, from) {
+	if (!existsSync(logFile)) return false;
+	return readFileSync(logFile).subarray(from).includes('Address already in use');
 }
 
 /**
