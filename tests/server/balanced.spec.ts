@@ -226,6 +226,7 @@ beforeAll(async () => {
 		ORIGIN,
 		ADDRESS_HEADER: 'x-forwarded-for',
 		XFF_DEPTH: '1',
+		KEEP_ALIVE_TIMEOUT: '65',
 		BODY_SIZE_LIMIT: '3M',
 		FLUSHLINE_STORAGE: 's3',
 		S3_BUCKET: BUCKET,
